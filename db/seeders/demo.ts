@@ -1,0 +1,120 @@
+import { Faker, en } from '@faker-js/faker';
+import bcrypt from 'bcryptjs';
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { recordAudit, systemCtx } from '../../server/audit.js';
+import { EngineFamily, Route, RouteStage, Stage, Station, User } from '../../server/models/index.js';
+import { DEFECT_CODES, DEMO_USERS, FAMILIES, GAUGES, PLANT, ROUTES, STAGES, STATIONS } from './plant.js';
+
+export { DEMO_USERS, PLANT };
+
+// an arbitrary constant naming "seeding" among this database's advisory locks
+const SEED_LOCK = 72_410_003;
+const FAKER_SEED = 20261201;
+
+async function insertMany(sequelize: Sequelize, transaction: Transaction, table: string, rows: Record<string, unknown>[]) {
+  if (!rows.length) return;
+  await sequelize.getQueryInterface().bulkInsert(table, rows, { transaction });
+}
+
+/** Seeds the demo plant when the database has no users yet. Returns whether it seeded. */
+export async function seedDemoIfEmpty(sequelize: Sequelize, { bcryptCost = 12 } = {}): Promise<boolean> {
+  return sequelize.transaction(async (transaction) => {
+    await sequelize.query('SELECT pg_advisory_xact_lock(:k)', { replacements: { k: SEED_LOCK }, transaction });
+    const [{ n }] = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM users', {
+      type: QueryTypes.SELECT,
+      transaction,
+    });
+    if (n > 0) return false;
+    await seedDemo(sequelize, transaction, bcryptCost);
+    return true;
+  });
+}
+
+async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCost: number) {
+  const ctx = systemCtx('seed');
+  const faker = new Faker({ locale: [en] });
+  faker.seed(FAKER_SEED);
+
+  for (const u of DEMO_USERS) {
+    const user = await User.create(
+      { email: u.email, name: u.name, role: u.role, passwordHash: await bcrypt.hash(u.password, bcryptCost), lastSignInAt: null },
+      { transaction },
+    );
+    await recordAudit(ctx, transaction, {
+      action: 'user.created',
+      entity: 'user',
+      entityId: user.id,
+      after: { email: user.email, name: user.name, role: user.role, active: true },
+    });
+  }
+
+  const families = [];
+  for (const f of FAMILIES) {
+    const family = await EngineFamily.create(f, { transaction });
+    families.push(family);
+    await recordAudit(ctx, transaction, { action: 'family.created', entity: 'engine_family', entityId: family.id, after: f });
+  }
+
+  const stageByCode = new Map<string, Stage>();
+  for (const s of STAGES) stageByCode.set(s.code, await Stage.create(s, { transaction }));
+
+  for (const family of families) {
+    for (const [partKind, steps] of Object.entries(ROUTES)) {
+      const route = await Route.create({ engineFamilyId: family.id, partKind: partKind as keyof typeof ROUTES }, { transaction });
+      await RouteStage.bulkCreate(
+        steps.map((step, i) => ({ routeId: route.id, stageId: stageByCode.get(step.stage)!.id, position: i + 1, required: step.required })),
+        { transaction },
+      );
+    }
+  }
+
+  for (const s of STATIONS) {
+    const station = await Station.create(
+      { code: s.code, name: s.name, stageId: stageByCode.get(s.stage)!.id, location: s.location },
+      { transaction },
+    );
+    await recordAudit(ctx, transaction, {
+      action: 'station.created',
+      entity: 'station',
+      entityId: station.id,
+      after: { code: s.code, name: s.name, stage: s.stage, location: s.location },
+    });
+  }
+
+  const now = new Date();
+  const stamp = { created_at: now, updated_at: now };
+  const customerKinds = ['Fleet Services', 'Truck & Bus', 'Haulage', 'Agri Supply', 'Marine Power', 'Motor Factors'];
+  const customers = Array.from({ length: 12 }, (_, i) => ({
+    code: `C${String(i + 101)}`,
+    name: `${faker.location.city()} ${faker.helpers.arrayElement(customerKinds)}`,
+    email: `orders${i + 1}@customer${i + 1}.example`,
+    ...stamp,
+  }));
+  const supplierKinds = ['Piston Works', 'Bearing Co.', 'Gasket Supply', 'Core Brokers', 'Valvetrain Parts', 'Ring & Liner'];
+  const suppliers = Array.from({ length: 8 }, (_, i) => ({
+    code: `S${String(i + 201)}`,
+    name: `${faker.location.city()} ${supplierKinds[i % supplierKinds.length]}`,
+    email: `sales${i + 1}@supplier${i + 1}.example`,
+    ...stamp,
+  }));
+  await insertMany(sequelize, transaction, 'customers', customers);
+  await insertMany(sequelize, transaction, 'suppliers', suppliers);
+  await insertMany(sequelize, transaction, 'defect_codes', DEFECT_CODES.map((d) => ({ ...d, ...stamp })));
+  const dueOn = new Date(now.getTime() + 180 * 86_400_000).toISOString().slice(0, 10);
+  await insertMany(sequelize, transaction, 'gauges', GAUGES.map((g) => ({ ...g, calibration_due_on: dueOn, ...stamp })));
+
+  await recordAudit(ctx, transaction, {
+    action: 'demo.seeded',
+    entity: 'plant',
+    entityId: 'demo',
+    after: {
+      plant: PLANT.name,
+      stages: STAGES.length,
+      customers: customers.length,
+      suppliers: suppliers.length,
+      defectCodes: DEFECT_CODES.length,
+      gauges: GAUGES.length,
+      fakerSeed: FAKER_SEED,
+    },
+  });
+}

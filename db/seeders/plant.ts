@@ -1,0 +1,133 @@
+import type { PartKind } from '../../shared/schemas/reference.js';
+import type { Role } from '../../shared/roles.js';
+
+/**
+ * The demo plant. Everything here is invented: the plant, its engine families, people, customers
+ * and suppliers. Dimensions are plausible round numbers, not any maker's specification.
+ */
+export const PLANT = { name: 'Larkspur Valley Engine Works', town: 'Larkspur Valley' };
+
+export const DEMO_USERS: { role: Role; email: string; name: string; password: string }[] = [
+  { role: 'admin', email: 'admin@larkspur.example', name: 'Ada Whitcombe', password: 'admin-coretrail-demo' },
+  { role: 'receiving', email: 'receiving@larkspur.example', name: 'Ravi Okonkwo-Lind', password: 'receiving-coretrail-demo' },
+  { role: 'operator', email: 'operator@larkspur.example', name: 'Otto Brannigan', password: 'operator-coretrail-demo' },
+  { role: 'quality', email: 'quality@larkspur.example', name: 'Quinn Ashdown', password: 'quality-coretrail-demo' },
+  { role: 'supervisor', email: 'supervisor@larkspur.example', name: 'Suki Marwood', password: 'supervisor-coretrail-demo' },
+  { role: 'shipping', email: 'shipping@larkspur.example', name: 'Shay Pellworth', password: 'shipping-coretrail-demo' },
+  { role: 'warranty', email: 'warranty@larkspur.example', name: 'Wren Halloway', password: 'warranty-coretrail-demo' },
+];
+
+export const FAMILIES = [
+  {
+    code: 'TARN-6',
+    name: 'Tarn inline six',
+    description: 'Invented 4.2 L inline six for light trucks; one cast-iron head, seven main bearings.',
+    layout: 'inline' as const,
+    cylinders: 6,
+    boreMm: 94,
+    strokeMm: 101,
+    headsPerEngine: 1,
+    warrantyMonths: 24,
+    warrantyKm: 100_000,
+  },
+  {
+    code: 'CORRIE-8',
+    name: 'Corrie V8',
+    description: 'Invented 6.0 L pushrod V8 (4.000 in bore × 3.622 in stroke); two heads, five main bearings.',
+    layout: 'v' as const,
+    cylinders: 8,
+    boreMm: 101.6,
+    strokeMm: 92,
+    headsPerEngine: 2,
+    warrantyMonths: 36,
+    warrantyKm: 160_000,
+  },
+];
+
+const HAZARD = {
+  crack:
+    'Magnetic particle inspection uses strong magnetic fields, UV-A lamps and carrier chemicals. Follow the plant procedure and wear the protection it names.',
+  pressure:
+    'Pressure testing stores energy in compressed air or hot water. Plug and clamp as the plant procedure says; stand clear while the part is pressurised.',
+  machining:
+    'Rotating cutters and hones. Guards closed, no gloves near rotating spindles, follow the machine\'s own operating procedure.',
+  lifting: 'Heavy assembly: use the hoist and lifting points the plant procedure names.',
+  run: 'A running engine: rotating parts, hot exhaust, carbon monoxide and fuel. Follow the test cell procedure and local codes.',
+};
+
+export const STAGES: { code: string; name: string; partKind: PartKind; hazard: string | null; description: string }[] = [
+  { code: 'intake', name: 'Intake', partKind: 'core', hazard: null, description: 'Core received, identified and graded at the dock.' },
+  { code: 'teardown', name: 'Teardown', partKind: 'core', hazard: HAZARD.lifting, description: 'Core split into serialized major parts; wear parts discarded.' },
+  { code: 'block-clean', name: 'Block clean', partKind: 'block', hazard: null, description: 'Thermal or chemical clean and shot blast.' },
+  { code: 'block-crack', name: 'Block crack test', partKind: 'block', hazard: HAZARD.crack, description: 'Magnetic particle inspection of bores, decks and main webs.' },
+  { code: 'block-pressure', name: 'Block pressure test', partKind: 'block', hazard: HAZARD.pressure, description: 'Water jacket and oil galleries held under pressure.' },
+  { code: 'line-hone', name: 'Line hone', partKind: 'block', hazard: HAZARD.machining, description: 'Main bores honed to size and alignment.' },
+  { code: 'bore-hone', name: 'Bore and hone', partKind: 'block', hazard: HAZARD.machining, description: 'Cylinders bored to oversize and honed to finish.' },
+  { code: 'block-deck', name: 'Block deck resurface', partKind: 'block', hazard: HAZARD.machining, description: 'Deck faces milled flat to finish.' },
+  { code: 'block-final-wash', name: 'Block final wash', partKind: 'block', hazard: null, description: 'Galleries brushed and washed before assembly.' },
+  { code: 'crank-clean', name: 'Crankshaft clean', partKind: 'crankshaft', hazard: null, description: 'Cleaned and oil passages flushed.' },
+  { code: 'crank-crack', name: 'Crankshaft crack test', partKind: 'crankshaft', hazard: HAZARD.crack, description: 'Magnetic particle inspection of journals and fillets.' },
+  { code: 'crank-grind', name: 'Crankshaft grind and polish', partKind: 'crankshaft', hazard: HAZARD.machining, description: 'Journals ground to undersize and polished.' },
+  { code: 'crank-balance', name: 'Crankshaft balance', partKind: 'crankshaft', hazard: HAZARD.machining, description: 'Dynamic balance, where the family calls for it.' },
+  { code: 'head-clean', name: 'Head clean', partKind: 'cylinder_head', hazard: null, description: 'Cleaned and shot blast.' },
+  { code: 'head-crack', name: 'Head crack test', partKind: 'cylinder_head', hazard: HAZARD.crack, description: 'Magnetic particle inspection or dye check of the combustion face.' },
+  { code: 'head-pressure', name: 'Head pressure test', partKind: 'cylinder_head', hazard: HAZARD.pressure, description: 'Water jacket held under pressure.' },
+  { code: 'head-deck', name: 'Head deck resurface', partKind: 'cylinder_head', hazard: HAZARD.machining, description: 'Combustion face milled flat to finish.' },
+  { code: 'valve-seats', name: 'Valve seat work', partKind: 'cylinder_head', hazard: HAZARD.machining, description: 'Three-angle seats cut: top, seat and throat.' },
+  { code: 'head-assembly', name: 'Head assembly and vacuum test', partKind: 'cylinder_head', hazard: null, description: 'Valves, springs and seals fitted; each port vacuum tested.' },
+  { code: 'long-block-assembly', name: 'Long block assembly', partKind: 'long_block', hazard: HAZARD.lifting, description: 'Block, crankshaft, heads and new parts assembled; torques and clearances recorded.' },
+  { code: 'run-test', name: 'Run test', partKind: 'long_block', hazard: HAZARD.run, description: 'Engine run on the test stand: oil pressure, compression, leaks, noise.' },
+  { code: 'final-inspection', name: 'Final inspection', partKind: 'long_block', hazard: null, description: 'Visual check, paint, dress and pack.' },
+];
+
+export const ROUTES: Record<Exclude<PartKind, 'camshaft' | 'rod_set'>, { stage: string; required: boolean }[]> = {
+  core: [
+    { stage: 'intake', required: true },
+    { stage: 'teardown', required: true },
+  ],
+  block: ['block-clean', 'block-crack', 'block-pressure', 'line-hone', 'bore-hone', 'block-deck', 'block-final-wash'].map((stage) => ({ stage, required: true })),
+  crankshaft: [
+    { stage: 'crank-clean', required: true },
+    { stage: 'crank-crack', required: true },
+    { stage: 'crank-grind', required: true },
+    { stage: 'crank-balance', required: false },
+  ],
+  cylinder_head: ['head-clean', 'head-crack', 'head-pressure', 'head-deck', 'valve-seats', 'head-assembly'].map((stage) => ({ stage, required: true })),
+  long_block: ['long-block-assembly', 'run-test', 'final-inspection'].map((stage) => ({ stage, required: true })),
+};
+
+export const STATIONS = [
+  { code: 'DOCK-1', name: 'Receiving dock', stage: 'intake', location: 'Bay A' },
+  { code: 'TD-1', name: 'Teardown bench', stage: 'teardown', location: 'Bay A' },
+  { code: 'MPI-1', name: 'Crack test booth', stage: 'block-crack', location: 'Bay B' },
+  { code: 'PT-1', name: 'Pressure test tank', stage: 'block-pressure', location: 'Bay B' },
+  { code: 'LH-1', name: 'Line hone', stage: 'line-hone', location: 'Machine shop' },
+  { code: 'BH-1', name: 'Bore and hone cell', stage: 'bore-hone', location: 'Machine shop' },
+  { code: 'DK-1', name: 'Deck mill', stage: 'block-deck', location: 'Machine shop' },
+  { code: 'CG-1', name: 'Crank grinder', stage: 'crank-grind', location: 'Machine shop' },
+  { code: 'VS-1', name: 'Valve seat machine', stage: 'valve-seats', location: 'Head shop' },
+  { code: 'HA-1', name: 'Head assembly bench', stage: 'head-assembly', location: 'Head shop' },
+  { code: 'AS-1', name: 'Assembly line, position 1', stage: 'long-block-assembly', location: 'Assembly' },
+  { code: 'RT-1', name: 'Run test cell', stage: 'run-test', location: 'Test cell' },
+  { code: 'FI-1', name: 'Final inspection', stage: 'final-inspection', location: 'Dispatch' },
+];
+
+export const DEFECT_CODES = [
+  { code: 'CRK', description: 'Crack found' },
+  { code: 'LEAK', description: 'Leak under pressure or vacuum' },
+  { code: 'OOT', description: 'Dimension out of tolerance' },
+  { code: 'FIN', description: 'Surface finish out of range' },
+  { code: 'DMG', description: 'Handling or visible damage' },
+  { code: 'WRONG', description: 'Wrong part or wrong family' },
+  { code: 'LOT', description: 'Purchased lot suspect' },
+  { code: 'RUN', description: 'Run test out of limits' },
+  { code: 'OTHER', description: 'Other (describe)' },
+];
+
+export const GAUGES = [
+  { code: 'BG-014', description: 'Dial bore gauge 3–6 in, 0.0001 in', kind: 'bore gauge', resolution: 0.0001, unit: 'in' },
+  { code: 'OM-022', description: 'Outside micrometer 2–3 in, 0.0001 in', kind: 'micrometer', resolution: 0.0001, unit: 'in' },
+  { code: 'SE-003', description: 'Straightedge 24 in with feeler set', kind: 'straightedge', resolution: 0.0005, unit: 'in' },
+  { code: 'TW-031', description: 'Click torque wrench 20–150 lbf·ft', kind: 'torque wrench', resolution: 1, unit: 'lbf·ft' },
+  { code: 'PR-007', description: 'Profilometer, Ra', kind: 'profilometer', resolution: 1, unit: 'µin' },
+];

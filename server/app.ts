@@ -1,0 +1,89 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import cookieParser from 'cookie-parser';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import type { Sequelize } from 'sequelize';
+import type { Config } from './config.js';
+import { Api } from './http/api.js';
+import { authenticate } from './middleware/authenticate.js';
+import { errorHandler } from './middleware/errors.js';
+import { requestId } from './middleware/request-id.js';
+import { auditRoutes } from './routes/audit.js';
+import { authRoutes } from './routes/auth.js';
+import { healthRoutes } from './routes/health.js';
+import { peopleRoutes } from './routes/people.js';
+import { referenceRoutes } from './routes/reference.js';
+import { setBcryptCost } from './services/passwords.js';
+
+export type AppState = { draining: boolean };
+
+/** Builds the Express app without listening, so tests drive it in-process with supertest. */
+export function createApp({ sequelize, config }: { sequelize: Sequelize; config: Config }): Express & { routes: Api['routes']; state: AppState } {
+  setBcryptCost(config.BCRYPT_COST);
+  const app = express();
+  const state: AppState = { draining: false };
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.set('query parser', 'simple');
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          styleSrc: ["'self'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'"],
+          connectSrc: ["'self'"],
+          mediaSrc: ["'self'", 'blob:'],
+          objectSrc: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+        },
+      },
+      strictTransportSecurity: false,
+    }),
+  );
+  app.use(requestId);
+  app.use((_req, res, next) => {
+    // while shutting down, requests already running finish; new ones are told to come back
+    if (state.draining) {
+      res.setHeader('Connection', 'close');
+      res.status(503).json({ error: { code: 'shutting_down', message: 'The server is restarting. Try again in a moment.' } });
+      return;
+    }
+    next();
+  });
+
+  const router = express.Router();
+  router.use(express.json({ limit: '256kb', strict: true }));
+  router.use(cookieParser());
+  router.use(authenticate(config.JWT_SECRET));
+  const api = new Api(router);
+  healthRoutes(api, sequelize);
+  authRoutes(api, sequelize, config);
+  peopleRoutes(api, sequelize);
+  referenceRoutes(api, sequelize);
+  auditRoutes(api, sequelize);
+  router.use((req, res) => {
+    res.status(404).json({ error: { code: 'not_found', message: `No API route ${req.method} ${req.baseUrl}${req.path}.`, requestId: req.id } });
+  });
+  router.use(errorHandler);
+  app.use('/api', router);
+
+  const clientDir = config.CLIENT_DIR;
+  if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h', immutable: false }));
+    const indexHtml = path.join(clientDir, 'index.html');
+    app.get(/^\/(?!api\/).*/, (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(indexHtml);
+    });
+  }
+  app.use(errorHandler);
+  return Object.assign(app, { routes: api.routes, state });
+}

@@ -1,0 +1,23 @@
+/** Errors are values with a stable code; one middleware turns them into replies. */
+export class AppError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly fields?: Record<string, string>,
+    readonly extra?: Record<string, unknown>,
+  ) {
+    super(message);
+  }
+}
+
+export const invalid = (message: string, fields?: Record<string, string>) =>
+  new AppError(400, 'invalid', message, fields);
+export const unauthenticated = (message = 'Sign in to continue.') =>
+  new AppError(401, 'unauthenticated', message);
+export const forbidden = (message = 'Your role does not allow this.') => new AppError(403, 'forbidden', message);
+export const notFound = (what = 'That record') => new AppError(404, 'not_found', `${what} was not found.`);
+export const conflict = (message: string, extra?: Record<string, unknown>) =>
+  new AppError(409, 'conflict', message, undefined, extra);
+export const tooMany = (message: string) => new AppError(429, 'too_many', message);
+export const unavailable = (message: string) => new AppError(503, 'unavailable', message);

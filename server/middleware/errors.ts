@@ -1,0 +1,74 @@
+import type { ErrorRequestHandler } from 'express';
+import {
+  ConnectionError,
+  ForeignKeyConstraintError,
+  UniqueConstraintError,
+  ValidationError as SequelizeValidationError,
+} from 'sequelize';
+import { ZodError } from 'zod';
+import { AppError } from '../errors.js';
+
+type Reply = { status: number; code: string; message: string; fields?: Record<string, string>; extra?: object };
+
+function fromZod(err: ZodError): Reply {
+  const fields: Record<string, string> = {};
+  for (const issue of err.issues) {
+    let key = issue.path.join('.') || '(body)';
+    let message = issue.message;
+    if (issue.code === 'unrecognized_keys') {
+      for (const k of issue.keys) fields[[...issue.path, k].join('.')] = 'This field is not allowed.';
+      continue;
+    }
+    if (!key) key = '(body)';
+    fields[key] ??= message;
+    message = '';
+  }
+  return { status: 400, code: 'invalid', message: 'Some fields need attention.', fields };
+}
+
+function classify(err: unknown): Reply {
+  if (err instanceof AppError) {
+    return { status: err.status, code: err.code, message: err.message, fields: err.fields, extra: err.extra };
+  }
+  if (err instanceof ZodError) return fromZod(err);
+  const e = err as { type?: string; status?: number; expose?: boolean };
+  if (e?.type === 'entity.parse.failed') {
+    return { status: 400, code: 'malformed_json', message: 'The request body is not valid JSON.' };
+  }
+  if (e?.type === 'entity.too.large') {
+    return { status: 413, code: 'too_large', message: 'The request body is too large.' };
+  }
+  if (e?.type === 'encoding.unsupported' || e?.type === 'charset.unsupported') {
+    return { status: 415, code: 'unsupported', message: 'Send the body as UTF-8 JSON.' };
+  }
+  if (err instanceof UniqueConstraintError) {
+    const fields: Record<string, string> = {};
+    for (const item of err.errors) if (item.path) fields[item.path] = 'This value is already in use.';
+    return { status: 409, code: 'duplicate', message: 'A record with that value already exists.', fields };
+  }
+  if (err instanceof ForeignKeyConstraintError) {
+    return { status: 409, code: 'reference', message: 'That record refers to, or is referred to by, another record.' };
+  }
+  if (err instanceof SequelizeValidationError) {
+    return { status: 400, code: 'invalid', message: err.message };
+  }
+  if (err instanceof ConnectionError) {
+    return { status: 503, code: 'unavailable', message: 'The database is not reachable right now. Try again shortly.' };
+  }
+  if (e?.expose && typeof e.status === 'number' && e.status < 500) {
+    return { status: e.status, code: 'bad_request', message: String((err as Error).message) };
+  }
+  return { status: 500, code: 'internal', message: 'Something went wrong on our side. The request id identifies it in the log.' };
+}
+
+/** One place maps every error to `{ error: { code, message, fields?, requestId } }`. */
+export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
+  if (res.headersSent) return next(err);
+  const reply = classify(err);
+  if (reply.status >= 500) {
+    console.error(`[${req.id}] ${req.method} ${req.originalUrl}:`, err);
+  }
+  res.status(reply.status).json({
+    error: { code: reply.code, message: reply.message, fields: reply.fields, requestId: req.id, ...reply.extra },
+  });
+};

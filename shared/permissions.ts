@@ -1,0 +1,57 @@
+import { ROLES, type Role } from './roles.js';
+
+/**
+ * The one permission matrix. The server checks it on every route; the client uses it to decide
+ * which areas to show. Each permission lists the roles that hold it.
+ */
+const everyone = ROLES;
+
+export const PERMISSIONS = {
+  // reference data every signed-in person reads (families, stages, stations)
+  'reference.read': everyone,
+  'account.self': everyone,
+
+  'people.manage': ['admin'],
+  'stations.manage': ['admin'],
+  'families.manage': ['admin'],
+  'audit.read': ['admin', 'quality'],
+  'audit.verify': ['admin'],
+
+  'intake.read': ['receiving', 'supervisor', 'quality', 'admin'],
+  'intake.record': ['receiving'],
+  'teardown.record': ['receiving', 'operator', 'supervisor'],
+  'labels.print': ['receiving', 'operator', 'supervisor', 'shipping'],
+
+  'items.read': ['receiving', 'operator', 'quality', 'supervisor', 'shipping', 'warranty', 'admin'],
+  'results.record': ['operator', 'supervisor'],
+  'results.correct': ['supervisor', 'quality'],
+  'stage.reentry': ['supervisor'],
+
+  'spec.read': ['quality', 'supervisor', 'operator', 'admin'],
+  'spec.edit': ['quality'],
+  'spec.approve': ['quality'],
+
+  'ncr.read': ['quality', 'supervisor', 'operator', 'shipping', 'warranty', 'admin'],
+  'ncr.raise': ['receiving', 'operator', 'quality', 'supervisor', 'shipping', 'warranty'],
+  'ncr.disposition': ['quality'],
+
+  'assembly.record': ['operator', 'supervisor'],
+  'release.check': ['shipping', 'quality', 'supervisor'],
+  'release.ship': ['shipping'],
+  'trail.read': ['warranty', 'quality', 'supervisor', 'shipping', 'admin'],
+  'warranty.record': ['warranty'],
+  'mail.read': ['admin'],
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Permission = keyof typeof PERMISSIONS;
+
+export const PERMISSION_NAMES = Object.keys(PERMISSIONS) as Permission[];
+
+export function can(role: Role | null | undefined, permission: Permission): boolean {
+  if (!role) return false;
+  return (PERMISSIONS[permission] as readonly Role[]).includes(role);
+}
+
+export function permissionsOf(role: Role): Permission[] {
+  return PERMISSION_NAMES.filter((p) => can(role, p));
+}
