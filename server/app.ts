@@ -19,7 +19,7 @@ import { setBcryptCost } from './services/passwords.js';
 export type AppState = { draining: boolean };
 
 /** Builds the Express app without listening, so tests drive it in-process with supertest. */
-export function createApp({ sequelize, config }: { sequelize: Sequelize; config: Config }): Express & { routes: Api['routes']; state: AppState } {
+export function createApp({ sequelize, config }: { sequelize: Sequelize; config: Config }): Express & { apiRoutes: Api['routes']; state: AppState } {
   setBcryptCost(config.BCRYPT_COST);
   const app = express();
   const state: AppState = { draining: false };
@@ -85,5 +85,5 @@ export function createApp({ sequelize, config }: { sequelize: Sequelize; config:
     });
   }
   app.use(errorHandler);
-  return Object.assign(app, { routes: api.routes, state });
+  return Object.assign(app, { apiRoutes: api.routes, state });
 }

@@ -1,10 +1,12 @@
-import { Sequelize } from 'sequelize';
+import { DataTypes, Sequelize } from 'sequelize';
 import pg from 'pg';
 import { initModels } from './models/index.js';
 
-// numeric columns come back as strings by default; readings and limits are plain numbers here
+// Readings and limits are numeric(14,6): well inside a double's 15–17 significant digits, so they
+// are plain numbers here. Sequelize installs its own NUMERIC parser (text) over pg's, hence both.
 pg.types.setTypeParser(pg.types.builtins.NUMERIC, (v: string) => Number(v));
 pg.types.setTypeParser(pg.types.builtins.INT8, (v: string) => Number(v));
+(DataTypes as unknown as { postgres: { DECIMAL: { parse: (v: string) => number } } }).postgres.DECIMAL.parse = Number;
 
 export function createSequelize(url: string, { poolMax = 10 }: { poolMax?: number } = {}): Sequelize {
   const sequelize = new Sequelize(url, {

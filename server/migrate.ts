@@ -1,9 +1,6 @@
-import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { Umzug, SequelizeStorage } from 'umzug';
 import type { Sequelize } from 'sequelize';
-
-const migrationsDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../db/migrations');
+import { MIGRATIONS } from '../db/migrations/index.js';
 
 // an arbitrary constant that names "migrations" among this database's advisory locks
 const MIGRATION_LOCK = 72_410_001;
@@ -12,7 +9,7 @@ type RawClient = { query: (sql: string, params?: unknown[]) => Promise<unknown> 
 
 export function migrator(sequelize: Sequelize) {
   return new Umzug({
-    migrations: { glob: ['*.ts', { cwd: migrationsDir }] },
+    migrations: MIGRATIONS.map((m) => ({ name: m.name, up: m.up, down: m.down })),
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),
     logger: undefined,

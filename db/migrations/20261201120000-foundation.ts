@@ -53,7 +53,7 @@ CREATE TABLE stages (
   id serial PRIMARY KEY,
   code varchar(40) NOT NULL UNIQUE,
   name varchar(80) NOT NULL,
-  part_kind varchar(20) NOT NULL,
+  part_kind varchar(20) NOT NULL CHECK (part_kind IN ('core','block','crankshaft','cylinder_head','camshaft','rod_set','long_block')),
   hazard varchar(300),
   description varchar(500) NOT NULL DEFAULT '',
   created_at timestamptz NOT NULL DEFAULT now(),
@@ -63,7 +63,7 @@ CREATE TABLE stages (
 CREATE TABLE routes (
   id serial PRIMARY KEY,
   engine_family_id integer NOT NULL REFERENCES engine_families(id),
-  part_kind varchar(20) NOT NULL,
+  part_kind varchar(20) NOT NULL CHECK (part_kind IN ('core','block','crankshaft','cylinder_head','camshaft','rod_set','long_block')),
   version integer NOT NULL DEFAULT 1,
   active boolean NOT NULL DEFAULT true,
   created_at timestamptz NOT NULL DEFAULT now(),
@@ -127,14 +127,15 @@ CREATE TABLE tolerance_rules (
   source_note varchar(300) NOT NULL DEFAULT '',
   effective_from timestamptz,
   superseded_at timestamptz,
-  created_by integer NOT NULL REFERENCES users(id),
-  approved_by integer REFERENCES users(id),
+  created_by_id integer NOT NULL REFERENCES users(id),
+  approved_by_id integer REFERENCES users(id),
   approved_at timestamptz,
   approval_reason varchar(500),
   created_at timestamptz NOT NULL DEFAULT now(),
   updated_at timestamptz NOT NULL DEFAULT now(),
   UNIQUE (engine_family_id, characteristic_id, version)
 );
+CREATE INDEX tolerance_rules_characteristic_idx ON tolerance_rules (characteristic_id);
 CREATE INDEX tolerance_rules_lookup_idx ON tolerance_rules (engine_family_id, characteristic_id, status, effective_from);
 
 CREATE TABLE customers (
@@ -165,7 +166,7 @@ CREATE TABLE items (
   current_stage_id integer REFERENCES stages(id),
   position_label varchar(20),
   attributes jsonb NOT NULL DEFAULT '{}',
-  created_by integer REFERENCES users(id),
+  created_by_id integer REFERENCES users(id),
   created_at timestamptz NOT NULL DEFAULT now(),
   updated_at timestamptz NOT NULL DEFAULT now()
 );
@@ -182,7 +183,7 @@ CREATE TABLE core_receipts (
   supplier_id integer REFERENCES suppliers(id),
   source_reference varchar(60),
   received_on date NOT NULL,
-  received_by integer NOT NULL REFERENCES users(id),
+  received_by_id integer NOT NULL REFERENCES users(id),
   condition jsonb NOT NULL DEFAULT '{}',
   grade varchar(20),
   accepted boolean NOT NULL,
@@ -191,7 +192,9 @@ CREATE TABLE core_receipts (
   credit_reason varchar(500),
   notes text NOT NULL DEFAULT '',
   created_at timestamptz NOT NULL DEFAULT now(),
-  updated_at timestamptz NOT NULL DEFAULT now()
+  updated_at timestamptz NOT NULL DEFAULT now(),
+  CHECK ((source = 'customer_return' AND customer_id IS NOT NULL) OR (source = 'purchased' AND supplier_id IS NOT NULL)),
+  CHECK (accepted OR reject_reason IS NOT NULL)
 );
 CREATE INDEX core_receipts_casting_idx ON core_receipts (casting_number);
 CREATE INDEX core_receipts_received_on_idx ON core_receipts (received_on);
@@ -201,7 +204,7 @@ CREATE TABLE item_links (
   parent_item_id integer NOT NULL REFERENCES items(id),
   child_item_id integer NOT NULL REFERENCES items(id),
   link_type varchar(20) NOT NULL CHECK (link_type IN ('harvested_from','installed_in')),
-  created_by integer REFERENCES users(id),
+  created_by_id integer REFERENCES users(id),
   removed_at timestamptz,
   removed_reason varchar(300),
   created_at timestamptz NOT NULL DEFAULT now(),
@@ -233,7 +236,7 @@ CREATE TABLE unit_lots (
   unit_item_id integer NOT NULL REFERENCES items(id),
   part_lot_id integer NOT NULL REFERENCES part_lots(id),
   quantity integer NOT NULL DEFAULT 1 CHECK (quantity > 0),
-  created_by integer REFERENCES users(id),
+  created_by_id integer REFERENCES users(id),
   created_at timestamptz NOT NULL DEFAULT now()
 );
 CREATE INDEX unit_lots_unit_idx ON unit_lots (unit_item_id);
@@ -259,7 +262,7 @@ CREATE TABLE gauge_calibrations (
   due_on date NOT NULL,
   result varchar(20) NOT NULL CHECK (result IN ('in_tolerance','out_of_tolerance','adjusted')),
   certificate varchar(60),
-  recorded_by integer REFERENCES users(id),
+  recorded_by_id integer REFERENCES users(id),
   created_at timestamptz NOT NULL DEFAULT now()
 );
 CREATE INDEX gauge_calibrations_gauge_idx ON gauge_calibrations (gauge_id, calibrated_on);
@@ -276,14 +279,15 @@ CREATE TABLE stage_results (
   verdict varchar(10) NOT NULL CHECK (verdict IN ('pass','fail')),
   idempotency_key uuid NOT NULL UNIQUE,
   supersedes_id integer REFERENCES stage_results(id),
-  superseded_by_id integer REFERENCES stage_results(id),
   correction_reason varchar(500),
   reentry_reason varchar(500),
-  reentry_by integer REFERENCES users(id),
+  reentry_by_id integer REFERENCES users(id),
   notes text NOT NULL DEFAULT '',
   created_at timestamptz NOT NULL DEFAULT now()
 );
 CREATE INDEX stage_results_item_stage_idx ON stage_results (item_id, stage_id, finished_at);
+-- a result is corrected at most once: the correction supersedes it, and is itself superseded next
+CREATE UNIQUE INDEX stage_results_supersedes_idx ON stage_results (supersedes_id) WHERE supersedes_id IS NOT NULL;
 CREATE INDEX stage_results_gauge_idx ON stage_results (gauge_id) WHERE gauge_id IS NOT NULL;
 
 CREATE TABLE readings (
@@ -303,6 +307,8 @@ CREATE TABLE readings (
   UNIQUE (stage_result_id, characteristic_id, position)
 );
 CREATE INDEX readings_characteristic_idx ON readings (characteristic_id, created_at);
+-- containment: everything measured with a gauge found out of calibration
+CREATE INDEX readings_gauge_idx ON readings (gauge_id) WHERE gauge_id IS NOT NULL;
 
 CREATE TABLE defect_codes (
   id serial PRIMARY KEY,
@@ -329,7 +335,7 @@ CREATE TABLE nonconformances (
   disposition varchar(20) CHECK (disposition IN ('use_as_is','rework','repair','scrap','return_to_supplier')),
   disposition_reason text,
   rework_stage_id integer REFERENCES stages(id),
-  raised_by integer NOT NULL REFERENCES users(id),
+  raised_by_id integer NOT NULL REFERENCES users(id),
   assignee_id integer REFERENCES users(id),
   closed_at timestamptz,
   created_at timestamptz NOT NULL DEFAULT now(),
@@ -337,6 +343,7 @@ CREATE TABLE nonconformances (
   CHECK (item_id IS NOT NULL OR part_lot_id IS NOT NULL)
 );
 CREATE INDEX nonconformances_item_state_idx ON nonconformances (item_id, state);
+CREATE INDEX nonconformances_part_lot_idx ON nonconformances (part_lot_id) WHERE part_lot_id IS NOT NULL;
 CREATE INDEX nonconformances_state_created_idx ON nonconformances (state, created_at);
 
 CREATE TABLE nonconformance_transitions (
@@ -371,7 +378,7 @@ CREATE TABLE attachments (
   size_bytes integer NOT NULL,
   sha256 char(64) NOT NULL,
   storage_key varchar(200) NOT NULL UNIQUE,
-  uploaded_by integer NOT NULL REFERENCES users(id),
+  uploaded_by_id integer NOT NULL REFERENCES users(id),
   created_at timestamptz NOT NULL DEFAULT now()
 );
 CREATE INDEX attachments_entity_idx ON attachments (entity, entity_id);
@@ -379,7 +386,7 @@ CREATE INDEX attachments_entity_idx ON attachments (entity, entity_id);
 CREATE TABLE label_prints (
   id serial PRIMARY KEY,
   item_id integer NOT NULL REFERENCES items(id),
-  printed_by integer NOT NULL REFERENCES users(id),
+  printed_by_id integer NOT NULL REFERENCES users(id),
   stock varchar(20) NOT NULL,
   reprint boolean NOT NULL DEFAULT false,
   created_at timestamptz NOT NULL DEFAULT now()
@@ -388,21 +395,24 @@ CREATE INDEX label_prints_item_idx ON label_prints (item_id);
 
 CREATE TABLE shipments (
   id serial PRIMARY KEY,
-  unit_item_id integer NOT NULL UNIQUE REFERENCES items(id),
+  unit_item_id integer NOT NULL REFERENCES items(id),
   customer_id integer REFERENCES customers(id),
   reference varchar(60) NOT NULL,
   carrier varchar(80),
   shipped_at timestamptz NOT NULL,
-  released_by integer NOT NULL REFERENCES users(id),
+  released_by_id integer NOT NULL REFERENCES users(id),
   warranty_ends_on date,
   warranty_km integer,
   created_at timestamptz NOT NULL DEFAULT now()
 );
 
+-- a unit may ship again after a warranty repair, so shipments are many per unit
+CREATE INDEX shipments_unit_idx ON shipments (unit_item_id);
+
 CREATE TABLE warranty_claims (
   id serial PRIMARY KEY,
   unit_item_id integer NOT NULL REFERENCES items(id),
-  opened_by integer NOT NULL REFERENCES users(id),
+  opened_by_id integer NOT NULL REFERENCES users(id),
   complaint text NOT NULL,
   distance_km integer,
   status varchar(20) NOT NULL,

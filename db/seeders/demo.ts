@@ -20,11 +20,11 @@ async function insertMany(sequelize: Sequelize, transaction: Transaction, table:
 export async function seedDemoIfEmpty(sequelize: Sequelize, { bcryptCost = 12 } = {}): Promise<boolean> {
   return sequelize.transaction(async (transaction) => {
     await sequelize.query('SELECT pg_advisory_xact_lock(:k)', { replacements: { k: SEED_LOCK }, transaction });
-    const [{ n }] = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM users', {
+    const [row] = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM users', {
       type: QueryTypes.SELECT,
       transaction,
     });
-    if (n > 0) return false;
+    if ((row?.n ?? 0) > 0) return false;
     await seedDemo(sequelize, transaction, bcryptCost);
     return true;
   });

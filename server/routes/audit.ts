@@ -14,9 +14,12 @@ export function auditRoutes(api: Api, sequelize: Sequelize) {
     handler: async ({ query }) => {
       const where: string[] = [];
       const replacements: Record<string, unknown> = { limit: query.pageSize, offset: (query.page - 1) * query.pageSize };
-      if (query.entity) (where.push('e.entity = :entity'), (replacements.entity = query.entity));
-      if (query.entityId) (where.push('e.entity_id = :entityId'), (replacements.entityId = query.entityId));
-      if (query.actorId) (where.push('e.actor_id = :actorId'), (replacements.actorId = query.actorId));
+      const filters = { entity: 'e.entity', entityId: 'e.entity_id', actorId: 'e.actor_id' } as const;
+      for (const [key, column] of Object.entries(filters) as [keyof typeof filters, string][]) {
+        if (query[key] === undefined) continue;
+        where.push(`${column} = :${key}`);
+        replacements[key] = query[key];
+      }
       const filter = where.length ? `WHERE ${where.join(' AND ')}` : '';
       const rows = await sequelize.query<AuditJson & { total: number }>(
         `SELECT e.id, e.occurred_at AS "occurredAt", e.actor_id AS "actorId", u.name AS "actorName",

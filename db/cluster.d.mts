@@ -1,0 +1,18 @@
+// Types for cluster.mjs, which stays plain JavaScript because it runs before node_modules exists.
+export class ClusterError extends Error {}
+export type Cluster = {
+  dir: string;
+  pgdata: string;
+  port: number;
+  bin: string;
+  url: (database: string) => string;
+  stop: () => void;
+  startedHere: boolean;
+};
+export function findPgBin(): string | null;
+export function ensurePostgres(): string;
+export function persistentClusterDir(projectDir: string): string;
+export function throwawayClusterDir(): string;
+export function freePort(): Promise<number>;
+export function startCluster(opts: { dir: string; port: number; bin?: string }): Promise<Cluster>;
+export function ensureDatabase(cluster: Cluster, database: string): Promise<void>;

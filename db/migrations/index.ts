@@ -1,0 +1,11 @@
+import type { MigrationFn } from 'umzug';
+import type { QueryInterface } from 'sequelize';
+import * as m20261201120000 from './20261201120000-foundation.js';
+
+type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
+
+/**
+ * Every migration, oldest first. Listed here (rather than globbed at run time) so the same list
+ * loads under tsx, Vitest and a bundler alike; a test checks that no file in this folder is missing.
+ */
+export const MIGRATIONS: Migration[] = [{ name: '20261201120000-foundation', ...m20261201120000 }];

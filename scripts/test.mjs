@@ -1,0 +1,94 @@
+// `npm test`: the same bootstrap as `npm start`, with a throwaway cluster, then lint, typecheck,
+// client build, unit, API and browser suites. The last line is `tests: N passed, N failed`.
+import { spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { ensureNodeModules, projectDir } from './bootstrap.mjs';
+
+ensureNodeModules();
+const { ClusterError, ensureDatabase, ensurePostgres, freePort, startCluster, throwawayClusterDir } = await import(
+  '../db/cluster.mjs'
+);
+
+const isRoot = process.getuid?.() === 0;
+const results = []; // { name, passed, failed }
+const step = (name, passed, failed) => {
+  results.push({ name, passed, failed });
+  process.stderr.write(`[test] ${name}: ${passed} passed, ${failed} failed\n`);
+};
+
+function ensureChromium() {
+  const exe = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+  if (fs.existsSync(exe)) return exe;
+  if (!isRoot) {
+    process.stderr.write(`[test] Chromium not found at ${exe}; install Debian's "chromium" package for the browser suite.\n`);
+    return exe;
+  }
+  process.stderr.write('[test] installing Debian package "chromium" for the browser suite…\n');
+  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
+  spawnSync('apt-get', ['update', '-qq'], { stdio: 'inherit', env });
+  spawnSync('apt-get', ['install', '-y', '-qq', '--no-install-recommends', 'chromium', 'fonts-dejavu-core'], {
+    stdio: 'inherit',
+    env,
+  });
+  return exe;
+}
+
+function runCheck(name, cmd, args, env = process.env) {
+  const r = spawnSync(cmd, args, { cwd: projectDir, stdio: 'inherit', env });
+  const ok = r.status === 0;
+  step(name, ok ? 1 : 0, ok ? 0 : 1);
+  return ok;
+}
+
+let cluster;
+let exitCode = 0;
+const dir = throwawayClusterDir();
+try {
+  const bin = ensurePostgres();
+  const chromium = ensureChromium();
+  process.env.CORETRAIL_PG_FSYNC = 'off'; // a throwaway cluster need not survive a power cut
+  cluster = await startCluster({ dir, port: await freePort(), bin });
+  await ensureDatabase(cluster, 'coretrail_test');
+
+  runCheck('lint', 'npx', ['eslint', '.', '--max-warnings', '0']);
+  runCheck('typecheck', 'npx', ['tsc', '-p', 'tsconfig.json', '--noEmit']);
+  runCheck('client build', 'npx', ['vite', 'build', '--logLevel', 'warn']);
+
+  const report = path.join(os.tmpdir(), `coretrail-vitest-${process.pid}.json`);
+  const env = {
+    ...process.env,
+    DATABASE_URL: cluster.url('coretrail_test'),
+    ADMIN_DATABASE_URL: cluster.url('postgres'),
+    CHROMIUM_PATH: chromium,
+    CLIENT_DIR: path.join(projectDir, 'dist'),
+  };
+  const r = spawnSync(
+    'npx',
+    ['vitest', 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...process.argv.slice(2)],
+    { cwd: projectDir, stdio: 'inherit', env },
+  );
+  if (fs.existsSync(report)) {
+    const json = JSON.parse(fs.readFileSync(report, 'utf8'));
+    // a file that fails to load counts as a failure even though none of its tests ran
+    const brokenFiles = (json.testResults ?? []).filter((f) => f.status === 'failed' && !f.assertionResults?.length).length;
+    step('vitest', json.numPassedTests, json.numFailedTests + brokenFiles);
+    fs.rmSync(report, { force: true });
+  } else {
+    step('vitest', 0, 1);
+  }
+  if (r.status !== 0 && results.every((x) => x.failed === 0)) step('vitest exit status', 0, 1);
+} catch (err) {
+  process.stderr.write(`\n${err instanceof ClusterError ? err.message : (err?.stack ?? err)}\n`);
+  step('setup', 0, 1);
+} finally {
+  cluster?.stop();
+  fs.rmSync(dir, { recursive: true, force: true });
+}
+
+const passed = results.reduce((n, x) => n + x.passed, 0);
+const failed = results.reduce((n, x) => n + x.failed, 0);
+if (failed > 0) exitCode = 1;
+process.stdout.write(`tests: ${passed} passed, ${failed} failed\n`);
+process.exit(exitCode);

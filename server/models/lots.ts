@@ -1,0 +1,65 @@
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
+
+/** A supplier's batch of new parts (pistons, bearings …), the unit of a supplier recall. */
+export class PartLot extends Model<InferAttributes<PartLot>, InferCreationAttributes<PartLot>> {
+  declare id: CreationOptional<number>;
+  declare supplierId: number;
+  declare partKind: string;
+  declare partNumber: string;
+  declare lotCode: string;
+  declare description: CreationOptional<string>;
+  declare attributes: CreationOptional<Record<string, unknown>>;
+  declare status: CreationOptional<string>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize) {
+    PartLot.init(
+      {
+        id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+        supplierId: { type: DataTypes.INTEGER, allowNull: false },
+        partKind: { type: DataTypes.STRING(40), allowNull: false },
+        partNumber: { type: DataTypes.STRING(60), allowNull: false },
+        lotCode: { type: DataTypes.STRING(60), allowNull: false },
+        description: { type: DataTypes.STRING(200), allowNull: false, defaultValue: '' },
+        attributes: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
+        status: { type: DataTypes.STRING(20), allowNull: false, defaultValue: 'usable' },
+        createdAt: DataTypes.DATE,
+        updatedAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: 'part_lots', underscored: true },
+    );
+  }
+}
+
+/** Parts from one lot fitted to one built unit; answers "which units got lot X?". */
+export class UnitLot extends Model<InferAttributes<UnitLot>, InferCreationAttributes<UnitLot>> {
+  declare id: CreationOptional<number>;
+  declare unitItemId: number;
+  declare partLotId: number;
+  declare quantity: CreationOptional<number>;
+  // `…ById` so the association can be called `createdBy` without colliding with the column
+  declare createdById: number | null;
+  declare createdAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize) {
+    UnitLot.init(
+      {
+        id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+        unitItemId: { type: DataTypes.INTEGER, allowNull: false },
+        partLotId: { type: DataTypes.INTEGER, allowNull: false },
+        quantity: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+        createdById: { type: DataTypes.INTEGER, allowNull: true },
+        createdAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: 'unit_lots', underscored: true, updatedAt: false },
+    );
+  }
+}

@@ -1,0 +1,101 @@
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
+
+export type Verdict = 'pass' | 'fail';
+
+/**
+ * One pass of an item through a stage. A result is never rewritten: a correction is a new row that
+ * `supersedes` it (a unique index lets each result be superseded once), and the old row stays as it was.
+ */
+export class StageResult extends Model<InferAttributes<StageResult>, InferCreationAttributes<StageResult>> {
+  declare id: CreationOptional<number>;
+  declare itemId: number;
+  declare stageId: number;
+  declare stationId: number | null;
+  declare operatorId: number;
+  declare gaugeId: number | null;
+  declare startedAt: Date | null;
+  declare finishedAt: Date;
+  declare verdict: Verdict;
+  /** Sent by the tablet so a retried submission cannot record the same result twice. */
+  declare idempotencyKey: string;
+  declare supersedesId: number | null;
+  declare correctionReason: string | null;
+  declare reentryReason: string | null;
+  // `…ById` so the association can be called `reentryBy` without colliding with the column
+  declare reentryById: number | null;
+  declare notes: CreationOptional<string>;
+  declare createdAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize) {
+    StageResult.init(
+      {
+        id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+        itemId: { type: DataTypes.INTEGER, allowNull: false },
+        stageId: { type: DataTypes.INTEGER, allowNull: false },
+        stationId: { type: DataTypes.INTEGER, allowNull: true },
+        operatorId: { type: DataTypes.INTEGER, allowNull: false },
+        gaugeId: { type: DataTypes.INTEGER, allowNull: true },
+        startedAt: { type: DataTypes.DATE, allowNull: true },
+        finishedAt: { type: DataTypes.DATE, allowNull: false },
+        verdict: { type: DataTypes.STRING(10), allowNull: false },
+        idempotencyKey: { type: DataTypes.UUID, allowNull: false, unique: true },
+        supersedesId: { type: DataTypes.INTEGER, allowNull: true },
+        correctionReason: { type: DataTypes.STRING(500), allowNull: true },
+        reentryReason: { type: DataTypes.STRING(500), allowNull: true },
+        reentryById: { type: DataTypes.INTEGER, allowNull: true },
+        notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+        createdAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: 'stage_results', underscored: true, updatedAt: false },
+    );
+  }
+}
+
+/**
+ * One value (or pass/fail judgement) of one characteristic at one position. The rule id and version
+ * are copied in so the verdict can be re-explained after the rule is superseded.
+ */
+export class Reading extends Model<InferAttributes<Reading>, InferCreationAttributes<Reading>> {
+  declare id: CreationOptional<number>;
+  declare stageResultId: number;
+  declare characteristicId: number;
+  declare position: CreationOptional<string>;
+  /** Null for attribute characteristics, which carry `passed` instead. */
+  declare value: number | null;
+  declare passed: boolean | null;
+  declare locationNote: string | null;
+  declare unit: string | null;
+  declare verdict: Verdict;
+  declare toleranceRuleId: number | null;
+  declare ruleVersion: number | null;
+  declare gaugeId: number | null;
+  declare createdAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize) {
+    Reading.init(
+      {
+        id: { type: DataTypes.BIGINT, autoIncrement: true, primaryKey: true },
+        stageResultId: { type: DataTypes.INTEGER, allowNull: false },
+        characteristicId: { type: DataTypes.INTEGER, allowNull: false },
+        position: { type: DataTypes.STRING(40), allowNull: false, defaultValue: '' },
+        value: { type: DataTypes.DECIMAL(14, 6), allowNull: true },
+        passed: { type: DataTypes.BOOLEAN, allowNull: true },
+        locationNote: { type: DataTypes.STRING(200), allowNull: true },
+        unit: { type: DataTypes.STRING(20), allowNull: true },
+        verdict: { type: DataTypes.STRING(10), allowNull: false },
+        toleranceRuleId: { type: DataTypes.INTEGER, allowNull: true },
+        ruleVersion: { type: DataTypes.INTEGER, allowNull: true },
+        gaugeId: { type: DataTypes.INTEGER, allowNull: true },
+        createdAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: 'readings', underscored: true, updatedAt: false },
+    );
+  }
+}

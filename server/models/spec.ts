@@ -1,0 +1,117 @@
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
+
+export type CharacteristicKind = 'variable' | 'attribute' | 'derived';
+export type ToleranceStatus = 'draft' | 'approved' | 'superseded' | 'withdrawn';
+export type LimitType = 'nominal' | 'range' | 'min' | 'max' | 'attribute';
+
+/**
+ * What a derived characteristic is computed from. Left open here because the formulas live in
+ * shared/ (pure domain code); the model only stores them.
+ */
+export type Derivation = Record<string, unknown>;
+
+/** One thing measured or judged at a stage (main bore diameter, crack found …). */
+export class Characteristic extends Model<InferAttributes<Characteristic>, InferCreationAttributes<Characteristic>> {
+  declare id: CreationOptional<number>;
+  declare stageId: number;
+  declare code: string;
+  declare name: string;
+  declare kind: CharacteristicKind;
+  declare unit: string | null;
+  declare resolution: number | null;
+  /** Where on the part it is taken (cylinder 1, main 3 …); empty when it is measured once. */
+  declare positions: CreationOptional<string[]>;
+  declare derivation: Derivation | null;
+  declare critical: CreationOptional<boolean>;
+  declare sortOrder: CreationOptional<number>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize) {
+    Characteristic.init(
+      {
+        id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+        stageId: { type: DataTypes.INTEGER, allowNull: false },
+        code: { type: DataTypes.STRING(40), allowNull: false },
+        name: { type: DataTypes.STRING(120), allowNull: false },
+        kind: { type: DataTypes.STRING(10), allowNull: false },
+        unit: { type: DataTypes.STRING(20), allowNull: true },
+        resolution: { type: DataTypes.DECIMAL(12, 6), allowNull: true },
+        positions: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
+        derivation: { type: DataTypes.JSONB, allowNull: true },
+        critical: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+        sortOrder: { type: DataTypes.SMALLINT, allowNull: false, defaultValue: 0 },
+        createdAt: DataTypes.DATE,
+        updatedAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: 'characteristics', underscored: true },
+    );
+  }
+}
+
+/**
+ * A versioned limit for one characteristic in one engine family. Readings keep the rule id and
+ * version they were judged against, so an approved rule is superseded, never edited.
+ */
+export class ToleranceRule extends Model<InferAttributes<ToleranceRule>, InferCreationAttributes<ToleranceRule>> {
+  declare id: CreationOptional<number>;
+  declare engineFamilyId: number;
+  declare characteristicId: number;
+  declare version: number;
+  declare status: ToleranceStatus;
+  declare limitType: LimitType;
+  declare nominal: number | null;
+  declare minusTol: number | null;
+  declare plusTol: number | null;
+  declare lowerLimit: number | null;
+  declare upperLimit: number | null;
+  declare unit: string | null;
+  declare resolution: number | null;
+  declare sourceNote: CreationOptional<string>;
+  declare effectiveFrom: Date | null;
+  declare supersededAt: Date | null;
+  // `…ById` because the association aliases (`createdBy`, `approvedBy`) would collide with the column names
+  declare createdById: number;
+  declare approvedById: number | null;
+  declare approvedAt: Date | null;
+  declare approvalReason: string | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize) {
+    ToleranceRule.init(
+      {
+        id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+        engineFamilyId: { type: DataTypes.INTEGER, allowNull: false },
+        characteristicId: { type: DataTypes.INTEGER, allowNull: false },
+        version: { type: DataTypes.INTEGER, allowNull: false },
+        status: { type: DataTypes.STRING(12), allowNull: false },
+        limitType: { type: DataTypes.STRING(12), allowNull: false },
+        nominal: { type: DataTypes.DECIMAL(14, 6), allowNull: true },
+        minusTol: { type: DataTypes.DECIMAL(14, 6), allowNull: true },
+        plusTol: { type: DataTypes.DECIMAL(14, 6), allowNull: true },
+        lowerLimit: { type: DataTypes.DECIMAL(14, 6), allowNull: true },
+        upperLimit: { type: DataTypes.DECIMAL(14, 6), allowNull: true },
+        unit: { type: DataTypes.STRING(20), allowNull: true },
+        resolution: { type: DataTypes.DECIMAL(12, 6), allowNull: true },
+        sourceNote: { type: DataTypes.STRING(300), allowNull: false, defaultValue: '' },
+        effectiveFrom: { type: DataTypes.DATE, allowNull: true },
+        supersededAt: { type: DataTypes.DATE, allowNull: true },
+        createdById: { type: DataTypes.INTEGER, allowNull: false },
+        approvedById: { type: DataTypes.INTEGER, allowNull: true },
+        approvedAt: { type: DataTypes.DATE, allowNull: true },
+        approvalReason: { type: DataTypes.STRING(500), allowNull: true },
+        createdAt: DataTypes.DATE,
+        updatedAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: 'tolerance_rules', underscored: true },
+    );
+  }
+}

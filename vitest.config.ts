@@ -1,0 +1,34 @@
+import { defineConfig } from 'vitest/config';
+
+// Three suites: unit (shared/ against published sources), api (supertest on a real, migrated
+// PostgreSQL) and e2e (real Chromium against the built client). `npm test` provides DATABASE_URL.
+export default defineConfig({
+  test: {
+    projects: [
+      {
+        test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' },
+      },
+      {
+        test: {
+          name: 'api',
+          include: ['tests/api/**/*.test.ts'],
+          environment: 'node',
+          globalSetup: ['tests/support/global-setup.ts'],
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
+        },
+      },
+      {
+        test: {
+          name: 'e2e',
+          include: ['tests/e2e/**/*.test.ts'],
+          environment: 'node',
+          globalSetup: ['tests/support/global-setup.ts'],
+          testTimeout: 60_000,
+          hookTimeout: 60_000,
+          fileParallelism: false,
+        },
+      },
+    ],
+  },
+});
