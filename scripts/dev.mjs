@@ -45,7 +45,8 @@ for (const c of children) {
   c.on('exit', () => {
     stopAll();
     if (--alive === 0) {
-      cluster.stop();
+      // leave a cluster that `npm start` (or anyone) was already running alone
+      if (cluster.startedHere) cluster.stop();
       process.exit(0);
     }
   });

@@ -27,6 +27,7 @@ export function createApp({ sequelize, config }: { sequelize: Sequelize; config:
   app.set('trust proxy', 'loopback');
   app.set('query parser', 'simple');
 
+  app.use(requestId);
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -48,12 +49,13 @@ export function createApp({ sequelize, config }: { sequelize: Sequelize; config:
       strictTransportSecurity: false,
     }),
   );
-  app.use(requestId);
-  app.use((_req, res, next) => {
+  app.use((req, res, next) => {
     // while shutting down, requests already running finish; new ones are told to come back
     if (state.draining) {
       res.setHeader('Connection', 'close');
-      res.status(503).json({ error: { code: 'shutting_down', message: 'The server is restarting. Try again in a moment.' } });
+      res.status(503).json({
+        error: { code: 'shutting_down', message: 'The server is restarting. Try again in a moment.', requestId: req.id },
+      });
       return;
     }
     next();

@@ -7,7 +7,6 @@ const schema = z.object({
   JWT_SECRET: z.string().min(32, 'JWT_SECRET must be at least 32 characters.'),
   SESSION_HOURS: z.coerce.number().positive().default(12),
   BCRYPT_COST: z.coerce.number().int().min(4).max(15).default(12),
-  PUBLIC_URL: z.string().optional(),
   SECURE_COOKIES: z.enum(['auto', 'always', 'never']).default('auto'),
   LOGIN_LIMIT_PER_ACCOUNT: z.coerce.number().int().positive().default(5),
   LOGIN_LIMIT_PER_ADDRESS: z.coerce.number().int().positive().default(30),

@@ -11,7 +11,7 @@ async function main() {
   const applied = await migrate(sequelize);
   if (applied.length) console.log(`[api] applied migrations: ${applied.join(', ')}`);
   if (config.SEED_DEMO === 'auto') {
-    const seeded = await seedDemoIfEmpty(sequelize);
+    const seeded = await seedDemoIfEmpty(sequelize, { bcryptCost: config.BCRYPT_COST });
     if (seeded) console.log('[api] the database was empty: demo plant seeded');
   }
   const app = createApp({ sequelize, config });

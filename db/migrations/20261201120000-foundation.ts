@@ -215,6 +215,9 @@ CREATE INDEX item_links_parent_idx ON item_links (parent_item_id, link_type);
 CREATE INDEX item_links_child_idx ON item_links (child_item_id, link_type);
 CREATE UNIQUE INDEX item_links_one_live_install_idx ON item_links (child_item_id)
   WHERE link_type = 'installed_in' AND removed_at IS NULL;
+-- a part comes from one core
+CREATE UNIQUE INDEX item_links_one_origin_idx ON item_links (child_item_id)
+  WHERE link_type = 'harvested_from' AND removed_at IS NULL;
 
 CREATE TABLE part_lots (
   id serial PRIMARY KEY,
@@ -283,7 +286,8 @@ CREATE TABLE stage_results (
   reentry_reason varchar(500),
   reentry_by_id integer REFERENCES users(id),
   notes text NOT NULL DEFAULT '',
-  created_at timestamptz NOT NULL DEFAULT now()
+  created_at timestamptz NOT NULL DEFAULT now(),
+  CHECK (supersedes_id IS NULL OR correction_reason IS NOT NULL)
 );
 CREATE INDEX stage_results_item_stage_idx ON stage_results (item_id, stage_id, finished_at);
 -- a result is corrected at most once: the correction supersedes it, and is itself superseded next
@@ -343,6 +347,7 @@ CREATE TABLE nonconformances (
   CHECK (item_id IS NOT NULL OR part_lot_id IS NOT NULL)
 );
 CREATE INDEX nonconformances_item_state_idx ON nonconformances (item_id, state);
+CREATE INDEX nonconformances_stage_result_idx ON nonconformances (stage_result_id) WHERE stage_result_id IS NOT NULL;
 CREATE INDEX nonconformances_part_lot_idx ON nonconformances (part_lot_id) WHERE part_lot_id IS NOT NULL;
 CREATE INDEX nonconformances_state_created_idx ON nonconformances (state, created_at);
 

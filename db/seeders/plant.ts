@@ -33,7 +33,7 @@ export const FAMILIES = [
   {
     code: 'CORRIE-8',
     name: 'Corrie V8',
-    description: 'Invented 6.0 L pushrod V8 (4.000 in bore × 3.622 in stroke); two heads, five main bearings.',
+    description: 'Invented 5.97 L pushrod V8 (4.000 in bore × 3.622 in stroke); two heads, five main bearings.',
     layout: 'v' as const,
     cylinders: 8,
     boreMm: 101.6,

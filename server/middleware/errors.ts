@@ -13,15 +13,12 @@ type Reply = { status: number; code: string; message: string; fields?: Record<st
 function fromZod(err: ZodError): Reply {
   const fields: Record<string, string> = {};
   for (const issue of err.issues) {
-    let key = issue.path.join('.') || '(body)';
-    let message = issue.message;
     if (issue.code === 'unrecognized_keys') {
       for (const k of issue.keys) fields[[...issue.path, k].join('.')] = 'This field is not allowed.';
       continue;
     }
-    if (!key) key = '(body)';
-    fields[key] ??= message;
-    message = '';
+    // the first problem of each field is the one to show
+    fields[issue.path.join('.') || '(body)'] ??= issue.message;
   }
   return { status: 400, code: 'invalid', message: 'Some fields need attention.', fields };
 }

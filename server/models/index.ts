@@ -172,7 +172,7 @@ export function initModels(sequelize: Sequelize) {
   Shipment.belongsTo(Item, { foreignKey: 'unitItemId', as: 'unit' });
   Shipment.belongsTo(Customer, { foreignKey: 'customerId', as: 'customer' });
   Shipment.belongsTo(User, { foreignKey: 'releasedById', as: 'releasedBy' });
-  Item.hasOne(Shipment, { foreignKey: 'unitItemId', as: 'shipment' });
+  Item.hasMany(Shipment, { foreignKey: 'unitItemId', as: 'shipments' });
   WarrantyClaim.belongsTo(Item, { foreignKey: 'unitItemId', as: 'unit' });
   WarrantyClaim.belongsTo(User, { foreignKey: 'openedById', as: 'openedBy' });
   Item.hasMany(WarrantyClaim, { foreignKey: 'unitItemId', as: 'warrantyClaims' });

@@ -4,10 +4,10 @@ import type { Sequelize } from 'sequelize';
 import { permissionsOf } from '../../shared/permissions.js';
 import { changePasswordBody, loginBody, type MeResponse } from '../../shared/schemas/auth.js';
 import type { Config } from '../config.js';
-import { AppError } from '../errors.js';
+import { tooMany } from '../errors.js';
 import type { Api } from '../http/api.js';
 import { SESSION_COOKIE } from '../middleware/authenticate.js';
-import { changeOwnPassword, GENERIC_SIGN_IN_FAILURE, signIn, signOut } from '../services/auth.js';
+import { changeOwnPassword, signIn, signOut } from '../services/auth.js';
 
 const TOO_MANY = 'Too many failed sign-ins. Wait a few minutes, then try again.';
 
@@ -19,7 +19,7 @@ function cookieOptions(config: Config, req: Request): CookieOptions {
 export function authRoutes(api: Api, sequelize: Sequelize, config: Config) {
   const windowMs = config.LOGIN_LIMIT_WINDOW_MIN * 60_000;
   const limited = (message: string) => () => {
-    throw new AppError(429, 'too_many', message);
+    throw tooMany(message);
   };
   // only failures count, per address and per account; both answer with the same plain message
   const perAddress = rateLimit({
@@ -106,6 +106,4 @@ export function authRoutes(api: Api, sequelize: Sequelize, config: Config) {
       return undefined;
     },
   });
-
-  void GENERIC_SIGN_IN_FAILURE;
 }

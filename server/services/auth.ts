@@ -74,15 +74,16 @@ export async function endAllSessions(user: User, transaction: import('sequelize'
 }
 
 export async function changeOwnPassword(sequelize: Sequelize, ctx: Ctx, userId: number, body: ChangePasswordBody) {
-  const user = await User.findByPk(userId);
-  if (!user || !(await checkPassword(body.currentPassword, user.passwordHash))) {
-    throw invalid('Your current password is not right.', { currentPassword: 'Not right.' });
-  }
   if (body.currentPassword === body.newPassword) {
     throw invalid('Choose a new password different from the current one.', { newPassword: 'Same as the current one.' });
   }
   const passwordHash = await hashPassword(body.newPassword);
   await sequelize.transaction(async (transaction) => {
+    // locked, so two changes at once cannot both pass the check against the old password
+    const user = await User.findByPk(userId, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!user || !(await checkPassword(body.currentPassword, user.passwordHash))) {
+      throw invalid('Your current password is not right.', { currentPassword: 'Not right.' });
+    }
     await user.update({ passwordHash }, { transaction });
     await endAllSessions(user, transaction);
     await recordAudit(ctx, transaction, { action: 'user.password_changed', entity: 'user', entityId: user.id });

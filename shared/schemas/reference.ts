@@ -52,6 +52,7 @@ export const familyBody = z
     headsPerEngine: z.number().int().min(1).max(2),
     warrantyMonths: z.number().int().min(0).max(120),
     warrantyKm: z.number().int().min(0).max(2_000_000).nullable(),
+    active: z.boolean().default(true),
   })
   .refine((f) => (f.layout === 'inline' ? f.headsPerEngine === 1 : f.headsPerEngine === 2), {
     message: 'An inline engine has one head; a V engine has two.',
@@ -73,7 +74,7 @@ export type Station = {
   active: boolean;
 };
 
-export type EngineFamily = FamilyBody & { id: number; active: boolean; displacementL: number };
+export type EngineFamily = FamilyBody & { id: number; displacementL: number };
 
 export type Stage = {
   id: number;
