@@ -184,8 +184,16 @@ export async function startCluster({ dir, port, bin = ensurePostgres() }) {
     log(`creating a PostgreSQL cluster in ${pgdata}`);
     try {
       runPg(bin, 'initdb', [
-        '-D', pgdata, '-U', 'coretrail', `--pwfile=${pwfile}`, '-E', 'UTF8', '--locale=C.UTF-8',
-        '--auth-local=scram-sha-256', '--auth-host=scram-sha-256',
+        '-D',
+        pgdata,
+        '-U',
+        'coretrail',
+        `--pwfile=${pwfile}`,
+        '-E',
+        'UTF8',
+        '--locale=C.UTF-8',
+        '--auth-local=scram-sha-256',
+        '--auth-host=scram-sha-256',
       ]);
     } finally {
       fs.rmSync(pwfile, { force: true });

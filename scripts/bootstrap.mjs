@@ -10,8 +10,7 @@ export const projectDir = path.resolve(path.dirname(fileURLToPath(import.meta.ur
 export function ensureNodeModules() {
   const lock = path.join(projectDir, 'package-lock.json');
   const installed = path.join(projectDir, 'node_modules', '.package-lock.json');
-  const fresh =
-    fs.existsSync(installed) && fs.statSync(installed).mtimeMs >= fs.statSync(lock).mtimeMs;
+  const fresh = fs.existsSync(installed) && fs.statSync(installed).mtimeMs >= fs.statSync(lock).mtimeMs;
   if (fresh) return;
   process.stderr.write('[setup] installing npm dependencies (npm ci)…\n');
   const r = spawnSync('npm', ['ci', '--no-audit', '--no-fund'], {

@@ -13,7 +13,10 @@ const apiPort = Number(process.env.PORT ?? 4310);
 const database = process.env.CORETRAIL_DB ?? 'coretrail';
 let cluster;
 try {
-  cluster = await startCluster({ dir: persistentClusterDir(projectDir), port: Number(process.env.CORETRAIL_PG_PORT ?? 54329) });
+  cluster = await startCluster({
+    dir: persistentClusterDir(projectDir),
+    port: Number(process.env.CORETRAIL_PG_PORT ?? 54329),
+  });
   await ensureDatabase(cluster, database);
 } catch (err) {
   console.error(err instanceof ClusterError ? err.message : err);

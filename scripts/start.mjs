@@ -7,7 +7,8 @@ import path from 'node:path';
 import { ensureNodeModules, projectDir, run } from './bootstrap.mjs';
 
 ensureNodeModules();
-const { ClusterError, ensureDatabase, ensurePostgres, persistentClusterDir, startCluster } = await import('../db/cluster.mjs');
+const { ClusterError, ensureDatabase, ensurePostgres, persistentClusterDir, startCluster } =
+  await import('../db/cluster.mjs');
 
 const pgPort = Number(process.env.CORETRAIL_PG_PORT ?? 54329);
 const appPort = Number(process.env.PORT ?? 4310);
@@ -26,7 +27,7 @@ try {
   cluster = await startCluster({ dir: persistentClusterDir(projectDir), port: pgPort, bin });
   await ensureDatabase(cluster, database);
 } catch (err) {
-  process.stderr.write(`\n${err instanceof ClusterError ? err.message : err?.stack ?? err}\n`);
+  process.stderr.write(`\n${err instanceof ClusterError ? err.message : (err?.stack ?? err)}\n`);
   cluster?.stop();
   process.exit(1);
 }
@@ -46,6 +47,7 @@ const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
     PORT: String(appPort),
     JWT_SECRET: process.env.JWT_SECRET ?? secret(),
     CLIENT_DIR: path.join(projectDir, 'dist'),
+    UPLOAD_DIR: process.env.UPLOAD_DIR ?? path.join(projectDir, '.data', 'uploads'),
   },
 });
 

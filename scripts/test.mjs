@@ -7,9 +7,8 @@ import path from 'node:path';
 import { ensureNodeModules, projectDir } from './bootstrap.mjs';
 
 ensureNodeModules();
-const { ClusterError, ensureDatabase, ensurePostgres, freePort, startCluster, throwawayClusterDir } = await import(
-  '../db/cluster.mjs'
-);
+const { ClusterError, ensureDatabase, ensurePostgres, freePort, startCluster, throwawayClusterDir } =
+  await import('../db/cluster.mjs');
 
 const isRoot = process.getuid?.() === 0;
 const results = []; // { name, passed, failed }
@@ -22,7 +21,9 @@ function ensureChromium() {
   const exe = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
   if (fs.existsSync(exe)) return exe;
   if (!isRoot) {
-    process.stderr.write(`[test] Chromium not found at ${exe}; install Debian's "chromium" package for the browser suite.\n`);
+    process.stderr.write(
+      `[test] Chromium not found at ${exe}; install Debian's "chromium" package for the browser suite.\n`,
+    );
     return exe;
   }
   process.stderr.write('[test] installing Debian package "chromium" for the browser suite…\n');
@@ -53,6 +54,7 @@ try {
   await ensureDatabase(cluster, 'coretrail_test');
 
   runCheck('lint', 'npx', ['eslint', '.', '--max-warnings', '0']);
+  runCheck('format', 'npx', ['prettier', '--check', '.']);
   runCheck('typecheck', 'npx', ['tsc', '-p', 'tsconfig.json', '--noEmit']);
   runCheck('client build', 'npx', ['vite', 'build', '--logLevel', 'warn']);
 
@@ -72,7 +74,9 @@ try {
   if (fs.existsSync(report)) {
     const json = JSON.parse(fs.readFileSync(report, 'utf8'));
     // a file that fails to load counts as a failure even though none of its tests ran
-    const brokenFiles = (json.testResults ?? []).filter((f) => f.status === 'failed' && !f.assertionResults?.length).length;
+    const brokenFiles = (json.testResults ?? []).filter(
+      (f) => f.status === 'failed' && !f.assertionResults?.length,
+    ).length;
     step('vitest', json.numPassedTests, json.numFailedTests + brokenFiles);
     fs.rmSync(report, { force: true });
   } else {

@@ -9,17 +9,30 @@ import { Api } from './http/api.js';
 import { authenticate } from './middleware/authenticate.js';
 import { errorHandler } from './middleware/errors.js';
 import { requestId } from './middleware/request-id.js';
+import { attachmentRoutes } from './routes/attachments.js';
 import { auditRoutes } from './routes/audit.js';
+import { coreRoutes } from './routes/cores.js';
+import { itemRoutes } from './routes/items.js';
+import { partyRoutes } from './routes/parties.js';
 import { authRoutes } from './routes/auth.js';
 import { healthRoutes } from './routes/health.js';
 import { peopleRoutes } from './routes/people.js';
 import { referenceRoutes } from './routes/reference.js';
 import { setBcryptCost } from './services/passwords.js';
+import { LocalDiskStore, type BlobStore } from './storage/blob-store.js';
 
 export type AppState = { draining: boolean };
 
 /** Builds the Express app without listening, so tests drive it in-process with supertest. */
-export function createApp({ sequelize, config }: { sequelize: Sequelize; config: Config }): Express & { apiRoutes: Api['routes']; state: AppState } {
+export function createApp({
+  sequelize,
+  config,
+  store = new LocalDiskStore(config.UPLOAD_DIR),
+}: {
+  sequelize: Sequelize;
+  config: Config;
+  store?: BlobStore;
+}): Express & { apiRoutes: Api['routes']; state: AppState } {
   setBcryptCost(config.BCRYPT_COST);
   const app = express();
   const state: AppState = { draining: false };
@@ -54,7 +67,11 @@ export function createApp({ sequelize, config }: { sequelize: Sequelize; config:
     if (state.draining) {
       res.setHeader('Connection', 'close');
       res.status(503).json({
-        error: { code: 'shutting_down', message: 'The server is restarting. Try again in a moment.', requestId: req.id },
+        error: {
+          code: 'shutting_down',
+          message: 'The server is restarting. Try again in a moment.',
+          requestId: req.id,
+        },
       });
       return;
     }
@@ -71,8 +88,18 @@ export function createApp({ sequelize, config }: { sequelize: Sequelize; config:
   peopleRoutes(api, sequelize);
   referenceRoutes(api, sequelize);
   auditRoutes(api, sequelize);
+  partyRoutes(api);
+  coreRoutes(api, sequelize);
+  itemRoutes(api, sequelize);
+  attachmentRoutes(api, sequelize, store);
   router.use((req, res) => {
-    res.status(404).json({ error: { code: 'not_found', message: `No API route ${req.method} ${req.baseUrl}${req.path}.`, requestId: req.id } });
+    res.status(404).json({
+      error: {
+        code: 'not_found',
+        message: `No API route ${req.method} ${req.baseUrl}${req.path}.`,
+        requestId: req.id,
+      },
+    });
   });
   router.use(errorHandler);
   app.use('/api', router);

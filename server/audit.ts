@@ -76,10 +76,7 @@ export async function recordAudit(ctx: Ctx, transaction: Transaction, input: Aud
     after: plain(input.after),
     requestId: ctx.requestId,
   };
-  return AuditEvent.create(
-    { ...body, occurredAt, prevHash, hash: hashEvent(prevHash, body) },
-    { transaction },
-  );
+  return AuditEvent.create({ ...body, occurredAt, prevHash, hash: hashEvent(prevHash, body) }, { transaction });
 }
 
 export type ChainReport = { ok: boolean; checked: number; firstBroken: { id: number; reason: string } | null };

@@ -12,6 +12,8 @@ const schema = z.object({
   LOGIN_LIMIT_PER_ADDRESS: z.coerce.number().int().positive().default(30),
   LOGIN_LIMIT_WINDOW_MIN: z.coerce.number().positive().default(15),
   CLIENT_DIR: z.string().optional(),
+  // uploaded photos: outside any folder the server serves; read back only through /api/attachments
+  UPLOAD_DIR: z.string().default('.data/uploads'),
   SEED_DEMO: z.enum(['auto', 'never']).default('auto'),
 });
 

@@ -13,8 +13,7 @@ export class AppError extends Error {
 
 export const invalid = (message: string, fields?: Record<string, string>) =>
   new AppError(400, 'invalid', message, fields);
-export const unauthenticated = (message = 'Sign in to continue.') =>
-  new AppError(401, 'unauthenticated', message);
+export const unauthenticated = (message = 'Sign in to continue.') => new AppError(401, 'unauthenticated', message);
 export const forbidden = (message = 'Your role does not allow this.') => new AppError(403, 'forbidden', message);
 export const notFound = (what = 'That record') => new AppError(404, 'not_found', `${what} was not found.`);
 export const conflict = (message: string, extra?: Record<string, unknown>) =>

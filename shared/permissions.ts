@@ -17,10 +17,11 @@ export const PERMISSIONS = {
   'audit.read': ['admin', 'quality'],
   'audit.verify': ['admin'],
 
-  'intake.read': ['receiving', 'supervisor', 'quality', 'admin'],
+  'intake.read': ['receiving', 'supervisor', 'quality', 'warranty', 'admin'],
   'intake.record': ['receiving'],
   'teardown.record': ['receiving', 'operator', 'supervisor'],
   'labels.print': ['receiving', 'operator', 'supervisor', 'shipping'],
+  'attachments.upload': ['receiving', 'operator', 'quality', 'supervisor'],
 
   'items.read': ['receiving', 'operator', 'quality', 'supervisor', 'shipping', 'warranty', 'admin'],
   'results.record': ['operator', 'supervisor'],

@@ -1,12 +1,4 @@
-export const ROLES = [
-  'admin',
-  'receiving',
-  'operator',
-  'quality',
-  'supervisor',
-  'shipping',
-  'warranty',
-] as const;
+export const ROLES = ['admin', 'receiving', 'operator', 'quality', 'supervisor', 'shipping', 'warranty'] as const;
 
 export type Role = (typeof ROLES)[number];
 

@@ -1,8 +1,32 @@
+import '@fontsource/ibm-plex-sans/400.css';
+import '@fontsource/ibm-plex-sans/500.css';
+import '@fontsource/ibm-plex-sans/600.css';
+import '@fontsource/ibm-plex-mono/400.css';
+import '@fontsource/ibm-plex-mono/500.css';
+import '@fontsource/ibm-plex-mono/600.css';
+import './index.css';
+import { QueryClientProvider } from '@tanstack/react-query';
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
+import { RouterProvider } from 'react-router';
+import { makeQueryClient } from './lib/query-client';
+import { signInHref } from './lib/paths';
+import { createRouter } from './router';
+
+// a session can end under an open page (expiry, password changed elsewhere, deactivation)
+const queryClient = makeQueryClient({
+  onSignedOut: () => {
+    // called only once requests run, by when `router` below exists
+    const going = router.state.navigation.location ?? router.state.location;
+    void router.navigate(signInHref({ next: `${going.pathname}${going.search}`, note: 'expired' }), { replace: true });
+  },
+});
+const router = createRouter(queryClient);
 
 createRoot(document.getElementById('root')!).render(
   <StrictMode>
-    <p>Coretrail</p>
+    <QueryClientProvider client={queryClient}>
+      <RouterProvider router={router} />
+    </QueryClientProvider>
   </StrictMode>,
 );

@@ -11,7 +11,12 @@ export { DEMO_USERS, PLANT };
 const SEED_LOCK = 72_410_003;
 const FAKER_SEED = 20261201;
 
-async function insertMany(sequelize: Sequelize, transaction: Transaction, table: string, rows: Record<string, unknown>[]) {
+async function insertMany(
+  sequelize: Sequelize,
+  transaction: Transaction,
+  table: string,
+  rows: Record<string, unknown>[],
+) {
   if (!rows.length) return;
   await sequelize.getQueryInterface().bulkInsert(table, rows, { transaction });
 }
@@ -37,7 +42,13 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
 
   for (const u of DEMO_USERS) {
     const user = await User.create(
-      { email: u.email, name: u.name, role: u.role, passwordHash: await bcrypt.hash(u.password, bcryptCost), lastSignInAt: null },
+      {
+        email: u.email,
+        name: u.name,
+        role: u.role,
+        passwordHash: await bcrypt.hash(u.password, bcryptCost),
+        lastSignInAt: null,
+      },
       { transaction },
     );
     await recordAudit(ctx, transaction, {
@@ -52,7 +63,12 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
   for (const f of FAMILIES) {
     const family = await EngineFamily.create(f, { transaction });
     families.push(family);
-    await recordAudit(ctx, transaction, { action: 'family.created', entity: 'engine_family', entityId: family.id, after: f });
+    await recordAudit(ctx, transaction, {
+      action: 'family.created',
+      entity: 'engine_family',
+      entityId: family.id,
+      after: f,
+    });
   }
 
   const stageByCode = new Map<string, Stage>();
@@ -60,9 +76,17 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
 
   for (const family of families) {
     for (const [partKind, steps] of Object.entries(ROUTES)) {
-      const route = await Route.create({ engineFamilyId: family.id, partKind: partKind as keyof typeof ROUTES }, { transaction });
+      const route = await Route.create(
+        { engineFamilyId: family.id, partKind: partKind as keyof typeof ROUTES },
+        { transaction },
+      );
       await RouteStage.bulkCreate(
-        steps.map((step, i) => ({ routeId: route.id, stageId: stageByCode.get(step.stage)!.id, position: i + 1, required: step.required })),
+        steps.map((step, i) => ({
+          routeId: route.id,
+          stageId: stageByCode.get(step.stage)!.id,
+          position: i + 1,
+          required: step.required,
+        })),
         { transaction },
       );
     }
@@ -90,7 +114,14 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
     email: `orders${i + 1}@customer${i + 1}.example`,
     ...stamp,
   }));
-  const supplierKinds = ['Piston Works', 'Bearing Co.', 'Gasket Supply', 'Core Brokers', 'Valvetrain Parts', 'Ring & Liner'];
+  const supplierKinds = [
+    'Piston Works',
+    'Bearing Co.',
+    'Gasket Supply',
+    'Core Brokers',
+    'Valvetrain Parts',
+    'Ring & Liner',
+  ];
   const suppliers = Array.from({ length: 8 }, (_, i) => ({
     code: `S${String(i + 201)}`,
     name: `${faker.location.city()} ${supplierKinds[i % supplierKinds.length]}`,
@@ -99,9 +130,19 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
   }));
   await insertMany(sequelize, transaction, 'customers', customers);
   await insertMany(sequelize, transaction, 'suppliers', suppliers);
-  await insertMany(sequelize, transaction, 'defect_codes', DEFECT_CODES.map((d) => ({ ...d, ...stamp })));
+  await insertMany(
+    sequelize,
+    transaction,
+    'defect_codes',
+    DEFECT_CODES.map((d) => ({ ...d, ...stamp })),
+  );
   const dueOn = new Date(now.getTime() + 180 * 86_400_000).toISOString().slice(0, 10);
-  await insertMany(sequelize, transaction, 'gauges', GAUGES.map((g) => ({ ...g, calibration_due_on: dueOn, ...stamp })));
+  await insertMany(
+    sequelize,
+    transaction,
+    'gauges',
+    GAUGES.map((g) => ({ ...g, calibration_due_on: dueOn, ...stamp })),
+  );
 
   await recordAudit(ctx, transaction, {
     action: 'demo.seeded',

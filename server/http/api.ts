@@ -24,6 +24,8 @@ export type RouteSpec<P extends Schema | undefined, Q extends Schema | undefined
   query?: Q;
   body?: B;
   status?: number;
+  /** Runs after authorization and before validation, e.g. a multipart parser. */
+  before?: RequestHandler;
   handler: (
     input: Valid<P, Q, B> & { user: AuthedUser | null; ctx: Ctx; req: Request; res: Response },
   ) => Promise<unknown>;
@@ -49,6 +51,10 @@ export class Api {
       if (spec.access !== 'public') {
         if (!user) throw unauthenticated();
         if (spec.access !== 'signed-in' && !can(user.role, spec.access)) throw forbidden();
+      }
+      if (spec.before) {
+        const before = spec.before;
+        await new Promise<void>((resolve, reject) => before(req, res, (e?: unknown) => (e ? reject(e) : resolve())));
       }
       const params = spec.params ? spec.params.parse(req.params) : undefined;
       const query = spec.query ? spec.query.parse(req.query) : undefined;

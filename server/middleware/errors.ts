@@ -5,6 +5,7 @@ import {
   UniqueConstraintError,
   ValidationError as SequelizeValidationError,
 } from 'sequelize';
+import { MulterError } from 'multer';
 import { ZodError } from 'zod';
 import { AppError } from '../errors.js';
 
@@ -28,6 +29,12 @@ function classify(err: unknown): Reply {
     return { status: err.status, code: err.code, message: err.message, fields: err.fields, extra: err.extra };
   }
   if (err instanceof ZodError) return fromZod(err);
+  if (err instanceof MulterError) {
+    if (err.code === 'LIMIT_FILE_SIZE') {
+      return { status: 413, code: 'too_large', message: 'The file is larger than the 8 MB a photo may be.' };
+    }
+    return { status: 400, code: 'invalid_upload', message: 'Send one photo in the form field "file".' };
+  }
   const e = err as { type?: string; status?: number; expose?: boolean };
   if (e?.type === 'entity.parse.failed') {
     return { status: 400, code: 'malformed_json', message: 'The request body is not valid JSON.' };
@@ -55,7 +62,11 @@ function classify(err: unknown): Reply {
   if (e?.expose && typeof e.status === 'number' && e.status < 500) {
     return { status: e.status, code: 'bad_request', message: String((err as Error).message) };
   }
-  return { status: 500, code: 'internal', message: 'Something went wrong on our side. The request id identifies it in the log.' };
+  return {
+    status: 500,
+    code: 'internal',
+    message: 'Something went wrong on our side. The request id identifies it in the log.',
+  };
 }
 
 /** One place maps every error to `{ error: { code, message, fields?, requestId } }`. */

@@ -65,7 +65,7 @@ export function referenceRoutes(api: Api, sequelize: Sequelize) {
     method: 'put',
     path: '/engine-families/:id',
     access: 'families.manage',
-    summary: 'Replace an engine family\'s details.',
+    summary: "Replace an engine family's details.",
     params: idParam,
     body: familyBody,
     handler: ({ ctx, params, body }) => updateFamily(sequelize, ctx, params.id, body),

@@ -23,7 +23,13 @@ export function presentPerson(u: User): Person {
 /** What the audit trail keeps of a person: never the password hash. */
 const snapshot = (u: User) => ({ email: u.email, name: u.name, role: u.role, active: u.active });
 
-export async function listPeople(q: { page: number; pageSize: number; q?: string; role?: Role; active?: 'true' | 'false' }) {
+export async function listPeople(q: {
+  page: number;
+  pageSize: number;
+  q?: string;
+  role?: Role;
+  active?: 'true' | 'false';
+}) {
   const where: WhereOptions<User> = {};
   if (q.role) Object.assign(where, { role: q.role });
   if (q.active) Object.assign(where, { active: q.active === 'true' });
@@ -47,12 +53,22 @@ export async function createPerson(sequelize: Sequelize, ctx: Ctx, body: CreateP
       { email: body.email, name: body.name, role: body.role, passwordHash, lastSignInAt: null },
       { transaction },
     );
-    await recordAudit(ctx, transaction, { action: 'user.created', entity: 'user', entityId: user.id, after: snapshot(user) });
+    await recordAudit(ctx, transaction, {
+      action: 'user.created',
+      entity: 'user',
+      entityId: user.id,
+      after: snapshot(user),
+    });
     return presentPerson(user);
   });
 }
 
-export async function updatePerson(sequelize: Sequelize, ctx: Ctx, id: number, body: UpdatePersonBody): Promise<Person> {
+export async function updatePerson(
+  sequelize: Sequelize,
+  ctx: Ctx,
+  id: number,
+  body: UpdatePersonBody,
+): Promise<Person> {
   return sequelize.transaction(async (transaction) => {
     const user = await User.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!user) throw notFound('That person');

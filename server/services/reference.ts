@@ -64,7 +64,13 @@ async function stageIdFor(code: string | null | undefined, transaction: import('
   return stage.id;
 }
 
-const stationSnapshot = (s: Station) => ({ code: s.code, name: s.name, stageId: s.stageId, location: s.location, active: s.active });
+const stationSnapshot = (s: Station) => ({
+  code: s.code,
+  name: s.name,
+  stageId: s.stageId,
+  location: s.location,
+  active: s.active,
+});
 
 export async function createStation(sequelize: Sequelize, ctx: Ctx, body: CreateStationBody) {
   return sequelize.transaction(async (transaction) => {
@@ -73,7 +79,12 @@ export async function createStation(sequelize: Sequelize, ctx: Ctx, body: Create
       { code: body.code, name: body.name, stageId, location: body.location ?? '' },
       { transaction },
     );
-    await recordAudit(ctx, transaction, { action: 'station.created', entity: 'station', entityId: station.id, after: stationSnapshot(station) });
+    await recordAudit(ctx, transaction, {
+      action: 'station.created',
+      entity: 'station',
+      entityId: station.id,
+      after: stationSnapshot(station),
+    });
     await station.reload({ include: [{ model: Stage, as: 'stage' }], transaction });
     return presentStation(station);
   });
@@ -88,7 +99,13 @@ export async function updateStation(sequelize: Sequelize, ctx: Ctx, id: number, 
     const changes: Partial<{ name: string; location: string; active: boolean; stageId: number | null }> = { ...rest };
     if (stageCode !== undefined) changes.stageId = (await stageIdFor(stageCode, transaction)) ?? null;
     await station.update(changes, { transaction });
-    await recordAudit(ctx, transaction, { action: 'station.updated', entity: 'station', entityId: station.id, before, after: stationSnapshot(station) });
+    await recordAudit(ctx, transaction, {
+      action: 'station.updated',
+      entity: 'station',
+      entityId: station.id,
+      before,
+      after: stationSnapshot(station),
+    });
     await station.reload({ include: [{ model: Stage, as: 'stage' }], transaction });
     return presentStation(station);
   });
@@ -99,7 +116,12 @@ export const listFamilies = async () => (await EngineFamily.findAll({ order: [['
 export async function createFamily(sequelize: Sequelize, ctx: Ctx, body: FamilyBody) {
   return sequelize.transaction(async (transaction) => {
     const family = await EngineFamily.create(body, { transaction });
-    await recordAudit(ctx, transaction, { action: 'family.created', entity: 'engine_family', entityId: family.id, after: presentFamily(family) });
+    await recordAudit(ctx, transaction, {
+      action: 'family.created',
+      entity: 'engine_family',
+      entityId: family.id,
+      after: presentFamily(family),
+    });
     return presentFamily(family);
   });
 }
@@ -110,7 +132,13 @@ export async function updateFamily(sequelize: Sequelize, ctx: Ctx, id: number, b
     if (!family) throw notFound('That engine family');
     const before = presentFamily(family);
     await family.update(body, { transaction });
-    await recordAudit(ctx, transaction, { action: 'family.updated', entity: 'engine_family', entityId: family.id, before, after: presentFamily(family) });
+    await recordAudit(ctx, transaction, {
+      action: 'family.updated',
+      entity: 'engine_family',
+      entityId: family.id,
+      before,
+      after: presentFamily(family),
+    });
     return presentFamily(family);
   });
 }

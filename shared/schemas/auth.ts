@@ -12,7 +12,12 @@ export const passwordSchema = z
   .min(12, 'Use at least 12 characters.')
   .refine((p) => utf8.encode(p).length <= 72, 'Use at most 72 bytes (about 72 plain letters).');
 
-export const emailSchema = z.string().trim().toLowerCase().pipe(z.email('Enter an e-mail address.')).pipe(z.string().max(254));
+export const emailSchema = z
+  .string()
+  .trim()
+  .toLowerCase()
+  .pipe(z.email('Enter an e-mail address.'))
+  .pipe(z.string().max(254));
 
 export const loginBody = z.strictObject({
   email: z.string().trim().toLowerCase().min(1, 'Enter your e-mail address.').max(254),

@@ -1,6 +1,14 @@
 import { z } from 'zod';
 
-export const PART_KINDS = ['core', 'block', 'crankshaft', 'cylinder_head', 'camshaft', 'rod_set', 'long_block'] as const;
+export const PART_KINDS = [
+  'core',
+  'block',
+  'crankshaft',
+  'cylinder_head',
+  'camshaft',
+  'rod_set',
+  'long_block',
+] as const;
 export const partKindSchema = z.enum(PART_KINDS);
 export type PartKind = z.infer<typeof partKindSchema>;
 

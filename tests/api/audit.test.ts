@@ -28,7 +28,10 @@ describe('audit events are written with the change', () => {
     expect(created.status).toBe(201);
     await request(t.app).patch(`/api/people/${created.body.id}`).set('Cookie', cookie).send({ role: 'supervisor' });
 
-    const events = await AuditEvent.findAll({ where: { entity: 'user', entityId: String(created.body.id) }, order: [['id', 'ASC']] });
+    const events = await AuditEvent.findAll({
+      where: { entity: 'user', entityId: String(created.body.id) },
+      order: [['id', 'ASC']],
+    });
     expect(events.map((e) => e.action)).toEqual(['user.created', 'user.updated']);
     const [c, u] = events;
     expect(c!.actorId).toBe(admin.id);
@@ -67,10 +70,16 @@ describe('audit events are written with the change', () => {
   it('GET /api/audit/events lists newest first with the actor name', async () => {
     const admin = await makeUser('admin', { name: 'Listing Admin' });
     const cookie = await cookieFor(admin, t.config);
-    await request(t.app).post('/api/auth/logout').set('Cookie', await cookieFor(admin, t.config));
+    await request(t.app)
+      .post('/api/auth/logout')
+      .set('Cookie', await cookieFor(admin, t.config));
     const res = await request(t.app).get(`/api/audit/events?entity=user&entityId=${admin.id}`).set('Cookie', cookie);
     expect(res.status).toBe(200);
-    expect(res.body.rows[0]).toMatchObject({ action: 'user.signed_out', actorName: 'Listing Admin', actorRole: 'admin' });
+    expect(res.body.rows[0]).toMatchObject({
+      action: 'user.signed_out',
+      actorName: 'Listing Admin',
+      actorRole: 'admin',
+    });
     expect(res.body.total).toBe(1);
   });
 });
@@ -120,11 +129,18 @@ describe('the hash chain', () => {
       const ctx = { actor: null, requestId: 'tamper' };
       for (let i = 1; i <= 5; i++) {
         await own.transaction((transaction) =>
-          recordAudit(ctx, transaction, { action: 'test.event', entity: 'test', entityId: i, after: { n: i, note: 'ünïcode ✓' } }),
+          recordAudit(ctx, transaction, {
+            action: 'test.event',
+            entity: 'test',
+            entityId: i,
+            after: { n: i, note: 'ünïcode ✓' },
+          }),
         );
       }
       expect(await verifyAuditChain(own)).toEqual({ ok: true, checked: 5, firstBroken: null });
-      const ids = (await own.query<{ id: number }>('SELECT id FROM audit_events ORDER BY id', { type: QueryTypes.SELECT })).map((r) => r.id);
+      const ids = (
+        await own.query<{ id: number }>('SELECT id FROM audit_events ORDER BY id', { type: QueryTypes.SELECT })
+      ).map((r) => r.id);
 
       await own.query('ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_update_delete');
       await own.query(`UPDATE audit_events SET after = '{"n": 99}' WHERE id = ${ids[2]}`);

@@ -39,7 +39,8 @@ describe('authorization matrix', () => {
     it(`when signed in as ${role}, then each route allows or refuses as the matrix says`, async () => {
       // sign-out would end the shared session, so it is checked with a session of its own
       for (const r of t.app.apiRoutes) {
-        const cookie = r.path === '/api/auth/logout' ? await cookieFor(await makeUser(role), t.config) : cookies.get(role)!;
+        const cookie =
+          r.path === '/api/auth/logout' ? await cookieFor(await makeUser(role), t.config) : cookies.get(role)!;
         const res = await call(r.method, r.path, cookie);
         const allowed = r.access === 'public' || r.access === 'signed-in' || can(role, r.access);
         const label = `${role} ${r.method.toUpperCase()} ${r.path} → ${res.status}`;

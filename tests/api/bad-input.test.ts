@@ -83,7 +83,10 @@ describe('bad input gets a clear 4xx and writes nothing', () => {
   it('when the e-mail is already taken, then 409 and no audit event', async () => {
     const body = goodPerson();
     expect((await request(t.app).post('/api/people').set('Cookie', admin).send(body)).status).toBe(201);
-    const res = await request(t.app).post('/api/people').set('Cookie', admin).send({ ...body, name: 'Someone Else' });
+    const res = await request(t.app)
+      .post('/api/people')
+      .set('Cookie', admin)
+      .send({ ...body, name: 'Someone Else' });
     expect(res.status).toBe(409);
     expect(res.body.error.fields).toHaveProperty('email');
     expect(await User.count({ where: { email: body.email } })).toBe(1);
@@ -105,17 +108,20 @@ describe('bad input gets a clear 4xx and writes nothing', () => {
   });
 
   it('when an engine family is inconsistent, then 400 on the field', async () => {
-    const res = await request(t.app).post('/api/engine-families').set('Cookie', admin).send({
-      code: unique('F').toUpperCase().slice(0, 10),
-      name: 'Odd V',
-      layout: 'v',
-      cylinders: 7,
-      boreMm: 90,
-      strokeMm: 90,
-      headsPerEngine: 2,
-      warrantyMonths: 12,
-      warrantyKm: null,
-    });
+    const res = await request(t.app)
+      .post('/api/engine-families')
+      .set('Cookie', admin)
+      .send({
+        code: unique('F').toUpperCase().slice(0, 10),
+        name: 'Odd V',
+        layout: 'v',
+        cylinders: 7,
+        boreMm: 90,
+        strokeMm: 90,
+        headsPerEngine: 2,
+        warrantyMonths: 12,
+        warrantyKm: null,
+      });
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toHaveProperty('cylinders');
   });

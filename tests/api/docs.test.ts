@@ -20,7 +20,9 @@ function documentedRoutes() {
 
 describe('docs/api.md matches the code', () => {
   it('lists every route with its access, and no route that does not exist', () => {
-    const documented = documentedRoutes().map((r) => `${r.method} ${r.path} ${r.access}`).sort();
+    const documented = documentedRoutes()
+      .map((r) => `${r.method} ${r.path} ${r.access}`)
+      .sort();
     const actual = t.app.apiRoutes.map((r) => `${r.method} ${r.path} ${r.access}`).sort();
     expect(documented).toEqual(actual);
   });

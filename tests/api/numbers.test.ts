@@ -14,7 +14,9 @@ describe('numeric columns read back as numbers', () => {
     const family = await EngineFamily.findOne({ where: { code: 'TARN-6' } });
     expect(family!.boreMm).toBe(94);
     expect(typeof family!.strokeMm).toBe('number');
-    const [row] = await t.sequelize.query<{ v: number }>('SELECT 0.000125::numeric(14,6) AS v', { type: QueryTypes.SELECT });
+    const [row] = await t.sequelize.query<{ v: number }>('SELECT 0.000125::numeric(14,6) AS v', {
+      type: QueryTypes.SELECT,
+    });
     expect(row!.v).toBe(0.000125);
   });
 });

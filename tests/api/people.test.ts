@@ -17,7 +17,12 @@ describe('people', () => {
     const res = await request(t.app)
       .post('/api/people')
       .set('Cookie', admin)
-      .send({ email: `  ${email.toUpperCase()} `, name: 'New Starter', role: 'receiving', password: 'first password 1' });
+      .send({
+        email: `  ${email.toUpperCase()} `,
+        name: 'New Starter',
+        role: 'receiving',
+        password: 'first password 1',
+      });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ email, role: 'receiving', active: true });
     expect(res.body).not.toHaveProperty('passwordHash');

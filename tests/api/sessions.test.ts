@@ -16,7 +16,9 @@ const me = (cookie: string) => request(t.app).get('/api/auth/me').set('Cookie', 
 describe('sign-in', () => {
   it('when the password is right, then an httpOnly SameSite cookie and the role permissions', async () => {
     const user = await makeUser('quality');
-    const res = await request(t.app).post('/api/auth/login').send({ email: user.email.toUpperCase(), password: TEST_PASSWORD });
+    const res = await request(t.app)
+      .post('/api/auth/login')
+      .send({ email: user.email.toUpperCase(), password: TEST_PASSWORD });
     expect(res.status).toBe(200);
     expect(res.body.user.role).toBe('quality');
     expect(res.body.permissions).toContain('spec.approve');
@@ -100,7 +102,7 @@ describe('session revocation', () => {
     expect((await me(a)).status).toBe(200);
   });
 
-  it('when an admin resets a password, then that person\'s sessions end', async () => {
+  it("when an admin resets a password, then that person's sessions end", async () => {
     const admin = await cookieFor(await makeUser('admin'), t.config);
     const user = await makeUser('operator');
     const a = await cookieFor(user, t.config);
@@ -143,15 +145,22 @@ describe('failed sign-ins are rate limited', () => {
     try {
       const user = await makeUser('operator');
       for (let i = 0; i < 3; i++) {
-        const res = await request(limited.app).post('/api/auth/login').send({ email: user.email, password: 'wrong password' });
+        const res = await request(limited.app)
+          .post('/api/auth/login')
+          .send({ email: user.email, password: 'wrong password' });
         expect(res.status).toBe(401);
       }
-      const res = await request(limited.app).post('/api/auth/login').send({ email: user.email, password: TEST_PASSWORD });
+      const res = await request(limited.app)
+        .post('/api/auth/login')
+        .send({ email: user.email, password: TEST_PASSWORD });
       expect(res.status).toBe(429);
       expect(res.body.error.code).toBe('too_many');
       // another account from the same address is not locked by this one
       const other = await makeUser('operator');
-      expect((await request(limited.app).post('/api/auth/login').send({ email: other.email, password: TEST_PASSWORD })).status).toBe(200);
+      expect(
+        (await request(limited.app).post('/api/auth/login').send({ email: other.email, password: TEST_PASSWORD }))
+          .status,
+      ).toBe(200);
     } finally {
       await limited.close();
     }
@@ -161,10 +170,14 @@ describe('failed sign-ins are rate limited', () => {
     const limited = makeTestApp({ LOGIN_LIMIT_PER_ACCOUNT: 100, LOGIN_LIMIT_PER_ADDRESS: 4 }, t.sequelize);
     try {
       for (let i = 0; i < 4; i++) {
-        const res = await request(limited.app).post('/api/auth/login').send({ email: `nobody${i}@test.example`, password: 'x' });
+        const res = await request(limited.app)
+          .post('/api/auth/login')
+          .send({ email: `nobody${i}@test.example`, password: 'x' });
         expect(res.status).toBe(401);
       }
-      const res = await request(limited.app).post('/api/auth/login').send({ email: 'nobody9@test.example', password: 'x' });
+      const res = await request(limited.app)
+        .post('/api/auth/login')
+        .send({ email: 'nobody9@test.example', password: 'x' });
       expect(res.status).toBe(429);
     } finally {
       await limited.close();

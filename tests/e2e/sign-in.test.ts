@@ -30,7 +30,10 @@ beforeAll(async () => {
   });
   const addr = server.address();
   base = `http://127.0.0.1:${typeof addr === 'object' && addr ? addr.port : 0}`;
-  browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', args: CHROMIUM_ARGS });
+  browser = await chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    args: CHROMIUM_ARGS,
+  });
   fs.mkdirSync(shots, { recursive: true });
 });
 afterAll(async () => {
@@ -55,7 +58,9 @@ describe('signing in in a real browser', () => {
       await page.getByLabel('E-mail').fill(demo.email);
       await page.getByLabel('Password').fill(demo.password);
       await page.getByRole('button', { name: 'Sign in' }).click();
-      await expect(page.getByRole('heading', { level: 1, name: `${ROLE_LABELS[demo.role]} home` }).waitFor()).resolves.toBeUndefined();
+      await expect(
+        page.getByRole('heading', { level: 1, name: `${ROLE_LABELS[demo.role]} home` }).waitFor(),
+      ).resolves.toBeUndefined();
       await page.screenshot({ path: path.join(shots, `home-${demo.role}.png`) });
       // nothing came from outside this origin, and the page logged no errors (CSP included)
       expect(problems).toEqual([]);

@@ -1,4 +1,6 @@
 import { randomBytes, randomUUID } from 'node:crypto';
+import os from 'node:os';
+import path from 'node:path';
 import bcrypt from 'bcryptjs';
 import jwt from 'jsonwebtoken';
 import type { Sequelize } from 'sequelize';
@@ -17,7 +19,12 @@ const hashOnce = async () => (testHash ??= await bcrypt.hash(TEST_PASSWORD, 12))
 
 export function testConfig(overrides: Partial<Config> = {}): Config {
   return loadConfig(
-    { ...process.env, JWT_SECRET: 'test-secret-'.padEnd(48, 'x'), SEED_DEMO: 'never' },
+    {
+      ...process.env,
+      JWT_SECRET: 'test-secret-'.padEnd(48, 'x'),
+      SEED_DEMO: 'never',
+      UPLOAD_DIR: path.join(os.tmpdir(), `coretrail-test-uploads-${process.pid}`),
+    },
     overrides,
   );
 }

@@ -1,0 +1,52 @@
+import type { Sequelize } from 'sequelize';
+import { labelsPrintedBody, serialParam } from '../../shared/schemas/intake.js';
+import type { Api } from '../http/api.js';
+import { findBySerial, presentItem } from '../services/items.js';
+import { labelPng, labelSvg, recordLabelPrints } from '../services/labels.js';
+
+export function itemRoutes(api: Api, sequelize: Sequelize) {
+  api.define({
+    method: 'get',
+    path: '/items/:serial',
+    access: 'items.read',
+    summary: 'Resolve a scanned or typed serial: kind, family, status and where it is on its route.',
+    params: serialParam,
+    handler: async ({ params }) => presentItem(await findBySerial(params.serial)),
+  });
+  api.define({
+    method: 'get',
+    path: '/items/:serial/label.svg',
+    access: 'items.read',
+    summary: "The item's QR code (encodes the serial) as SVG, for printing.",
+    params: serialParam,
+    handler: async ({ params, res }) => {
+      const item = await findBySerial(params.serial);
+      res.setHeader('Content-Type', 'image/svg+xml');
+      res.setHeader('X-Content-Type-Options', 'nosniff');
+      res.send(await labelSvg(item.serial));
+      return undefined;
+    },
+  });
+  api.define({
+    method: 'get',
+    path: '/items/:serial/label.png',
+    access: 'items.read',
+    summary: "The item's QR code as PNG, for download.",
+    params: serialParam,
+    handler: async ({ params, res }) => {
+      const item = await findBySerial(params.serial);
+      res.setHeader('Content-Type', 'image/png');
+      res.setHeader('Content-Disposition', `inline; filename="${item.serial}.png"`);
+      res.send(await labelPng(item.serial));
+      return undefined;
+    },
+  });
+  api.define({
+    method: 'post',
+    path: '/labels/printed',
+    access: 'labels.print',
+    summary: 'Log that labels were printed on a stock; a second print of a label is logged as a reprint.',
+    body: labelsPrintedBody,
+    handler: ({ ctx, body }) => recordLabelPrints(sequelize, ctx, body.serials, body.stock),
+  });
+}

@@ -1,0 +1,121 @@
+import { createHash, randomUUID } from 'node:crypto';
+import { fileTypeFromBuffer } from 'file-type';
+import { Op, type Sequelize, type Transaction } from 'sequelize';
+import { recordAudit, type Ctx } from '../audit.js';
+import { AppError, invalid, notFound } from '../errors.js';
+import { Attachment } from '../models/index.js';
+import type { BlobStore } from '../storage/blob-store.js';
+
+/** Photos only, recognised by their bytes: the name and the browser's Content-Type are not trusted. */
+export const IMAGE_TYPES: Record<string, string> = { 'image/jpeg': 'jpg', 'image/png': 'png', 'image/webp': 'webp' };
+export const MAX_UPLOAD_BYTES = 8 * 1024 * 1024;
+
+export type AttachmentJson = {
+  id: number;
+  fileName: string;
+  mimeType: string;
+  sizeBytes: number;
+  url: string;
+  createdAt: string;
+};
+
+export const presentAttachment = (a: Attachment): AttachmentJson => ({
+  id: a.id,
+  fileName: a.fileName,
+  mimeType: a.mimeType,
+  sizeBytes: a.sizeBytes,
+  url: `/api/attachments/${a.id}`,
+  createdAt: a.createdAt.toISOString(),
+});
+
+const cleanName = (name: string) =>
+  name
+    .normalize('NFKC')
+    .replace(/[^\p{L}\p{N}._ -]/gu, '_')
+    .slice(-120) || 'photo';
+
+/**
+ * Stores an uploaded photo, not yet attached to anything ("pending", owned by the uploader) until a
+ * record claims it. The file is written first and removed again if the row cannot be.
+ */
+export async function storeUpload(
+  sequelize: Sequelize,
+  store: BlobStore,
+  ctx: Ctx,
+  file: { buffer: Buffer; originalname: string; size: number },
+): Promise<AttachmentJson> {
+  const detected = await fileTypeFromBuffer(file.buffer);
+  const ext = detected && IMAGE_TYPES[detected.mime];
+  if (!detected || !ext) {
+    throw new AppError(
+      415,
+      'not_an_image',
+      'Only photos can be attached: JPEG, PNG or WebP. This file is not one of them.',
+    );
+  }
+  const key = `${randomUUID()}.${ext}`;
+  await store.put(key, file.buffer);
+  try {
+    return await sequelize.transaction(async (transaction) => {
+      const a = await Attachment.create(
+        {
+          entity: 'pending',
+          entityId: String(ctx.actor!.id),
+          fileName: cleanName(file.originalname),
+          mimeType: detected.mime,
+          sizeBytes: file.size,
+          sha256: createHash('sha256').update(file.buffer).digest('hex'),
+          storageKey: key,
+          uploadedById: ctx.actor!.id,
+        },
+        { transaction },
+      );
+      await recordAudit(ctx, transaction, {
+        action: 'attachment.uploaded',
+        entity: 'attachment',
+        entityId: a.id,
+        after: { fileName: a.fileName, mimeType: a.mimeType, sizeBytes: a.sizeBytes, sha256: a.sha256 },
+      });
+      return presentAttachment(a);
+    });
+  } catch (err) {
+    await store.remove(key);
+    throw err;
+  }
+}
+
+/** Attaches the uploader's pending photos to a record, inside the record's own transaction. */
+export async function claimUploads(
+  ctx: Ctx,
+  transaction: Transaction,
+  ids: number[],
+  entity: string,
+  entityId: string | number,
+): Promise<void> {
+  if (!ids.length) return;
+  const unique = [...new Set(ids)];
+  const [count] = await Attachment.update(
+    { entity, entityId: String(entityId) },
+    {
+      where: { id: { [Op.in]: unique }, entity: 'pending', uploadedById: ctx.actor!.id },
+      transaction,
+    },
+  );
+  if (count !== unique.length) {
+    throw invalid('A photo could not be attached: upload it again.', { photoIds: 'Unknown or already used photo.' });
+  }
+}
+
+export async function readAttachment(store: BlobStore, id: number, viewerId: number) {
+  const a = await Attachment.findByPk(id);
+  // a pending upload is visible only to the person who uploaded it
+  if (!a || (a.entity === 'pending' && a.uploadedById !== viewerId)) throw notFound('That file');
+  const data = await store.get(a.storageKey);
+  if (!data) throw notFound('That file');
+  return { attachment: a, data };
+}
+
+export async function attachmentsOf(entity: string, entityId: string | number) {
+  const rows = await Attachment.findAll({ where: { entity, entityId: String(entityId) }, order: [['id', 'ASC']] });
+  return rows.map(presentAttachment);
+}

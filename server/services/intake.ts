@@ -1,0 +1,243 @@
+import { QueryTypes, type Sequelize } from 'sequelize';
+import type { z } from 'zod';
+import type { CoreSummary, intakeLogQuery, receiveCoreBody } from '../../shared/schemas/intake.js';
+import { recordAudit, type Ctx } from '../audit.js';
+import { conflict, invalid, notFound } from '../errors.js';
+import { CoreReceipt, Customer, EngineFamily, Item, Supplier, User } from '../models/index.js';
+import { attachmentsOf, claimUploads } from './attachments.js';
+import { findBySerial, newSerial, presentItem, routeFor } from './items.js';
+
+type ReceiveCore = z.output<typeof receiveCoreBody>;
+type LogQuery = z.output<typeof intakeLogQuery>;
+
+const DUPLICATE_WINDOW_DAYS = 365;
+
+/** Recent cores with the same ID number (or, without one, the same casting and no ID number). */
+export async function findDuplicates(sequelize: Sequelize, castingNumber: string, idNumber?: string) {
+  const since = new Date(Date.now() - DUPLICATE_WINDOW_DAYS * 86_400_000).toISOString().slice(0, 10);
+  return sequelize.query<{
+    serial: string;
+    castingNumber: string;
+    idNumber: string | null;
+    receivedOn: string;
+    accepted: boolean;
+  }>(
+    `SELECT i.serial, r.casting_number AS "castingNumber", r.id_number AS "idNumber",
+            to_char(r.received_on, 'YYYY-MM-DD') AS "receivedOn", r.accepted
+       FROM core_receipts r JOIN items i ON i.id = r.item_id
+      WHERE r.received_on >= :since
+        AND (${idNumber ? 'upper(r.id_number) = :idNumber' : 'upper(r.casting_number) = :castingNumber AND r.id_number IS NULL'})
+      ORDER BY r.received_on DESC, r.id DESC LIMIT 5`,
+    {
+      type: QueryTypes.SELECT,
+      replacements: { since, idNumber: idNumber?.toUpperCase(), castingNumber: castingNumber.toUpperCase() },
+    },
+  );
+}
+
+/**
+ * Logs a core at the dock, accepted or rejected, and gives it a serial. A rejected core keeps its
+ * record, reason and photos like any other: nothing received is ever deleted.
+ */
+export async function receiveCore(sequelize: Sequelize, ctx: Ctx, body: ReceiveCore) {
+  const family = await EngineFamily.findByPk(body.familyId);
+  if (!family || !family.active)
+    throw invalid('Choose an engine family in use.', { familyId: 'Unknown engine family.' });
+  if (body.customerId && !(await Customer.findByPk(body.customerId))) {
+    throw invalid('That customer is not on file.', { customerId: 'Unknown customer.' });
+  }
+  if (body.supplierId && !(await Supplier.findByPk(body.supplierId))) {
+    throw invalid('That supplier is not on file.', { supplierId: 'Unknown supplier.' });
+  }
+  if (!body.confirmNotDuplicate) {
+    const duplicates = await findDuplicates(sequelize, body.castingNumber, body.idNumber);
+    if (duplicates.length) {
+      throw conflict('A recent core has the same number. Check it is not the same core before logging a second one.', {
+        reason: 'possible_duplicate',
+        duplicates,
+      });
+    }
+  }
+  const route = await routeFor(family.id, 'core');
+  const teardown = route?.steps.find((s) => s.stage.code === 'teardown');
+
+  const serial = await sequelize.transaction(async (transaction) => {
+    const item = await Item.create(
+      {
+        serial: await newSerial('core', transaction),
+        kind: 'core',
+        engineFamilyId: family.id,
+        status: body.accepted ? 'received' : 'rejected',
+        routeId: route?.route.id ?? null,
+        currentStageId: body.accepted ? (teardown?.stageId ?? null) : null,
+        positionLabel: null,
+        createdById: ctx.actor!.id,
+      },
+      { transaction },
+    );
+    const receipt = await CoreReceipt.create(
+      {
+        itemId: item.id,
+        castingNumber: body.castingNumber,
+        idNumber: body.idNumber ?? null,
+        source: body.source,
+        customerId: body.customerId ?? null,
+        supplierId: body.supplierId ?? null,
+        sourceReference: body.sourceReference,
+        receivedOn: body.receivedOn,
+        receivedById: ctx.actor!.id,
+        condition: { complete: body.complete, missing: body.missing, damage: body.damage },
+        grade: body.grade,
+        accepted: body.accepted,
+        rejectReason: body.rejectReason ?? null,
+        creditDecision: body.creditDecision ?? null,
+        creditReason: body.creditReason ?? null,
+        notes: body.notes,
+      },
+      { transaction },
+    );
+    await claimUploads(ctx, transaction, body.photoIds, 'core', item.id);
+    await recordAudit(ctx, transaction, {
+      action: body.accepted ? 'core.received' : 'core.rejected',
+      entity: 'item',
+      entityId: item.serial,
+      after: { ...receipt.get({ plain: true }), serial: item.serial, familyCode: family.code, photoIds: body.photoIds },
+    });
+    return item.serial;
+  });
+  return coreDetail(serial);
+}
+
+export async function coreDetail(serialInput: string) {
+  const item = await findBySerial(serialInput);
+  if (item.kind !== 'core') throw notFound(`Core ${item.serial}`);
+  const receipt = (await CoreReceipt.findOne({ where: { itemId: item.id } }))!;
+  const [customer, supplier, receivedBy, photos, presented] = await Promise.all([
+    receipt.customerId ? Customer.findByPk(receipt.customerId) : null,
+    receipt.supplierId ? Supplier.findByPk(receipt.supplierId) : null,
+    User.findByPk(receipt.receivedById),
+    attachmentsOf('core', item.id),
+    presentItem(item),
+  ]);
+  return {
+    ...presented,
+    receipt: {
+      castingNumber: receipt.castingNumber,
+      idNumber: receipt.idNumber,
+      source: receipt.source,
+      customer: customer ? { id: customer.id, code: customer.code, name: customer.name } : null,
+      supplier: supplier ? { id: supplier.id, code: supplier.code, name: supplier.name } : null,
+      sourceReference: receipt.sourceReference,
+      receivedOn: receipt.receivedOn,
+      receivedBy: receivedBy?.name ?? '',
+      condition: receipt.condition,
+      grade: receipt.grade,
+      accepted: receipt.accepted,
+      rejectReason: receipt.rejectReason,
+      creditDecision: receipt.creditDecision,
+      creditReason: receipt.creditReason,
+      notes: receipt.notes,
+    },
+    teardown: (item.attributes as { teardown?: unknown }).teardown ?? null,
+    photos,
+  };
+}
+
+const SORT_COLUMNS: Record<LogQuery['sort'], string> = {
+  receivedOn: 'r.received_on',
+  serial: 'i.serial',
+  family: 'f.code',
+  grade: 'r.grade',
+  castingNumber: 'r.casting_number',
+};
+
+/** The intake log: filtered, sorted and paged in SQL. */
+export async function intakeLog(sequelize: Sequelize, q: LogQuery, { all = false } = {}) {
+  const where: string[] = [];
+  const replacements: Record<string, unknown> = {};
+  const add = (sql: string, key: string, value: unknown) => {
+    where.push(sql);
+    replacements[key] = value;
+  };
+  if (q.family) add('i.engine_family_id = :family', 'family', q.family);
+  if (q.source) add('r.source = :source', 'source', q.source);
+  if (q.grade) add('r.grade = :grade', 'grade', q.grade);
+  if (q.accepted) add('r.accepted = :accepted', 'accepted', q.accepted === 'true');
+  if (q.from) add('r.received_on >= :from', 'from', q.from);
+  if (q.to) add('r.received_on <= :to', 'to', q.to);
+  if (q.q) {
+    add(
+      '(i.serial ILIKE :q OR r.casting_number ILIKE :q OR r.id_number ILIKE :q OR r.source_reference ILIKE :q)',
+      'q',
+      `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`,
+    );
+  }
+  const filter = where.length ? `WHERE ${where.join(' AND ')}` : '';
+  const from = `FROM core_receipts r JOIN items i ON i.id = r.item_id JOIN engine_families f ON f.id = i.engine_family_id
+    JOIN users u ON u.id = r.received_by_id LEFT JOIN customers c ON c.id = r.customer_id LEFT JOIN suppliers s ON s.id = r.supplier_id`;
+  const order = `${SORT_COLUMNS[q.sort]} ${q.dir === 'asc' ? 'ASC' : 'DESC'} NULLS LAST, r.id ${q.dir === 'asc' ? 'ASC' : 'DESC'}`;
+  const page = all ? '' : 'LIMIT :limit OFFSET :offset';
+  const [rows, [count]] = await Promise.all([
+    sequelize.query<CoreSummary>(
+      `SELECT i.serial, f.code AS "familyCode", r.casting_number AS "castingNumber", r.id_number AS "idNumber", r.source,
+              coalesce(c.name, s.name) AS "partyName", r.source_reference AS "sourceReference",
+              to_char(r.received_on, 'YYYY-MM-DD') AS "receivedOn", u.name AS "receivedBy", r.grade, r.accepted,
+              r.credit_decision AS "creditDecision", i.status
+         ${from} ${filter} ORDER BY ${order} ${page}`,
+      {
+        type: QueryTypes.SELECT,
+        replacements: { ...replacements, limit: q.pageSize, offset: (q.page - 1) * q.pageSize },
+      },
+    ),
+    sequelize.query<{ total: number }>(`SELECT count(*)::int AS total ${from} ${filter}`, {
+      type: QueryTypes.SELECT,
+      replacements,
+    }),
+  ]);
+  return { rows, total: count?.total ?? 0, page: q.page, pageSize: q.pageSize };
+}
+
+/** A spreadsheet cell that starts with = + - @ could run as a formula: quote it as text. */
+export function csvCell(v: unknown): string {
+  let s = v === null || v === undefined ? '' : String(v);
+  if (/^[=+\-@\t\r]/.test(s)) s = `'${s}`;
+  return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+export function intakeCsv(rows: CoreSummary[]): string {
+  const head = [
+    'serial',
+    'family',
+    'casting_number',
+    'id_number',
+    'source',
+    'customer_or_supplier',
+    'reference',
+    'received_on',
+    'received_by',
+    'grade',
+    'accepted',
+    'core_credit',
+    'status',
+  ];
+  const lines = rows.map((r) =>
+    [
+      r.serial,
+      r.familyCode,
+      r.castingNumber,
+      r.idNumber,
+      r.source,
+      r.partyName,
+      r.sourceReference,
+      r.receivedOn,
+      r.receivedBy,
+      r.grade,
+      r.accepted ? 'yes' : 'no',
+      r.creditDecision,
+      r.status,
+    ]
+      .map(csvCell)
+      .join(','),
+  );
+  return `${[head.join(','), ...lines].join('\r\n')}\r\n`;
+}

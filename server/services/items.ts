@@ -1,0 +1,119 @@
+import { randomInt } from 'node:crypto';
+import { Op, type Transaction } from 'sequelize';
+import { makeSerial, parseSerial } from '../../shared/domain/serial.js';
+import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.js';
+import { invalid, notFound } from '../errors.js';
+import { EngineFamily, Item, ItemLink, Route, RouteStage, Stage } from '../models/index.js';
+
+/** A serial no item has yet. Collisions are astronomically rare (32^7 bodies); we still check. */
+export async function newSerial(kind: PartKind, transaction: Transaction): Promise<string> {
+  for (;;) {
+    const serial = makeSerial(kind, randomInt);
+    if (!(await Item.findOne({ where: { serial }, attributes: ['id'], transaction }))) return serial;
+  }
+}
+
+export type RouteStep = {
+  code: string;
+  name: string;
+  position: number;
+  required: boolean;
+  hazard: string | null;
+  state: 'done' | 'current' | 'todo';
+};
+
+/** The ordered stages of a family's route for a part kind, or null where the kind has none. */
+export async function routeFor(familyId: number, kind: PartKind, transaction?: Transaction) {
+  const route = await Route.findOne({
+    where: { engineFamilyId: familyId, partKind: kind, active: true },
+    order: [['version', 'DESC']],
+    transaction,
+  });
+  if (!route) return null;
+  const steps = await RouteStage.findAll({
+    where: { routeId: route.id },
+    include: [{ model: Stage, as: 'stage' }],
+    order: [['position', 'ASC']],
+    transaction,
+  });
+  return { route, steps: steps.map((s) => ({ ...s.get(), stage: (s as RouteStage & { stage: Stage }).stage })) };
+}
+
+/** Finds an item by what someone typed or scanned; a malformed serial is a 400 with the reason. */
+export async function findBySerial(input: string, transaction?: Transaction) {
+  const parsed = parseSerial(input);
+  if (!parsed.ok) throw invalid(parsed.reason, { serial: parsed.reason });
+  const item = await Item.findOne({ where: { serial: parsed.serial }, transaction });
+  if (!item) throw notFound(`Serial ${parsed.serial}`);
+  return item;
+}
+
+export type ItemJson = {
+  serial: string;
+  kind: PartKind;
+  kindLabel: string;
+  family: { id: number; code: string; name: string; layout: 'inline' | 'v'; headsPerEngine: number };
+  status: string;
+  positionLabel: string | null;
+  currentStage: { code: string; name: string; hazard: string | null } | null;
+  route: RouteStep[];
+  harvestedFrom: { serial: string; kind: PartKind } | null;
+  parts: { serial: string; kind: PartKind; kindLabel: string; status: string; positionLabel: string | null }[];
+  createdAt: string;
+};
+
+export async function presentItem(item: Item): Promise<ItemJson> {
+  const family = (await EngineFamily.findByPk(item.engineFamilyId))!;
+  const route = await routeFor(item.engineFamilyId, item.kind);
+  const currentIdx = route?.steps.findIndex((s) => s.stageId === item.currentStageId) ?? -1;
+  const finished = ['finished', 'torn_down', 'installed', 'released', 'shipped'].includes(item.status);
+  const steps: RouteStep[] = (route?.steps ?? []).map((s, i) => ({
+    code: s.stage.code,
+    name: s.stage.name,
+    position: s.position,
+    required: s.required,
+    hazard: s.stage.hazard,
+    state: finished || (currentIdx >= 0 && i < currentIdx) ? 'done' : i === currentIdx ? 'current' : 'todo',
+  }));
+  const current = currentIdx >= 0 ? route!.steps[currentIdx]!.stage : null;
+  const [originLink, childLinks] = await Promise.all([
+    ItemLink.findOne({ where: { childItemId: item.id, linkType: 'harvested_from', removedAt: null } }),
+    ItemLink.findAll({
+      where: { parentItemId: item.id, linkType: 'harvested_from', removedAt: null },
+      order: [['id', 'ASC']],
+    }),
+  ]);
+  const related = await Item.findAll({
+    where: { id: { [Op.in]: [originLink?.parentItemId ?? 0, ...childLinks.map((l) => l.childItemId)] } },
+  });
+  const byId = new Map(related.map((r) => [r.id, r]));
+  const origin = originLink ? byId.get(originLink.parentItemId) : undefined;
+  return {
+    serial: item.serial,
+    kind: item.kind,
+    kindLabel: PART_KIND_LABELS[item.kind],
+    family: {
+      id: family.id,
+      code: family.code,
+      name: family.name,
+      layout: family.layout,
+      headsPerEngine: family.headsPerEngine,
+    },
+    status: item.status,
+    positionLabel: item.positionLabel,
+    currentStage: current ? { code: current.code, name: current.name, hazard: current.hazard } : null,
+    route: steps,
+    harvestedFrom: origin ? { serial: origin.serial, kind: origin.kind } : null,
+    parts: childLinks
+      .map((l) => byId.get(l.childItemId))
+      .filter((p): p is Item => !!p)
+      .map((p) => ({
+        serial: p.serial,
+        kind: p.kind,
+        kindLabel: PART_KIND_LABELS[p.kind],
+        status: p.status,
+        positionLabel: p.positionLabel,
+      })),
+    createdAt: item.createdAt.toISOString(),
+  };
+}

@@ -1,0 +1,179 @@
+import { z } from 'zod';
+import { paging } from './common.js';
+
+/** Visible damage the dock checks for. */
+export const DAMAGE = ['cracked', 'broken', 'seized', 'burnt', 'water_damaged'] as const;
+export const DAMAGE_LABELS: Record<(typeof DAMAGE)[number], string> = {
+  cracked: 'Cracked',
+  broken: 'Broken',
+  seized: 'Seized',
+  burnt: 'Burnt',
+  water_damaged: 'Water damaged',
+};
+
+/** Major parts a core should arrive with; any that are missing are ticked. */
+export const CORE_PARTS = [
+  'block',
+  'crankshaft',
+  'cylinder_heads',
+  'camshaft',
+  'connecting_rods',
+  'oil_pan',
+  'timing_cover',
+] as const;
+export const CORE_PART_LABELS: Record<(typeof CORE_PARTS)[number], string> = {
+  block: 'Block',
+  crankshaft: 'Crankshaft',
+  cylinder_heads: 'Cylinder head(s)',
+  camshaft: 'Camshaft',
+  connecting_rods: 'Connecting rods',
+  oil_pan: 'Oil pan',
+  timing_cover: 'Timing cover',
+};
+
+/** Coretrail's core grades: how much of the core the dock expects to survive the line. */
+export const GRADES = ['sound', 'workable', 'doubtful', 'unusable'] as const;
+export const GRADE_LABELS: Record<(typeof GRADES)[number], string> = {
+  sound: 'Sound — expect every major part to be reused',
+  workable: 'Workable — expect machining beyond the usual',
+  doubtful: 'Doubtful — some major parts likely lost',
+  unusable: 'Unusable — nothing worth reusing',
+};
+
+export const CREDIT_DECISIONS = ['full', 'partial', 'none'] as const;
+export const SOURCES = ['customer_return', 'purchased'] as const;
+
+const text = (max: number) => z.string().trim().max(max);
+const partNumber = z
+  .string()
+  .trim()
+  .toUpperCase()
+  .min(3, 'Enter the number as cast or stamped.')
+  .max(40)
+  .regex(/^[A-Z0-9][A-Z0-9 ./-]*$/, 'Use letters, digits, spaces, dots, dashes or slashes.');
+const isoDate = z.iso.date('Use a date like 2026-12-01.');
+
+export const receiveCoreBody = z
+  .strictObject({
+    familyId: z.number().int().positive(),
+    castingNumber: partNumber,
+    idNumber: partNumber.optional(),
+    source: z.enum(SOURCES),
+    customerId: z.number().int().positive().optional(),
+    supplierId: z.number().int().positive().optional(),
+    sourceReference: text(60).min(1, 'Enter the return or purchase reference.'),
+    receivedOn: isoDate,
+    complete: z.boolean(),
+    missing: z.array(z.enum(CORE_PARTS)).max(CORE_PARTS.length).default([]),
+    damage: z.array(z.enum(DAMAGE)).max(DAMAGE.length).default([]),
+    grade: z.enum(GRADES),
+    accepted: z.boolean(),
+    rejectReason: text(500).optional(),
+    creditDecision: z.enum(CREDIT_DECISIONS).optional(),
+    creditReason: text(500).optional(),
+    notes: text(2000).default(''),
+    photoIds: z.array(z.number().int().positive()).max(12).default([]),
+    // a matching recent core was shown and the person says this one is different
+    confirmNotDuplicate: z.boolean().default(false),
+  })
+  .superRefine((b, ctx) => {
+    const need = (path: string, message: string) => ctx.addIssue({ code: 'custom', path: [path], message });
+    if (b.source === 'customer_return') {
+      if (!b.customerId) need('customerId', 'Choose the customer returning the core.');
+      if (b.supplierId) need('supplierId', 'A customer return has no supplier.');
+      if (!b.creditDecision) need('creditDecision', 'Decide the core credit.');
+      if (b.creditDecision && b.creditDecision !== 'full' && !b.creditReason) {
+        need('creditReason', 'Say why the credit is partial or none.');
+      }
+    } else {
+      if (!b.supplierId) need('supplierId', 'Choose the supplier the core was bought from.');
+      if (b.customerId) need('customerId', 'A purchased core has no customer.');
+      if (b.creditDecision) need('creditDecision', 'Core credit applies to customer returns only.');
+    }
+    if (!b.accepted && !b.rejectReason) need('rejectReason', 'Say why the core is rejected.');
+    if (b.accepted && b.rejectReason) need('rejectReason', 'An accepted core has no reject reason.');
+    if (b.complete && b.missing.length) need('missing', 'A complete core has nothing missing.');
+    if (!b.complete && !b.missing.length) need('missing', 'Tick what is missing.');
+    if (new Date(`${b.receivedOn}T00:00:00Z`).getTime() > Date.now() + 86_400_000) {
+      need('receivedOn', 'The received date cannot be in the future.');
+    }
+  });
+export type ReceiveCoreBody = z.input<typeof receiveCoreBody>;
+
+export const duplicateQuery = z.strictObject({
+  castingNumber: partNumber,
+  idNumber: partNumber.optional(),
+});
+
+export const INTAKE_SORTS = ['receivedOn', 'serial', 'family', 'grade', 'castingNumber'] as const;
+export const intakeLogQuery = z.strictObject({
+  ...paging,
+  family: z.coerce.number().int().positive().optional(),
+  source: z.enum(SOURCES).optional(),
+  grade: z.enum(GRADES).optional(),
+  accepted: z.enum(['true', 'false']).optional(),
+  from: isoDate.optional(),
+  to: isoDate.optional(),
+  q: text(40).optional(),
+  sort: z.enum(INTAKE_SORTS).default('receivedOn'),
+  dir: z.enum(['asc', 'desc']).default('desc'),
+});
+export type IntakeLogQuery = z.input<typeof intakeLogQuery>;
+
+export type CoreSummary = {
+  serial: string;
+  familyCode: string;
+  castingNumber: string;
+  idNumber: string | null;
+  source: (typeof SOURCES)[number];
+  partyName: string | null;
+  sourceReference: string | null;
+  receivedOn: string;
+  receivedBy: string;
+  grade: (typeof GRADES)[number] | null;
+  accepted: boolean;
+  creditDecision: (typeof CREDIT_DECISIONS)[number] | null;
+  status: string;
+};
+
+export type Party = { id: number; code: string; name: string };
+
+export const TEARDOWN_PARTS = ['block', 'crankshaft', 'cylinder_head', 'camshaft', 'rod_set'] as const;
+export type TeardownPart = (typeof TEARDOWN_PARTS)[number];
+
+/** Wear parts are never reused (common practice): teardown records them as discarded by rule. */
+export const WEAR_PARTS = [
+  'pistons',
+  'piston rings',
+  'main and rod bearings',
+  'gaskets and seals',
+  'lifters',
+  'timing chain or belt',
+  'oil pump',
+] as const;
+
+export const teardownBody = z
+  .strictObject({
+    kept: z.array(z.strictObject({ kind: z.enum(TEARDOWN_PARTS), position: text(20).optional() })).max(8),
+    scrapped: z
+      .array(
+        z.strictObject({
+          kind: z.enum(TEARDOWN_PARTS),
+          position: text(20).optional(),
+          reason: text(300).min(3, 'Say why it is scrapped.'),
+        }),
+      )
+      .max(8)
+      .default([]),
+    notes: text(2000).default(''),
+  })
+  .refine((b) => b.kept.length + b.scrapped.length > 0, { message: 'Record at least one part.', path: ['kept'] });
+export type TeardownBody = z.input<typeof teardownBody>;
+
+export const serialParam = z.strictObject({ serial: z.string().trim().min(1).max(30) });
+
+export const labelStocks = ['2x1in', '50x25mm'] as const;
+export const labelsPrintedBody = z.strictObject({
+  serials: z.array(z.string().trim().min(1).max(30)).min(1).max(100),
+  stock: z.enum(labelStocks),
+});

@@ -1,0 +1,7 @@
+import type { AuditFilter } from './audit-events';
+
+export const auditKeys = {
+  all: ['audit'] as const,
+  events: (filter: AuditFilter) => ['audit', 'events', filter] as const,
+  verify: ['audit', 'verify'] as const,
+};

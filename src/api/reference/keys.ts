@@ -1,0 +1,5 @@
+export const referenceKeys = {
+  stations: ['stations'] as const,
+  stages: ['stages'] as const,
+  families: ['engine-families'] as const,
+};

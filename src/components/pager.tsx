@@ -1,0 +1,44 @@
+import { formatGrouped } from '../lib/format';
+import { Button } from './ui/button';
+
+type PagerProps = {
+  page: number;
+  pageSize: number;
+  total: number;
+  onPage: (page: number) => void;
+  noun: [string, string];
+};
+
+/** "41–60 of 112 people" and the two ways to move; the count is announced as it changes. */
+export function Pager({ page, pageSize, total, onPage, noun }: PagerProps) {
+  const pages = Math.max(1, Math.ceil(total / pageSize));
+  const first = total === 0 ? 0 : (page - 1) * pageSize + 1;
+  const last = Math.min(total, page * pageSize);
+  return (
+    <nav aria-label="Pages" className="flex w-full flex-wrap items-center justify-between gap-3">
+      <p aria-live="polite" className="text-sm text-ink-soft">
+        {total === 0 ? (
+          `No ${noun[1]}`
+        ) : (
+          <>
+            <span className="font-mono tabular-nums">
+              {formatGrouped(first)}–{formatGrouped(last)}
+            </span>{' '}
+            of <span className="font-mono tabular-nums">{formatGrouped(total)}</span> {total === 1 ? noun[0] : noun[1]}
+          </>
+        )}
+      </p>
+      <div className="flex items-center gap-2">
+        <Button size="sm" icon="chevronLeft" disabled={page <= 1} onClick={() => onPage(page - 1)}>
+          Previous
+        </Button>
+        <span className="text-sm text-ink-soft">
+          Page <span className="font-mono">{page}</span> of <span className="font-mono">{pages}</span>
+        </span>
+        <Button size="sm" disabled={page >= pages} onClick={() => onPage(page + 1)}>
+          Next
+        </Button>
+      </div>
+    </nav>
+  );
+}

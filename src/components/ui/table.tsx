@@ -1,0 +1,81 @@
+import type { ReactNode, TdHTMLAttributes, ThHTMLAttributes } from 'react';
+
+export type Align = 'left' | 'right' | 'center';
+const alignCls: Record<Align, string> = { left: 'text-left', right: 'text-right', center: 'text-center' };
+
+/** Scrolls inside itself so the header row can stay in view over long lists. */
+export function TableFrame({ children, label, busy = false }: { children: ReactNode; label?: string; busy?: boolean }) {
+  return (
+    <div
+      className={`max-h-[calc(100vh-16rem)] min-h-32 overflow-auto transition-opacity ${busy ? 'opacity-60' : ''}`}
+      aria-busy={busy}
+      role={label ? 'region' : undefined}
+      aria-label={label}
+      tabIndex={label ? 0 : undefined}
+    >
+      {children}
+    </div>
+  );
+}
+
+export function Table({ children, caption }: { children: ReactNode; caption?: string }) {
+  return (
+    <table className="w-full border-separate border-spacing-0 text-[0.925rem] floor:text-base">
+      {caption && <caption className="sr-only">{caption}</caption>}
+      {children}
+    </table>
+  );
+}
+
+export const THead = ({ children }: { children: ReactNode }) => <thead>{children}</thead>;
+export const TBody = ({ children }: { children: ReactNode }) => <tbody>{children}</tbody>;
+
+export function TR({ children, muted = false }: { children: ReactNode; muted?: boolean }) {
+  return <tr className={`hover:bg-sunk/60 ${muted ? 'text-ink-soft' : ''}`}>{children}</tr>;
+}
+
+type CellOwn = { align?: Align; mono?: boolean; nowrap?: boolean };
+
+export function TH({ align = 'left', children, ...rest }: CellOwn & ThHTMLAttributes<HTMLTableCellElement>) {
+  return (
+    <th
+      scope="col"
+      className={`sticky top-0 z-10 whitespace-nowrap border-b border-rule-strong bg-sunk px-2.5 py-2 text-xs font-semibold uppercase tracking-wide text-ink-soft first:pl-5 last:pr-5 ${alignCls[align]}`}
+      {...rest}
+    >
+      {children}
+    </th>
+  );
+}
+
+export function TD({
+  align = 'left',
+  mono = false,
+  nowrap = false,
+  children,
+  ...rest
+}: CellOwn & TdHTMLAttributes<HTMLTableCellElement>) {
+  const cls = [
+    'border-b border-rule px-2.5 py-2 align-middle first:pl-5 last:pr-5 floor:py-3',
+    alignCls[align],
+    mono ? 'font-mono text-[0.875rem] floor:text-[0.95rem]' : '',
+    align === 'right' ? 'tabular-nums' : '',
+    nowrap ? 'whitespace-nowrap' : '',
+  ].join(' ');
+  return (
+    <td className={cls} {...rest}>
+      {children}
+    </td>
+  );
+}
+
+/** The one row that says why a table has nothing in it. */
+export function EmptyRow({ colSpan, children }: { colSpan: number; children: ReactNode }) {
+  return (
+    <tr>
+      <td colSpan={colSpan} className="px-5 py-8 text-center text-ink-soft">
+        {children}
+      </td>
+    </tr>
+  );
+}

@@ -1,0 +1,88 @@
+import type { ApiError as ApiErrorReply } from '../../shared/schemas/common';
+
+type ErrorBody = ApiErrorReply['error'];
+
+/** A failed API call, carrying the server's stable code, its plain message and per-field notes. */
+export class ApiError extends Error {
+  readonly status: number;
+  readonly code: string;
+  readonly fields: Record<string, string>;
+  readonly requestId: string | undefined;
+
+  constructor(status: number, body: ErrorBody) {
+    super(body.message);
+    this.name = 'ApiError';
+    this.status = status;
+    this.code = body.code;
+    this.fields = body.fields ?? {};
+    this.requestId = body.requestId;
+  }
+
+  /** The session is gone (expired, revoked, password changed elsewhere): not a wrong password. */
+  get isSignedOut(): boolean {
+    return this.status === 401 && this.code === 'unauthenticated';
+  }
+}
+
+export type Query = Record<string, string | number | boolean | null | undefined>;
+
+export type RequestOptions = {
+  method?: 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE';
+  body?: unknown;
+  query?: Query;
+  signal?: AbortSignal;
+};
+
+function withQuery(path: string, query: Query | undefined): string {
+  if (!query) return path;
+  const q = new URLSearchParams();
+  for (const [k, v] of Object.entries(query)) {
+    if (v === undefined || v === null || v === '') continue;
+    q.set(k, String(v));
+  }
+  const s = q.toString();
+  return s ? `${path}?${s}` : path;
+}
+
+async function readError(res: Response): Promise<ErrorBody> {
+  try {
+    const json = (await res.json()) as Partial<ApiErrorReply>;
+    if (json.error?.message) return json.error;
+  } catch {
+    // not JSON: a proxy or a crash page; fall through to a plain message
+  }
+  return {
+    code: `http_${res.status}`,
+    message: `The server answered ${res.status} ${res.statusText}. Try again shortly.`,
+  };
+}
+
+/**
+ * The one way the client talks to the API: JSON in and out, the session cookie sent along, and
+ * every failure turned into an ApiError. Sending people to sign-in on a lost session is done once,
+ * by the query client (lib/query-client.ts), so this stays free of routing.
+ */
+export async function http<T>(path: string, { method = 'GET', body, query, signal }: RequestOptions = {}): Promise<T> {
+  let res: Response;
+  try {
+    res = await fetch(withQuery(path, query), {
+      method,
+      credentials: 'same-origin',
+      headers:
+        body === undefined
+          ? { Accept: 'application/json' }
+          : { Accept: 'application/json', 'Content-Type': 'application/json' },
+      body: body === undefined ? undefined : JSON.stringify(body),
+      signal,
+    });
+  } catch (err) {
+    if (signal?.aborted) throw err;
+    throw new ApiError(0, {
+      code: 'network',
+      message: 'Coretrail could not reach the server. Check the connection, then try again.',
+    });
+  }
+  if (!res.ok) throw new ApiError(res.status, await readError(res));
+  if (res.status === 204) return undefined as T;
+  return (await res.json()) as T;
+}

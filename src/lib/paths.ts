@@ -1,0 +1,45 @@
+/** Every client path in one place; pages and links build URLs only through these. */
+export const paths = {
+  home: '/',
+  signIn: '/sign-in',
+  account: '/account',
+  people: '/admin/people',
+  stations: '/admin/stations',
+  families: '/admin/families',
+  audit: '/admin/audit',
+} as const;
+
+/** Why the sign-in page was shown, so it can say so in plain words. */
+export const SIGN_IN_NOTES = {
+  'password-changed': 'Password changed — sign in again.',
+  'signed-out': 'You are signed out.',
+  expired: 'Your session has ended. Sign in again to carry on where you were.',
+} as const;
+export type SignInNote = keyof typeof SIGN_IN_NOTES;
+
+export function signInHref({ next, note }: { next?: string; note?: SignInNote } = {}): string {
+  const q = new URLSearchParams();
+  if (next && safeNext(next) !== paths.home) q.set('next', next);
+  if (note) q.set('note', note);
+  const s = q.toString();
+  return s ? `${paths.signIn}?${s}` : paths.signIn;
+}
+
+/**
+ * Where to go after sign-in. Only a path on this site is accepted ("/x", not "//host" or
+ * "https://…"), so a crafted link cannot bounce a fresh session to another origin.
+ */
+export function safeNext(raw: string | null | undefined): string {
+  if (!raw || !raw.startsWith('/') || raw.startsWith('//') || raw.startsWith('/\\')) return paths.home;
+  if (raw === paths.signIn || raw.startsWith(`${paths.signIn}?`)) return paths.home;
+  return raw;
+}
+
+export function auditHref(filter: { entity?: string; entityId?: string | number; actorId?: number } = {}): string {
+  const q = new URLSearchParams();
+  if (filter.entity) q.set('entity', filter.entity);
+  if (filter.entityId !== undefined) q.set('entityId', String(filter.entityId));
+  if (filter.actorId !== undefined) q.set('actorId', String(filter.actorId));
+  const s = q.toString();
+  return s ? `${paths.audit}?${s}` : paths.audit;
+}

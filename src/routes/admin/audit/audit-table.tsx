@@ -1,0 +1,130 @@
+import { createColumnHelper, getCoreRowModel, useReactTable } from '@tanstack/react-table';
+import { useMemo, useState } from 'react';
+import type { AuditEvent } from '../../../../shared/schemas/audit';
+import { ROLE_LABELS, type Role } from '../../../../shared/roles';
+import { DataTable } from '../../../components/data-table';
+import { Icon } from '../../../components/ui/icon';
+import { formatWhen } from '../../../lib/format';
+import { AuditChange } from './audit-change';
+import { ACTION_LABELS, ENTITY_LABELS } from './filter';
+
+const col = createColumnHelper<AuditEvent>();
+const linkCls = 'text-left text-accent underline-offset-4 hover:underline';
+
+type AuditTableProps = {
+  rows: AuditEvent[];
+  busy: boolean;
+  onActor: (actorId: number) => void;
+  onRecord: (entity: string, entityId: string) => void;
+};
+
+export function AuditTable({ rows, busy, onActor, onRecord }: AuditTableProps) {
+  const [open, setOpen] = useState<Set<number>>(() => new Set());
+  const toggle = (id: number) =>
+    setOpen((prev) => {
+      const next = new Set(prev);
+      if (next.has(id)) next.delete(id);
+      else next.add(id);
+      return next;
+    });
+
+  const columns = useMemo(
+    () => [
+      col.accessor('occurredAt', {
+        header: 'When',
+        meta: { mono: true, nowrap: true },
+        cell: (c) => formatWhen(c.getValue(), { seconds: true }),
+      }),
+      col.display({
+        id: 'who',
+        header: 'Who',
+        cell: (c) => {
+          const e = c.row.original;
+          if (e.actorId === null) return <span className="text-ink-soft">Coretrail (system)</span>;
+          const actorId = e.actorId;
+          return (
+            <span className="flex flex-col leading-tight">
+              <button
+                type="button"
+                className={linkCls}
+                onClick={() => onActor(actorId)}
+                aria-label={`Only changes by ${e.actorName ?? `person #${actorId}`}`}
+              >
+                {e.actorName ?? `Person #${actorId}`}
+              </button>
+              {e.actorRole && (
+                <span className="text-sm text-ink-soft">{ROLE_LABELS[e.actorRole as Role] ?? e.actorRole}</span>
+              )}
+            </span>
+          );
+        },
+      }),
+      col.accessor('action', {
+        header: 'Action',
+        cell: (c) => (
+          <span className="flex flex-col leading-tight">
+            <span>{ACTION_LABELS[c.getValue()] ?? c.getValue()}</span>
+            <span className="font-mono text-xs text-ink-faint">{c.getValue()}</span>
+          </span>
+        ),
+      }),
+      col.display({
+        id: 'record',
+        header: 'Record',
+        meta: { nowrap: true },
+        cell: (c) => {
+          const e = c.row.original;
+          return (
+            <button
+              type="button"
+              className={linkCls}
+              onClick={() => onRecord(e.entity, e.entityId)}
+              aria-label={`Only events of ${e.entity} ${e.entityId}`}
+            >
+              {ENTITY_LABELS[e.entity] ?? e.entity} <span className="font-mono">{e.entityId}</span>
+            </button>
+          );
+        },
+      }),
+      col.display({
+        id: 'change',
+        header: () => <span className="sr-only">Before and after</span>,
+        meta: { align: 'right', nowrap: true },
+        cell: (c) => {
+          const id = c.row.original.id;
+          const shown = open.has(id);
+          return (
+            <button
+              type="button"
+              aria-expanded={shown}
+              onClick={() => toggle(id)}
+              className="inline-flex h-8 items-center gap-1 rounded-control px-2 text-sm text-accent hover:bg-accent-tint floor:h-11"
+            >
+              <Icon name={shown ? 'chevronDown' : 'chevronRight'} size={16} />
+              {shown ? 'Hide change' : 'Show change'}
+            </button>
+          );
+        },
+      }),
+    ],
+    [open, onActor, onRecord],
+  );
+
+  // eslint-disable-next-line react-hooks/incompatible-library -- the table instance is rebuilt each render by design
+  const table = useReactTable({
+    data: rows,
+    columns,
+    getCoreRowModel: getCoreRowModel(),
+    getRowId: (e) => String(e.id),
+  });
+
+  return (
+    <DataTable
+      table={table}
+      caption="Audit events, newest first"
+      empty="No events match these filters."
+      busy={busy}
+      expanded={(e) => (open.has(e.id) ? <AuditChange event={e} /> : null)}
+    />
+  );
+}

@@ -1,0 +1,99 @@
+import { Link, NavLink, Outlet, useNavigate, useNavigation } from 'react-router';
+import type { LoaderFunctionArgs } from 'react-router';
+import type { QueryClient } from '@tanstack/react-query';
+import { ROLE_LABELS } from '../../../shared/roles';
+import { useSignedIn } from '../../api/auth/me';
+import { useSignOut } from '../../api/auth/sign-out';
+import { Wordmark } from '../../components/wordmark';
+import { Button } from '../../components/ui/button';
+import { paths, signInHref } from '../../lib/paths';
+import { PLANT_NAME } from '../../lib/plant';
+import { FLOOR_ROLES, requireSignedIn } from '../../lib/session';
+import { areasFor } from './areas';
+
+export const layoutLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    await requireSignedIn(queryClient, request);
+    return null;
+  };
+
+const navLinkClass = ({ isActive }: { isActive: boolean }) =>
+  [
+    'inline-flex h-11 items-center border-b-[3px] px-3 text-[0.95rem] floor:h-12 floor:px-4 floor:text-base',
+    isActive
+      ? 'border-accent font-semibold text-ink'
+      : 'border-transparent text-ink-soft hover:border-rule-strong hover:text-ink',
+  ].join(' ');
+
+export function AppLayout() {
+  const me = useSignedIn();
+  const signOut = useSignOut();
+  const navigate = useNavigate();
+  const navigation = useNavigation();
+  // between a sign-out and the sign-in page there is nobody to show
+  if (!me) return null;
+  const { user } = me;
+  const floor = FLOOR_ROLES.has(user.role);
+
+  const onSignOut = () =>
+    signOut.mutate(undefined, { onSettled: () => navigate(signInHref({ note: 'signed-out' }), { replace: true }) });
+
+  return (
+    <div data-density={floor ? 'floor' : 'office'} className="flex min-h-screen flex-col">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:left-3 focus:top-3 focus:z-50 focus:rounded-control focus:bg-card focus:px-3 focus:py-2"
+      >
+        Skip to the page
+      </a>
+      <header className="border-b border-rule-strong bg-card">
+        <div className="mx-auto flex max-w-page flex-wrap items-center gap-x-5 gap-y-2 px-6 pt-3">
+          <Link to={paths.home} className="rounded-control">
+            <Wordmark />
+          </Link>
+          <span className="hidden border-l border-rule pl-4 text-sm text-ink-soft lg:inline">{PLANT_NAME}</span>
+          <div className="ml-auto flex items-center gap-3">
+            <p className="text-right leading-tight">
+              <span className="block font-medium">{user.name}</span>
+              <span className="block text-sm text-ink-soft">{ROLE_LABELS[user.role]}</span>
+            </p>
+            <NavLink
+              to={paths.account}
+              className={({ isActive }) =>
+                `${isActive ? 'font-semibold text-ink underline' : 'text-accent'} inline-flex h-9 items-center rounded-control px-2 underline-offset-4 hover:underline floor:h-11 floor:px-3`
+              }
+            >
+              Account
+            </NavLink>
+            <Button variant="secondary" icon="signOut" onClick={onSignOut} disabled={signOut.isPending}>
+              Sign out
+            </Button>
+          </div>
+        </div>
+        <nav aria-label="Main" className="mx-auto mt-1 flex max-w-page flex-wrap gap-1 px-6">
+          <NavLink to={paths.home} end className={navLinkClass}>
+            Home
+          </NavLink>
+          {areasFor(user.role).map((a) => (
+            <NavLink key={a.to} to={a.to} className={navLinkClass}>
+              {a.label}
+            </NavLink>
+          ))}
+        </nav>
+      </header>
+      <div
+        aria-hidden="true"
+        className={`h-0.5 ${navigation.state === 'loading' ? 'animate-pulse bg-accent' : 'bg-transparent'}`}
+      />
+      <main
+        id="main"
+        tabIndex={-1}
+        aria-busy={navigation.state === 'loading'}
+        className="mx-auto w-full max-w-page flex-1 px-6 py-6 outline-none"
+      >
+        <Outlet />
+      </main>
+    </div>
+  );
+}

@@ -1,0 +1,74 @@
+import { Link } from 'react-router';
+import { ROLE_LABELS, ROLE_SUMMARIES } from '../../../shared/roles';
+import { useSignedIn } from '../../api/auth/me';
+import { PageHeader } from '../../components/page-header';
+import { Card } from '../../components/ui/card';
+import { Icon } from '../../components/ui/icon';
+import { paths } from '../../lib/paths';
+import { areasFor, comingFor } from '../app/areas';
+
+type Tile = { label: string; to: string; summary: string };
+
+function AreaCard({ tile }: { tile: Tile }) {
+  return (
+    <li>
+      <Link
+        to={tile.to}
+        className="group flex h-full flex-col rounded-card border border-rule bg-card p-5 shadow-card hover:border-accent floor:min-h-32"
+      >
+        <span className="flex items-center justify-between gap-2 text-lg font-semibold text-ink group-hover:text-accent">
+          {tile.label}
+          <Icon name="arrowRight" className="text-accent" />
+        </span>
+        <span className="mt-1.5 text-ink-soft">{tile.summary}</span>
+      </Link>
+    </li>
+  );
+}
+
+export function HomePage() {
+  const me = useSignedIn();
+  if (!me) return null;
+  const role = me.user.role;
+  const tiles: Tile[] = [
+    ...areasFor(role),
+    { label: 'Your account', to: paths.account, summary: 'Your name, e-mail and role; change your password.' },
+  ];
+  const coming = comingFor(role);
+
+  return (
+    <>
+      <PageHeader title={`${ROLE_LABELS[role]} home`} description={ROLE_SUMMARIES[role]} />
+      <section aria-labelledby="now-heading" className="mb-8">
+        <h2 id="now-heading" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-soft">
+          What you can do now
+        </h2>
+        <ul className="grid grid-cols-1 gap-4 sm:grid-cols-2 xl:grid-cols-3">
+          {tiles.map((t) => (
+            <AreaCard key={t.to} tile={t} />
+          ))}
+        </ul>
+      </section>
+      {coming.length > 0 && (
+        <Card labelledBy="coming-heading">
+          <div className="px-5 py-4">
+            <h2 id="coming-heading" className="text-lg font-semibold">
+              Coming to your role
+            </h2>
+            <p className="mt-0.5 text-sm text-ink-soft">
+              Not built yet. These arrive in later releases of Coretrail; nothing here is live.
+            </p>
+            <ul className="mt-3 divide-y divide-rule border-t border-rule">
+              {coming.map((c) => (
+                <li key={c.label} className="flex flex-col gap-0.5 py-2.5 sm:flex-row sm:gap-4">
+                  <span className="font-medium sm:w-44 sm:shrink-0">{c.label}</span>
+                  <span className="text-ink-soft">{c.summary}</span>
+                </li>
+              ))}
+            </ul>
+          </div>
+        </Card>
+      )}
+    </>
+  );
+}

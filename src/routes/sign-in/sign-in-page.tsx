@@ -1,0 +1,76 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { redirect, useNavigate, useSearchParams, type LoaderFunctionArgs } from 'react-router';
+import { loginBody } from '../../../shared/schemas/auth';
+import { meQueryOptions } from '../../api/auth/me';
+import { useSignIn } from '../../api/auth/sign-in';
+import { Form, SubmitButton } from '../../components/form';
+import { TextField } from '../../components/form-fields';
+import { Notice } from '../../components/ui/notice';
+import { Wordmark } from '../../components/wordmark';
+import { safeNext, SIGN_IN_NOTES, type SignInNote } from '../../lib/paths';
+import { PLANT_NAME } from '../../lib/plant';
+import { forgetEverything } from '../../lib/session';
+
+export const signInLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    // always ask the server: a sign-out or a lost session is exactly when the cache is out of date
+    const me = await queryClient.fetchQuery({ ...meQueryOptions(), staleTime: 0 });
+    if (me) throw redirect(safeNext(new URL(request.url).searchParams.get('next')));
+    forgetEverything(queryClient);
+    return null;
+  };
+
+const isNote = (v: string | null): v is SignInNote => v !== null && v in SIGN_IN_NOTES;
+
+export function SignInPage() {
+  const [params] = useSearchParams();
+  const navigate = useNavigate();
+  const signIn = useSignIn();
+  const next = safeNext(params.get('next'));
+  const note = params.get('note');
+
+  return (
+    // anyone may be signing in on a dock or station tablet, so the form gets the large targets
+    <main data-density="floor" className="flex min-h-screen items-start justify-center px-4 py-[12vh]">
+      <div className="w-full max-w-[26rem]">
+        <div className="mb-5 flex flex-col items-center gap-1 text-center">
+          <Wordmark large />
+          <p className="text-ink-soft">{PLANT_NAME}</p>
+        </div>
+        <section
+          aria-labelledby="sign-in-heading"
+          className="rounded-card border border-rule bg-card px-6 py-6 shadow-card"
+        >
+          <h1 id="sign-in-heading" className="mb-4 text-xl font-semibold">
+            Sign in
+          </h1>
+          {isNote(note) && (
+            <div className="mb-4">
+              <Notice tone={note === 'password-changed' ? 'ok' : 'info'} live="status">
+                {SIGN_IN_NOTES[note]}
+              </Notice>
+            </div>
+          )}
+          <Form
+            schema={loginBody}
+            defaultValues={{ email: '', password: '' }}
+            onSubmit={async (values) => {
+              await signIn.mutateAsync(values);
+              await navigate(next, { replace: true });
+            }}
+          >
+            <TextField name="email" label="E-mail" type="email" autoComplete="username" autoFocus />
+            <TextField name="password" label="Password" type="password" autoComplete="current-password" />
+            <SubmitButton size="lg" wide>
+              Sign in
+            </SubmitButton>
+          </Form>
+        </section>
+        <p className="mt-4 text-center text-sm text-ink-soft">
+          Forgotten your password? An administrator can set a new one for you.
+        </p>
+      </div>
+    </main>
+  );
+}

@@ -1,0 +1,102 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { Attachment } from '../../server/models/index.js';
+import { cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
+import { elfBytes, htmlBytes, pngImage } from '../support/images.js';
+
+let t: TestApp;
+let dir: string;
+let uploaderId: number;
+let receiving: string;
+
+function filesIn(root: string): string[] {
+  if (!fs.existsSync(root)) return [];
+  return fs
+    .readdirSync(root, { recursive: true, withFileTypes: true })
+    .filter((e) => e.isFile())
+    .map((e) => e.name);
+}
+
+beforeAll(async () => {
+  dir = fs.mkdtempSync(path.join(os.tmpdir(), 'coretrail-uploads-'));
+  t = makeTestApp({ UPLOAD_DIR: dir });
+  const user = await makeUser('receiving');
+  uploaderId = user.id;
+  receiving = await cookieFor(user, t.config);
+});
+afterAll(async () => {
+  await t.close();
+  fs.rmSync(dir, { recursive: true, force: true });
+});
+
+async function nothingStored() {
+  expect(filesIn(dir)).toEqual([]);
+  expect(await Attachment.count({ where: { uploadedById: uploaderId } })).toBe(0);
+}
+
+describe('photo uploads are checked by their bytes', () => {
+  it('when a program is renamed to .jpg and sent as image/jpeg, then 415 and nothing stored', async () => {
+    const res = await request(t.app)
+      .post('/api/attachments')
+      .set('Cookie', receiving)
+      .attach('file', elfBytes(), { filename: 'core-photo.jpg', contentType: 'image/jpeg' });
+    expect(res.status).toBe(415);
+    expect(res.body.error.code).toBe('not_an_image');
+    await nothingStored();
+  });
+
+  it('when an HTML page poses as a PNG, then 415 and nothing stored', async () => {
+    const res = await request(t.app)
+      .post('/api/attachments')
+      .set('Cookie', receiving)
+      .attach('file', htmlBytes(), { filename: 'photo.png', contentType: 'image/png' });
+    expect(res.status).toBe(415);
+    await nothingStored();
+  });
+
+  it('when the file is over 8 MB, then 413 and nothing stored', async () => {
+    const big = Buffer.concat([pngImage(), Buffer.alloc(8 * 1024 * 1024 + 1)]);
+    const res = await request(t.app).post('/api/attachments').set('Cookie', receiving).attach('file', big, 'big.png');
+    expect(res.status).toBe(413);
+    expect(res.body.error.code).toBe('too_large');
+    await nothingStored();
+  });
+
+  it('when the role may not upload, then 403 and nothing stored', async () => {
+    const shipping = await cookieFor(await makeUser('shipping'), t.config);
+    const res = await request(t.app)
+      .post('/api/attachments')
+      .set('Cookie', shipping)
+      .attach('file', pngImage(), 'p.png');
+    expect(res.status).toBe(403);
+    await nothingStored();
+  });
+
+  it('when no file is sent, then 400 naming the field', async () => {
+    const res = await request(t.app).post('/api/attachments').set('Cookie', receiving).field('note', 'x');
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields).toHaveProperty('file');
+  });
+
+  it('a real photo is stored under a generated name, outside the served client, and read back by id only', async () => {
+    const res = await request(t.app)
+      .post('/api/attachments')
+      .set('Cookie', receiving)
+      .attach('file', pngImage(), { filename: '../../etc/passwd.png', contentType: 'application/octet-stream' });
+    expect(res.status).toBe(201);
+    expect(res.body.mimeType).toBe('image/png');
+    const [stored] = filesIn(dir);
+    expect(stored).toMatch(/^[0-9a-f-]{36}\.png$/);
+    expect(res.body.fileName).not.toContain('/');
+    // pending photos are the uploader's alone
+    const other = await cookieFor(await makeUser('quality'), t.config);
+    expect((await request(t.app).get(res.body.url).set('Cookie', other)).status).toBe(404);
+    const back = await request(t.app).get(res.body.url).set('Cookie', receiving);
+    expect(back.status).toBe(200);
+    expect(back.headers['x-content-type-options']).toBe('nosniff');
+    expect(Buffer.compare(back.body as Buffer, pngImage())).toBe(0);
+  });
+});
