@@ -122,6 +122,9 @@ export function persistentClusterDir(projectDir) {
   if (canReach(local)) return local;
   fs.rmSync(local, { recursive: true, force: true });
   const hash = createHash('sha256').update(path.resolve(projectDir)).digest('hex').slice(0, 12);
+  // the parent must be enterable by the postgres user; the cluster folder itself is its alone
+  fs.mkdirSync('/var/lib/coretrail', { recursive: true, mode: 0o755 });
+  fs.chmodSync('/var/lib/coretrail', 0o755);
   const outside = path.join('/var/lib/coretrail', hash);
   fs.writeFileSync(
     path.join(projectDir, '.data', 'cluster-location'),

@@ -22,7 +22,11 @@ type TextFieldProps = Common & {
   autoComplete?: string;
   mono?: boolean;
   placeholder?: string;
+  /** Left empty, the field is absent (undefined) rather than "", so an optional schema key accepts it. */
+  optional?: boolean;
 };
+
+const blankToUndefined = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
 
 export function TextField({
   name,
@@ -34,6 +38,7 @@ export function TextField({
   disabled,
   autoFocus,
   placeholder,
+  optional = false,
 }: TextFieldProps) {
   const { id, register, error } = useBound(name);
   return (
@@ -48,13 +53,13 @@ export function TextField({
         placeholder={placeholder}
         aria-invalid={error ? true : undefined}
         aria-describedby={describedBy(id, hint, error)}
-        {...register(name)}
+        {...register(name, optional ? { setValueAs: blankToUndefined } : {})}
       />
     </Field>
   );
 }
 
-export function TextAreaField({ name, label, hint }: Common) {
+export function TextAreaField({ name, label, hint, optional = false }: Common & { optional?: boolean }) {
   const { id, register, error } = useBound(name);
   return (
     <Field id={id} label={label} hint={hint} error={error}>
@@ -62,7 +67,7 @@ export function TextAreaField({ name, label, hint }: Common) {
         id={id}
         aria-invalid={error ? true : undefined}
         aria-describedby={describedBy(id, hint, error)}
-        {...register(name)}
+        {...register(name, optional ? { setValueAs: blankToUndefined } : {})}
       />
     </Field>
   );
@@ -108,6 +113,10 @@ type SelectFieldProps = Common & {
   groups?: OptionGroup[];
   placeholder?: string;
   emptyIsNull?: boolean;
+  /** The chosen value is an id: sent as a number, and the empty choice as absent. */
+  numeric?: boolean;
+  /** The empty choice is absent (undefined) rather than "". */
+  optional?: boolean;
 };
 
 export function SelectField({
@@ -118,9 +127,15 @@ export function SelectField({
   groups,
   placeholder,
   emptyIsNull = false,
+  numeric = false,
+  optional = false,
   disabled,
 }: SelectFieldProps) {
   const { id, register, error } = useBound(name);
+  const setValueAs = (v: unknown) => {
+    if (v === '' || v === undefined) return emptyIsNull ? null : numeric || optional ? undefined : v;
+    return numeric ? Number(v) : v;
+  };
   return (
     <Field id={id} label={label} hint={hint} error={error}>
       <Select
@@ -131,7 +146,7 @@ export function SelectField({
         disabled={disabled}
         aria-invalid={error ? true : undefined}
         aria-describedby={describedBy(id, hint, error)}
-        {...register(name, emptyIsNull ? { setValueAs: (v: unknown) => (v === '' ? null : v) } : {})}
+        {...register(name, emptyIsNull || numeric || optional ? { setValueAs } : {})}
       />
     </Field>
   );

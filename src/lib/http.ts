@@ -8,6 +8,8 @@ export class ApiError extends Error {
   readonly code: string;
   readonly fields: Record<string, string>;
   readonly requestId: string | undefined;
+  /** Anything else the server said about the refusal, e.g. `reason` and the look-alike cores of a 409. */
+  readonly details: Record<string, unknown>;
 
   constructor(status: number, body: ErrorBody) {
     super(body.message);
@@ -16,6 +18,9 @@ export class ApiError extends Error {
     this.code = body.code;
     this.fields = body.fields ?? {};
     this.requestId = body.requestId;
+    const { code: _c, message: _m, fields: _f, requestId: _r, ...details } = body as ErrorBody &
+      Record<string, unknown>;
+    this.details = details;
   }
 
   /** The session is gone (expired, revoked, password changed elsewhere): not a wrong password. */
@@ -28,6 +33,7 @@ export type Query = Record<string, string | number | boolean | null | undefined>
 
 export type RequestOptions = {
   method?: 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE';
+  /** JSON, or FormData for an upload (the browser then sets the multipart boundary itself). */
   body?: unknown;
   query?: Query;
   signal?: AbortSignal;
@@ -58,21 +64,19 @@ async function readError(res: Response): Promise<ErrorBody> {
 }
 
 /**
- * The one way the client talks to the API: JSON in and out, the session cookie sent along, and
- * every failure turned into an ApiError. Sending people to sign-in on a lost session is done once,
+ * The one way the client talks to the API: JSON in and out (multipart for uploads), the session
+ * cookie sent along, and every failure turned into an ApiError. Sending people to sign-in on a lost session is done once,
  * by the query client (lib/query-client.ts), so this stays free of routing.
  */
 export async function http<T>(path: string, { method = 'GET', body, query, signal }: RequestOptions = {}): Promise<T> {
   let res: Response;
+  const raw = body === undefined || body instanceof FormData;
   try {
     res = await fetch(withQuery(path, query), {
       method,
       credentials: 'same-origin',
-      headers:
-        body === undefined
-          ? { Accept: 'application/json' }
-          : { Accept: 'application/json', 'Content-Type': 'application/json' },
-      body: body === undefined ? undefined : JSON.stringify(body),
+      headers: raw ? { Accept: 'application/json' } : { Accept: 'application/json', 'Content-Type': 'application/json' },
+      body: raw ? (body as FormData | undefined) : JSON.stringify(body),
       signal,
     });
   } catch (err) {

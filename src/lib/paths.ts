@@ -1,3 +1,6 @@
+import type { labelStocks } from '../../shared/schemas/intake';
+import type { PartKind } from '../../shared/schemas/reference';
+
 /** Every client path in one place; pages and links build URLs only through these. */
 export const paths = {
   home: '/',
@@ -7,6 +10,12 @@ export const paths = {
   stations: '/admin/stations',
   families: '/admin/families',
   audit: '/admin/audit',
+  intake: '/intake',
+  receiveCore: '/intake/new',
+  core: '/cores/:serial',
+  item: '/items/:serial',
+  teardown: '/teardown',
+  labels: '/labels',
 } as const;
 
 /** Why the sign-in page was shown, so it can say so in plain words. */
@@ -33,6 +42,30 @@ export function safeNext(raw: string | null | undefined): string {
   if (!raw || !raw.startsWith('/') || raw.startsWith('//') || raw.startsWith('/\\')) return paths.home;
   if (raw === paths.signIn || raw.startsWith(`${paths.signIn}?`)) return paths.home;
   return raw;
+}
+
+export const coreHref = (serial: string) => `/cores/${encodeURIComponent(serial)}`;
+export const itemHref = (serial: string) => `/items/${encodeURIComponent(serial)}`;
+
+/**
+ * Where a scanned serial opens: a core's full receipt for those who may read intake, otherwise the
+ * item page (an operator tearing down a core sees its route and parts, not the customer's terms).
+ */
+export const serialHref = (serial: string, kind: PartKind, canReadIntake: boolean) =>
+  kind === 'core' && canReadIntake ? coreHref(serial) : itemHref(serial);
+
+export const teardownHref = (serial?: string) =>
+  serial ? `${paths.teardown}?serial=${encodeURIComponent(serial)}` : paths.teardown;
+
+export type LabelStock = (typeof labelStocks)[number];
+
+/** Serials stay readable in the address (dashes and letters need no escaping). */
+export function labelsHref(serials: string[], stock?: LabelStock): string {
+  const q = new URLSearchParams();
+  if (serials.length) q.set('serials', serials.join(','));
+  if (stock) q.set('stock', stock);
+  const s = q.toString().replace(/%2C/g, ',');
+  return s ? `${paths.labels}?${s}` : paths.labels;
 }
 
 export function auditHref(filter: { entity?: string; entityId?: string | number; actorId?: number } = {}): string {

@@ -73,6 +73,35 @@ const glyphs = {
       <rect x="9.5" y="7" width="8" height="6" rx="3" />
     </>
   ),
+  camera: (
+    <>
+      <path d="M2.5 6.5h3.2l1.5-2.2h5.6l1.5 2.2h3.2v9.5h-15z" />
+      <circle cx="10" cy="11" r="3" />
+    </>
+  ),
+  print: (
+    <>
+      <path d="M5.5 7.5V2.5h9v5" />
+      <rect x="2.5" y="7.5" width="15" height="6.5" rx="1" />
+      <path d="M5.5 12v5.5h9V12" />
+    </>
+  ),
+  download: <path d="M10 3v10M5.8 9l4.2 4.2L14.2 9M3.5 16.5h13" />,
+  trash: <path d="M3.5 5.5h13M8 5.5V3.5h4v2M5 5.5l.8 11h8.4l.8-11" />,
+  scan: (
+    <>
+      <path d="M2.5 6.5v-4h4M13.5 2.5h4v4M17.5 13.5v4h-4M6.5 17.5h-4v-4" />
+      <path d="M5.5 10h9" />
+    </>
+  ),
+  // a hook under a load line: heavy parts, lift with the hoist
+  hoist: <path d="M5.5 2.5h9M10 2.5v9a3.5 3.5 0 0 1-7 0v-1.8" />,
+  stepNow: (
+    <>
+      <circle cx="10" cy="10" r="7.5" />
+      <path d="M8 6.5l4.5 3.5L8 13.5z" fill="currentColor" />
+    </>
+  ),
 } as const;
 
 export type IconName = keyof typeof glyphs;

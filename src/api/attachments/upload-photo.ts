@@ -1,0 +1,28 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { http } from '../../lib/http';
+import { auditKeys } from '../audit/keys';
+
+/** server/services/attachments.ts presentAttachment. */
+export type Attachment = {
+  id: number;
+  fileName: string;
+  mimeType: string;
+  sizeBytes: number;
+  url: string;
+  createdAt: string;
+};
+
+export function uploadPhoto(file: File) {
+  const form = new FormData();
+  form.append('file', file);
+  return http<Attachment>('/api/attachments', { method: 'POST', body: form });
+}
+
+/** The photo waits, private to the uploader, until the record it belongs to is saved with its id. */
+export function useUploadPhoto() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: uploadPhoto,
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: auditKeys.all }),
+  });
+}

@@ -1,0 +1,4 @@
+export const itemKeys = {
+  all: ['items'] as const,
+  one: (serial: string) => ['items', serial] as const,
+};
