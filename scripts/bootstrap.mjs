@@ -1,6 +1,7 @@
 // Shared first steps of `npm start`, `npm test` and `npm run dev`: make sure npm dependencies are
 // installed. Plain Node, no dependencies.
 import { spawnSync } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -27,4 +28,37 @@ export function ensureNodeModules() {
 export function run(cmd, args, opts = {}) {
   const r = spawnSync(cmd, args, { cwd: projectDir, stdio: 'inherit', ...opts });
   return r.status ?? 1;
+}
+
+/**
+ * The project's own cluster and database, as `npm start`, `npm run dev` and the db:* scripts use
+ * them: started if needed, the database created if missing. Exits with a plain message on failure.
+ */
+export async function openProjectDatabase() {
+  const { ClusterError, ensureDatabase, ensurePostgres, persistentClusterDir, startCluster } =
+    await import('../db/cluster.mjs');
+  const database = process.env.CORETRAIL_DB ?? 'coretrail';
+  let cluster;
+  try {
+    const bin = ensurePostgres();
+    cluster = await startCluster({
+      dir: persistentClusterDir(projectDir),
+      port: Number(process.env.CORETRAIL_PG_PORT ?? 54329),
+      bin,
+    });
+    await ensureDatabase(cluster, database);
+  } catch (err) {
+    process.stderr.write(`\n${err instanceof ClusterError ? err.message : (err?.stack ?? err)}\n`);
+    if (cluster?.startedHere) cluster.stop();
+    process.exit(1);
+  }
+  return { cluster, database, url: cluster.url(database) };
+}
+
+/** The session-signing secret, made once and kept in .data (git-ignored). */
+export function projectSecret() {
+  const file = path.join(projectDir, '.data', 'jwt-secret');
+  fs.mkdirSync(path.dirname(file), { recursive: true });
+  if (!fs.existsSync(file)) fs.writeFileSync(file, randomBytes(48).toString('base64url'), { mode: 0o600 });
+  return fs.readFileSync(file, 'utf8').trim();
 }

@@ -1,45 +1,25 @@
 import fs from 'node:fs';
-import type { Server } from 'node:http';
 import path from 'node:path';
-import { chromium, type Browser } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_USERS } from '../../db/seeders/plant.js';
 import { ROLE_LABELS } from '../../shared/roles.js';
-import { makeTestApp, type TestApp } from '../support/app.js';
+import { launch, serveApp, type Served } from '../support/browser.js';
 
-export const CHROMIUM_ARGS = [
-  '--headless',
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-  '--no-first-run',
-];
-
-let t: TestApp;
-let server: Server;
+let served: Served;
 let base: string;
 let browser: Browser;
 const shots = path.resolve('test-results/e2e');
 
 beforeAll(async () => {
-  t = makeTestApp({ CLIENT_DIR: process.env.CLIENT_DIR ?? path.resolve('dist') });
-  server = await new Promise<Server>((resolve) => {
-    const s = t.app.listen(0, '127.0.0.1', () => resolve(s));
-  });
-  const addr = server.address();
-  base = `http://127.0.0.1:${typeof addr === 'object' && addr ? addr.port : 0}`;
-  browser = await chromium.launch({
-    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-    args: CHROMIUM_ARGS,
-  });
+  served = await serveApp();
+  base = served.base;
+  browser = await launch();
   fs.mkdirSync(shots, { recursive: true });
 });
 afterAll(async () => {
   await browser?.close();
-  await new Promise((r) => server?.close(r));
-  await t?.close();
+  await served?.close();
 });
 
 describe('signing in in a real browser', () => {
