@@ -10,7 +10,8 @@ import { SignInPage, signInLoader } from './routes/sign-in/sign-in-page';
 
 /**
  * Loaders fill the query cache with the same queryOptions the pages read, so nothing waterfalls.
- * The office areas load their code on first visit: a floor tablet never downloads the admin screens.
+ * Each area loads its code on first visit: a floor tablet never downloads the admin screens, and
+ * the office never downloads the camera reader.
  */
 export function appRoutes(queryClient: QueryClient): RouteObject[] {
   return [
@@ -59,6 +60,48 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               lazy: async () => {
                 const m = await import('./routes/admin/audit/audit-page');
                 return { Component: m.AuditPage, loader: m.auditLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.intake,
+              lazy: async () => {
+                const m = await import('./routes/intake/intake-log-page');
+                return { Component: m.IntakeLogPage, loader: m.intakeLogLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.receiveCore,
+              lazy: async () => {
+                const m = await import('./routes/intake/receive-page');
+                return { Component: m.ReceivePage, loader: m.receiveLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.core,
+              lazy: async () => {
+                const m = await import('./routes/cores/core-page');
+                return { Component: m.CorePage, loader: m.coreLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.item,
+              lazy: async () => {
+                const m = await import('./routes/items/item-page');
+                return { Component: m.ItemPage, loader: m.itemLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.teardown,
+              lazy: async () => {
+                const m = await import('./routes/teardown/teardown-page');
+                return { Component: m.TeardownPage, loader: m.teardownLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.labels,
+              lazy: async () => {
+                const m = await import('./routes/labels/labels-page');
+                return { Component: m.LabelsPage, loader: m.labelsLoader(queryClient) };
               },
             },
             { path: '*', element: <NotFoundPage /> },

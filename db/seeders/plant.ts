@@ -62,6 +62,8 @@ const HAZARD = {
   machining:
     "Rotating cutters and hones. Guards closed, no gloves near rotating spindles, follow the machine's own operating procedure.",
   lifting: 'Heavy assembly: use the hoist and lifting points the plant procedure names.',
+  teardown:
+    'Heavy parts and stored fluids: lift the block, crankshaft and heads with the hoist and lifting points the plant procedure names; drain oil and coolant first.',
   run: 'A running engine: rotating parts, hot exhaust, carbon monoxide and fuel. Follow the test cell procedure and local codes.',
 };
 
@@ -78,7 +80,7 @@ export const STAGES: { code: string; name: string; partKind: PartKind; hazard: s
       code: 'teardown',
       name: 'Teardown',
       partKind: 'core',
-      hazard: HAZARD.lifting,
+      hazard: HAZARD.teardown,
       description: 'Core split into serialized major parts; wear parts discarded.',
     },
     {

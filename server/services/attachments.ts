@@ -1,6 +1,7 @@
 import { createHash, randomUUID } from 'node:crypto';
 import { fileTypeFromBuffer } from 'file-type';
 import { Op, type Sequelize, type Transaction } from 'sequelize';
+import type { AttachmentJson } from '../../shared/schemas/attachments.js';
 import { recordAudit, type Ctx } from '../audit.js';
 import { AppError, invalid, notFound } from '../errors.js';
 import { Attachment } from '../models/index.js';
@@ -9,15 +10,6 @@ import type { BlobStore } from '../storage/blob-store.js';
 /** Photos only, recognised by their bytes: the name and the browser's Content-Type are not trusted. */
 export const IMAGE_TYPES: Record<string, string> = { 'image/jpeg': 'jpg', 'image/png': 'png', 'image/webp': 'webp' };
 export const MAX_UPLOAD_BYTES = 8 * 1024 * 1024;
-
-export type AttachmentJson = {
-  id: number;
-  fileName: string;
-  mimeType: string;
-  sizeBytes: number;
-  url: string;
-  createdAt: string;
-};
 
 export const presentAttachment = (a: Attachment): AttachmentJson => ({
   id: a.id,

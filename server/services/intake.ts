@@ -1,6 +1,13 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { z } from 'zod';
-import type { CoreSummary, intakeLogQuery, receiveCoreBody } from '../../shared/schemas/intake.js';
+import type {
+  CoreDetail,
+  CoreReceipt as CoreReceiptJson,
+  CoreSummary,
+  intakeLogQuery,
+  receiveCoreBody,
+  TeardownRecord,
+} from '../../shared/schemas/intake.js';
 import { recordAudit, type Ctx } from '../audit.js';
 import { conflict, invalid, notFound } from '../errors.js';
 import { CoreReceipt, Customer, EngineFamily, Item, Supplier, User } from '../models/index.js';
@@ -108,7 +115,7 @@ export async function receiveCore(sequelize: Sequelize, ctx: Ctx, body: ReceiveC
   return coreDetail(serial);
 }
 
-export async function coreDetail(serialInput: string) {
+export async function coreDetail(serialInput: string): Promise<CoreDetail> {
   const item = await findBySerial(serialInput);
   if (item.kind !== 'core') throw notFound(`Core ${item.serial}`);
   const receipt = (await CoreReceipt.findOne({ where: { itemId: item.id } }))!;
@@ -130,15 +137,15 @@ export async function coreDetail(serialInput: string) {
       sourceReference: receipt.sourceReference,
       receivedOn: receipt.receivedOn,
       receivedBy: receivedBy?.name ?? '',
-      condition: receipt.condition,
-      grade: receipt.grade,
+      condition: receipt.condition as CoreReceiptJson['condition'],
+      grade: receipt.grade as CoreReceiptJson['grade'],
       accepted: receipt.accepted,
       rejectReason: receipt.rejectReason,
       creditDecision: receipt.creditDecision,
       creditReason: receipt.creditReason,
       notes: receipt.notes,
     },
-    teardown: (item.attributes as { teardown?: unknown }).teardown ?? null,
+    teardown: (item.attributes as { teardown?: TeardownRecord }).teardown ?? null,
     photos,
   };
 }

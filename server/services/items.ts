@@ -1,6 +1,7 @@
 import { randomInt } from 'node:crypto';
 import { Op, type Transaction } from 'sequelize';
 import { makeSerial, parseSerial } from '../../shared/domain/serial.js';
+import type { ItemJson, RouteStep } from '../../shared/schemas/items.js';
 import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.js';
 import { invalid, notFound } from '../errors.js';
 import { EngineFamily, Item, ItemLink, Route, RouteStage, Stage } from '../models/index.js';
@@ -12,15 +13,6 @@ export async function newSerial(kind: PartKind, transaction: Transaction): Promi
     if (!(await Item.findOne({ where: { serial }, attributes: ['id'], transaction }))) return serial;
   }
 }
-
-export type RouteStep = {
-  code: string;
-  name: string;
-  position: number;
-  required: boolean;
-  hazard: string | null;
-  state: 'done' | 'current' | 'todo';
-};
 
 /** The ordered stages of a family's route for a part kind, or null where the kind has none. */
 export async function routeFor(familyId: number, kind: PartKind, transaction?: Transaction) {
@@ -48,32 +40,25 @@ export async function findBySerial(input: string, transaction?: Transaction) {
   return item;
 }
 
-export type ItemJson = {
-  serial: string;
-  kind: PartKind;
-  kindLabel: string;
-  family: { id: number; code: string; name: string; layout: 'inline' | 'v'; headsPerEngine: number };
-  status: string;
-  positionLabel: string | null;
-  currentStage: { code: string; name: string; hazard: string | null } | null;
-  route: RouteStep[];
-  harvestedFrom: { serial: string; kind: PartKind } | null;
-  parts: { serial: string; kind: PartKind; kindLabel: string; status: string; positionLabel: string | null }[];
-  createdAt: string;
-};
-
 export async function presentItem(item: Item): Promise<ItemJson> {
   const family = (await EngineFamily.findByPk(item.engineFamilyId))!;
   const route = await routeFor(item.engineFamilyId, item.kind);
   const currentIdx = route?.steps.findIndex((s) => s.stageId === item.currentStageId) ?? -1;
   const finished = ['finished', 'torn_down', 'installed', 'released', 'shipped'].includes(item.status);
+  // a core exists because it was received: intake is behind it whether it was accepted or not
+  const pastIntake = item.kind === 'core';
   const steps: RouteStep[] = (route?.steps ?? []).map((s, i) => ({
     code: s.stage.code,
     name: s.stage.name,
     position: s.position,
     required: s.required,
     hazard: s.stage.hazard,
-    state: finished || (currentIdx >= 0 && i < currentIdx) ? 'done' : i === currentIdx ? 'current' : 'todo',
+    state:
+      finished || (currentIdx >= 0 && i < currentIdx) || (pastIntake && s.stage.code === 'intake')
+        ? 'done'
+        : i === currentIdx
+          ? 'current'
+          : 'todo',
   }));
   const current = currentIdx >= 0 ? route!.steps[currentIdx]!.stage : null;
   const [originLink, childLinks] = await Promise.all([

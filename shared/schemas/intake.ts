@@ -1,5 +1,7 @@
 import { z } from 'zod';
+import type { AttachmentJson } from './attachments.js';
 import { paging } from './common.js';
+import type { ItemJson } from './items.js';
 
 /** Visible damage the dock checks for. */
 export const DAMAGE = ['cracked', 'broken', 'seized', 'burnt', 'water_damaged'] as const;
@@ -177,3 +179,46 @@ export const labelsPrintedBody = z.strictObject({
   serials: z.array(z.string().trim().min(1).max(30)).min(1).max(100),
   stock: z.enum(labelStocks),
 });
+
+/** The teardown as recorded on the core (server/services/teardown.ts). */
+export type TeardownRecord = {
+  at: string;
+  byId: number;
+  kept: { serial: string; kind: TeardownPart; position: string | null }[];
+  scrapped: { kind: TeardownPart; position?: string; reason: string }[];
+  discardedByRule: string[];
+  notes: string;
+};
+
+export type CoreReceipt = {
+  castingNumber: string;
+  idNumber: string | null;
+  source: (typeof SOURCES)[number];
+  customer: Party | null;
+  supplier: Party | null;
+  sourceReference: string | null;
+  receivedOn: string;
+  receivedBy: string;
+  condition: {
+    complete: boolean;
+    missing: (typeof CORE_PARTS)[number][];
+    damage: (typeof DAMAGE)[number][];
+  };
+  grade: (typeof GRADES)[number] | null;
+  accepted: boolean;
+  rejectReason: string | null;
+  creditDecision: (typeof CREDIT_DECISIONS)[number] | null;
+  creditReason: string | null;
+  notes: string;
+};
+
+export type CoreDetail = ItemJson & { receipt: CoreReceipt; teardown: TeardownRecord | null; photos: AttachmentJson[] };
+
+/** A recent core with the same number, as GET /api/cores/duplicates and a 409 possible_duplicate list them. */
+export type Duplicate = {
+  serial: string;
+  castingNumber: string;
+  idNumber: string | null;
+  receivedOn: string;
+  accepted: boolean;
+};

@@ -37,8 +37,6 @@ const cameraApiMissing = (): Problem | null =>
         text: 'Browsers only lend the camera to secure (https) addresses. Type the serial or use the hand scanner.',
       };
 
-const square = (n: number) => ({ width: Math.max(n, 60), height: Math.max(n, 60) });
-
 type CameraScanProps = { onCode: (text: string) => void };
 
 /**
@@ -77,7 +75,8 @@ export function CameraScan({ onCode }: CameraScanProps) {
       try {
         await scanner.start(
           { facingMode: 'environment' },
-          { fps: 10, qrbox: (w, h) => square(Math.floor(Math.min(w, h) * 0.7)) },
+          // the whole frame is read, not a box in it: a label held close or off-centre still reads
+          { fps: 10 },
           (text) => {
             if (closed) return;
             closed = true;
@@ -112,7 +111,7 @@ export function CameraScan({ onCode }: CameraScanProps) {
         </Notice>
       ) : (
         <p role="status" className="text-ink-soft">
-          {starting ? 'Starting the camera…' : 'Hold the label inside the frame. It is read by itself.'}
+          {starting ? 'Starting the camera…' : 'Point the camera at the label. It is read by itself.'}
         </p>
       )}
       <div

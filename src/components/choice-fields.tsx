@@ -17,8 +17,7 @@ function useError(name: string) {
   const error = name
     .split('.')
     .reduce<unknown>((e, k) => (e as Record<string, unknown> | undefined)?.[k], formState.errors) as
-    | { message?: string }
-    | undefined;
+    { message?: string } | undefined;
   return error?.message;
 }
 
@@ -73,20 +72,22 @@ export function RadioGroupField<V extends string | boolean>({
   columns,
 }: RadioGroupFieldProps<V>) {
   const id = useId();
-  const { field } = useController({ name });
+  const {
+    field: { ref, value, onChange, onBlur },
+  } = useController({ name });
   const error = useError(name);
   return (
     <GroupShell id={id} legend={legend} hint={hint} error={error} columns={columns}>
       {options.map((o, i) => (
         <label key={String(o.value)} className={tileClass}>
           <input
-            ref={i === 0 ? field.ref : undefined}
+            ref={i === 0 ? ref : undefined}
             type="radio"
             name={`${id}-${name}`}
             className="size-5 shrink-0 accent-accent"
-            checked={field.value === o.value}
-            onChange={() => field.onChange(o.value)}
-            onBlur={field.onBlur}
+            checked={value === o.value}
+            onChange={() => onChange(o.value)}
+            onBlur={onBlur}
           />
           {o.label}
         </label>
@@ -104,28 +105,36 @@ type CheckboxListFieldProps<V extends string> = {
 };
 
 /** Any number of values, kept in the order the options are listed. */
-export function CheckboxListField<V extends string>({ name, legend, options, hint, columns }: CheckboxListFieldProps<V>) {
+export function CheckboxListField<V extends string>({
+  name,
+  legend,
+  options,
+  hint,
+  columns,
+}: CheckboxListFieldProps<V>) {
   const id = useId();
-  const { field } = useController({ name });
+  const {
+    field: { ref, value, onChange, onBlur },
+  } = useController({ name });
   const error = useError(name);
-  const picked = new Set<V>((field.value as V[] | undefined) ?? []);
+  const picked = new Set<V>((value as V[] | undefined) ?? []);
   const toggle = (v: V) => {
     const next = new Set(picked);
     if (next.has(v)) next.delete(v);
     else next.add(v);
-    field.onChange(options.map((o) => o.value).filter((x) => next.has(x)));
+    onChange(options.map((o) => o.value).filter((x) => next.has(x)));
   };
   return (
     <GroupShell id={id} legend={legend} hint={hint} error={error} columns={columns}>
       {options.map((o, i) => (
         <label key={o.value} className={tileClass}>
           <input
-            ref={i === 0 ? field.ref : undefined}
+            ref={i === 0 ? ref : undefined}
             type="checkbox"
             className="size-5 shrink-0 accent-accent"
             checked={picked.has(o.value)}
             onChange={() => toggle(o.value)}
-            onBlur={field.onBlur}
+            onBlur={onBlur}
           />
           {o.label}
         </label>
@@ -136,19 +145,21 @@ export function CheckboxListField<V extends string>({ name, legend, options, hin
 
 /** A single yes/no, e.g. "This is a different core". */
 export function CheckboxField({ name, label }: { name: string; label: ReactNode }) {
-  const { field } = useController({ name });
+  const {
+    field: { ref, value, onChange, onBlur },
+  } = useController({ name });
   const error = useError(name);
   const id = useId();
   return (
     <div>
       <label className={tileClass}>
         <input
-          ref={field.ref}
+          ref={ref}
           type="checkbox"
           className="size-5 shrink-0 accent-accent"
-          checked={field.value === true}
-          onChange={(e) => field.onChange(e.target.checked)}
-          onBlur={field.onBlur}
+          checked={value === true}
+          onChange={(e) => onChange(e.target.checked)}
+          onBlur={onBlur}
           aria-describedby={error ? errorId(id) : undefined}
         />
         {label}

@@ -1,5 +1,6 @@
-import { flexRender, type RowData, type Table as TanTable } from '@tanstack/react-table';
+import { flexRender, type Column, type RowData, type Table as TanTable } from '@tanstack/react-table';
 import { Fragment, type ReactNode } from 'react';
+import { Icon } from './ui/icon';
 import { EmptyRow, Table, TableFrame, TBody, TD, TH, THead, TR, type Align } from './ui/table';
 
 declare module '@tanstack/react-table' {
@@ -8,6 +9,7 @@ declare module '@tanstack/react-table' {
     align?: Align;
     mono?: boolean;
     nowrap?: boolean;
+    wideOnly?: boolean;
   }
 }
 
@@ -34,7 +36,12 @@ export function DataTable<T>({ table, caption, empty, muted, expanded, busy = fa
           {table.getHeaderGroups().map((group) => (
             <tr key={group.id}>
               {group.headers.map((h) => (
-                <TH key={h.id} align={h.column.columnDef.meta?.align}>
+                <TH
+                  key={h.id}
+                  align={h.column.columnDef.meta?.align}
+                  wideOnly={h.column.columnDef.meta?.wideOnly}
+                  aria-sort={ariaSort(h.column)}
+                >
                   {h.isPlaceholder ? null : flexRender(h.column.columnDef.header, h.getContext())}
                 </TH>
               ))}
@@ -51,7 +58,13 @@ export function DataTable<T>({ table, caption, empty, muted, expanded, busy = fa
                   {row.getVisibleCells().map((cell) => {
                     const meta = cell.column.columnDef.meta;
                     return (
-                      <TD key={cell.id} align={meta?.align} mono={meta?.mono} nowrap={meta?.nowrap}>
+                      <TD
+                        key={cell.id}
+                        align={meta?.align}
+                        mono={meta?.mono}
+                        nowrap={meta?.nowrap}
+                        wideOnly={meta?.wideOnly}
+                      >
                         {flexRender(cell.column.columnDef.cell, cell.getContext())}
                       </TD>
                     );
@@ -70,5 +83,26 @@ export function DataTable<T>({ table, caption, empty, muted, expanded, busy = fa
         </TBody>
       </Table>
     </TableFrame>
+  );
+}
+
+function ariaSort<T>(column: Column<T, unknown>) {
+  if (!column.getCanSort()) return undefined;
+  const sorted = column.getIsSorted();
+  return sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none';
+}
+
+/** A column heading that sorts the list; its mark says which way, the heading's aria-sort says it aloud. */
+export function SortButton<T>({ column, children }: { column: Column<T, unknown>; children: ReactNode }) {
+  const sorted = column.getIsSorted();
+  return (
+    <button
+      type="button"
+      onClick={column.getToggleSortingHandler()}
+      className={`-mx-1 inline-flex min-h-8 items-center gap-1 rounded-control px-1 uppercase tracking-wide hover:bg-ground-deep/40 hover:text-ink floor:min-h-11 ${sorted ? 'text-ink' : ''}`}
+    >
+      {children}
+      <Icon name={sorted === 'asc' ? 'chevronUp' : sorted === 'desc' ? 'chevronDown' : 'sortable'} size={15} />
+    </button>
   );
 }

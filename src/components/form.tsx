@@ -16,11 +16,14 @@ import { Notice } from './ui/notice';
 
 type Schema = z.ZodType<FieldValues, FieldValues>;
 
-// the shared schemas carry their own wording; this only covers the cases they leave to zod
+// the shared schemas carry their own wording; this only covers the cases they leave to zod. An
+// empty choice (a select, a radio pair) arrives as undefined and is asked for as a choice.
 const friendlyIssue = (issue: { code: string; expected?: unknown; input?: unknown }) => {
+  const empty = issue.input === undefined || issue.input === '';
+  if (issue.code === 'invalid_value' && empty) return 'Choose one.';
   if (issue.code !== 'invalid_type') return undefined;
+  if (empty) return issue.expected === 'number' || issue.expected === 'boolean' ? 'Choose one.' : 'Fill this in.';
   if (issue.expected === 'number') return 'Enter a number.';
-  if (issue.input === undefined || issue.input === '') return 'Fill this in.';
   return undefined;
 };
 

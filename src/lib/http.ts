@@ -18,8 +18,13 @@ export class ApiError extends Error {
     this.code = body.code;
     this.fields = body.fields ?? {};
     this.requestId = body.requestId;
-    const { code: _c, message: _m, fields: _f, requestId: _r, ...details } = body as ErrorBody &
-      Record<string, unknown>;
+    const {
+      code: _c,
+      message: _m,
+      fields: _f,
+      requestId: _r,
+      ...details
+    } = body as ErrorBody & Record<string, unknown>;
     this.details = details;
   }
 
@@ -75,7 +80,9 @@ export async function http<T>(path: string, { method = 'GET', body, query, signa
     res = await fetch(withQuery(path, query), {
       method,
       credentials: 'same-origin',
-      headers: raw ? { Accept: 'application/json' } : { Accept: 'application/json', 'Content-Type': 'application/json' },
+      headers: raw
+        ? { Accept: 'application/json' }
+        : { Accept: 'application/json', 'Content-Type': 'application/json' },
       body: raw ? (body as FormData | undefined) : JSON.stringify(body),
       signal,
     });

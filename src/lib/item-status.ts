@@ -2,8 +2,8 @@ import type { Tone } from '../components/ui/badge';
 
 /** Item states in Coretrail's words, each with the badge tone (colour, outline and mark) it shows in. */
 const STATUS: Record<string, { label: string; tone: Tone }> = {
-  received: { label: 'Received, waiting for teardown', tone: 'wait' },
-  rejected: { label: 'Rejected at intake', tone: 'bad' },
+  received: { label: 'Awaiting teardown', tone: 'wait' },
+  rejected: { label: 'Rejected', tone: 'bad' },
   torn_down: { label: 'Torn down', tone: 'neutral' },
   in_process: { label: 'On its route', tone: 'accent' },
   in_stock: { label: 'In stock', tone: 'neutral' },

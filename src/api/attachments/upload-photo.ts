@@ -2,15 +2,9 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { http } from '../../lib/http';
 import { auditKeys } from '../audit/keys';
 
-/** server/services/attachments.ts presentAttachment. */
-export type Attachment = {
-  id: number;
-  fileName: string;
-  mimeType: string;
-  sizeBytes: number;
-  url: string;
-  createdAt: string;
-};
+import type { AttachmentJson } from '../../../shared/schemas/attachments';
+
+export type Attachment = AttachmentJson;
 
 export function uploadPhoto(file: File) {
   const form = new FormData();

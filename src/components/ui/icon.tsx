@@ -52,6 +52,8 @@ const glyphs = {
   ),
   plus: <path d="M10 4v12M4 10h12" />,
   chevronDown: <path d="M5.5 8l4.5 4.5L14.5 8" />,
+  chevronUp: <path d="M5.5 12l4.5-4.5 4.5 4.5" />,
+  sortable: <path d="M6.5 8L10 4.5 13.5 8M6.5 12l3.5 3.5 3.5-3.5" />,
   chevronRight: <path d="M8 5.5l4.5 4.5L8 14.5" />,
   chevronLeft: <path d="M12 5.5L7.5 10l4.5 4.5" />,
   arrowRight: <path d="M4 10h11.5M11 5.5l4.5 4.5-4.5 4.5" />,
@@ -94,8 +96,14 @@ const glyphs = {
       <path d="M5.5 10h9" />
     </>
   ),
-  // a hook under a load line: heavy parts, lift with the hoist
-  hoist: <path d="M5.5 2.5h9M10 2.5v9a3.5 3.5 0 0 1-7 0v-1.8" />,
+  // a weight hanging from a hook: heavy parts, lift with the hoist
+  hoist: (
+    <>
+      <path d="M10 2v3.2" />
+      <circle cx="10" cy="6.6" r="1.4" />
+      <path d="M6.6 9.4h6.8l2.6 8.1H4z" />
+    </>
+  ),
   stepNow: (
     <>
       <circle cx="10" cy="10" r="7.5" />

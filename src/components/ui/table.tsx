@@ -34,13 +34,19 @@ export function TR({ children, muted = false }: { children: ReactNode; muted?: b
   return <tr className={`hover:bg-sunk/60 ${muted ? 'text-ink-soft' : ''}`}>{children}</tr>;
 }
 
-type CellOwn = { align?: Align; mono?: boolean; nowrap?: boolean };
+/** `wideOnly` cells give way on a tablet and come back on a desktop-width screen. */
+type CellOwn = { align?: Align; mono?: boolean; nowrap?: boolean; wideOnly?: boolean };
 
-export function TH({ align = 'left', children, ...rest }: CellOwn & ThHTMLAttributes<HTMLTableCellElement>) {
+export function TH({
+  align = 'left',
+  wideOnly = false,
+  children,
+  ...rest
+}: CellOwn & ThHTMLAttributes<HTMLTableCellElement>) {
   return (
     <th
       scope="col"
-      className={`sticky top-0 z-10 whitespace-nowrap border-b border-rule-strong bg-sunk px-2.5 py-2 text-xs font-semibold uppercase tracking-wide text-ink-soft first:pl-5 last:pr-5 ${alignCls[align]}`}
+      className={`sticky top-0 z-10 whitespace-nowrap border-b border-rule-strong bg-sunk px-2.5 py-2 text-xs font-semibold uppercase tracking-wide text-ink-soft first:pl-5 last:pr-5 ${alignCls[align]} ${wideOnly ? 'hidden xl:table-cell' : ''}`}
       {...rest}
     >
       {children}
@@ -52,6 +58,7 @@ export function TD({
   align = 'left',
   mono = false,
   nowrap = false,
+  wideOnly = false,
   children,
   ...rest
 }: CellOwn & TdHTMLAttributes<HTMLTableCellElement>) {
@@ -61,6 +68,7 @@ export function TD({
     mono ? 'font-mono text-[0.875rem] floor:text-[0.95rem]' : '',
     align === 'right' ? 'tabular-nums' : '',
     nowrap ? 'whitespace-nowrap' : '',
+    wideOnly ? 'hidden xl:table-cell' : '',
   ].join(' ');
   return (
     <td className={cls} {...rest}>

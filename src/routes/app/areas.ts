@@ -7,9 +7,41 @@ import { paths } from '../../lib/paths';
  * The areas that exist today. Each declares the permission it needs; navigation and the home
  * cards both come from this list, filtered through the shared permission matrix.
  */
-export type Area = { label: string; to: string; permission: Permission; summary: string };
+export type Area = {
+  label: string;
+  to: string;
+  permission: Permission;
+  summary: string;
+  /** A home card only: the task sits inside another area's navigation entry. */
+  homeOnly?: boolean;
+};
 
 export const AREAS: Area[] = [
+  {
+    label: 'Receive a core',
+    to: paths.receiveCore,
+    permission: 'intake.record',
+    summary: 'Log a core at the dock: numbers, source, condition, grade, photos; accept or reject it.',
+    homeOnly: true,
+  },
+  {
+    label: 'Intake',
+    to: paths.intake,
+    permission: 'intake.read',
+    summary: 'Every core received or rejected, with its source, grade and core credit; filter and export.',
+  },
+  {
+    label: 'Teardown',
+    to: paths.teardown,
+    permission: 'teardown.record',
+    summary: 'Scan a received core and split it into serialized parts, each linked to the core it came from.',
+  },
+  {
+    label: 'Labels',
+    to: paths.labels,
+    permission: 'labels.print',
+    summary: 'Print QR labels for cores and parts on 2×1 in or 50×25 mm stock; reprints are logged.',
+  },
   {
     label: 'People',
     to: paths.people,
@@ -37,22 +69,12 @@ export const AREAS: Area[] = [
 ];
 
 export const areasFor = (role: Role) => AREAS.filter((a) => can(role, a.permission));
+export const navAreasFor = (role: Role) => areasFor(role).filter((a) => !a.homeOnly);
 
 /** Work that is planned but not built; a role sees an entry when it holds any of its permissions. */
 export type Coming = { label: string; permissions: Permission[]; summary: string };
 
 export const COMING: Coming[] = [
-  {
-    label: 'Intake',
-    permissions: ['intake.record', 'intake.read'],
-    summary: 'Log each core at the dock, accept or reject it, and decide core credit.',
-  },
-  {
-    label: 'Teardown',
-    permissions: ['teardown.record'],
-    summary: 'Split a core into serialized parts, each linked to the core it came from.',
-  },
-  { label: 'Labels', permissions: ['labels.print'], summary: 'Print QR labels for cores, parts and units.' },
   {
     label: 'Station work',
     permissions: ['results.record'],

@@ -9,7 +9,7 @@ import { Button } from '../../components/ui/button';
 import { paths, signInHref } from '../../lib/paths';
 import { PLANT_NAME } from '../../lib/plant';
 import { FLOOR_ROLES, requireSignedIn } from '../../lib/session';
-import { areasFor } from './areas';
+import { navAreasFor } from './areas';
 
 export const layoutLoader =
   (queryClient: QueryClient) =>
@@ -40,14 +40,14 @@ export function AppLayout() {
     signOut.mutate(undefined, { onSettled: () => navigate(signInHref({ note: 'signed-out' }), { replace: true }) });
 
   return (
-    <div data-density={floor ? 'floor' : 'office'} className="flex min-h-screen flex-col">
+    <div data-density={floor ? 'floor' : 'office'} className="flex min-h-screen flex-col print:block print:min-h-0">
       <a
         href="#main"
         className="sr-only focus:not-sr-only focus:absolute focus:left-3 focus:top-3 focus:z-50 focus:rounded-control focus:bg-card focus:px-3 focus:py-2"
       >
         Skip to the page
       </a>
-      <header className="border-b border-rule-strong bg-card">
+      <header className="border-b border-rule-strong bg-card print:hidden">
         <div className="mx-auto flex max-w-page flex-wrap items-center gap-x-5 gap-y-2 px-6 pt-3">
           <Link to={paths.home} className="rounded-control">
             <Wordmark />
@@ -75,7 +75,7 @@ export function AppLayout() {
           <NavLink to={paths.home} end className={navLinkClass}>
             Home
           </NavLink>
-          {areasFor(user.role).map((a) => (
+          {navAreasFor(user.role).map((a) => (
             <NavLink key={a.to} to={a.to} className={navLinkClass}>
               {a.label}
             </NavLink>
@@ -84,13 +84,13 @@ export function AppLayout() {
       </header>
       <div
         aria-hidden="true"
-        className={`h-0.5 ${navigation.state === 'loading' ? 'animate-pulse bg-accent' : 'bg-transparent'}`}
+        className={`h-0.5 print:hidden ${navigation.state === 'loading' ? 'animate-pulse bg-accent' : 'bg-transparent'}`}
       />
       <main
         id="main"
         tabIndex={-1}
         aria-busy={navigation.state === 'loading'}
-        className="mx-auto w-full max-w-page flex-1 px-6 py-6 outline-none"
+        className="mx-auto w-full max-w-page flex-1 px-6 py-6 outline-none print:m-0 print:max-w-none print:p-0"
       >
         <Outlet />
       </main>

@@ -2,12 +2,16 @@ import { Link } from 'react-router';
 import { ROLE_LABELS, ROLE_SUMMARIES } from '../../../shared/roles';
 import { useSignedIn } from '../../api/auth/me';
 import { PageHeader } from '../../components/page-header';
-import { Card } from '../../components/ui/card';
+import { ScanBox, useOpenItem } from '../../components/scan-box';
+import { Card, CardBody } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
 import { paths } from '../../lib/paths';
 import { areasFor, comingFor } from '../app/areas';
 
 type Tile = { label: string; to: string; summary: string };
+
+// the roles that pick up a part and need to know what it is before anything else
+const SCANS_FIRST = new Set(['receiving', 'operator']);
 
 function AreaCard({ tile }: { tile: Tile }) {
   return (
@@ -28,6 +32,7 @@ function AreaCard({ tile }: { tile: Tile }) {
 
 export function HomePage() {
   const me = useSignedIn();
+  const openItem = useOpenItem();
   if (!me) return null;
   const role = me.user.role;
   const tiles: Tile[] = [
@@ -39,6 +44,18 @@ export function HomePage() {
   return (
     <>
       <PageHeader title={`${ROLE_LABELS[role]} home`} description={ROLE_SUMMARIES[role]} />
+      {SCANS_FIRST.has(role) && (
+        <section aria-labelledby="scan-heading" className="mb-8">
+          <Card as="div">
+            <CardBody>
+              <h2 id="scan-heading" className="mb-2 text-lg font-semibold">
+                Find a core or part
+              </h2>
+              <ScanBox onItem={openItem} preview={false} autoFocus />
+            </CardBody>
+          </Card>
+        </section>
+      )}
       <section aria-labelledby="now-heading" className="mb-8">
         <h2 id="now-heading" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-soft">
           What you can do now

@@ -1,0 +1,33 @@
+import type { PartKind } from './reference.js';
+
+/** Replies of /api/items: what a scanned serial resolves to. Built by server/services/items.ts. */
+export type RouteStep = {
+  code: string;
+  name: string;
+  position: number;
+  required: boolean;
+  hazard: string | null;
+  state: 'done' | 'current' | 'todo';
+};
+
+export type ItemPart = {
+  serial: string;
+  kind: PartKind;
+  kindLabel: string;
+  status: string;
+  positionLabel: string | null;
+};
+
+export type ItemJson = {
+  serial: string;
+  kind: PartKind;
+  kindLabel: string;
+  family: { id: number; code: string; name: string; layout: 'inline' | 'v'; headsPerEngine: number };
+  status: string;
+  positionLabel: string | null;
+  currentStage: { code: string; name: string; hazard: string | null } | null;
+  route: RouteStep[];
+  harvestedFrom: { serial: string; kind: PartKind } | null;
+  parts: ItemPart[];
+  createdAt: string;
+};

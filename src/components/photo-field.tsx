@@ -1,0 +1,115 @@
+import { useId, useState, type ChangeEvent } from 'react';
+import { useFormContext, useWatch, type FieldValues } from 'react-hook-form';
+import { useUploadPhoto, type Attachment } from '../api/attachments/upload-photo';
+import { ApiError } from '../lib/http';
+import { Button } from './ui/button';
+import { Icon } from './ui/icon';
+import { Notice } from './ui/notice';
+
+type PhotoFieldProps = { name: string; label: string; max: number; hint?: string };
+
+/**
+ * Photos go up the moment they are chosen (a tablet camera shot can be large, and the dock should
+ * see a refusal at once, not on submit). The form keeps only their ids; the thumbnails are kept here.
+ */
+export function PhotoField({ name, label, max, hint }: PhotoFieldProps) {
+  const id = useId();
+  const { getValues, setValue } = useFormContext<FieldValues>();
+  const ids = (useWatch({ name }) as number[] | undefined) ?? [];
+  const [photos, setPhotos] = useState<Attachment[]>([]);
+  const [uploading, setUploading] = useState(0);
+  const [problems, setProblems] = useState<string[]>([]);
+  const upload = useUploadPhoto();
+  const shown = photos.filter((p) => ids.includes(p.id));
+  const room = max - ids.length;
+
+  const onFiles = async (e: ChangeEvent<HTMLInputElement>) => {
+    const files = [...(e.target.files ?? [])];
+    e.target.value = ''; // the same photo may be chosen again after a refusal
+    setProblems([]);
+    const take = files.slice(0, Math.max(room, 0));
+    const over = files.length - take.length;
+    if (over > 0) setProblems([`Only ${max} photos fit on one record; ${over} were left out.`]);
+    setUploading((n) => n + take.length);
+    await Promise.all(
+      take.map(async (file) => {
+        try {
+          const a = await upload.mutateAsync(file);
+          setPhotos((p) => [...p, a]);
+          setValue(name, [...((getValues(name) as number[] | undefined) ?? []), a.id], { shouldDirty: true });
+        } catch (err) {
+          const why = err instanceof ApiError ? err.message : 'It could not be uploaded. Try again.';
+          setProblems((p) => [...p, `${file.name}: ${why}`]);
+        } finally {
+          setUploading((n) => n - 1);
+        }
+      }),
+    );
+  };
+
+  const remove = (photoId: number) =>
+    setValue(
+      name,
+      ((getValues(name) as number[] | undefined) ?? []).filter((x) => x !== photoId),
+      { shouldDirty: true },
+    );
+
+  return (
+    <div className="flex flex-col gap-2">
+      <label htmlFor={id} className="block text-sm font-medium text-ink floor:text-base">
+        {label}
+      </label>
+      <div className="flex flex-wrap items-center gap-3">
+        <input
+          id={id}
+          type="file"
+          accept="image/*"
+          capture="environment"
+          multiple
+          disabled={room <= 0}
+          onChange={(e) => void onFiles(e)}
+          aria-describedby={`${id}-hint`}
+          className="block min-h-11 max-w-full rounded-control border border-rule-strong bg-field text-ink file:mr-3 file:min-h-11 file:cursor-pointer file:border-0 file:border-r file:border-rule-strong file:bg-sunk file:px-4 file:font-medium file:text-ink hover:file:bg-ground-deep/40 disabled:opacity-55"
+        />
+        <p id={`${id}-hint`} className="text-sm text-ink-faint">
+          {hint ?? 'JPEG, PNG or WebP, up to 8 MB each.'}{' '}
+          <span className="font-mono">
+            {ids.length}/{max}
+          </span>{' '}
+          attached.
+        </p>
+      </div>
+      {uploading > 0 && (
+        <p role="status" className="text-ink-soft">
+          Uploading {uploading} photo{uploading > 1 ? 's' : ''}…
+        </p>
+      )}
+      {problems.length > 0 && (
+        <Notice tone="bad" live="alert" title="Not every photo was attached">
+          <ul className="list-disc pl-5">
+            {problems.map((p) => (
+              <li key={p}>{p}</li>
+            ))}
+          </ul>
+        </Notice>
+      )}
+      {shown.length > 0 && (
+        <ul aria-label="Attached so far" className="flex flex-wrap gap-3">
+          {shown.map((p, i) => (
+            <li key={p.id} className="flex w-36 flex-col gap-1.5">
+              <img
+                src={p.url}
+                alt={`Photo ${i + 1}: ${p.fileName}`}
+                className="aspect-[4/3] w-36 rounded-control border border-rule-strong bg-sunk object-cover"
+              />
+              <Button size="sm" onClick={() => remove(p.id)} aria-label={`Remove photo ${p.fileName}`}>
+                <Icon name="trash" size={16} />
+                Remove
+              </Button>
+            </li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,138 @@
+import type { ReactNode } from 'react';
+import { Link } from 'react-router';
+import { CORE_PART_LABELS, DAMAGE_LABELS, GRADE_LABELS } from '../../../shared/schemas/intake';
+import { PART_KIND_LABELS } from '../../../shared/schemas/reference';
+import type { CoreDetail, TeardownRecord } from '../../api/cores/types';
+import type { ItemPart } from '../../api/items/types';
+import { StatusBadge } from '../../components/item-status';
+import { Badge } from '../../components/ui/badge';
+import { formatWhen } from '../../lib/format';
+import { CREDIT_LABELS, SOURCE_LABELS } from '../../lib/intake-labels';
+import { partName } from '../../lib/item-status';
+import { itemHref } from '../../lib/paths';
+
+function Row({ term, children, mono = false }: { term: string; children: ReactNode; mono?: boolean }) {
+  return (
+    <>
+      <dt className="text-ink-soft">{term}</dt>
+      <dd className={mono ? 'font-mono' : ''}>{children ?? '—'}</dd>
+    </>
+  );
+}
+
+const list = (words: string[]) => (words.length ? words.join(', ') : null);
+
+export function ReceiptList({ core }: { core: CoreDetail }) {
+  const r = core.receipt;
+  const party = r.customer ?? r.supplier;
+  const missing = r.condition.missing.map((m) => CORE_PART_LABELS[m]);
+  return (
+    <dl className="grid grid-cols-[minmax(8rem,auto)_1fr] gap-x-5 gap-y-2">
+      <Row term="Casting number" mono>
+        {r.castingNumber}
+      </Row>
+      <Row term="ID number" mono>
+        {r.idNumber}
+      </Row>
+      <Row term="Source">{SOURCE_LABELS[r.source]}</Row>
+      <Row term={r.customer ? 'Customer' : 'Supplier'}>{party && `${party.name} (${party.code})`}</Row>
+      <Row term={r.source === 'customer_return' ? 'Return reference' : 'Purchase reference'} mono>
+        {r.sourceReference}
+      </Row>
+      <Row term="Received">
+        <span className="font-mono">{r.receivedOn}</span> by {r.receivedBy}
+      </Row>
+      <Row term="Condition">{r.condition.complete ? 'Complete' : `Parts missing: ${list(missing) ?? '—'}`}</Row>
+      <Row term="Damage seen">{list(r.condition.damage.map((d) => DAMAGE_LABELS[d])) ?? 'None'}</Row>
+      <Row term="Grade">{r.grade && GRADE_LABELS[r.grade]}</Row>
+      <Row term="Decision">
+        {r.accepted ? (
+          <Badge tone="ok">Accepted</Badge>
+        ) : (
+          <span className="flex flex-col items-start gap-1">
+            <Badge tone="bad">Rejected</Badge>
+            <span>{r.rejectReason}</span>
+          </span>
+        )}
+      </Row>
+      {r.source === 'customer_return' && (
+        <Row term="Core credit">
+          {r.creditDecision && CREDIT_LABELS[r.creditDecision]}
+          {r.creditReason && <span className="block text-ink-soft">{r.creditReason}</span>}
+        </Row>
+      )}
+      {r.notes && <Row term="Notes">{r.notes}</Row>}
+    </dl>
+  );
+}
+
+export function PhotoStrip({ photos }: { photos: CoreDetail['photos'] }) {
+  if (photos.length === 0) return <p className="text-ink-soft">No photos were taken at intake.</p>;
+  return (
+    <ul className="flex flex-wrap gap-3">
+      {photos.map((p, i) => (
+        <li key={p.id}>
+          <a href={p.url} target="_blank" rel="noopener" className="block rounded-control">
+            <img
+              src={p.url}
+              alt={`Intake photo ${i + 1}: ${p.fileName}`}
+              className="aspect-[4/3] w-44 rounded-control border border-rule-strong bg-sunk object-cover"
+            />
+          </a>
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+export function PartList({ parts }: { parts: ItemPart[] }) {
+  return (
+    <ul className="divide-y divide-rule">
+      {parts.map((p) => (
+        <li key={p.serial} className="flex flex-wrap items-center gap-x-4 gap-y-1 py-2.5">
+          <Link
+            to={itemHref(p.serial)}
+            className="font-mono text-lg font-semibold text-accent underline-offset-4 hover:underline"
+          >
+            {p.serial}
+          </Link>
+          <span className="font-medium">{partName(p.kindLabel, p.positionLabel)}</span>
+          <StatusBadge status={p.status} />
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+export function TeardownSummary({ record }: { record: TeardownRecord }) {
+  return (
+    <dl className="grid grid-cols-[minmax(8rem,auto)_1fr] gap-x-5 gap-y-2">
+      <Row term="Torn down" mono>
+        {formatWhen(record.at)}
+      </Row>
+      <Row term="Kept">
+        {record.kept.length === 0
+          ? 'Nothing'
+          : record.kept.map((k) => (
+              <span key={k.serial} className="block">
+                {partName(PART_KIND_LABELS[k.kind], k.position)}:{' '}
+                <Link to={itemHref(k.serial)} className="font-mono text-accent underline underline-offset-4">
+                  {k.serial}
+                </Link>
+              </span>
+            ))}
+      </Row>
+      <Row term="Scrapped">
+        {record.scrapped.length === 0
+          ? 'Nothing'
+          : record.scrapped.map((s, i) => (
+              <span key={i} className="block">
+                <span className="font-medium">{partName(PART_KIND_LABELS[s.kind], s.position)}</span> — {s.reason}
+              </span>
+            ))}
+      </Row>
+      <Row term="Discarded by rule">{record.discardedByRule.join(', ')} (always replaced)</Row>
+      {record.notes && <Row term="Notes">{record.notes}</Row>}
+    </dl>
+  );
+}

@@ -1,0 +1,126 @@
+import {
+  createColumnHelper,
+  getCoreRowModel,
+  useReactTable,
+  type OnChangeFn,
+  type SortingState,
+} from '@tanstack/react-table';
+import { useMemo } from 'react';
+import { Link } from 'react-router';
+import { GRADE_LABELS, type CoreSummary, type IntakeLogQuery } from '../../../shared/schemas/intake';
+import { DataTable, SortButton } from '../../components/data-table';
+import { StatusBadge } from '../../components/item-status';
+import { gradeWord, SOURCE_LABELS } from '../../lib/intake-labels';
+import { coreHref } from '../../lib/paths';
+
+const col = createColumnHelper<CoreSummary>();
+// the column heading already says "Core credit"
+const CREDIT_SHORT = { full: 'Full', partial: 'Partial', none: 'None' } as const;
+
+type IntakeTableProps = {
+  rows: CoreSummary[];
+  busy: boolean;
+  sort: NonNullable<IntakeLogQuery['sort']>;
+  dir: 'asc' | 'desc';
+  onSort: (sort: string, dir: 'asc' | 'desc') => void;
+};
+
+/** Sorting is the server's (the log is paged there); the table only shows which way and asks for more. */
+export function IntakeTable({ rows, busy, sort, dir, onSort }: IntakeTableProps) {
+  const columns = useMemo(
+    () => [
+      col.accessor('serial', {
+        header: ({ column }) => <SortButton column={column}>Serial</SortButton>,
+        meta: { mono: true, nowrap: true },
+        cell: (c) => (
+          <Link to={coreHref(c.getValue())} className="font-semibold text-accent underline-offset-4 hover:underline">
+            {c.getValue()}
+          </Link>
+        ),
+      }),
+      col.accessor('receivedOn', {
+        header: ({ column }) => <SortButton column={column}>Received</SortButton>,
+        meta: { nowrap: true },
+        cell: (c) => (
+          <span className="flex flex-col leading-snug">
+            <span className="font-mono">{c.getValue()}</span>
+            <span className="text-sm text-ink-soft">{c.row.original.receivedBy}</span>
+          </span>
+        ),
+      }),
+      col.accessor('familyCode', {
+        id: 'family',
+        header: ({ column }) => <SortButton column={column}>Family</SortButton>,
+        meta: { mono: true, nowrap: true },
+      }),
+      col.accessor('castingNumber', {
+        header: ({ column }) => <SortButton column={column}>Casting / ID no.</SortButton>,
+        meta: { mono: true, nowrap: true },
+        cell: (c) => (
+          <span className="flex flex-col leading-snug">
+            <span>{c.getValue()}</span>
+            <span className="text-ink-soft">{c.row.original.idNumber ?? '—'}</span>
+          </span>
+        ),
+      }),
+      col.accessor('source', {
+        header: 'Source',
+        enableSorting: false,
+        cell: (c) => (
+          <span className="flex min-w-36 flex-col leading-snug">
+            <span>{SOURCE_LABELS[c.getValue()]}</span>
+            <span className="text-sm text-ink-soft">{c.row.original.partyName ?? '—'}</span>
+            {c.row.original.sourceReference && (
+              <span className="font-mono text-sm text-ink-soft">{c.row.original.sourceReference}</span>
+            )}
+          </span>
+        ),
+      }),
+      col.accessor('grade', {
+        header: ({ column }) => <SortButton column={column}>Grade</SortButton>,
+        cell: (c) => {
+          const g = c.getValue();
+          return g ? <span title={GRADE_LABELS[g]}>{gradeWord(GRADE_LABELS[g])}</span> : '—';
+        },
+      }),
+      col.accessor('creditDecision', {
+        header: 'Core credit',
+        enableSorting: false,
+        // on the core's own page too; the tablet view keeps the columns the dock sorts by
+        meta: { nowrap: true, wideOnly: true },
+        cell: (c) => {
+          const d = c.getValue();
+          return d ? CREDIT_SHORT[d] : <span className="text-ink-soft">—</span>;
+        },
+      }),
+      // the status says "Rejected at intake" for a rejected core, so no separate accepted column
+      col.accessor('status', {
+        header: 'Status',
+        enableSorting: false,
+        cell: (c) => <StatusBadge status={c.getValue()} />,
+      }),
+    ],
+    [],
+  );
+
+  const sorting: SortingState = [{ id: sort, desc: dir === 'desc' }];
+  const onSortingChange: OnChangeFn<SortingState> = (updater) => {
+    const next = typeof updater === 'function' ? updater(sorting) : updater;
+    const first = next[0];
+    if (first) onSort(first.id, first.desc ? 'desc' : 'asc');
+  };
+
+  // eslint-disable-next-line react-hooks/incompatible-library -- the table instance is rebuilt each render by design
+  const table = useReactTable({
+    data: rows,
+    columns,
+    getCoreRowModel: getCoreRowModel(),
+    getRowId: (r) => r.serial,
+    manualSorting: true,
+    enableSortingRemoval: false,
+    state: { sorting },
+    onSortingChange,
+  });
+
+  return <DataTable table={table} caption="Intake log" empty="No cores match these filters." busy={busy} />;
+}

@@ -1,0 +1,147 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { useState, type ReactNode } from 'react';
+import { useNavigate, type LoaderFunctionArgs } from 'react-router';
+import { receiveCoreBody, type ReceiveCoreBody } from '../../../shared/schemas/intake';
+import { useSignedIn } from '../../api/auth/me';
+import { useReceiveCore } from '../../api/cores/receive-core';
+import type { Duplicate } from '../../api/cores/types';
+import { customersQueryOptions } from '../../api/reference/customers';
+import { familiesQueryOptions, useFamilies } from '../../api/reference/families';
+import { suppliersQueryOptions } from '../../api/reference/suppliers';
+import { Form, SubmitButton } from '../../components/form';
+import { SelectField, TextAreaField, TextField } from '../../components/form-fields';
+import { PageHeader } from '../../components/page-header';
+import { PhotoField } from '../../components/photo-field';
+import { ButtonLink } from '../../components/ui/button';
+import { Card, CardBody, CardHeader } from '../../components/ui/card';
+import { Field } from '../../components/ui/field';
+import { Input } from '../../components/ui/input';
+import { ApiError } from '../../lib/http';
+import { coreHref, paths } from '../../lib/paths';
+import { requirePermission } from '../../lib/session';
+import { DuplicateConfirm, useDuplicateWarning } from './duplicates';
+import { ConditionFields, DecisionFields } from './receive-condition';
+import { SourceFields } from './receive-source';
+
+export const receiveLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    await requirePermission(queryClient, request, 'intake.record');
+    await Promise.all([
+      queryClient.ensureQueryData(familiesQueryOptions()),
+      queryClient.ensureQueryData(customersQueryOptions()),
+      queryClient.ensureQueryData(suppliersQueryOptions()),
+    ]);
+    return null;
+  };
+
+/** Today on the dock's own calendar, not UTC's. */
+function today(): string {
+  const d = new Date();
+  const pad = (n: number) => String(n).padStart(2, '0');
+  return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}`;
+}
+
+/** Parts of one form, so not landmarks of their own (and their titles never shadow a field's label). */
+function Section({ title, description, children }: { title: string; description?: string; children: ReactNode }) {
+  return (
+    <Card as="div">
+      <CardHeader title={title} description={description} />
+      <CardBody>{children}</CardBody>
+    </Card>
+  );
+}
+
+function CoreNumbers() {
+  const families = useFamilies();
+  const { onLeave, warning } = useDuplicateWarning();
+  const options = (families.data ?? [])
+    .filter((f) => f.active)
+    .map((f) => ({ value: String(f.id), label: `${f.code} — ${f.name}` }));
+  return (
+    <div className="flex flex-col gap-4">
+      <SelectField name="familyId" label="Engine family" options={options} placeholder="Choose…" numeric />
+      {/* leaving either number field (focus moving out) asks about look-alikes */}
+      <div className="grid grid-cols-1 gap-4 md:grid-cols-2" onBlur={onLeave}>
+        <TextField name="castingNumber" label="Casting number" mono hint="As cast on the block." />
+        <TextField name="idNumber" label="ID number" mono optional hint="Stamped ID, if it has one." />
+      </div>
+      {warning}
+    </div>
+  );
+}
+
+// most cores come back from customers, whole: those two start chosen; the decisions do not
+const defaults: Partial<ReceiveCoreBody> = {
+  source: 'customer_return',
+  complete: true,
+  castingNumber: '',
+  sourceReference: '',
+  missing: [],
+  damage: [],
+  notes: '',
+  photoIds: [],
+  confirmNotDuplicate: false,
+};
+
+export function ReceivePage() {
+  const me = useSignedIn();
+  const receive = useReceiveCore();
+  const navigate = useNavigate();
+  const [lookAlikes, setLookAlikes] = useState<Duplicate[] | null>(null);
+  if (!me) return null;
+
+  const onSubmit = async (body: ReceiveCoreBody) => {
+    try {
+      const core = await receive.mutateAsync(body);
+      await navigate(coreHref(core.serial), { state: { received: true } });
+    } catch (err) {
+      if (err instanceof ApiError && err.status === 409 && err.details.reason === 'possible_duplicate') {
+        setLookAlikes((err.details.duplicates as Duplicate[] | undefined) ?? []);
+      }
+      throw err;
+    }
+  };
+
+  return (
+    <div className="mx-auto max-w-[60rem]">
+      <PageHeader
+        title="Receive a core"
+        description="Log the core as it stands at the dock. It gets its serial when you save; print its label next."
+        actions={<ButtonLink to={paths.intake}>Intake log</ButtonLink>}
+      />
+      <Form schema={receiveCoreBody} defaultValues={{ ...defaults, receivedOn: today() }} onSubmit={onSubmit}>
+        <Section title="The core" description="Which engine it is, by the numbers on the casting.">
+          <CoreNumbers />
+        </Section>
+        <Section title="Where it came from">
+          <SourceFields />
+        </Section>
+        <Section title="Receipt">
+          <div className="grid grid-cols-1 gap-4 md:grid-cols-2">
+            <TextField name="receivedOn" label="Received on" type="date" />
+            <Field id="received-by" label="Received by" hint="You, as signed in.">
+              <Input id="received-by" value={me.user.name} readOnly aria-describedby="received-by-hint" />
+            </Field>
+          </div>
+        </Section>
+        <Section title="Condition" description="What arrived, what is missing, what is damaged.">
+          <ConditionFields />
+        </Section>
+        <Section title="Decision">
+          <DecisionFields />
+        </Section>
+        <Section title="Photos and notes">
+          <div className="flex flex-col gap-4">
+            <PhotoField name="photoIds" label="Photos" max={12} />
+            <TextAreaField name="notes" label="Notes" hint="Anything the next person should know." />
+          </div>
+        </Section>
+        {lookAlikes && lookAlikes.length > 0 && <DuplicateConfirm rows={lookAlikes} />}
+        <div className="flex justify-end">
+          <SubmitButton size="lg">Receive core</SubmitButton>
+        </div>
+      </Form>
+    </div>
+  );
+}

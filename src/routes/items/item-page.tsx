@@ -1,0 +1,111 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { Link, redirect, useParams, type LoaderFunctionArgs } from 'react-router';
+import { PART_KIND_LABELS } from '../../../shared/schemas/reference';
+import { useSignedIn } from '../../api/auth/me';
+import { itemQueryOptions, useItem } from '../../api/items/item';
+import { StatusBadge } from '../../components/item-status';
+import { RouteProgress } from '../../components/route-progress';
+import { ButtonLink } from '../../components/ui/button';
+import { Card, CardBody, CardHeader } from '../../components/ui/card';
+import { Notice } from '../../components/ui/notice';
+import { partName } from '../../lib/item-status';
+import { coreHref, labelsHref, serialHref, teardownHref } from '../../lib/paths';
+import { canonicalSerial, requireSerial } from '../../lib/serial';
+import { requirePermission } from '../../lib/session';
+import { PartList } from '../cores/core-sections';
+
+export const itemLoader =
+  (queryClient: QueryClient) =>
+  async ({ request, params }: LoaderFunctionArgs) => {
+    const me = await requirePermission(queryClient, request, 'items.read');
+    const item = await queryClient.ensureQueryData(itemQueryOptions(requireSerial(params.serial)));
+    // a core's own page holds its receipt; those who may read intake go there
+    if (item.kind === 'core' && me.can('intake.read')) throw redirect(coreHref(item.serial));
+    return null;
+  };
+
+export function ItemPage() {
+  const me = useSignedIn();
+  const { data: item } = useItem(canonicalSerial(useParams().serial));
+  if (!me || !item) return null;
+  const origin = item.harvestedFrom;
+  const canIntake = me.can('intake.read');
+
+  return (
+    <>
+      <div className="mb-5 flex flex-wrap items-end justify-between gap-4">
+        <div>
+          <p className="text-ink-soft">
+            {partName(item.kindLabel, item.positionLabel)} ·{' '}
+            <span className="font-mono font-semibold text-ink">{item.family.code}</span> {item.family.name}
+          </p>
+          <h1 className="font-mono text-[2.5rem] font-semibold leading-tight tracking-wide">{item.serial}</h1>
+          <div className="mt-1">
+            <StatusBadge status={item.status} />
+          </div>
+        </div>
+        <div className="flex flex-wrap gap-2">
+          {item.kind === 'core' && item.status === 'received' && me.can('teardown.record') && (
+            <ButtonLink to={teardownHref(item.serial)} variant="primary" size="lg">
+              Tear down
+            </ButtonLink>
+          )}
+          {me.can('labels.print') && (
+            <ButtonLink to={labelsHref([item.serial])} icon="print" size="lg">
+              Print label
+            </ButtonLink>
+          )}
+        </div>
+      </div>
+      <div className="grid grid-cols-1 items-start gap-5 xl:grid-cols-[minmax(0,1.4fr)_minmax(0,1fr)]">
+        <Card labelledBy="route-heading">
+          <CardHeader
+            id="route-heading"
+            title="Route"
+            description={item.currentStage ? `Next: ${item.currentStage.name}` : undefined}
+          />
+          <CardBody>
+            <div className="flex flex-col gap-4">
+              <RouteProgress steps={item.route} />
+              {item.currentStage?.hazard && (
+                <Notice tone="hold" title={`Caution at ${item.currentStage.name}`}>
+                  {item.currentStage.hazard} This screen does not replace the plant&apos;s procedure.
+                </Notice>
+              )}
+            </div>
+          </CardBody>
+        </Card>
+        <div className="flex flex-col gap-5">
+          <Card labelledBy="origin-heading">
+            <CardHeader id="origin-heading" title="Where it came from" />
+            <CardBody>
+              {origin ? (
+                <p>
+                  Harvested from {PART_KIND_LABELS[origin.kind].toLowerCase()}{' '}
+                  <Link
+                    to={serialHref(origin.serial, origin.kind, canIntake)}
+                    className="font-mono text-lg font-semibold text-accent underline underline-offset-4"
+                  >
+                    {origin.serial}
+                  </Link>
+                </p>
+              ) : (
+                <p className="text-ink-soft">
+                  {item.kind === 'core' ? 'A core is where the trail starts.' : 'No core is linked to this item.'}
+                </p>
+              )}
+            </CardBody>
+          </Card>
+          {item.parts.length > 0 && (
+            <Card labelledBy="parts-heading">
+              <CardHeader id="parts-heading" title="Parts taken from it" />
+              <CardBody>
+                <PartList parts={item.parts} />
+              </CardBody>
+            </Card>
+          )}
+        </div>
+      </div>
+    </>
+  );
+}

@@ -1,0 +1,136 @@
+import { useMemo } from 'react';
+import { useController, useFormContext } from 'react-hook-form';
+import { WEAR_PARTS } from '../../../shared/schemas/intake';
+import { useTearDownCore } from '../../api/cores/tear-down-core';
+import type { CoreDetail } from '../../api/cores/types';
+import type { ItemJson } from '../../api/items/types';
+import { Caution } from '../../components/caution';
+import { Form, SubmitButton } from '../../components/form';
+import { TextAreaField, TextField } from '../../components/form-fields';
+import { Card, CardBody, CardHeader } from '../../components/ui/card';
+import { Icon, type IconName } from '../../components/ui/icon';
+import { rowsFor, teardownForm, type Decision, type PartRow } from './teardown-schema';
+
+// a chosen tile is filled (white on the state colour), so it stands out in sunlight and in grey
+const TILE: Record<Decision, { word: string; icon: IconName; checked: string }> = {
+  keep: { word: 'Keep', icon: 'ok', checked: 'has-checked:border-ok has-checked:bg-ok has-checked:text-white' },
+  scrap: { word: 'Scrap', icon: 'bad', checked: 'has-checked:border-bad has-checked:bg-bad has-checked:text-white' },
+  absent: {
+    word: 'Not there',
+    icon: 'off',
+    checked: 'has-checked:border-dashed has-checked:border-ink has-checked:bg-ink-soft has-checked:text-white',
+  },
+};
+
+type FormValues = { parts: { decision?: Decision; reason?: string }[]; notes: string };
+
+/** One major part: Keep, Scrap (with a reason) or not there / not tracked, as three large tiles. */
+function PartDecision({ row, index }: { row: PartRow; index: number }) {
+  const {
+    field: { ref, value, onChange, onBlur },
+  } = useController<FormValues, `parts.${number}.decision`>({ name: `parts.${index}.decision` });
+  const { formState } = useFormContext<FormValues>();
+  const error = formState.errors.parts?.[index]?.decision?.message;
+  const absentWord = row.optional ? 'Not tracked' : 'Not there';
+  const errorId = `part-${index}-error`;
+  const labelId = `part-${index}-label`;
+  return (
+    <li className="flex flex-col gap-3 py-4 first:pt-0 last:pb-0">
+      <div
+        role="radiogroup"
+        aria-labelledby={labelId}
+        aria-describedby={error ? errorId : undefined}
+        className="flex flex-wrap items-center justify-between gap-3"
+      >
+        <p id={labelId} className="text-xl font-semibold">
+          {row.label}
+          {row.optional && <span className="ml-2 text-base font-normal text-ink-soft">where tracked</span>}
+        </p>
+        <div className="grid w-full grid-cols-3 gap-2 sm:w-auto sm:grid-cols-[repeat(3,10.5rem)]">
+          {(['keep', 'scrap', 'absent'] as const).map((d, i) => {
+            const word = d === 'absent' ? absentWord : TILE[d].word;
+            return (
+              <label
+                key={d}
+                className={`relative flex min-h-14 cursor-pointer whitespace-nowrap items-center justify-center gap-2 rounded-control border-2 border-rule-strong bg-field px-4 text-lg font-semibold text-ink hover:border-ink-soft has-focus-visible:outline-3 has-focus-visible:outline-offset-2 has-focus-visible:outline-accent ${TILE[d].checked}`}
+              >
+                <input
+                  ref={i === 0 ? ref : undefined}
+                  type="radio"
+                  name={`part-${index}`}
+                  className="absolute inset-0 size-full cursor-pointer appearance-none opacity-0"
+                  checked={value === d}
+                  onChange={() => onChange(d)}
+                  onBlur={onBlur}
+                  aria-label={d === 'absent' ? `${row.label} ${word.toLowerCase()}` : `${word} ${row.label}`}
+                />
+                <Icon name={TILE[d].icon} size={22} />
+                {word}
+              </label>
+            );
+          })}
+        </div>
+      </div>
+      {error && (
+        <p id={errorId} className="flex items-start gap-1.5 font-medium text-bad">
+          <Icon name="bad" size={18} className="mt-0.5" />
+          {error}
+        </p>
+      )}
+      {value === 'scrap' && (
+        <TextField name={`parts.${index}.reason`} label={`Reason to scrap ${row.label}`} optional autoFocus />
+      )}
+    </li>
+  );
+}
+
+type TeardownFormProps = { item: ItemJson; onDone: (core: CoreDetail) => void };
+
+export function TeardownForm({ item, onDone }: TeardownFormProps) {
+  const tearDown = useTearDownCore();
+  const rows = useMemo(() => rowsFor(item.family), [item.family]);
+  const schema = useMemo(() => teardownForm(rows), [rows]);
+  const hazard = item.route.find((s) => s.code === 'teardown')?.hazard ?? item.currentStage?.hazard;
+
+  return (
+    <Form
+      schema={schema}
+      defaultValues={{
+        parts: rows.map((r) => ({ decision: r.optional ? ('absent' as const) : undefined, reason: '' })),
+        notes: '',
+      }}
+      onSubmit={async (body) => onDone(await tearDown.mutateAsync({ serial: item.serial, body }))}
+    >
+      <Caution title="Heavy parts" icon="hoist">
+        {hazard ?? 'Blocks, crankshafts and heads are heavy: lift them with the hoist.'} Follow the plant&apos;s lifting
+        procedure; this screen does not replace it.
+      </Caution>
+      <Card labelledBy="parts-heading">
+        <CardHeader
+          id="parts-heading"
+          title="Major parts"
+          description={`Each part kept gets its own serial and label, linked to ${item.serial}.`}
+        />
+        <CardBody>
+          <ul className="divide-y divide-rule">
+            {rows.map((r, i) => (
+              <PartDecision key={`${r.kind}-${r.position ?? ''}`} row={r} index={i} />
+            ))}
+          </ul>
+        </CardBody>
+      </Card>
+      <Card labelledBy="wear-heading">
+        <CardBody>
+          <h2 id="wear-heading" className="font-semibold">
+            Discarded by rule (always replaced)
+          </h2>
+          <p className="mt-1 text-ink-soft">{WEAR_PARTS.join(', ')}. These are recorded on the core as discarded.</p>
+        </CardBody>
+      </Card>
+      <TextAreaField name="notes" label="Notes" hint="Anything found during teardown the next stations should know." />
+      <div className="flex justify-end">
+        <SubmitButton size="lg">Record teardown</SubmitButton>
+      </div>
+    </Form>
+  );
+}

@@ -1,0 +1,155 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
+import { Link, type LoaderFunctionArgs } from 'react-router';
+import { parseSerial } from '../../../shared/domain/serial';
+import { useSignedIn } from '../../api/auth/me';
+import type { CoreDetail } from '../../api/cores/types';
+import { itemQueryOptions, useItem } from '../../api/items/item';
+import type { ItemJson } from '../../api/items/types';
+import { ItemSummary } from '../../components/item-summary';
+import { PageHeader } from '../../components/page-header';
+import { ScanBox } from '../../components/scan-box';
+import { Button, ButtonLink } from '../../components/ui/button';
+import { Card, CardBody, CardHeader } from '../../components/ui/card';
+import { Notice } from '../../components/ui/notice';
+import { partName } from '../../lib/item-status';
+import { itemHref, labelsHref, serialHref } from '../../lib/paths';
+import { requirePermission } from '../../lib/session';
+import { useUrlFilter } from '../../lib/use-url-filter';
+import { TeardownForm } from './teardown-form';
+
+export const teardownLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    await requirePermission(queryClient, request, 'teardown.record');
+    const parsed = parseSerial(new URL(request.url).searchParams.get('serial') ?? '');
+    // a core that cannot be found is said on the page, next to the scan box, not as an error page
+    if (parsed.ok) await queryClient.prefetchQuery(itemQueryOptions(parsed.serial));
+    return null;
+  };
+
+function NotTearable({ item, canIntake }: { item: ItemJson; canIntake: boolean }) {
+  const link = (
+    <Link to={serialHref(item.serial, item.kind, canIntake)} className="font-mono text-accent underline">
+      {item.serial}
+    </Link>
+  );
+  if (item.kind !== 'core') {
+    return (
+      <Notice tone="info" title="Not a core">
+        {link} is a {item.kindLabel.toLowerCase()}. Teardown starts from a received core; scan the core&apos;s label.
+      </Notice>
+    );
+  }
+  if (item.status === 'rejected') {
+    return (
+      <Notice tone="bad" title="Rejected at intake">
+        {link} was rejected when it arrived and is not torn down.
+      </Notice>
+    );
+  }
+  return (
+    <Notice tone="info" title="Already torn down">
+      {link} has been torn down; its parts are listed on its page.
+    </Notice>
+  );
+}
+
+function TeardownDone({ core, onNext }: { core: CoreDetail; onNext: () => void }) {
+  const kept = core.teardown?.kept ?? [];
+  return (
+    <Card labelledBy="done-heading">
+      <CardHeader
+        id="done-heading"
+        title="Teardown recorded"
+        description={`${core.serial} is torn down. Label each part now, before the parts are separated.`}
+      />
+      <CardBody>
+        <div className="flex flex-col gap-4">
+          <Notice tone="ok" live="status" title={`${kept.length} part${kept.length === 1 ? '' : 's'} serialized`}>
+            {core.teardown && core.teardown.scrapped.length > 0
+              ? `${core.teardown.scrapped.length} scrapped with their reasons.`
+              : 'Nothing scrapped.'}
+          </Notice>
+          {kept.length > 0 && (
+            <ul className="divide-y divide-rule">
+              {core.parts.map((p) => (
+                <li key={p.serial} className="flex flex-wrap items-baseline gap-x-5 py-2.5">
+                  <Link
+                    to={itemHref(p.serial)}
+                    className="font-mono text-2xl font-semibold tracking-wide text-accent underline-offset-4 hover:underline"
+                  >
+                    {p.serial}
+                  </Link>
+                  <span className="text-lg">{partName(p.kindLabel, p.positionLabel)}</span>
+                </li>
+              ))}
+            </ul>
+          )}
+          <div className="flex flex-wrap gap-2">
+            {kept.length > 0 && (
+              <ButtonLink to={labelsHref(kept.map((k) => k.serial))} variant="primary" size="lg" icon="print">
+                Print labels for these parts
+              </ButtonLink>
+            )}
+            <Button size="lg" onClick={onNext}>
+              Tear down another core
+            </Button>
+          </div>
+        </div>
+      </CardBody>
+    </Card>
+  );
+}
+
+export function TeardownPage() {
+  const me = useSignedIn();
+  const { params, set } = useUrlFilter();
+  const parsed = parseSerial(params.get('serial') ?? '');
+  const serial = parsed.ok ? parsed.serial : null;
+  const item = useItem(serial);
+  const [done, setDone] = useState<CoreDetail | null>(null);
+  if (!me) return null;
+  const finished = done && done.serial === serial ? done : null;
+
+  return (
+    <div className="mx-auto max-w-[60rem]">
+      <PageHeader
+        title="Teardown"
+        description="Scan a received core, then say for each major part whether it is kept or scrapped."
+      />
+      <div className="flex flex-col gap-5">
+        {!finished && (
+          <Card labelledBy="scan-heading">
+            <CardHeader id="scan-heading" title="Which core" />
+            <CardBody>
+              <div className="flex flex-col gap-5">
+                <ScanBox onItem={(i) => set('serial', i.serial)} preview={false} autoFocus={!serial} />
+                {item.data && (
+                  <div className="border-t border-rule pt-4">
+                    <ItemSummary item={item.data} />
+                  </div>
+                )}
+              </div>
+            </CardBody>
+          </Card>
+        )}
+        {item.error && !finished && (
+          <Notice tone="bad" live="alert">
+            {item.error.message}
+          </Notice>
+        )}
+        {finished ? (
+          <TeardownDone core={finished} onNext={() => set('serial', '')} />
+        ) : (
+          item.data &&
+          (item.data.kind === 'core' && item.data.status === 'received' ? (
+            <TeardownForm key={item.data.serial} item={item.data} onDone={setDone} />
+          ) : (
+            <NotTearable item={item.data} canIntake={me.can('intake.read')} />
+          ))
+        )}
+      </div>
+    </div>
+  );
+}
