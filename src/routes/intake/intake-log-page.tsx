@@ -13,7 +13,6 @@ import { Field } from '../../components/ui/field';
 import { Icon } from '../../components/ui/icon';
 import { Input } from '../../components/ui/input';
 import { Notice } from '../../components/ui/notice';
-import { Select } from '../../components/ui/select';
 import { plural } from '../../lib/format';
 import { gradeWord, SOURCE_LABELS } from '../../lib/intake-labels';
 import { paths } from '../../lib/paths';
@@ -21,6 +20,7 @@ import { requirePermission } from '../../lib/session';
 import { useDebouncedText, useUrlFilter } from '../../lib/use-url-filter';
 import { exportHref, intakeFilterFrom } from './filter';
 import { IntakeTable } from './intake-table';
+import { FilterInput, FilterSelect } from '../../components/filter-fields';
 
 export const intakeLogLoader =
   (queryClient: QueryClient) =>
@@ -86,60 +86,54 @@ export function IntakeLogPage() {
           className="grid grid-cols-2 gap-3 border-b border-rule px-5 py-4 md:grid-cols-4 xl:grid-cols-6"
         >
           <div className="col-span-2 md:col-span-4 xl:col-span-2">
-            <Field id="intake-q" label="Search">
-              <Input
-                id="intake-q"
-                type="search"
-                placeholder="Serial, casting or ID no., reference"
-                value={draft}
-                onChange={(e) => onSearch(e.target.value)}
-              />
-            </Field>
+            <FilterInput
+              id="intake-q"
+              label="Search"
+              type="search"
+              placeholder="Serial, casting or ID no., reference"
+              value={draft}
+              onChange={(v) => onSearch(v)}
+            />
           </div>
-          <Field id="intake-family" label="Family">
-            <Select
-              id="intake-family"
-              placeholder="All families"
-              options={familyOptions}
-              value={filter.family ? String(filter.family) : ''}
-              onChange={(e) => set('family', e.target.value)}
-            />
-          </Field>
-          <Field id="intake-source" label="Source">
-            <Select
-              id="intake-source"
-              placeholder="Any source"
-              options={sourceOptions}
-              value={filter.source ?? ''}
-              onChange={(e) => set('source', e.target.value)}
-            />
-          </Field>
-          <Field id="intake-grade" label="Grade">
-            <Select
-              id="intake-grade"
-              placeholder="Any grade"
-              options={gradeOptions}
-              value={filter.grade ?? ''}
-              onChange={(e) => set('grade', e.target.value)}
-            />
-          </Field>
-          <Field id="intake-accepted" label="Decision">
-            <Select
-              id="intake-accepted"
-              placeholder="Either"
-              options={decisionOptions}
-              value={filter.accepted ?? ''}
-              onChange={(e) => set('accepted', e.target.value)}
-            />
-          </Field>
-          <Field id="intake-from" label="Received from">
-            <Input
-              id="intake-from"
-              type="date"
-              value={filter.from ?? ''}
-              onChange={(e) => set('from', e.target.value)}
-            />
-          </Field>
+          <FilterSelect
+            id="intake-family"
+            label="Family"
+            placeholder="All families"
+            options={familyOptions}
+            value={filter.family ? String(filter.family) : ''}
+            onChange={(v) => set('family', v)}
+          />
+          <FilterSelect
+            id="intake-source"
+            label="Source"
+            placeholder="Any source"
+            options={sourceOptions}
+            value={filter.source ?? ''}
+            onChange={(v) => set('source', v)}
+          />
+          <FilterSelect
+            id="intake-grade"
+            label="Grade"
+            placeholder="Any grade"
+            options={gradeOptions}
+            value={filter.grade ?? ''}
+            onChange={(v) => set('grade', v)}
+          />
+          <FilterSelect
+            id="intake-accepted"
+            label="Decision"
+            placeholder="Either"
+            options={decisionOptions}
+            value={filter.accepted ?? ''}
+            onChange={(v) => set('accepted', v)}
+          />
+          <FilterInput
+            id="intake-from"
+            label="Received from"
+            type="date"
+            value={filter.from ?? ''}
+            onChange={(v) => set('from', v)}
+          />
           <Field id="intake-to" label="Received to">
             <Input id="intake-to" type="date" value={filter.to ?? ''} onChange={(e) => set('to', e.target.value)} />
           </Field>

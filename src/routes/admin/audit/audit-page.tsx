@@ -10,7 +10,6 @@ import { Card, CardBody, CardFooter } from '../../../components/ui/card';
 import { Field } from '../../../components/ui/field';
 import { Input } from '../../../components/ui/input';
 import { Notice } from '../../../components/ui/notice';
-import { Select } from '../../../components/ui/select';
 import { downloadCsv, fetchAllPages, toCsv } from '../../../lib/csv';
 import { formatWhen } from '../../../lib/format';
 import { requirePermission } from '../../../lib/session';
@@ -18,6 +17,7 @@ import { useDebouncedText, useUrlFilter } from '../../../lib/use-url-filter';
 import { AuditTable } from './audit-table';
 import { AuditVerify } from './audit-verify';
 import { auditFilterFrom, ENTITY_LABELS } from './filter';
+import { FilterSelect } from '../../../components/filter-fields';
 
 export const auditLoader =
   (queryClient: QueryClient) =>
@@ -91,15 +91,14 @@ export function AuditPage() {
           onSubmit={(e) => e.preventDefault()}
           className="grid grid-cols-1 gap-3 border-b border-rule px-5 py-4 sm:grid-cols-[minmax(0,1fr)_minmax(0,1fr)_auto] sm:items-end"
         >
-          <Field id="audit-entity" label="Entity">
-            <Select
-              id="audit-entity"
-              placeholder="Any entity"
-              options={entityOptions}
-              value={filter.entity ?? ''}
-              onChange={(e) => set('entity', e.target.value)}
-            />
-          </Field>
+          <FilterSelect
+            id="audit-entity"
+            label="Entity"
+            placeholder="Any entity"
+            options={entityOptions}
+            value={filter.entity ?? ''}
+            onChange={(v) => set('entity', v)}
+          />
           <Field id="audit-entity-id" label="Entity id">
             <Input
               id="audit-entity-id"

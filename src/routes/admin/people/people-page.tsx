@@ -8,10 +8,7 @@ import { PageHeader } from '../../../components/page-header';
 import { Pager } from '../../../components/pager';
 import { Button } from '../../../components/ui/button';
 import { Card, CardFooter } from '../../../components/ui/card';
-import { Field } from '../../../components/ui/field';
-import { Input } from '../../../components/ui/input';
 import { Notice } from '../../../components/ui/notice';
-import { Select } from '../../../components/ui/select';
 import { downloadCsv, fetchAllPages, toCsv } from '../../../lib/csv';
 import { formatWhen } from '../../../lib/format';
 import { requirePermission } from '../../../lib/session';
@@ -19,6 +16,7 @@ import { useDebouncedText, useUrlFilter } from '../../../lib/use-url-filter';
 import { peopleFilterFrom } from './filter';
 import { AddPersonDialog } from './person-dialogs';
 import { PeopleTable } from './people-table';
+import { FilterInput, FilterSelect } from '../../../components/filter-fields';
 
 export const peopleLoader =
   (queryClient: QueryClient) =>
@@ -84,33 +82,30 @@ export function PeoplePage() {
           onSubmit={(e) => e.preventDefault()}
           className="grid grid-cols-1 gap-3 border-b border-rule px-5 py-4 sm:grid-cols-[minmax(0,2fr)_minmax(0,1fr)_minmax(0,1fr)_auto] sm:items-end"
         >
-          <Field id="people-q" label="Search">
-            <Input
-              id="people-q"
-              type="search"
-              placeholder="Name or e-mail"
-              value={draft}
-              onChange={(e) => onSearch(e.target.value)}
-            />
-          </Field>
-          <Field id="people-role" label="Role">
-            <Select
-              id="people-role"
-              placeholder="All roles"
-              options={roleOptions}
-              value={filter.role ?? ''}
-              onChange={(e) => setFilter('role', e.target.value)}
-            />
-          </Field>
-          <Field id="people-active" label="Status">
-            <Select
-              id="people-active"
-              placeholder="Any status"
-              options={statusOptions}
-              value={filter.active ?? ''}
-              onChange={(e) => setFilter('active', e.target.value)}
-            />
-          </Field>
+          <FilterInput
+            id="people-q"
+            label="Search"
+            type="search"
+            placeholder="Name or e-mail"
+            value={draft}
+            onChange={(v) => onSearch(v)}
+          />
+          <FilterSelect
+            id="people-role"
+            label="Role"
+            placeholder="All roles"
+            options={roleOptions}
+            value={filter.role ?? ''}
+            onChange={(v) => setFilter('role', v)}
+          />
+          <FilterSelect
+            id="people-active"
+            label="Status"
+            placeholder="Any status"
+            options={statusOptions}
+            value={filter.active ?? ''}
+            onChange={(v) => setFilter('active', v)}
+          />
           <Button onClick={onExport} disabled={exporting || !data?.total} aria-busy={exporting}>
             Export CSV
           </Button>
