@@ -109,7 +109,8 @@ export function createApp({
     app.use(express.static(clientDir, { index: false, maxAge: '1h', immutable: false }));
     const indexHtml = path.join(clientDir, 'index.html');
     app.get(/^\/(?!api\/).*/, (_req, res) => {
-      res.setHeader('Cache-Control', 'no-cache');
+      // no-store also keeps the browser's back button from showing a page from before sign-out
+      res.setHeader('Cache-Control', 'no-store');
       res.sendFile(indexHtml);
     });
   }

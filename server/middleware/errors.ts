@@ -9,6 +9,10 @@ import { MulterError } from 'multer';
 import { ZodError } from 'zod';
 import { AppError } from '../errors.js';
 
+/** Plain names for the unique columns a person can clash with. */
+const FIELD_NAMES: Record<string, string> = { email: 'e-mail address', code: 'code', serial: 'serial' };
+const camel = (s: string) => s.replace(/_([a-z])/g, (_m, c: string) => c.toUpperCase());
+
 type Reply = { status: number; code: string; message: string; fields?: Record<string, string>; extra?: object };
 
 function fromZod(err: ZodError): Reply {
@@ -47,8 +51,20 @@ function classify(err: unknown): Reply {
   }
   if (err instanceof UniqueConstraintError) {
     const fields: Record<string, string> = {};
-    for (const item of err.errors) if (item.path) fields[item.path] = 'This value is already in use.';
-    return { status: 409, code: 'duplicate', message: 'A record with that value already exists.', fields };
+    const names: string[] = [];
+    for (const item of err.errors) {
+      if (!item.path) continue;
+      const name = FIELD_NAMES[item.path] ?? item.path.replace(/_/g, ' ');
+      names.push(name);
+      fields[camel(item.path)] = `Another record already has this ${name}.`;
+    }
+    const what = names.length ? `this ${names.join(' and ')}` : 'that value';
+    return {
+      status: 409,
+      code: 'duplicate',
+      message: `Another record already has ${what}: choose a different one.`,
+      fields,
+    };
   }
   if (err instanceof ForeignKeyConstraintError) {
     return { status: 409, code: 'reference', message: 'That record refers to, or is referred to by, another record.' };

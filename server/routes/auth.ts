@@ -9,8 +9,6 @@ import type { Api } from '../http/api.js';
 import { SESSION_COOKIE } from '../middleware/authenticate.js';
 import { changeOwnPassword, signIn, signOut } from '../services/auth.js';
 
-const TOO_MANY = 'Too many failed sign-ins. Wait a few minutes, then try again.';
-
 function cookieOptions(config: Config, req: Request): CookieOptions {
   const secure = config.SECURE_COOKIES === 'always' || (config.SECURE_COOKIES === 'auto' && req.secure);
   return { httpOnly: true, sameSite: 'lax', secure, path: '/' };
@@ -18,6 +16,7 @@ function cookieOptions(config: Config, req: Request): CookieOptions {
 
 export function authRoutes(api: Api, sequelize: Sequelize, config: Config) {
   const windowMs = config.LOGIN_LIMIT_WINDOW_MIN * 60_000;
+  const TOO_MANY = `Too many failed sign-ins. Wait ${config.LOGIN_LIMIT_WINDOW_MIN} minutes, then try again, or ask an administrator.`;
   const limited = (message: string) => () => {
     throw tooMany(message);
   };

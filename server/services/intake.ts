@@ -18,6 +18,7 @@ type ReceiveCore = z.output<typeof receiveCoreBody>;
 type LogQuery = z.output<typeof intakeLogQuery>;
 
 const DUPLICATE_WINDOW_DAYS = 365;
+const compact = (s?: string) => s?.toUpperCase().replace(/[^A-Z0-9]/g, '');
 
 /** Recent cores with the same ID number (or, without one, the same casting and no ID number). */
 export async function findDuplicates(sequelize: Sequelize, castingNumber: string, idNumber?: string) {
@@ -33,11 +34,12 @@ export async function findDuplicates(sequelize: Sequelize, castingNumber: string
             to_char(r.received_on, 'YYYY-MM-DD') AS "receivedOn", r.accepted
        FROM core_receipts r JOIN items i ON i.id = r.item_id
       WHERE r.received_on >= :since
-        AND (${idNumber ? 'upper(r.id_number) = :idNumber' : 'upper(r.casting_number) = :castingNumber AND r.id_number IS NULL'})
+        AND (${idNumber ? "regexp_replace(upper(r.id_number), '[^A-Z0-9]', '', 'g') = :idNumber" : "regexp_replace(upper(r.casting_number), '[^A-Z0-9]', '', 'g') = :castingNumber AND r.id_number IS NULL"})
       ORDER BY r.received_on DESC, r.id DESC LIMIT 5`,
     {
       type: QueryTypes.SELECT,
-      replacements: { since, idNumber: idNumber?.toUpperCase(), castingNumber: castingNumber.toUpperCase() },
+      // stamped numbers are compared without spaces, dashes, dots or slashes: "LV 208-113" is "LV208113"
+      replacements: { since, idNumber: compact(idNumber), castingNumber: compact(castingNumber) },
     },
   );
 }
@@ -154,7 +156,8 @@ const SORT_COLUMNS: Record<LogQuery['sort'], string> = {
   receivedOn: 'r.received_on',
   serial: 'i.serial',
   family: 'f.code',
-  grade: 'r.grade',
+  // by condition, best first, not alphabetically
+  grade: "array_position(ARRAY['sound','workable','doubtful','unusable']::varchar[], r.grade)",
   castingNumber: 'r.casting_number',
 };
 
@@ -174,10 +177,14 @@ export async function intakeLog(sequelize: Sequelize, q: LogQuery, { all = false
   if (q.to) add('r.received_on <= :to', 'to', q.to);
   if (q.q) {
     add(
-      '(i.serial ILIKE :q OR r.casting_number ILIKE :q OR r.id_number ILIKE :q OR r.source_reference ILIKE :q)',
+      `(i.serial ILIKE :q OR replace(i.serial, '-', '') ILIKE :qCompact OR r.casting_number ILIKE :q
+        OR regexp_replace(r.id_number, '[^A-Za-z0-9]', '', 'g') ILIKE :qCompact OR r.id_number ILIKE :q
+        OR r.source_reference ILIKE :q)`,
       'q',
       `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`,
     );
+    // '-' can never match a compacted value, so a search of only punctuation matches nothing extra
+    replacements.qCompact = compact(q.q) ? `%${compact(q.q)}%` : '-';
   }
   const filter = where.length ? `WHERE ${where.join(' AND ')}` : '';
   const from = `FROM core_receipts r JOIN items i ON i.id = r.item_id JOIN engine_families f ON f.id = i.engine_family_id

@@ -1,15 +1,24 @@
 import { randomUUID } from 'node:crypto';
 import type { Sequelize } from 'sequelize';
 import type { z } from 'zod';
-import { WEAR_PARTS, type teardownBody, type TeardownPart } from '../../shared/schemas/intake.js';
+import { WEAR_PARTS, type CORE_PARTS, type teardownBody, type TeardownPart } from '../../shared/schemas/intake.js';
 import { PART_KIND_LABELS } from '../../shared/schemas/reference.js';
 import { recordAudit, type Ctx } from '../audit.js';
 import { conflict, invalid } from '../errors.js';
-import { EngineFamily, Item, ItemLink, Stage, StageResult } from '../models/index.js';
+import { CoreReceipt, EngineFamily, Item, ItemLink, Stage, StageResult, User } from '../models/index.js';
 import { findBySerial, newSerial, routeFor } from './items.js';
 import { coreDetail } from './intake.js';
 
 type Teardown = z.output<typeof teardownBody>;
+
+/** The intake checklist's name for each part teardown can keep. */
+const MISSING_NAME: Record<TeardownPart, (typeof CORE_PARTS)[number]> = {
+  block: 'block',
+  crankshaft: 'crankshaft',
+  cylinder_head: 'cylinder_heads',
+  camshaft: 'camshaft',
+  rod_set: 'connecting_rods',
+};
 
 /** How many of each major part one core of a family can give. */
 function allowance(family: EngineFamily): Record<TeardownPart, number> {
@@ -36,6 +45,16 @@ export async function tearDownCore(
     if (core.status === 'rejected') throw conflict(`${core.serial} was rejected at intake and cannot be torn down.`);
     if (core.status !== 'received') throw conflict(`${core.serial} has already been torn down.`);
     const family = (await EngineFamily.findByPk(core.engineFamilyId, { transaction }))!;
+    const receipt = await CoreReceipt.findOne({ where: { itemId: core.id }, transaction });
+    const missingAtIntake = new Set((receipt?.condition as { missing?: string[] } | undefined)?.missing ?? []);
+    for (const part of body.kept) {
+      if (missingAtIntake.has(MISSING_NAME[part.kind])) {
+        throw invalid(
+          `Intake recorded the ${PART_KIND_LABELS[part.kind].toLowerCase()} as missing from ${core.serial}, so it cannot be kept. If it did arrive, correct the intake record first.`,
+          { kept: 'A part recorded as missing at intake.' },
+        );
+      }
+    }
 
     const limits = allowance(family);
     const counts = new Map<TeardownPart, number>();
@@ -104,9 +123,11 @@ export async function tearDownCore(
       created.push({ serial: item.serial, kind: part.kind, position: item.positionLabel });
     }
 
+    const by = await User.findByPk(ctx.actor!.id, { transaction });
     const teardown = {
       at: new Date().toISOString(),
       byId: ctx.actor!.id,
+      by: by?.name ?? '',
       kept: created,
       scrapped: body.scrapped,
       discardedByRule: WEAR_PARTS,

@@ -3,7 +3,7 @@ import type { PartKind } from '../schemas/reference.js';
 
 /**
  * Coretrail serials: a kind prefix, seven body characters and one ISO/IEC 7064 MOD 37-2 check
- * character, printed as `BK-7KX4-P2MQ` (the last character is the check).
+ * character, printed as `BK-7KX4-P2MK` (the last character is the check).
  *
  * People read serials aloud and type them with gloves on, so no serial ever contains 0, 1, I or
  * O. The body uses the 32 characters below; a serial whose check character would be one of the
@@ -26,7 +26,7 @@ const KIND_BY_PREFIX = new Map(Object.entries(SERIAL_PREFIX).map(([k, p]) => [p,
 const BODY_LENGTH = 7;
 const COMPACT = new RegExp(`^([A-Z]{2})([${SERIAL_ALPHABET}]{${BODY_LENGTH}})([${SERIAL_ALPHABET}])$`);
 
-/** `BK7KX4P2MQ` → `BK-7KX4-P2MQ`. */
+/** `BK7KX4P2MK` → `BK-7KX4-P2MK`. */
 export function formatSerial(compact: string): string {
   return `${compact.slice(0, 2)}-${compact.slice(2, 6)}-${compact.slice(6)}`;
 }
@@ -56,7 +56,7 @@ export function parseSerial(input: string): SerialCheck {
   }
   const m = COMPACT.exec(compact);
   if (!m) {
-    return { ok: false, reason: 'A serial is 2 letters, then 8 letters or digits, like BK-7KX4-P2MQ.' };
+    return { ok: false, reason: 'A serial is 2 letters, then 8 letters or digits, like BK-7KX4-P2MK.' };
   }
   const kind = KIND_BY_PREFIX.get(m[1]!);
   if (!kind) return { ok: false, reason: `"${m[1]}" is not the start of any Coretrail serial.` };

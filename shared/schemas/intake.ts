@@ -78,28 +78,41 @@ export const receiveCoreBody = z
     // a matching recent core was shown and the person says this one is different
     confirmNotDuplicate: z.boolean().default(false),
   })
-  .superRefine((b, ctx) => {
-    const need = (path: string, message: string) => ctx.addIssue({ code: 'custom', path: [path], message });
-    if (b.source === 'customer_return') {
-      if (!b.customerId) need('customerId', 'Choose the customer returning the core.');
-      if (b.supplierId) need('supplierId', 'A customer return has no supplier.');
-      if (!b.creditDecision) need('creditDecision', 'Decide the core credit.');
-      if (b.creditDecision && b.creditDecision !== 'full' && !b.creditReason) {
-        need('creditReason', 'Say why the credit is partial or none.');
+  .superRefine(
+    (b, ctx) => {
+      const need = (path: string, message: string) => ctx.addIssue({ code: 'custom', path: [path], message });
+      if (b.source === 'customer_return') {
+        if (!b.customerId) need('customerId', 'Choose the customer returning the core.');
+        if (b.supplierId) need('supplierId', 'A customer return has no supplier.');
+        if (!b.creditDecision) need('creditDecision', 'Decide the core credit.');
+        if (b.creditDecision && b.creditDecision !== 'full' && !b.creditReason) {
+          need('creditReason', 'Say why the credit is partial or none.');
+        }
+      } else {
+        if (!b.supplierId) need('supplierId', 'Choose the supplier the core was bought from.');
+        if (b.customerId) need('customerId', 'A purchased core has no customer.');
+        if (b.creditDecision) need('creditDecision', 'Core credit applies to customer returns only.');
       }
-    } else {
-      if (!b.supplierId) need('supplierId', 'Choose the supplier the core was bought from.');
-      if (b.customerId) need('customerId', 'A purchased core has no customer.');
-      if (b.creditDecision) need('creditDecision', 'Core credit applies to customer returns only.');
-    }
-    if (!b.accepted && !b.rejectReason) need('rejectReason', 'Say why the core is rejected.');
-    if (b.accepted && b.rejectReason) need('rejectReason', 'An accepted core has no reject reason.');
-    if (b.complete && b.missing.length) need('missing', 'A complete core has nothing missing.');
-    if (!b.complete && !b.missing.length) need('missing', 'Tick what is missing.');
-    if (new Date(`${b.receivedOn}T00:00:00Z`).getTime() > Date.now() + 86_400_000) {
-      need('receivedOn', 'The received date cannot be in the future.');
-    }
-  });
+      if (b.accepted === false && !b.rejectReason) need('rejectReason', 'Say why the core is rejected.');
+      if (b.accepted && b.rejectReason) need('rejectReason', 'An accepted core has no reject reason.');
+      const missing = Array.isArray(b.missing) ? b.missing : [];
+      if (b.complete === true && missing.length) need('missing', 'A complete core has nothing missing.');
+      if (b.complete === false && !missing.length) need('missing', 'Tick what is missing.');
+      // the latest calendar date anywhere on Earth right now (UTC+14), so no plant's today is refused
+      const latest = new Date(Date.now() + 14 * 3600_000).toISOString().slice(0, 10);
+      if (typeof b.receivedOn === 'string' && b.receivedOn > latest)
+        need('receivedOn', 'The received date cannot be in the future.');
+      if (typeof b.receivedOn === 'string' && b.receivedOn < '1990-01-01')
+        need('receivedOn', 'Check the year of the received date.');
+      if (b.accepted === false && b.creditDecision === 'full') {
+        need('creditDecision', 'A rejected core cannot get full core credit.');
+      }
+    },
+    {
+      // check the cross-field rules even when a single field is also wrong, so every problem shows at once
+      when: (payload: { value: unknown }) => typeof payload.value === 'object' && payload.value !== null,
+    } as never,
+  );
 export type ReceiveCoreBody = z.input<typeof receiveCoreBody>;
 
 export const duplicateQuery = z.strictObject({
@@ -184,6 +197,8 @@ export const labelsPrintedBody = z.strictObject({
 export type TeardownRecord = {
   at: string;
   byId: number;
+  /** The name of the person who recorded it (absent on teardowns recorded before it was kept). */
+  by?: string;
   kept: { serial: string; kind: TeardownPart; position: string | null }[];
   scrapped: { kind: TeardownPart; position?: string; reason: string }[];
   discardedByRule: string[];

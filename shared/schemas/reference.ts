@@ -32,7 +32,7 @@ const code = z
 
 export const createStationBody = z.strictObject({
   code,
-  name: z.string().trim().min(2).max(80),
+  name: z.string().trim().min(2, 'Enter a name of at least 2 characters.').max(80, 'At most 80 characters.'),
   stageCode: z.string().trim().min(1).max(40).nullable(),
   location: z.string().trim().max(80).optional(),
 });
@@ -54,12 +54,32 @@ export const familyBody = z
     name: z.string().trim().min(2).max(80),
     description: z.string().trim().max(500).default(''),
     layout: z.enum(LAYOUTS),
-    cylinders: z.number().int().min(1).max(16),
-    boreMm: z.number().positive().max(300),
-    strokeMm: z.number().positive().max(300),
-    headsPerEngine: z.number().int().min(1).max(2),
-    warrantyMonths: z.number().int().min(0).max(120),
-    warrantyKm: z.number().int().min(0).max(2_000_000).nullable(),
+    cylinders: z
+      .number('Enter the number of cylinders.')
+      .int('Use a whole number.')
+      .min(1, 'At least 1.')
+      .max(16, 'At most 16.'),
+    boreMm: z.number('Enter the bore in mm.').positive('The bore must be more than 0 mm.').max(300, 'At most 300 mm.'),
+    strokeMm: z
+      .number('Enter the stroke in mm.')
+      .positive('The stroke must be more than 0 mm.')
+      .max(300, 'At most 300 mm.'),
+    headsPerEngine: z
+      .number('Enter the number of heads.')
+      .int('Use a whole number.')
+      .min(1, 'At least 1.')
+      .max(2, 'At most 2.'),
+    warrantyMonths: z
+      .number('Enter the warranty in months.')
+      .int('Use whole months.')
+      .min(0, 'Not negative.')
+      .max(120, 'At most 120 months.'),
+    warrantyKm: z
+      .number('Enter a distance or leave it empty.')
+      .int('Use whole kilometres.')
+      .min(0, 'Not negative.')
+      .max(2_000_000, 'At most 2 000 000 km.')
+      .nullable(),
     active: z.boolean().default(true),
   })
   .refine((f) => (f.layout === 'inline' ? f.headsPerEngine === 1 : f.headsPerEngine === 2), {

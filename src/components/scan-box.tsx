@@ -26,6 +26,8 @@ type ScanBoxProps = {
   preview?: boolean;
   autoFocus?: boolean;
   hint?: string;
+  /** A serial to start with, e.g. the one a page was opened for. */
+  initial?: string;
 };
 
 /**
@@ -33,11 +35,11 @@ type ScanBoxProps = {
  * presses Enter) or read by the camera. The check character is verified as the serial is typed, so
  * a slip is caught at the dock, and a serial that cannot exist is never sent to the server.
  */
-export function ScanBox({ onItem, preview = true, autoFocus = false, hint }: ScanBoxProps) {
+export function ScanBox({ onItem, preview = true, autoFocus = false, hint, initial = '' }: ScanBoxProps) {
   const id = useId();
   const input = useRef<HTMLInputElement>(null);
   const queryClient = useQueryClient();
-  const [text, setText] = useState('');
+  const [text, setText] = useState(initial);
   const [tried, setTried] = useState(false);
   const [looking, setLooking] = useState<string | null>(null);
   const [found, setFound] = useState<string | null>(null);
@@ -106,7 +108,7 @@ export function ScanBox({ onItem, preview = true, autoFocus = false, hint }: Sca
             autoCapitalize="characters"
             spellCheck={false}
             enterKeyHint="search"
-            placeholder="BK-7KX4-P2MQ"
+            placeholder="BK-7KX4-P2MK"
             aria-invalid={reason || failure ? true : undefined}
             aria-describedby={statusId}
             className="h-16 min-w-0 flex-1 basis-72 rounded-control border-2 border-ink bg-field px-4 font-mono text-[1.75rem] font-semibold uppercase tracking-wider text-ink placeholder:font-normal placeholder:text-ink-faint aria-[invalid=true]:border-bad"

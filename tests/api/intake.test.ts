@@ -152,6 +152,79 @@ describe('receiving a core', () => {
   });
 });
 
+describe('intake rules found by trying it', () => {
+  it('reports every problem at once, cross-field rules included, even when a field is also wrong', async () => {
+    const res = await request(t.app)
+      .post('/api/cores')
+      .set('Cookie', receiving)
+      .send(customerReturn({ castingNumber: '', creditDecision: undefined, customerId: undefined, accepted: false }));
+    expect(res.status).toBe(400);
+    expect(Object.keys(res.body.error.fields).sort()).toEqual([
+      'castingNumber',
+      'creditDecision',
+      'customerId',
+      'rejectReason',
+    ]);
+  });
+
+  it('refuses a received date in the future or long ago, and full credit on a rejected core', async () => {
+    const future = new Date(Date.now() + 3 * 86_400_000).toISOString().slice(0, 10);
+    let res = await request(t.app)
+      .post('/api/cores')
+      .set('Cookie', receiving)
+      .send(customerReturn({ receivedOn: future }));
+    expect(res.body.error.fields).toHaveProperty('receivedOn');
+    res = await request(t.app)
+      .post('/api/cores')
+      .set('Cookie', receiving)
+      .send(customerReturn({ receivedOn: '1901-05-01' }));
+    expect(res.body.error.fields).toHaveProperty('receivedOn');
+    res = await request(t.app)
+      .post('/api/cores')
+      .set('Cookie', receiving)
+      .send(customerReturn({ accepted: false, rejectReason: 'Holed block' }));
+    expect(res.body.error.fields).toEqual({ creditDecision: 'A rejected core cannot get full core credit.' });
+  });
+
+  it('treats "LV 208-113" and "LV208113" as the same stamped ID number, and finds serials typed without dashes', async () => {
+    const base = unique('').toUpperCase().slice(0, 6);
+    const first = await request(t.app)
+      .post('/api/cores')
+      .set('Cookie', receiving)
+      .send(customerReturn({ idNumber: `LV ${base}-9` }));
+    expect(first.status).toBe(201);
+    const again = await request(t.app)
+      .post('/api/cores')
+      .set('Cookie', receiving)
+      .send(customerReturn({ idNumber: `LV${base}9` }));
+    expect(again.status).toBe(409);
+    expect(again.body.error.duplicates[0].serial).toBe(first.body.serial);
+    const compact = (first.body.serial as string).replace(/-/g, '');
+    const log = await request(t.app).get(`/api/cores?q=${compact}`).set('Cookie', receiving);
+    expect(log.body.rows.map((r: { serial: string }) => r.serial)).toEqual([first.body.serial]);
+  });
+
+  it('refuses to keep a part that intake recorded as missing', async () => {
+    const res = await request(t.app)
+      .post('/api/cores')
+      .set('Cookie', receiving)
+      .send(customerReturn({ complete: false, missing: ['crankshaft'] }));
+    expect(res.status).toBe(201);
+    const bad = await request(t.app)
+      .post(`/api/cores/${res.body.serial}/teardown`)
+      .set('Cookie', operator)
+      .send({ kept: [{ kind: 'block' }, { kind: 'crankshaft' }] });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.message).toMatch(/recorded the crankshaft as missing/);
+    const good = await request(t.app)
+      .post(`/api/cores/${res.body.serial}/teardown`)
+      .set('Cookie', operator)
+      .send({ kept: [{ kind: 'block' }] });
+    expect(good.status).toBe(201);
+    expect(good.body.teardown.by).toBe('Test operator');
+  });
+});
+
 describe('the intake log', () => {
   const tag = unique('LOG-').toUpperCase();
   beforeAll(async () => {
@@ -170,12 +243,12 @@ describe('the intake log', () => {
     }
   });
 
-  it('filters, sorts and pages on the server', async () => {
-    let res = await request(t.app)
-      .get(`/api/cores?q=${tag}&family=${v8.id}&sort=grade&dir=asc`)
-      .set('Cookie', receiving);
+  it('filters, sorts and pages on the server; grade sorts by condition, best first', async () => {
+    let res = await request(t.app).get(`/api/cores?q=${tag}&sort=grade&dir=asc`).set('Cookie', receiving);
+    expect(res.body.rows.map((r: { grade: string }) => r.grade)).toEqual(['sound', 'workable', 'doubtful']);
+    res = await request(t.app).get(`/api/cores?q=${tag}&family=${v8.id}&sort=grade&dir=asc`).set('Cookie', receiving);
     expect(res.body.total).toBe(2);
-    expect(res.body.rows.map((r: { grade: string }) => r.grade)).toEqual(['doubtful', 'sound']);
+    expect(res.body.rows.map((r: { grade: string }) => r.grade)).toEqual(['sound', 'doubtful']);
     res = await request(t.app)
       .get(`/api/cores?q=${tag}&pageSize=1&page=2&sort=serial&dir=desc`)
       .set('Cookie', receiving);

@@ -79,6 +79,8 @@ describe('Coretrail serials', () => {
     expect((parseSerial('BK-0KX4-P2MQ') as { reason: string }).reason).toMatch(/never contain 0, 1, I or O/);
     expect((parseSerial('BK-7KX4') as { reason: string }).reason).toMatch(/2 letters, then 8/);
     expect((parseSerial('ZZ-7KX4-P2MQ') as { reason: string }).reason).toMatch(/not the start/);
-    expect(formatSerial('BK7KX4P2MQ')).toBe('BK-7KX4-P2MQ');
+    expect(formatSerial('BK7KX4P2MK')).toBe('BK-7KX4-P2MK');
+    // the example the messages and placeholders show is itself a valid serial
+    expect(parseSerial('BK-7KX4-P2MK')).toEqual({ ok: true, serial: 'BK-7KX4-P2MK', kind: 'block' });
   });
 });
