@@ -9,35 +9,59 @@ type PagerProps = {
   noun: [string, string];
 };
 
-/** "41–60 of 112 people" and the two ways to move; the count is announced as it changes. */
+/**
+ * "41–60 of 112 people" and the two ways to move; the count is announced as it changes. An
+ * address past the last page (an old bookmark, a list that shrank) says so and offers the way
+ * back to the last page instead of showing a range that does not exist.
+ */
 export function Pager({ page, pageSize, total, onPage, noun }: PagerProps) {
   const pages = Math.max(1, Math.ceil(total / pageSize));
-  const first = total === 0 ? 0 : (page - 1) * pageSize + 1;
-  const last = Math.min(total, page * pageSize);
+  const past = page > pages;
+  const shown = Math.min(Math.max(1, page), pages);
+  const first = total === 0 ? 0 : (shown - 1) * pageSize + 1;
+  const last = Math.min(total, shown * pageSize);
+  const count = (
+    <>
+      <span className="font-mono tabular-nums">{formatGrouped(total)}</span> {total === 1 ? noun[0] : noun[1]}
+    </>
+  );
   return (
     <nav aria-label="Pages" className="flex w-full flex-wrap items-center justify-between gap-3">
       <p aria-live="polite" className="text-sm text-ink-soft">
         {total === 0 ? (
           `No ${noun[1]}`
+        ) : past ? (
+          <>
+            This page is past the end: {count} fit on{' '}
+            <span className="font-mono tabular-nums">{formatGrouped(pages)}</span> {pages === 1 ? 'page' : 'pages'}.
+          </>
         ) : (
           <>
             <span className="font-mono tabular-nums">
               {formatGrouped(first)}–{formatGrouped(last)}
             </span>{' '}
-            of <span className="font-mono tabular-nums">{formatGrouped(total)}</span> {total === 1 ? noun[0] : noun[1]}
+            of {count}
           </>
         )}
       </p>
       <div className="flex items-center gap-2">
-        <Button size="sm" icon="chevronLeft" disabled={page <= 1} onClick={() => onPage(page - 1)}>
-          Previous
-        </Button>
-        <span className="text-sm text-ink-soft">
-          Page <span className="font-mono">{page}</span> of <span className="font-mono">{pages}</span>
-        </span>
-        <Button size="sm" disabled={page >= pages} onClick={() => onPage(page + 1)}>
-          Next
-        </Button>
+        {past ? (
+          <Button size="sm" variant="primary" icon="chevronLeft" onClick={() => onPage(pages)}>
+            Go to the last page
+          </Button>
+        ) : (
+          <>
+            <Button size="sm" icon="chevronLeft" disabled={page <= 1} onClick={() => onPage(page - 1)}>
+              Previous
+            </Button>
+            <span className="text-sm text-ink-soft">
+              Page <span className="font-mono">{shown}</span> of <span className="font-mono">{pages}</span>
+            </span>
+            <Button size="sm" disabled={page >= pages} onClick={() => onPage(page + 1)}>
+              Next
+            </Button>
+          </>
+        )}
       </div>
     </nav>
   );

@@ -9,4 +9,5 @@ export const fetchCore = (serial: string, signal?: AbortSignal) =>
 export const coreQueryOptions = (serial: string) =>
   queryOptions({ queryKey: coreKeys.one(serial), queryFn: ({ signal }) => fetchCore(serial, signal) });
 
-export const useCore = (serial: string) => useQuery(coreQueryOptions(serial));
+export const useCore = (serial: string, { enabled = true }: { enabled?: boolean } = {}) =>
+  useQuery({ ...coreQueryOptions(serial), enabled });

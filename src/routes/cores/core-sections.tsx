@@ -92,7 +92,7 @@ export function PartList({ parts }: { parts: ItemPart[] }) {
         <li key={p.serial} className="flex flex-wrap items-center gap-x-4 gap-y-1 py-2.5">
           <Link
             to={itemHref(p.serial)}
-            className="font-mono text-lg font-semibold text-accent underline-offset-4 hover:underline"
+            className="inline-flex items-center font-mono text-lg font-semibold text-accent underline-offset-4 hover:underline floor:min-h-11"
           >
             {p.serial}
           </Link>
@@ -107,8 +107,9 @@ export function PartList({ parts }: { parts: ItemPart[] }) {
 export function TeardownSummary({ record }: { record: TeardownRecord }) {
   return (
     <dl className="grid grid-cols-[minmax(8rem,auto)_1fr] gap-x-5 gap-y-2">
-      <Row term="Torn down" mono>
-        {formatWhen(record.at)}
+      <Row term="Torn down">
+        <span className="font-mono">{formatWhen(record.at)}</span>
+        {record.by && <> by {record.by}</>}
       </Row>
       <Row term="Kept">
         {record.kept.length === 0
@@ -116,7 +117,10 @@ export function TeardownSummary({ record }: { record: TeardownRecord }) {
           : record.kept.map((k) => (
               <span key={k.serial} className="block">
                 {partName(PART_KIND_LABELS[k.kind], k.position)}:{' '}
-                <Link to={itemHref(k.serial)} className="font-mono text-accent underline underline-offset-4">
+                <Link
+                  to={itemHref(k.serial)}
+                  className="inline-flex items-center font-mono text-accent underline underline-offset-4 floor:min-h-11"
+                >
                   {k.serial}
                 </Link>
               </span>

@@ -9,9 +9,7 @@ import { Pager } from '../../components/pager';
 import { ScanBox, useOpenItem } from '../../components/scan-box';
 import { Button, ButtonLink, buttonClass } from '../../components/ui/button';
 import { Card, CardBody, CardFooter } from '../../components/ui/card';
-import { Field } from '../../components/ui/field';
 import { Icon } from '../../components/ui/icon';
-import { Input } from '../../components/ui/input';
 import { Notice } from '../../components/ui/notice';
 import { plural } from '../../lib/format';
 import { gradeWord, SOURCE_LABELS } from '../../lib/intake-labels';
@@ -134,9 +132,13 @@ export function IntakeLogPage() {
             value={filter.from ?? ''}
             onChange={(v) => set('from', v)}
           />
-          <Field id="intake-to" label="Received to">
-            <Input id="intake-to" type="date" value={filter.to ?? ''} onChange={(e) => set('to', e.target.value)} />
-          </Field>
+          <FilterInput
+            id="intake-to"
+            label="Received to"
+            type="date"
+            value={filter.to ?? ''}
+            onChange={(v) => set('to', v)}
+          />
           <div className="col-span-2 flex flex-wrap items-end justify-between gap-3 md:col-span-4 xl:col-span-4">
             <p aria-live="polite" className="font-medium">
               {data ? plural(data.total, 'core') : '…'}
@@ -171,6 +173,7 @@ export function IntakeLogPage() {
           <IntakeTable
             rows={data.rows}
             busy={log.isPlaceholderData}
+            empty={data.total > 0 ? 'Nothing on this page: it is past the last one.' : undefined}
             sort={filter.sort}
             dir={filter.dir}
             onSort={(sort, dir) => setMany({ sort, dir })}

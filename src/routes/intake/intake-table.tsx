@@ -20,20 +20,25 @@ const CREDIT_SHORT = { full: 'Full', partial: 'Partial', none: 'None' } as const
 type IntakeTableProps = {
   rows: CoreSummary[];
   busy: boolean;
+  /** What an empty table says; by default that the filters match nothing. */
+  empty?: string;
   sort: NonNullable<IntakeLogQuery['sort']>;
   dir: 'asc' | 'desc';
   onSort: (sort: string, dir: 'asc' | 'desc') => void;
 };
 
 /** Sorting is the server's (the log is paged there); the table only shows which way and asks for more. */
-export function IntakeTable({ rows, busy, sort, dir, onSort }: IntakeTableProps) {
+export function IntakeTable({ rows, busy, sort, dir, onSort, empty }: IntakeTableProps) {
   const columns = useMemo(
     () => [
       col.accessor('serial', {
         header: ({ column }) => <SortButton column={column}>Serial</SortButton>,
         meta: { mono: true, nowrap: true },
         cell: (c) => (
-          <Link to={coreHref(c.getValue())} className="font-semibold text-accent underline-offset-4 hover:underline">
+          <Link
+            to={coreHref(c.getValue())}
+            className="inline-flex items-center font-semibold text-accent underline-offset-4 hover:underline floor:min-h-11"
+          >
             {c.getValue()}
           </Link>
         ),
@@ -122,5 +127,5 @@ export function IntakeTable({ rows, busy, sort, dir, onSort }: IntakeTableProps)
     onSortingChange,
   });
 
-  return <DataTable table={table} caption="Intake log" empty="No cores match these filters." busy={busy} />;
+  return <DataTable table={table} caption="Intake log" empty={empty ?? 'No cores match these filters.'} busy={busy} />;
 }

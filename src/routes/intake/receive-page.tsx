@@ -14,8 +14,6 @@ import { PageHeader } from '../../components/page-header';
 import { PhotoField } from '../../components/photo-field';
 import { ButtonLink } from '../../components/ui/button';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
-import { Field } from '../../components/ui/field';
-import { Input } from '../../components/ui/input';
 import { ApiError } from '../../lib/http';
 import { coreHref, paths } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
@@ -120,9 +118,12 @@ export function ReceivePage() {
         <Section title="Receipt">
           <div className="grid grid-cols-1 gap-4 md:grid-cols-2">
             <TextField name="receivedOn" label="Received on" type="date" />
-            <Field id="received-by" label="Received by" hint="You, as signed in.">
-              <Input id="received-by" value={me.user.name} readOnly aria-describedby="received-by-hint" />
-            </Field>
+            {/* who received it is not a choice: shown as text, not as a box that looks editable */}
+            <div className="flex flex-col gap-1.5">
+              <p className="text-sm font-medium text-ink floor:text-base">Received by</p>
+              <p className="flex min-h-9 items-center font-medium floor:min-h-11">{me.user.name}</p>
+              <p className="text-sm text-ink-faint">You, as signed in.</p>
+            </div>
           </div>
         </Section>
         <Section title="Condition" description="What arrived, what is missing, what is damaged.">

@@ -3,6 +3,7 @@ import { Link, redirect, useParams, type LoaderFunctionArgs } from 'react-router
 import { PART_KIND_LABELS } from '../../../shared/schemas/reference';
 import { useSignedIn } from '../../api/auth/me';
 import { itemQueryOptions, useItem } from '../../api/items/item';
+import type { RouteStep } from '../../api/items/types';
 import { StatusBadge } from '../../components/item-status';
 import { RouteProgress } from '../../components/route-progress';
 import { ButtonLink } from '../../components/ui/button';
@@ -23,6 +24,14 @@ export const itemLoader =
     if (item.kind === 'core' && me.can('intake.read')) throw redirect(coreHref(item.serial));
     return null;
   };
+
+/** The stage that follows the one it is at now (the route itself says where it is now). */
+function afterThis(route: RouteStep[]): string | undefined {
+  const at = route.findIndex((s) => s.state === 'current');
+  if (at < 0) return undefined;
+  const next = route.slice(at + 1).find((s) => s.state === 'todo');
+  return next ? `After this stage: ${next.name}` : 'This is the last stage of its route.';
+}
 
 export function ItemPage() {
   const me = useSignedIn();
@@ -59,11 +68,7 @@ export function ItemPage() {
       </div>
       <div className="grid grid-cols-1 items-start gap-5 xl:grid-cols-[minmax(0,1.4fr)_minmax(0,1fr)]">
         <Card labelledBy="route-heading">
-          <CardHeader
-            id="route-heading"
-            title="Route"
-            description={item.currentStage ? `Next: ${item.currentStage.name}` : undefined}
-          />
+          <CardHeader id="route-heading" title="Route" description={afterThis(item.route)} />
           <CardBody>
             <div className="flex flex-col gap-4">
               <RouteProgress steps={item.route} />

@@ -1,6 +1,6 @@
 import { useMemo } from 'react';
 import { useController, useFormContext } from 'react-hook-form';
-import { WEAR_PARTS } from '../../../shared/schemas/intake';
+import { CORE_PART_LABELS, DAMAGE_LABELS, WEAR_PARTS, type CoreReceipt } from '../../../shared/schemas/intake';
 import { useTearDownCore } from '../../api/cores/tear-down-core';
 import type { CoreDetail } from '../../api/cores/types';
 import type { ItemJson } from '../../api/items/types';
@@ -9,7 +9,8 @@ import { Form, SubmitButton } from '../../components/form';
 import { TextAreaField, TextField } from '../../components/form-fields';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Icon, type IconName } from '../../components/ui/icon';
-import { rowsFor, teardownForm, type Decision, type PartRow } from './teardown-schema';
+import { Notice } from '../../components/ui/notice';
+import { missingAtIntake, rowsFor, teardownForm, type Decision, type PartRow } from './teardown-schema';
 
 // a chosen tile is filled (white on the state colour), so it stands out in sunlight and in grey
 const TILE: Record<Decision, { word: string; icon: IconName; checked: string }> = {
@@ -25,7 +26,7 @@ const TILE: Record<Decision, { word: string; icon: IconName; checked: string }> 
 type FormValues = { parts: { decision?: Decision; reason?: string }[]; notes: string };
 
 /** One major part: Keep, Scrap (with a reason) or not there / not tracked, as three large tiles. */
-function PartDecision({ row, index }: { row: PartRow; index: number }) {
+function PartDecision({ row, index, missing }: { row: PartRow; index: number; missing: boolean }) {
   const {
     field: { ref, value, onChange, onBlur },
   } = useController<FormValues, `parts.${number}.decision`>({ name: `parts.${index}.decision` });
@@ -45,6 +46,12 @@ function PartDecision({ row, index }: { row: PartRow; index: number }) {
         <p id={labelId} className="text-xl font-semibold">
           {row.label}
           {row.optional && <span className="ml-2 text-base font-normal text-ink-soft">where tracked</span>}
+          {missing && (
+            <span className="mt-1 flex items-center gap-1.5 text-base font-medium text-ink-soft">
+              <Icon name="off" size={18} />
+              Recorded missing at intake
+            </span>
+          )}
         </p>
         <div className="grid w-full grid-cols-3 gap-2 sm:w-auto sm:grid-cols-[repeat(3,10.5rem)]">
           {(['keep', 'scrap', 'absent'] as const).map((d, i) => {
@@ -84,11 +91,64 @@ function PartDecision({ row, index }: { row: PartRow; index: number }) {
   );
 }
 
-type TeardownFormProps = { item: ItemJson; onDone: (core: CoreDetail) => void };
+type Condition = CoreReceipt['condition'];
 
-export function TeardownForm({ item, onDone }: TeardownFormProps) {
+/** What the dock wrote about the core's state, so teardown starts from it rather than from nothing. */
+function IntakeCondition({
+  condition,
+  preset,
+}: {
+  condition: Condition | 'not-allowed' | 'not-loaded';
+  /** How many part rows below were set to "not there" from it. */
+  preset: number;
+}) {
+  if (condition === 'not-allowed' || condition === 'not-loaded') {
+    return (
+      <Notice tone="info" title="Intake condition not shown">
+        {condition === 'not-allowed'
+          ? 'The intake record is not open to your role.'
+          : 'The intake record could not be loaded.'}{' '}
+        If intake recorded a part as missing, recording teardown will say so.
+      </Notice>
+    );
+  }
+  const { missing, damage } = condition;
+  if (missing.length === 0 && damage.length === 0) {
+    return (
+      <Notice tone="info" title="At intake">
+        Recorded complete, with no visible damage.
+      </Notice>
+    );
+  }
+  return (
+    <Notice tone="hold" title="At intake">
+      <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1">
+        <dt className="font-semibold">Missing</dt>
+        <dd>{missing.length ? missing.map((m) => CORE_PART_LABELS[m]).join(', ') : 'Nothing'}</dd>
+        <dt className="font-semibold">Damage</dt>
+        <dd>{damage.length ? damage.map((d) => DAMAGE_LABELS[d]).join(', ') : 'None seen'}</dd>
+      </dl>
+      {missing.length > 0 && (
+        <p className="mt-2">
+          Intake recorded these as missing
+          {preset > 0 ? '; their rows below are set to not there.' : '. None of them is a part row below.'}
+        </p>
+      )}
+    </Notice>
+  );
+}
+
+type TeardownFormProps = {
+  item: ItemJson;
+  /** The condition intake recorded, or why it is not to hand. */
+  condition: Condition | 'not-allowed' | 'not-loaded';
+  onDone: (core: CoreDetail) => void;
+};
+
+export function TeardownForm({ item, condition, onDone }: TeardownFormProps) {
   const tearDown = useTearDownCore();
   const rows = useMemo(() => rowsFor(item.family), [item.family]);
+  const missing = rows.map((r) => missingAtIntake(r, typeof condition === 'object' ? condition.missing : []));
   const schema = useMemo(() => teardownForm(rows), [rows]);
   const hazard = item.route.find((s) => s.code === 'teardown')?.hazard ?? item.currentStage?.hazard;
 
@@ -96,11 +156,15 @@ export function TeardownForm({ item, onDone }: TeardownFormProps) {
     <Form
       schema={schema}
       defaultValues={{
-        parts: rows.map((r) => ({ decision: r.optional ? ('absent' as const) : undefined, reason: '' })),
+        parts: rows.map((r, i) => ({
+          decision: missing[i] || r.optional ? ('absent' as const) : undefined,
+          reason: '',
+        })),
         notes: '',
       }}
       onSubmit={async (body) => onDone(await tearDown.mutateAsync({ serial: item.serial, body }))}
     >
+      <IntakeCondition condition={condition} preset={missing.filter(Boolean).length} />
       <Caution title="Heavy parts" icon="hoist">
         {hazard ?? 'Blocks, crankshafts and heads are heavy: lift them with the hoist.'} Follow the plant&apos;s lifting
         procedure; this screen does not replace it.
@@ -114,7 +178,7 @@ export function TeardownForm({ item, onDone }: TeardownFormProps) {
         <CardBody>
           <ul className="divide-y divide-rule">
             {rows.map((r, i) => (
-              <PartDecision key={`${r.kind}-${r.position ?? ''}`} row={r} index={i} />
+              <PartDecision key={`${r.kind}-${r.position ?? ''}`} row={r} index={i} missing={missing[i] ?? false} />
             ))}
           </ul>
         </CardBody>

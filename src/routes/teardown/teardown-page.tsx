@@ -3,6 +3,7 @@ import { useState } from 'react';
 import { Link, type LoaderFunctionArgs } from 'react-router';
 import { parseSerial } from '../../../shared/domain/serial';
 import { useSignedIn } from '../../api/auth/me';
+import { coreQueryOptions, useCore } from '../../api/cores/core';
 import type { CoreDetail } from '../../api/cores/types';
 import { itemQueryOptions, useItem } from '../../api/items/item';
 import type { ItemJson } from '../../api/items/types';
@@ -12,6 +13,7 @@ import { ScanBox } from '../../components/scan-box';
 import { Button, ButtonLink } from '../../components/ui/button';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Notice } from '../../components/ui/notice';
+import { plural } from '../../lib/format';
 import { partName } from '../../lib/item-status';
 import { itemHref, labelsHref, serialHref } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
@@ -21,10 +23,16 @@ import { TeardownForm } from './teardown-form';
 export const teardownLoader =
   (queryClient: QueryClient) =>
   async ({ request }: LoaderFunctionArgs) => {
-    await requirePermission(queryClient, request, 'teardown.record');
+    const me = await requirePermission(queryClient, request, 'teardown.record');
     const parsed = parseSerial(new URL(request.url).searchParams.get('serial') ?? '');
     // a core that cannot be found is said on the page, next to the scan box, not as an error page
-    if (parsed.ok) await queryClient.prefetchQuery(itemQueryOptions(parsed.serial));
+    if (parsed.ok) {
+      await Promise.all([
+        queryClient.prefetchQuery(itemQueryOptions(parsed.serial)),
+        // what intake recorded (missing parts, damage), for those whose role may read it
+        me.can('intake.read') ? queryClient.prefetchQuery(coreQueryOptions(parsed.serial)) : undefined,
+      ]);
+    }
     return null;
   };
 
@@ -68,7 +76,9 @@ function TeardownDone({ core, onNext }: { core: CoreDetail; onNext: () => void }
         <div className="flex flex-col gap-4">
           <Notice tone="ok" live="status" title={`${kept.length} part${kept.length === 1 ? '' : 's'} serialized`}>
             {core.teardown && core.teardown.scrapped.length > 0
-              ? `${core.teardown.scrapped.length} scrapped with their reasons.`
+              ? core.teardown.scrapped.length === 1
+                ? '1 part scrapped, with its reason.'
+                : `${plural(core.teardown.scrapped.length, 'part')} scrapped, with their reasons.`
               : 'Nothing scrapped.'}
           </Notice>
           {kept.length > 0 && (
@@ -109,8 +119,13 @@ export function TeardownPage() {
   const serial = parsed.ok ? parsed.serial : null;
   const item = useItem(serial);
   const [done, setDone] = useState<CoreDetail | null>(null);
+  const tearable = item.data?.kind === 'core' && item.data.status === 'received';
+  const canIntake = me?.can('intake.read') ?? false;
+  const core = useCore(serial ?? '', { enabled: tearable && canIntake });
   if (!me) return null;
   const finished = done && done.serial === serial ? done : null;
+  // the form waits for the intake record, so its rows start from what intake found missing
+  const conditionReady = !canIntake || core.data !== undefined || core.error !== null;
 
   return (
     <div className="mx-auto max-w-[60rem]">
@@ -124,7 +139,12 @@ export function TeardownPage() {
             <CardHeader id="scan-heading" title="Which core" />
             <CardBody>
               <div className="flex flex-col gap-5">
-                <ScanBox onItem={(i) => set('serial', i.serial)} preview={false} autoFocus={!serial} />
+                <ScanBox
+                  onItem={(i) => set('serial', i.serial)}
+                  preview={false}
+                  autoFocus={!serial}
+                  initial={params.get('serial') ?? ''}
+                />
                 {item.data && (
                   <div className="border-t border-rule pt-4">
                     <ItemSummary item={item.data} />
@@ -143,8 +163,17 @@ export function TeardownPage() {
           <TeardownDone core={finished} onNext={() => set('serial', '')} />
         ) : (
           item.data &&
-          (item.data.kind === 'core' && item.data.status === 'received' ? (
-            <TeardownForm key={item.data.serial} item={item.data} onDone={setDone} />
+          (tearable ? (
+            conditionReady ? (
+              <TeardownForm
+                key={item.data.serial}
+                item={item.data}
+                condition={core.data?.receipt.condition ?? (canIntake ? 'not-loaded' : 'not-allowed')}
+                onDone={setDone}
+              />
+            ) : (
+              <p className="text-ink-soft">Loading what intake recorded…</p>
+            )
           ) : (
             <NotTearable item={item.data} canIntake={me.can('intake.read')} />
           ))

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { teardownBody, type TeardownBody, type TeardownPart } from '../../../shared/schemas/intake';
+import { teardownBody, type CoreReceipt, type TeardownBody, type TeardownPart } from '../../../shared/schemas/intake';
 import { PART_KIND_LABELS } from '../../../shared/schemas/reference';
 import type { ItemJson } from '../../api/items/types';
 
@@ -24,6 +24,21 @@ export function rowsFor(family: ItemJson['family']): PartRow[] {
     { kind: 'rod_set', label: PART_KIND_LABELS.rod_set, optional: true },
   ];
 }
+
+type IntakePart = CoreReceipt['condition']['missing'][number];
+
+/** The intake checklist's names for the parts a teardown row stands for (heads: every head row). */
+const INTAKE_PART: Record<TeardownPart, IntakePart> = {
+  block: 'block',
+  crankshaft: 'crankshaft',
+  cylinder_head: 'cylinder_heads',
+  camshaft: 'camshaft',
+  rod_set: 'connecting_rods',
+};
+
+/** Whether intake ticked this row's part as missing. */
+export const missingAtIntake = (row: PartRow, missing: readonly IntakePart[]) =>
+  missing.includes(INTAKE_PART[row.kind]);
 
 export const DECISIONS = ['keep', 'scrap', 'absent'] as const;
 export type Decision = (typeof DECISIONS)[number];

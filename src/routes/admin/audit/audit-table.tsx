@@ -6,9 +6,21 @@ import { DataTable } from '../../../components/data-table';
 import { Icon } from '../../../components/ui/icon';
 import { formatWhen } from '../../../lib/format';
 import { AuditChange } from './audit-change';
-import { ACTION_LABELS, ENTITY_LABELS } from './filter';
+import { ACTION_LABELS, recordName } from './filter';
 
 const col = createColumnHelper<AuditEvent>();
+
+/** "Core CR-…" with the id in the serial's type; the words come from recordName. */
+function RecordName({ entity, entityId }: { entity: string; entityId: string }) {
+  const name = recordName(entity, entityId);
+  const words = name.slice(0, name.length - entityId.length);
+  return (
+    <>
+      {words}
+      <span className="font-mono">{entityId}</span>
+    </>
+  );
+}
 const linkCls = 'text-left text-accent underline-offset-4 hover:underline';
 
 type AuditTableProps = {
@@ -61,12 +73,19 @@ export function AuditTable({ rows, busy, onActor, onRecord }: AuditTableProps) {
       }),
       col.accessor('action', {
         header: 'Action',
-        cell: (c) => (
-          <span className="flex flex-col leading-tight">
-            <span>{ACTION_LABELS[c.getValue()] ?? c.getValue()}</span>
-            <span className="font-mono text-xs text-ink-faint">{c.getValue()}</span>
-          </span>
-        ),
+        cell: (c) => {
+          const code = c.getValue();
+          const words = ACTION_LABELS[code];
+          // the words where known, with the code once, small, for searching the export
+          return words ? (
+            <span className="flex flex-col leading-tight">
+              <span>{words}</span>
+              <span className="font-mono text-xs text-ink-soft">{code}</span>
+            </span>
+          ) : (
+            <span className="font-mono text-sm">{code}</span>
+          );
+        },
       }),
       col.display({
         id: 'record',
@@ -79,9 +98,9 @@ export function AuditTable({ rows, busy, onActor, onRecord }: AuditTableProps) {
               type="button"
               className={linkCls}
               onClick={() => onRecord(e.entity, e.entityId)}
-              aria-label={`Only events of ${e.entity} ${e.entityId}`}
+              aria-label={`Only events of ${recordName(e.entity, e.entityId)}`}
             >
-              {ENTITY_LABELS[e.entity] ?? e.entity} <span className="font-mono">{e.entityId}</span>
+              <RecordName entity={e.entity} entityId={e.entityId} />
             </button>
           );
         },

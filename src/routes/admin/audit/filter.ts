@@ -8,9 +8,18 @@ export const ENTITY_LABELS: Record<string, string> = {
   station: 'Station',
   engine_family: 'Engine family',
   plant: 'Plant',
+  item: 'Cores and parts',
+  attachment: 'Photos',
 };
 
-/** Plain words for the actions the foundation writes; any other action shows its code alone. */
+/** A record named as a person would say it: "Core CR-…", "Part BK-…", "Photo 5", "Station 3". */
+export function recordName(entity: string, entityId: string): string {
+  if (entity === 'item') return `${entityId.toUpperCase().startsWith('CR') ? 'Core' : 'Part'} ${entityId}`;
+  if (entity === 'attachment') return `Photo ${entityId}`;
+  return `${ENTITY_LABELS[entity] ?? entity} ${entityId}`;
+}
+
+/** Plain words for the actions Coretrail writes; any other action shows its code alone. */
 export const ACTION_LABELS: Record<string, string> = {
   'user.created': 'Person added',
   'user.updated': 'Person changed',
@@ -23,6 +32,13 @@ export const ACTION_LABELS: Record<string, string> = {
   'station.updated': 'Station changed',
   'family.created': 'Engine family added',
   'family.updated': 'Engine family changed',
+  'core.received': 'Core received and accepted',
+  'core.rejected': 'Core received and rejected',
+  'core.torn_down': 'Core torn down',
+  'item.harvested': 'Part taken from a core',
+  'label.printed': 'Label printed',
+  'label.reprinted': 'Label printed again',
+  'attachment.uploaded': 'Photo added',
   'demo.seeded': 'Demo plant loaded',
 };
 

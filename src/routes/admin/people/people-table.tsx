@@ -61,13 +61,15 @@ export function PeopleTable({ rows, meId, busy }: { rows: Person[]; meId: number
               <Button size="sm" aria-label={`Edit ${p.name}`} onClick={() => setOpen({ kind: 'edit', person: p })}>
                 Edit
               </Button>
-              <Button
-                size="sm"
-                aria-label={`Reset password for ${p.name}`}
-                onClick={() => setOpen({ kind: 'password', person: p })}
-              >
-                Password
-              </Button>
+              {p.active && (
+                <Button
+                  size="sm"
+                  aria-label={`Reset password for ${p.name}`}
+                  onClick={() => setOpen({ kind: 'password', person: p })}
+                >
+                  Password
+                </Button>
+              )}
               {!self &&
                 (p.active ? (
                   <Button
