@@ -4,7 +4,7 @@ import { makeSerial, parseSerial } from '../../shared/domain/serial.js';
 import type { ItemJson, RouteStep } from '../../shared/schemas/items.js';
 import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.js';
 import { invalid, notFound } from '../errors.js';
-import { EngineFamily, Item, ItemLink, Route, RouteStage, Stage } from '../models/index.js';
+import { CoreReceipt, EngineFamily, Item, ItemLink, Route, RouteStage, Stage } from '../models/index.js';
 
 /** A serial no item has yet. Collisions are astronomically rare (32^7 bodies); we still check. */
 export async function newSerial(kind: PartKind, transaction: Transaction): Promise<string> {
@@ -61,12 +61,13 @@ export async function presentItem(item: Item): Promise<ItemJson> {
           : 'todo',
   }));
   const current = currentIdx >= 0 ? route!.steps[currentIdx]!.stage : null;
-  const [originLink, childLinks] = await Promise.all([
+  const [originLink, childLinks, receipt] = await Promise.all([
     ItemLink.findOne({ where: { childItemId: item.id, linkType: 'harvested_from', removedAt: null } }),
     ItemLink.findAll({
       where: { parentItemId: item.id, linkType: 'harvested_from', removedAt: null },
       order: [['id', 'ASC']],
     }),
+    item.kind === 'core' ? CoreReceipt.findOne({ where: { itemId: item.id }, attributes: ['condition'] }) : null,
   ]);
   const related = await Item.findAll({
     where: { id: { [Op.in]: [originLink?.parentItemId ?? 0, ...childLinks.map((l) => l.childItemId)] } },
@@ -99,6 +100,7 @@ export async function presentItem(item: Item): Promise<ItemJson> {
         status: p.status,
         positionLabel: p.positionLabel,
       })),
+    intakeCondition: receipt ? (receipt.condition as NonNullable<ItemJson['intakeCondition']>) : null,
     createdAt: item.createdAt.toISOString(),
   };
 }

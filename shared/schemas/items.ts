@@ -29,5 +29,7 @@ export type ItemJson = {
   route: RouteStep[];
   harvestedFrom: { serial: string; kind: PartKind } | null;
   parts: ItemPart[];
+  /** For a core: what intake found missing or damaged (no customer or credit details). */
+  intakeCondition: { complete: boolean; missing: string[]; damage: string[] } | null;
   createdAt: string;
 };

@@ -216,6 +216,10 @@ describe('intake rules found by trying it', () => {
       .send({ kept: [{ kind: 'block' }, { kind: 'crankshaft' }] });
     expect(bad.status).toBe(400);
     expect(bad.body.error.message).toMatch(/recorded the crankshaft as missing/);
+    // the operator, who may not read the receipt, still sees what intake found missing
+    const asItem = await request(t.app).get(`/api/items/${res.body.serial}`).set('Cookie', operator);
+    expect(asItem.body.intakeCondition).toEqual({ complete: false, missing: ['crankshaft'], damage: [] });
+    expect(asItem.body).not.toHaveProperty('receipt');
     const good = await request(t.app)
       .post(`/api/cores/${res.body.serial}/teardown`)
       .set('Cookie', operator)

@@ -74,3 +74,37 @@ describe('each role sees what the matrix allows', () => {
     });
   }
 });
+
+describe('teardown starts from what intake found', () => {
+  it('an operator, who cannot read the receipt, still sees a part recorded missing and its row set to not there', async () => {
+    const cookie = await cookieFor(await makeUser('receiving'), served.t.config);
+    const v8 = (await EngineFamily.findOne({ where: { code: 'CORRIE-8' } }))!;
+    const res = await request(served.t.app)
+      .post('/api/cores')
+      .set('Cookie', cookie)
+      .send({
+        familyId: v8.id,
+        castingNumber: 'CV8 4471-B',
+        idNumber: unique('MISS').toUpperCase(),
+        source: 'customer_return',
+        customerId: (await Customer.findOne())!.id,
+        sourceReference: unique('RMA-'),
+        receivedOn: new Date().toISOString().slice(0, 10),
+        complete: false,
+        missing: ['crankshaft'],
+        grade: 'doubtful',
+        accepted: true,
+        creditDecision: 'partial',
+        creditReason: 'Crankshaft missing',
+      });
+    expect(res.status).toBe(201);
+    const demo = DEMO_USERS.find((u) => u.role === 'operator')!;
+    const page = await browser.newPage({ viewport: { width: 1024, height: 768 } });
+    await signIn(page, served.base, demo.email, demo.password);
+    await page.goto(`${served.base}/teardown?serial=${res.body.serial}`);
+    await page.getByText('Recorded missing at intake').first().waitFor();
+    expect(await page.getByRole('radio', { name: 'Crankshaft not there' }).isChecked()).toBe(true);
+    expect(await page.getByRole('radio', { name: 'Keep Block' }).isChecked()).toBe(false);
+    await page.close();
+  });
+});

@@ -125,6 +125,7 @@ export function TeardownPage() {
   if (!me) return null;
   const finished = done && done.serial === serial ? done : null;
   // the form waits for the intake record, so its rows start from what intake found missing
+  // (the item itself carries the condition too, for those who may not read the whole receipt)
   const conditionReady = !canIntake || core.data !== undefined || core.error !== null;
 
   return (
@@ -168,7 +169,11 @@ export function TeardownPage() {
               <TeardownForm
                 key={item.data.serial}
                 item={item.data}
-                condition={core.data?.receipt.condition ?? (canIntake ? 'not-loaded' : 'not-allowed')}
+                condition={
+                  core.data?.receipt.condition ??
+                  (item.data.intakeCondition as CoreDetail['receipt']['condition'] | null) ??
+                  (canIntake ? 'not-loaded' : 'not-allowed')
+                }
                 onDone={setDone}
               />
             ) : (
