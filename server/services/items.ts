@@ -58,7 +58,9 @@ export async function presentItem(item: Item): Promise<ItemJson> {
         ? 'done'
         : i === currentIdx
           ? 'current'
-          : 'todo',
+          : item.status === 'rejected' || item.status === 'scrapped'
+            ? 'skipped'
+            : 'todo',
   }));
   const current = currentIdx >= 0 ? route!.steps[currentIdx]!.stage : null;
   const [originLink, childLinks, receipt] = await Promise.all([

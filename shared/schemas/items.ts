@@ -7,7 +7,8 @@ export type RouteStep = {
   position: number;
   required: boolean;
   hazard: string | null;
-  state: 'done' | 'current' | 'todo';
+  /** `skipped`: a stage the item will never reach, e.g. teardown of a core rejected at intake. */
+  state: 'done' | 'current' | 'todo' | 'skipped';
 };
 
 export type ItemPart = {

@@ -5,6 +5,11 @@ const STEP: Record<RouteStep['state'], { icon: IconName; word: string; cls: stri
   done: { icon: 'ok', word: 'done', cls: 'border border-ok bg-ok-tint text-ok' },
   current: { icon: 'stepNow', word: 'here now', cls: 'border-2 border-accent bg-accent-tint font-semibold text-ink' },
   todo: { icon: 'wait', word: 'to do', cls: 'border border-dashed border-rule-strong bg-card text-ink-soft' },
+  skipped: {
+    icon: 'off',
+    word: 'will not happen',
+    cls: 'border border-dotted border-rule-strong bg-ground text-ink-soft line-through',
+  },
 };
 
 /**
@@ -52,7 +57,14 @@ export function RouteProgress({ steps }: { steps: RouteStep[] }) {
         })}
       </ol>
       <p aria-hidden="true" className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-soft">
-        {(['done', 'current', 'todo'] as const).map((k) => (
+        {(
+          [
+            'done',
+            'current',
+            'todo',
+            ...(steps.some((s) => s.state === 'skipped') ? (['skipped'] as const) : []),
+          ] as const
+        ).map((k) => (
           <span key={k} className="inline-flex items-center gap-1">
             <Icon name={STEP[k].icon} size={14} /> {STEP[k].word}
           </span>

@@ -94,6 +94,10 @@ describe('receiving a core', () => {
     expect(res.status).toBe(201);
     expect(res.body.status).toBe('rejected');
     expect(res.body.currentStage).toBeNull();
+    expect(res.body.route.map((r: { code: string; state: string }) => [r.code, r.state])).toEqual([
+      ['intake', 'done'],
+      ['teardown', 'skipped'],
+    ]);
     const again = await request(t.app).get(`/api/cores/${res.body.serial}`).set('Cookie', receiving);
     expect(again.body.receipt.rejectReason).toBe('Block holed by a thrown rod');
   });
