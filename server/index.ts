@@ -16,9 +16,10 @@ async function main() {
   }
   const app = createApp({ sequelize, config });
   const server: Server = await new Promise((resolve, reject) => {
-    const s = app.listen(config.PORT, config.HOST, () => resolve(s));
-    s.once('error', (err: NodeJS.ErrnoException) => {
-      if (err.code === 'EADDRINUSE') {
+    // Express 5 hands a listen error to this callback rather than only emitting it
+    const s = app.listen(config.PORT, config.HOST, (err?: Error) => {
+      if (!err) return resolve(s);
+      if ((err as NodeJS.ErrnoException).code === 'EADDRINUSE') {
         reject(new Error(`Port ${config.PORT} on ${config.HOST} is already in use. Set PORT to a free port.`));
       } else reject(err);
     });
