@@ -19,4 +19,3 @@ export const notFound = (what = 'That record') => new AppError(404, 'not_found',
 export const conflict = (message: string, extra?: Record<string, unknown>) =>
   new AppError(409, 'conflict', message, undefined, extra);
 export const tooMany = (message: string) => new AppError(429, 'too_many', message);
-export const unavailable = (message: string) => new AppError(503, 'unavailable', message);

@@ -2,6 +2,7 @@ import { Faker, en } from '@faker-js/faker';
 import bcrypt from 'bcryptjs';
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { recordAudit, systemCtx } from '../../server/audit.js';
+import { personSnapshot } from '../../server/services/people.js';
 import { EngineFamily, Route, RouteStage, Stage, Station, User } from '../../server/models/index.js';
 import { DEFECT_CODES, DEMO_USERS, FAMILIES, GAUGES, PLANT, ROUTES, STAGES, STATIONS } from './plant.js';
 
@@ -55,7 +56,7 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
       action: 'user.created',
       entity: 'user',
       entityId: user.id,
-      after: { email: user.email, name: user.name, role: user.role, active: true },
+      after: personSnapshot(user),
     });
   }
 

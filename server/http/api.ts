@@ -1,4 +1,4 @@
-import type { NextFunction, Request, RequestHandler, Response, Router } from 'express';
+import type { Request, RequestHandler, Response, Router } from 'express';
 import type { z } from 'zod';
 import { can, type Permission } from '../../shared/permissions.js';
 import { forbidden, unauthenticated } from '../errors.js';
@@ -33,6 +33,11 @@ export type RouteSpec<P extends Schema | undefined, Q extends Schema | undefined
 
 export type RouteInfo = { method: Method; path: string; access: Access; summary: string };
 
+/** Runs an Express middleware (a multipart parser, a rate limiter) inside an async handler. */
+export function runMiddleware(mw: RequestHandler, req: Request, res: Response): Promise<void> {
+  return new Promise<void>((resolve, reject) => mw(req, res, (e?: unknown) => (e ? reject(e) : resolve())));
+}
+
 /**
  * Each endpoint reads as a chain: authenticate (done app-wide) → authorize against the permission
  * matrix → validate params, query and body with zod → handler → JSON. Every route defined here is
@@ -46,16 +51,13 @@ export class Api {
     spec: RouteSpec<P, Q, B>,
   ): void {
     this.routes.push({ method: spec.method, path: `/api${spec.path}`, access: spec.access, summary: spec.summary });
-    const handler: RequestHandler = async (req: Request, res: Response, next: NextFunction) => {
+    const handler: RequestHandler = async (req: Request, res: Response) => {
       const user = req.user ?? null;
       if (spec.access !== 'public') {
         if (!user) throw unauthenticated();
         if (spec.access !== 'signed-in' && !can(user.role, spec.access)) throw forbidden();
       }
-      if (spec.before) {
-        const before = spec.before;
-        await new Promise<void>((resolve, reject) => before(req, res, (e?: unknown) => (e ? reject(e) : resolve())));
-      }
+      if (spec.before) await runMiddleware(spec.before, req, res);
       const params = spec.params ? spec.params.parse(req.params) : undefined;
       const query = spec.query ? spec.query.parse(req.query) : undefined;
       const body = spec.body ? spec.body.parse(req.body ?? {}) : undefined;
@@ -72,7 +74,6 @@ export class Api {
       if (res.headersSent) return;
       if (result === undefined) res.status(spec.status ?? 204).end();
       else res.status(spec.status ?? 200).json(result);
-      void next;
     };
     this.router[spec.method](spec.path, handler);
   }

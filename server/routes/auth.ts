@@ -5,7 +5,7 @@ import { permissionsOf } from '../../shared/permissions.js';
 import { changePasswordBody, loginBody, type MeResponse } from '../../shared/schemas/auth.js';
 import type { Config } from '../config.js';
 import { tooMany } from '../errors.js';
-import type { Api } from '../http/api.js';
+import { runMiddleware, type Api } from '../http/api.js';
 import { SESSION_COOKIE } from '../middleware/authenticate.js';
 import { changeOwnPassword, signIn, signOut } from '../services/auth.js';
 
@@ -49,8 +49,9 @@ export function authRoutes(api: Api, sequelize: Sequelize, config: Config) {
     summary: 'Sign in with e-mail and password; sets the session cookie.',
     body: loginBody,
     handler: async ({ body, req, res }) => {
-      await new Promise<void>((resolve, reject) => perAddress(req, res, (e?: unknown) => (e ? reject(e) : resolve())));
-      await new Promise<void>((resolve, reject) => perAccount(req, res, (e?: unknown) => (e ? reject(e) : resolve())));
+      // after validation, so a malformed body does not count as a failed sign-in
+      await runMiddleware(perAddress, req, res);
+      await runMiddleware(perAccount, req, res);
       const { token, user, expiresAt } = await signIn(sequelize, body, {
         secret: config.JWT_SECRET,
         hours: config.SESSION_HOURS,

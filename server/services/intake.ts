@@ -126,7 +126,7 @@ export async function coreDetail(serialInput: string): Promise<CoreDetail> {
     receipt.supplierId ? Supplier.findByPk(receipt.supplierId) : null,
     User.findByPk(receipt.receivedById),
     attachmentsOf('core', item.id),
-    presentItem(item),
+    presentItem(item, { receipt }),
   ]);
   return {
     ...presented,

@@ -40,7 +40,8 @@ export async function findBySerial(input: string, transaction?: Transaction) {
   return item;
 }
 
-export async function presentItem(item: Item): Promise<ItemJson> {
+/** `receipt`: a core's receipt when the caller already has it, so it is not read twice. */
+export async function presentItem(item: Item, { receipt }: { receipt?: CoreReceipt } = {}): Promise<ItemJson> {
   const family = (await EngineFamily.findByPk(item.engineFamilyId))!;
   const route = await routeFor(item.engineFamilyId, item.kind);
   const currentIdx = route?.steps.findIndex((s) => s.stageId === item.currentStageId) ?? -1;
@@ -63,13 +64,15 @@ export async function presentItem(item: Item): Promise<ItemJson> {
             : 'todo',
   }));
   const current = currentIdx >= 0 ? route!.steps[currentIdx]!.stage : null;
-  const [originLink, childLinks, receipt] = await Promise.all([
+  const [originLink, childLinks, intake] = await Promise.all([
     ItemLink.findOne({ where: { childItemId: item.id, linkType: 'harvested_from', removedAt: null } }),
     ItemLink.findAll({
       where: { parentItemId: item.id, linkType: 'harvested_from', removedAt: null },
       order: [['id', 'ASC']],
     }),
-    item.kind === 'core' ? CoreReceipt.findOne({ where: { itemId: item.id }, attributes: ['condition'] }) : null,
+    item.kind !== 'core'
+      ? null
+      : (receipt ?? CoreReceipt.findOne({ where: { itemId: item.id }, attributes: ['condition'] })),
   ]);
   const related = await Item.findAll({
     where: { id: { [Op.in]: [originLink?.parentItemId ?? 0, ...childLinks.map((l) => l.childItemId)] } },
@@ -102,7 +105,7 @@ export async function presentItem(item: Item): Promise<ItemJson> {
         status: p.status,
         positionLabel: p.positionLabel,
       })),
-    intakeCondition: receipt ? (receipt.condition as NonNullable<ItemJson['intakeCondition']>) : null,
+    intakeCondition: intake ? (intake.condition as NonNullable<ItemJson['intakeCondition']>) : null,
     createdAt: item.createdAt.toISOString(),
   };
 }

@@ -21,7 +21,7 @@ export function presentPerson(u: User): Person {
 }
 
 /** What the audit trail keeps of a person: never the password hash. */
-const snapshot = (u: User) => ({ email: u.email, name: u.name, role: u.role, active: u.active });
+export const personSnapshot = (u: User) => ({ email: u.email, name: u.name, role: u.role, active: u.active });
 
 export async function listPeople(q: {
   page: number;
@@ -57,7 +57,7 @@ export async function createPerson(sequelize: Sequelize, ctx: Ctx, body: CreateP
       action: 'user.created',
       entity: 'user',
       entityId: user.id,
-      after: snapshot(user),
+      after: personSnapshot(user),
     });
     return presentPerson(user);
   });
@@ -75,7 +75,7 @@ export async function updatePerson(
     if (ctx.actor?.id === id && (body.active === false || (body.role && body.role !== user.role))) {
       throw conflict('You cannot deactivate yourself or change your own role; ask another administrator.');
     }
-    const before = snapshot(user);
+    const before = personSnapshot(user);
     const endSessions = body.active === false && user.active;
     await user.update(body, { transaction });
     if (endSessions) await endAllSessions(user, transaction);
@@ -84,7 +84,7 @@ export async function updatePerson(
       entity: 'user',
       entityId: user.id,
       before,
-      after: snapshot(user),
+      after: personSnapshot(user),
     });
     return presentPerson(user);
   });

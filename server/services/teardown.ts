@@ -81,8 +81,11 @@ export async function tearDownCore(
     }
 
     const created: { serial: string; kind: TeardownPart; position: string | null }[] = [];
+    // two heads of a V share one route: read each kind's route once
+    const routes = new Map<TeardownPart, Awaited<ReturnType<typeof routeFor>>>();
     for (const part of body.kept) {
-      const route = await routeFor(family.id, part.kind, transaction);
+      if (!routes.has(part.kind)) routes.set(part.kind, await routeFor(family.id, part.kind, transaction));
+      const route = routes.get(part.kind)!;
       const first = route?.steps[0];
       const item = await Item.create(
         {
