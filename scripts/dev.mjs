@@ -1,6 +1,7 @@
 // `npm run dev`: the project's cluster, the API under `tsx watch`, and Vite's dev server with HMR
 // proxying /api to it. Ctrl-C stops all three.
 import { spawn } from 'node:child_process';
+import path from 'node:path';
 import { ensureNodeModules, openProjectDatabase, projectDir, projectSecret } from './bootstrap.mjs';
 
 ensureNodeModules();
@@ -14,9 +15,16 @@ const env = {
   API_PORT: String(apiPort),
   JWT_SECRET: process.env.JWT_SECRET ?? projectSecret(),
 };
+// the tools' own entry points under this Node, not `npx`: a signal to an npx wrapper does not
+// always reach the process it started, which then outlives Ctrl-C holding its port
+const bin = (rel) => path.join(projectDir, 'node_modules', rel);
 const children = [
-  spawn('npx', ['tsx', 'watch', '--clear-screen=false', 'server/index.ts'], { cwd: projectDir, stdio: 'inherit', env }),
-  spawn('npx', ['vite'], { cwd: projectDir, stdio: 'inherit', env }),
+  spawn(process.execPath, [bin('tsx/dist/cli.mjs'), 'watch', '--clear-screen=false', 'server/index.ts'], {
+    cwd: projectDir,
+    stdio: 'inherit',
+    env,
+  }),
+  spawn(process.execPath, [bin('vite/bin/vite.js')], { cwd: projectDir, stdio: 'inherit', env }),
 ];
 let stopping = false;
 const stopAll = () => {

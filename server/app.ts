@@ -10,6 +10,8 @@ import { authenticate } from './middleware/authenticate.js';
 import { errorHandler } from './middleware/errors.js';
 import { requestId } from './middleware/request-id.js';
 import { attachmentRoutes } from './routes/attachments.js';
+import { specRoutes } from './routes/spec.js';
+import { stationRoutes } from './routes/station.js';
 import { auditRoutes } from './routes/audit.js';
 import { coreRoutes } from './routes/cores.js';
 import { itemRoutes } from './routes/items.js';
@@ -92,6 +94,8 @@ export function createApp({
   coreRoutes(api, sequelize);
   itemRoutes(api, sequelize);
   attachmentRoutes(api, sequelize, store);
+  stationRoutes(api, sequelize);
+  specRoutes(api, sequelize);
   router.use((req, res) => {
     res.status(404).json({
       error: {

@@ -24,6 +24,7 @@ export const PERMISSIONS = {
   'attachments.upload': ['receiving', 'operator', 'quality', 'supervisor'],
 
   'items.read': ['receiving', 'operator', 'quality', 'supervisor', 'shipping', 'warranty', 'admin'],
+  'station.form': ['operator', 'supervisor', 'quality'],
   'results.record': ['operator', 'supervisor'],
   'results.correct': ['supervisor', 'quality'],
   'stage.reentry': ['supervisor'],

@@ -1,6 +1,7 @@
 import type { MigrationFn } from 'umzug';
 import type { QueryInterface } from 'sequelize';
 import * as m20261201120000 from './20261201120000-foundation.js';
+import * as m20261202090000 from './20261202090000-station-results.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -8,4 +9,7 @@ type Migration = { name: string; up: MigrationFn<QueryInterface>; down: Migratio
  * Every migration, oldest first. Listed here (rather than globbed at run time) so the same list
  * loads under tsx, Vitest and a bundler alike; a test checks that no file in this folder is missing.
  */
-export const MIGRATIONS: Migration[] = [{ name: '20261201120000-foundation', ...m20261201120000 }];
+export const MIGRATIONS: Migration[] = [
+  { name: '20261201120000-foundation', ...m20261201120000 },
+  { name: '20261202090000-station-results', ...m20261202090000 },
+];

@@ -3,7 +3,19 @@ import bcrypt from 'bcryptjs';
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { recordAudit, systemCtx } from '../../server/audit.js';
 import { personSnapshot } from '../../server/services/people.js';
-import { EngineFamily, Route, RouteStage, Stage, Station, User } from '../../server/models/index.js';
+import {
+  Characteristic,
+  EngineFamily,
+  Route,
+  RouteStage,
+  Signature,
+  Stage,
+  Station,
+  ToleranceRule,
+  User,
+} from '../../server/models/index.js';
+import { seedDemoPartsIfEmpty } from './demo-parts.js';
+import { CHARACTERISTICS, firstRules } from './spec-book.js';
 import { DEFECT_CODES, DEMO_USERS, FAMILIES, GAUGES, PLANT, ROUTES, STAGES, STATIONS } from './plant.js';
 
 export { DEMO_USERS, PLANT };
@@ -24,7 +36,7 @@ async function insertMany(
 
 /** Seeds the demo plant when the database has no users yet. Returns whether it seeded. */
 export async function seedDemoIfEmpty(sequelize: Sequelize, { bcryptCost = 12 } = {}): Promise<boolean> {
-  return sequelize.transaction(async (transaction) => {
+  const seeded = await sequelize.transaction(async (transaction) => {
     await sequelize.query('SELECT pg_advisory_xact_lock(:k)', { replacements: { k: SEED_LOCK }, transaction });
     const [row] = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM users', {
       type: QueryTypes.SELECT,
@@ -34,6 +46,9 @@ export async function seedDemoIfEmpty(sequelize: Sequelize, { bcryptCost = 12 } 
     await seedDemo(sequelize, transaction, bcryptCost);
     return true;
   });
+  // parts on the line go through the product's own services, each in its own transaction
+  if (seeded) await seedDemoPartsIfEmpty(sequelize);
+  return seeded;
 }
 
 async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCost: number) {
@@ -137,13 +152,16 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
     'defect_codes',
     DEFECT_CODES.map((d) => ({ ...d, ...stamp })),
   );
-  const dueOn = new Date(now.getTime() + 180 * 86_400_000).toISOString().slice(0, 10);
+  const dueOn = (days: number) => new Date(now.getTime() + days * 86_400_000).toISOString().slice(0, 10);
   await insertMany(
     sequelize,
     transaction,
     'gauges',
-    GAUGES.map((g) => ({ ...g, calibration_due_on: dueOn, ...stamp })),
+    GAUGES.map(({ dueInDays, ...g }) => ({ ...g, calibration_due_on: dueOn(dueInDays), ...stamp })),
   );
+
+  const quality = await User.findOne({ where: { role: 'quality' }, transaction });
+  const specCounts = await seedSpecBook(ctx, transaction, stageByCode, families, quality!, now);
 
   await recordAudit(ctx, transaction, {
     action: 'demo.seeded',
@@ -156,7 +174,91 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
       suppliers: suppliers.length,
       defectCodes: DEFECT_CODES.length,
       gauges: GAUGES.length,
+      ...specCounts,
       fakerSeed: FAKER_SEED,
     },
   });
+}
+
+/**
+ * The stages' characteristics and version 1 of each family's spec book, approved and signed by the
+ * demo quality engineer at seeding time (the signature's meaning says it came with the demo).
+ */
+async function seedSpecBook(
+  ctx: ReturnType<typeof systemCtx>,
+  transaction: Transaction,
+  stageByCode: Map<string, Stage>,
+  families: EngineFamily[],
+  quality: User,
+  now: Date,
+) {
+  const byKey = new Map<string, Characteristic>();
+  let order = 0;
+  for (const c of CHARACTERISTICS) {
+    const stage = stageByCode.get(c.stage);
+    if (!stage) throw new Error(`spec book: no stage ${c.stage}`);
+    const row = await Characteristic.create(
+      {
+        stageId: stage.id,
+        code: c.code,
+        name: c.name,
+        kind: c.kind,
+        unit: c.unit ?? null,
+        resolution: c.resolution ?? null,
+        positions: c.positions,
+        derivation: c.derivation ?? null,
+        critical: c.critical ?? false,
+        sortOrder: order++,
+        physicalMin: c.physical?.[0] ?? null,
+        physicalMax: c.physical?.[1] ?? null,
+        defectCode: c.defectCode,
+        help: c.help ?? '',
+      },
+      { transaction },
+    );
+    byKey.set(`${c.stage}/${c.code}`, row);
+  }
+  let rules = 0;
+  for (const family of families) {
+    for (const [key, limits] of Object.entries(firstRules(family.code))) {
+      const c = byKey.get(key);
+      if (!c) throw new Error(`spec book: no characteristic ${key}`);
+      const rule = await ToleranceRule.create(
+        {
+          engineFamilyId: family.id,
+          characteristicId: c.id,
+          version: 1,
+          status: 'approved',
+          ...limits,
+          unit: c.unit,
+          effectiveFrom: now,
+          supersededAt: null,
+          createdById: quality.id,
+          approvedById: quality.id,
+          approvedAt: now,
+          approvalReason: 'Demo spec book (illustrative values) loaded with the demo plant',
+        },
+        { transaction },
+      );
+      await Signature.create(
+        {
+          userId: quality.id,
+          printedName: quality.name,
+          meaning: `Approved ${family.code} ${c.name}, version 1 (demo seed)`,
+          entity: 'tolerance_rule',
+          entityId: String(rule.id),
+          signedAt: now,
+        },
+        { transaction },
+      );
+      rules += 1;
+    }
+  }
+  await recordAudit(ctx, transaction, {
+    action: 'spec.seeded',
+    entity: 'spec_book',
+    entityId: 'demo',
+    after: { characteristics: CHARACTERISTICS.length, rules, approvedBy: quality.name },
+  });
+  return { characteristics: CHARACTERISTICS.length, rules };
 }

@@ -254,12 +254,21 @@ export const ROUTES: Record<Exclude<PartKind, 'camshaft' | 'rod_set'>, { stage: 
 export const STATIONS = [
   { code: 'DOCK-1', name: 'Receiving dock', stage: 'intake', location: 'Bay A' },
   { code: 'TD-1', name: 'Teardown bench', stage: 'teardown', location: 'Bay A' },
+  { code: 'CLN-1', name: 'Block thermal clean', stage: 'block-clean', location: 'Bay B' },
   { code: 'MPI-1', name: 'Crack test booth', stage: 'block-crack', location: 'Bay B' },
   { code: 'PT-1', name: 'Pressure test tank', stage: 'block-pressure', location: 'Bay B' },
   { code: 'LH-1', name: 'Line hone', stage: 'line-hone', location: 'Machine shop' },
   { code: 'BH-1', name: 'Bore and hone cell', stage: 'bore-hone', location: 'Machine shop' },
   { code: 'DK-1', name: 'Deck mill', stage: 'block-deck', location: 'Machine shop' },
+  { code: 'WSH-1', name: 'Block final wash', stage: 'block-final-wash', location: 'Machine shop' },
+  { code: 'CLN-2', name: 'Crankshaft wash', stage: 'crank-clean', location: 'Bay B' },
+  { code: 'MPI-2', name: 'Crankshaft crack test', stage: 'crank-crack', location: 'Bay B' },
   { code: 'CG-1', name: 'Crank grinder', stage: 'crank-grind', location: 'Machine shop' },
+  { code: 'BAL-1', name: 'Crankshaft balancer', stage: 'crank-balance', location: 'Machine shop' },
+  { code: 'CLN-3', name: 'Head clean', stage: 'head-clean', location: 'Head shop' },
+  { code: 'MPI-3', name: 'Head crack test', stage: 'head-crack', location: 'Head shop' },
+  { code: 'PT-2', name: 'Head pressure test', stage: 'head-pressure', location: 'Head shop' },
+  { code: 'DK-2', name: 'Head surfacer', stage: 'head-deck', location: 'Head shop' },
   { code: 'VS-1', name: 'Valve seat machine', stage: 'valve-seats', location: 'Head shop' },
   { code: 'HA-1', name: 'Head assembly bench', stage: 'head-assembly', location: 'Head shop' },
   { code: 'AS-1', name: 'Assembly line, position 1', stage: 'long-block-assembly', location: 'Assembly' },
@@ -279,6 +288,7 @@ export const DEFECT_CODES = [
   { code: 'OTHER', description: 'Other (describe)' },
 ];
 
+/** `dueInDays`: calibration due so many days after seeding; negative is overdue (refused at stations). */
 export const GAUGES = [
   {
     code: 'BG-014',
@@ -286,6 +296,15 @@ export const GAUGES = [
     kind: 'bore gauge',
     resolution: 0.0001,
     unit: 'in',
+    dueInDays: 180,
+  },
+  {
+    code: 'BG-009',
+    description: 'Dial bore gauge 2–6 in, 0.0001 in (calibration overdue)',
+    kind: 'bore gauge',
+    resolution: 0.0001,
+    unit: 'in',
+    dueInDays: -12,
   },
   {
     code: 'OM-022',
@@ -293,6 +312,15 @@ export const GAUGES = [
     kind: 'micrometer',
     resolution: 0.0001,
     unit: 'in',
+    dueInDays: 150,
+  },
+  {
+    code: 'DI-031',
+    description: 'Dial indicator on surface plate, 0.0001 in',
+    kind: 'dial indicator',
+    resolution: 0.0001,
+    unit: 'in',
+    dueInDays: 120,
   },
   {
     code: 'SE-003',
@@ -300,6 +328,23 @@ export const GAUGES = [
     kind: 'straightedge',
     resolution: 0.0005,
     unit: 'in',
+    dueInDays: 200,
+  },
+  {
+    code: 'PG-011',
+    description: 'Test pressure gauge 0–100 psi, 1 psi',
+    kind: 'pressure gauge',
+    resolution: 1,
+    unit: 'psi',
+    dueInDays: 90,
+  },
+  {
+    code: 'VG-004',
+    description: 'Vacuum gauge 0–30 inHg, 0.5 inHg',
+    kind: 'vacuum gauge',
+    resolution: 0.5,
+    unit: 'inHg',
+    dueInDays: 90,
   },
   {
     code: 'TW-031',
@@ -307,6 +352,15 @@ export const GAUGES = [
     kind: 'torque wrench',
     resolution: 1,
     unit: 'lbf·ft',
+    dueInDays: 160,
   },
-  { code: 'PR-007', description: 'Profilometer, Ra', kind: 'profilometer', resolution: 1, unit: 'µin' },
+  { code: 'PR-007', description: 'Profilometer, Ra', kind: 'profilometer', resolution: 1, unit: 'µin', dueInDays: 170 },
+  {
+    code: 'BL-002',
+    description: 'Crankshaft balancer, 0.1 g·in',
+    kind: 'balancer',
+    resolution: 0.1,
+    unit: 'g·in',
+    dueInDays: 140,
+  },
 ];

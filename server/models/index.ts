@@ -8,7 +8,7 @@ import { PartLot, UnitLot } from './lots.js';
 import { DefectCode, Nonconformance, NonconformanceTransition, Signature } from './nonconformances.js';
 import { Customer, Supplier } from './parties.js';
 import { Attachment, LabelPrint, Shipment, WarrantyClaim } from './records.js';
-import { Reading, StageResult } from './results.js';
+import { Reading, StageReentry, StageResult } from './results.js';
 import { Session } from './session.js';
 import { Characteristic, ToleranceRule } from './spec.js';
 import { Route, RouteStage, Stage } from './stage.js';
@@ -40,6 +40,7 @@ export {
   Shipment,
   Signature,
   Stage,
+  StageReentry,
   StageResult,
   Station,
   Supplier,
@@ -70,6 +71,7 @@ const MODELS = [
   GaugeCalibration,
   StageResult,
   Reading,
+  StageReentry,
   DefectCode,
   Nonconformance,
   NonconformanceTransition,

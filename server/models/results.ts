@@ -99,3 +99,36 @@ export class Reading extends Model<InferAttributes<Reading>, InferCreationAttrib
     );
   }
 }
+
+/**
+ * A supervisor's permission for an item to go back through a stage it has passed. The next result
+ * recorded there carries the reason, and marks the re-entry used.
+ */
+export class StageReentry extends Model<InferAttributes<StageReentry>, InferCreationAttributes<StageReentry>> {
+  declare id: CreationOptional<number>;
+  declare itemId: number;
+  declare stageId: number;
+  declare fromStageId: number | null;
+  declare fromStatus: string;
+  declare reason: string;
+  declare allowedById: number;
+  declare usedByResultId: number | null;
+  declare createdAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize) {
+    StageReentry.init(
+      {
+        id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+        itemId: { type: DataTypes.INTEGER, allowNull: false },
+        stageId: { type: DataTypes.INTEGER, allowNull: false },
+        fromStageId: { type: DataTypes.INTEGER, allowNull: true },
+        fromStatus: { type: DataTypes.STRING(20), allowNull: false },
+        reason: { type: DataTypes.STRING(500), allowNull: false },
+        allowedById: { type: DataTypes.INTEGER, allowNull: false },
+        usedByResultId: { type: DataTypes.INTEGER, allowNull: true },
+        createdAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: 'stage_reentries', underscored: true, updatedAt: false },
+    );
+  }
+}

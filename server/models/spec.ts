@@ -11,11 +11,8 @@ export type CharacteristicKind = 'variable' | 'attribute' | 'derived';
 export type ToleranceStatus = 'draft' | 'approved' | 'superseded' | 'withdrawn';
 export type LimitType = 'nominal' | 'range' | 'min' | 'max' | 'attribute';
 
-/**
- * What a derived characteristic is computed from. Left open here because the formulas live in
- * shared/ (pure domain code); the model only stores them.
- */
-export type Derivation = Record<string, unknown>;
+import type { Derivation } from '../../shared/domain/evaluate.js';
+import type { PositionScheme } from '../../shared/domain/positions.js';
 
 /** One thing measured or judged at a stage (main bore diameter, crack found …). */
 export class Characteristic extends Model<InferAttributes<Characteristic>, InferCreationAttributes<Characteristic>> {
@@ -26,11 +23,18 @@ export class Characteristic extends Model<InferAttributes<Characteristic>, Infer
   declare kind: CharacteristicKind;
   declare unit: string | null;
   declare resolution: number | null;
-  /** Where on the part it is taken (cylinder 1, main 3 …); empty when it is measured once. */
-  declare positions: CreationOptional<string[]>;
+  /** Where on the part it is taken (each cylinder at three depths …), expanded per family in shared/. */
+  declare positions: PositionScheme;
+  /** How a derived characteristic is computed; the formulas live in shared/domain/evaluate.ts. */
   declare derivation: Derivation | null;
   declare critical: CreationOptional<boolean>;
   declare sortOrder: CreationOptional<number>;
+  /** Outside this range a reading is a typing slip, refused before it is judged. */
+  declare physicalMin: number | null;
+  declare physicalMax: number | null;
+  /** The defect code an NCR raised by this characteristic's failure carries. */
+  declare defectCode: string | null;
+  declare help: CreationOptional<string>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -44,10 +48,14 @@ export class Characteristic extends Model<InferAttributes<Characteristic>, Infer
         kind: { type: DataTypes.STRING(10), allowNull: false },
         unit: { type: DataTypes.STRING(20), allowNull: true },
         resolution: { type: DataTypes.DECIMAL(12, 6), allowNull: true },
-        positions: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
+        positions: { type: DataTypes.JSONB, allowNull: false },
         derivation: { type: DataTypes.JSONB, allowNull: true },
         critical: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         sortOrder: { type: DataTypes.SMALLINT, allowNull: false, defaultValue: 0 },
+        physicalMin: { type: DataTypes.DECIMAL(14, 6), allowNull: true },
+        physicalMax: { type: DataTypes.DECIMAL(14, 6), allowNull: true },
+        defectCode: { type: DataTypes.STRING(20), allowNull: true },
+        help: { type: DataTypes.STRING(300), allowNull: false, defaultValue: '' },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

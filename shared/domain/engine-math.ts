@@ -83,3 +83,37 @@ export function camTiming(t: {
     overlap: t.intakeOpensBtdc + t.exhaustClosesAtdc,
   };
 }
+
+/** Cam advance from the card: lobe separation − intake centreline; positive is advanced (common practice). */
+export const camAdvance = (lobeSeparation: number, intakeCentreline: number) => lobeSeparation - intakeCentreline;
+
+/** Specific output: horsepower per cubic inch of displacement. */
+export const hpPerCubicInch = (hp: number, displacementIn3: number) => {
+  if (displacementIn3 <= 0) throw new RangeError('displacement must be positive');
+  return hp / displacementIn3;
+};
+
+/**
+ * A fastener specification: a torque, or (torque-to-yield) a seating torque and then an angle.
+ * A torque-to-yield bolt is stretched past its yield point and is never reused (common practice).
+ */
+export type FastenerSpec = { torque: number; angle?: number; torqueTol?: number; angleTol?: number };
+
+export function judgeFastener(
+  spec: FastenerSpec,
+  applied: { torque: number; angle?: number; reused?: boolean },
+): { ok: boolean; reason: string } {
+  const tTol = spec.torqueTol ?? 0;
+  if (Math.abs(applied.torque - spec.torque) > tTol) {
+    return { ok: false, reason: `torque ${applied.torque} lbf·ft, specified ${spec.torque} ± ${tTol}` };
+  }
+  if (spec.angle !== undefined) {
+    if (applied.reused) return { ok: false, reason: 'a torque-to-yield fastener is never reused' };
+    const aTol = spec.angleTol ?? 0;
+    if (applied.angle === undefined) return { ok: false, reason: `turn a further ${spec.angle}° after the torque` };
+    if (Math.abs(applied.angle - spec.angle) > aTol) {
+      return { ok: false, reason: `angle ${applied.angle}°, specified ${spec.angle}° ± ${aTol}°` };
+    }
+  }
+  return { ok: true, reason: 'as specified' };
+}

@@ -1,0 +1,137 @@
+import { randomUUID } from 'node:crypto';
+import { Faker, en } from '@faker-js/faker';
+import type { Sequelize } from 'sequelize';
+import type { Ctx } from '../../server/audit.js';
+import { Customer, EngineFamily, Item, Station, Supplier, User } from '../../server/models/index.js';
+import { receiveCore } from '../../server/services/intake.js';
+import { stationForm, submitResult } from '../../server/services/station.js';
+import { tearDownCore } from '../../server/services/teardown.js';
+import { receiveCoreBody, teardownBody } from '../../shared/schemas/intake.js';
+import { passingReadings } from './sample-readings.js';
+
+/**
+ * Work in process for the demo, made through the same services the screens use: cores received
+ * and torn down, and their parts walked along their routes to different stations, so every
+ * station has something to scan. One block failed bore and hone and waits on hold with its NCR.
+ */
+
+// a different constant from the plant's seed, so the two sequences do not echo each other
+const FAKER_SEED = 20261202;
+
+const ROUTE_STATIONS: Record<string, string[]> = {
+  block: ['CLN-1', 'MPI-1', 'PT-1', 'LH-1', 'BH-1', 'DK-1', 'WSH-1'],
+  crankshaft: ['CLN-2', 'MPI-2', 'CG-1', 'BAL-1'],
+  cylinder_head: ['CLN-3', 'MPI-3', 'PT-2', 'DK-2', 'VS-1', 'HA-1'],
+};
+
+/** How far along its route each demo core's parts go (number of stations passed). */
+const PLAN: { family: string; block: number; crankshaft: number; heads: number; failBore?: boolean }[] = [
+  { family: 'CORRIE-8', block: 4, crankshaft: 2, heads: 4 },
+  { family: 'CORRIE-8', block: 4, crankshaft: 3, heads: 5 },
+  { family: 'CORRIE-8', block: 4, crankshaft: 2, heads: 1, failBore: true },
+  { family: 'CORRIE-8', block: 7, crankshaft: 4, heads: 6 },
+  { family: 'CORRIE-8', block: 1, crankshaft: 0, heads: 0 },
+  { family: 'TARN-6', block: 4, crankshaft: 3, heads: 4 },
+  { family: 'TARN-6', block: 5, crankshaft: 1, heads: 2 },
+  { family: 'TARN-6', block: 0, crankshaft: 0, heads: 0 },
+];
+
+export async function seedDemoPartsIfEmpty(sequelize: Sequelize): Promise<number> {
+  if ((await Item.count()) > 0) return 0;
+  const faker = new Faker({ locale: [en] });
+  faker.seed(FAKER_SEED);
+  const as = async (role: string): Promise<Ctx> => {
+    const u = (await User.findOne({ where: { role, email: `${role}@larkspur.example` } }))!;
+    return { actor: { id: u.id, role: u.role }, requestId: 'demo-seed' };
+  };
+  const receiving = await as('receiving');
+  const operator = await as('operator');
+  const customers = await Customer.findAll({ order: [['id', 'ASC']] });
+  const suppliers = await Supplier.findAll({ order: [['id', 'ASC']] });
+  const stations = new Set((await Station.findAll()).map((s) => s.code));
+  let results = 0;
+
+  const walk = async (serial: string, route: string[], upTo: number, failAt?: string) => {
+    for (const code of route.slice(0, upTo)) {
+      if (!stations.has(code)) continue;
+      const form = await stationForm(code, serial);
+      const readings = passingReadings(form, (c, p, v) => {
+        if (code === failAt && c === 'bore' && p === 'c7/bottom/axial') return 4.0309;
+        // scatter measured sizes a little inside their limits, as real readings are
+        const rule = form.characteristics.find((x) => x.code === c)?.rule;
+        if (rule?.limitType === 'nominal' && rule.minusTol) {
+          const spread = faker.number.int({ min: -2, max: 2 }) * (rule.resolution ?? 0.0001);
+          return Math.round((v + spread) / (rule.resolution ?? 0.0001)) * (rule.resolution ?? 0.0001);
+        }
+        return v;
+      });
+      const measured = form.characteristics.filter((c) => c.kind === 'variable');
+      const gauge =
+        form.gauges.find((g) => g.usable && measured.some((c) => c.unit === g.unit)) ??
+        form.gauges.find((g) => g.usable)!;
+      await submitResult(sequelize, operator, {
+        idempotencyKey: randomUUID(),
+        serial,
+        station: code,
+        gauge: measured.length ? gauge.code : null,
+        startedAt: null,
+        notes: '',
+        readings,
+        photoIds: [],
+      });
+      results += 1;
+    }
+  };
+
+  for (const [i, plan] of PLAN.entries()) {
+    const family = (await EngineFamily.findOne({ where: { code: plan.family } }))!;
+    const purchased = i % 4 === 3;
+    const core = await receiveCore(
+      sequelize,
+      receiving,
+      receiveCoreBody.parse({
+        familyId: family.id,
+        castingNumber: `${plan.family === 'CORRIE-8' ? 'CR8' : 'TN6'}-${faker.string.numeric(5)}`,
+        idNumber: faker.string.alphanumeric({ length: 8, casing: 'upper' }),
+        source: purchased ? 'purchased' : 'customer_return',
+        customerId: purchased ? undefined : customers[i % customers.length]!.id,
+        supplierId: purchased ? suppliers[3]!.id : undefined,
+        sourceReference: `${purchased ? 'PO' : 'RMA'}-${faker.string.numeric(6)}`,
+        receivedOn: new Date(Date.now() - (PLAN.length - i) * 86_400_000).toISOString().slice(0, 10),
+        complete: true,
+        grade: 'sound',
+        accepted: true,
+        creditDecision: purchased ? undefined : 'full',
+        confirmNotDuplicate: true,
+      }),
+    );
+    if (plan.block === 0 && plan.crankshaft === 0 && plan.heads === 0 && i === PLAN.length - 1) continue;
+    const heads =
+      family.headsPerEngine === 2
+        ? [
+            { kind: 'cylinder_head' as const, position: 'left' },
+            { kind: 'cylinder_head' as const, position: 'right' },
+          ]
+        : [{ kind: 'cylinder_head' as const }];
+    const detail = await tearDownCore(
+      sequelize,
+      operator,
+      core.serial,
+      teardownBody.parse({ kept: [{ kind: 'block' }, { kind: 'crankshaft' }, ...heads] }),
+    );
+    const kept = detail.teardown!.kept;
+    for (const part of kept) {
+      if (part.kind === 'block') {
+        await walk(
+          part.serial,
+          ROUTE_STATIONS.block!,
+          plan.block + (plan.failBore ? 1 : 0),
+          plan.failBore ? 'BH-1' : undefined,
+        );
+      }
+      if (part.kind === 'crankshaft') await walk(part.serial, ROUTE_STATIONS.crankshaft!, plan.crankshaft);
+      if (part.kind === 'cylinder_head') await walk(part.serial, ROUTE_STATIONS.cylinder_head!, plan.heads);
+    }
+  }
+  return results;
+}

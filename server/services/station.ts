@@ -1,0 +1,715 @@
+import { createHash } from 'node:crypto';
+import canonicalize from 'canonicalize';
+import { Op, QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { evaluateForm, physicallyPossible, type Entries } from '../../shared/domain/evaluate.js';
+import { describePosition, expandPositions } from '../../shared/domain/positions.js';
+import type {
+  GaugeChoice,
+  ReadingJson,
+  ResultJson,
+  SequenceCheck,
+  StationFormJson,
+  SubmitResultBody,
+} from '../../shared/schemas/results.js';
+import { PART_KIND_LABELS } from '../../shared/schemas/reference.js';
+import { recordAudit, type Ctx } from '../audit.js';
+import { AppError, conflict, invalid, notFound } from '../errors.js';
+import {
+  Attachment,
+  Characteristic,
+  EngineFamily,
+  Gauge,
+  IdempotencyKey,
+  Item,
+  Reading,
+  Stage,
+  StageReentry,
+  StageResult,
+  Station,
+  User,
+} from '../models/index.js';
+import { claimUploads, presentAttachment } from './attachments.js';
+import { findBySerial, presentItem, routeFor } from './items.js';
+import { openNcrsOf, raiseNonconformance, type FailingReading } from './nonconformances.js';
+import { formCharacteristics } from './spec.js';
+
+type Route = NonNullable<Awaited<ReturnType<typeof routeFor>>>;
+type FormChar = Awaited<ReturnType<typeof formCharacteristics>>[number];
+
+const today = () => new Date().toISOString().slice(0, 10);
+const lower = (s: string) => s.charAt(0).toLowerCase() + s.slice(1);
+
+async function stationByCode(code: string, transaction?: Transaction) {
+  const station = await Station.findOne({
+    where: { code: code.toUpperCase() },
+    include: [{ model: Stage, as: 'stage' }],
+    transaction,
+  });
+  if (!station || !station.active) throw notFound(`Station ${code}`);
+  const stage = (station as Station & { stage: Stage | null }).stage;
+  if (!stage) throw conflict(`Station ${station.code} records no stage: an admin can set its stage.`);
+  return { station, stage };
+}
+
+/** The current (not superseded) result of an item at a stage. */
+async function currentResultAt(itemId: number, stageId: number, transaction?: Transaction) {
+  const [row] = await (StageResult.sequelize as Sequelize).query<{ id: number }>(
+    `SELECT r.id FROM stage_results r
+      WHERE r.item_id = :itemId AND r.stage_id = :stageId
+        AND NOT EXISTS (SELECT 1 FROM stage_results s WHERE s.supersedes_id = r.id)
+      ORDER BY r.finished_at DESC, r.id DESC LIMIT 1`,
+    { type: QueryTypes.SELECT, replacements: { itemId, stageId }, transaction },
+  );
+  return row ? StageResult.findByPk(row.id, { transaction }) : null;
+}
+
+/**
+ * Whether this stage may be recorded for the item now. A part is recorded at its current stage,
+ * or further on when every stage in between is optional; going back needs a supervisor's re-entry.
+ */
+export function checkSequence(
+  item: Item,
+  stage: Stage,
+  route: Route | null,
+  holds: { number: string }[],
+  reentry: StageReentry | null,
+): SequenceCheck {
+  const what = PART_KIND_LABELS[item.kind].toLowerCase();
+  const fail = (
+    code: Exclude<SequenceCheck['code'], 'ready' | 'reentry'>,
+    message: string,
+    expected: Stage | null = null,
+  ): SequenceCheck => ({
+    ok: false,
+    code,
+    message,
+    expectedStage: expected ? { code: expected.code, name: expected.name } : null,
+  });
+  if (item.kind !== stage.partKind) {
+    return fail(
+      'wrong_part',
+      `${item.serial} is a ${what}; ${stage.name} is recorded for ${PART_KIND_LABELS[stage.partKind].toLowerCase()}s.`,
+    );
+  }
+  if (item.status === 'scrapped') return fail('scrapped', `${item.serial} has been scrapped and cannot be recorded.`);
+  if (holds.length) {
+    return fail(
+      'on_hold',
+      `${item.serial} is on hold: ${holds.map((h) => h.number).join(', ')} ${holds.length > 1 ? 'are' : 'is'} open. Quality must decide it before this part is recorded again.`,
+    );
+  }
+  const steps = route?.steps ?? [];
+  const at = steps.findIndex((s) => s.stageId === stage.id);
+  if (at < 0) return fail('not_on_route', `${stage.name} is not on the route of ${item.serial}.`);
+  if (reentry && reentry.stageId === stage.id) {
+    return { ok: true, code: 'reentry', message: `Re-entry allowed by a supervisor: ${reentry.reason}` };
+  }
+  const current = steps.findIndex((s) => s.stageId === item.currentStageId);
+  if (['finished', 'installed', 'released', 'shipped'].includes(item.status) || current < 0) {
+    return fail(
+      'finished',
+      `${item.serial} has finished its route. A supervisor can allow a re-entry of ${stage.name} with a reason.`,
+    );
+  }
+  if (at === current) return { ok: true, code: 'ready', message: `${item.serial} is due at ${stage.name}.` };
+  const next = steps[current]!.stage;
+  if (at > current && steps.slice(current, at).every((s) => !s.required)) {
+    return { ok: true, code: 'ready', message: `${item.serial} is due at ${stage.name} (optional stages skipped).` };
+  }
+  if (at < current) {
+    return fail(
+      'out_of_sequence',
+      `${item.serial} has already passed ${stage.name}; its next stage is ${next.name}. A supervisor can allow a re-entry with a reason.`,
+      next,
+    );
+  }
+  return fail(
+    'out_of_sequence',
+    `${item.serial} is not ready for ${stage.name}: its next stage is ${next.name}.`,
+    next,
+  );
+}
+
+async function gaugeChoices(
+  transaction?: Transaction,
+): Promise<{ choices: GaugeChoice[]; byCode: Map<string, Gauge> }> {
+  const gauges = await Gauge.findAll({ order: [['code', 'ASC']], transaction });
+  const now = today();
+  const choices = gauges.map((g) => {
+    const overdue = !!g.calibrationDueOn && g.calibrationDueOn < now;
+    const inService = g.status === 'in_service';
+    return {
+      code: g.code,
+      description: g.description,
+      unit: g.unit,
+      resolution: g.resolution === null ? null : Number(g.resolution),
+      calibrationDueOn: g.calibrationDueOn,
+      usable: inService && !overdue,
+      why: !inService
+        ? `Out of service (${g.status.replace(/_/g, ' ')}).`
+        : overdue
+          ? `Calibration was due on ${g.calibrationDueOn}.`
+          : g.calibrationDueOn
+            ? `Calibrated; due ${g.calibrationDueOn}.`
+            : 'No calibration due date recorded.',
+    };
+  });
+  return { choices, byCode: new Map(gauges.map((g) => [g.code, g])) };
+}
+
+async function openReentry(itemId: number, transaction?: Transaction) {
+  return StageReentry.findOne({ where: { itemId, usedByResultId: null }, transaction });
+}
+
+/** Everything a station tablet needs to record one part: the check, the form and its rules. */
+export async function stationForm(stationCode: string, serial: string): Promise<StationFormJson> {
+  const { station, stage } = await stationByCode(stationCode);
+  const item = await findBySerial(serial);
+  const family = (await EngineFamily.findByPk(item.engineFamilyId))!;
+  const [route, holds, reentry, gauges, current] = await Promise.all([
+    routeFor(item.engineFamilyId, item.kind),
+    openNcrsOf(item.id),
+    openReentry(item.id),
+    gaugeChoices(),
+    currentResultAt(item.id, stage.id),
+  ]);
+  const characteristics = await formCharacteristics(stage.id, family.id, new Date(), (c) =>
+    expandPositions(c.positions, family, item),
+  );
+  const operator = current ? await User.findByPk(current.operatorId, { attributes: ['name'] }) : null;
+  return {
+    station: { code: station.code, name: station.name, location: station.location },
+    stage: { code: stage.code, name: stage.name, hazard: stage.hazard, description: stage.description },
+    item: await presentItem(item),
+    sequence: checkSequence(item, stage, route, holds, reentry),
+    holds,
+    characteristics: characteristics.map(({ id: _id, defectCode: _d, ...c }) => c),
+    gauges: gauges.choices,
+    currentResult: current
+      ? {
+          id: current.id,
+          verdict: current.verdict,
+          finishedAt: current.finishedAt.toISOString(),
+          operator: operator?.name ?? '',
+        }
+      : null,
+  };
+}
+
+const hashBody = (body: SubmitResultBody) =>
+  createHash('sha256')
+    .update(canonicalize(body) ?? '')
+    .digest('hex');
+
+/**
+ * Checks what was typed against the form: every position present once, numbers for measured
+ * characteristics in their unit and physical range, pass/fail for checks. All problems at once,
+ * keyed `characteristic@position`.
+ */
+function checkReadings(
+  chars: FormChar[],
+  body: SubmitResultBody,
+): { entries: Entries; locations: Map<string, string> } {
+  const fields: Record<string, string> = {};
+  const entries: Entries = {};
+  const locations = new Map<string, string>();
+  const byCode = new Map(chars.map((c) => [c.code, c]));
+  body.readings.forEach((r, i) => {
+    const key = `${r.characteristic}@${r.position}`;
+    const c = byCode.get(r.characteristic);
+    if (!c) {
+      fields[`readings.${i}.characteristic`] = `${r.characteristic} is not recorded at this stage.`;
+      return;
+    }
+    if (c.kind === 'derived') {
+      fields[key] = `${c.name} is worked out by Coretrail from the other readings: do not send it.`;
+      return;
+    }
+    const pos = c.positions.find((p) => p.code === r.position);
+    if (!pos) {
+      fields[key] =
+        `${r.position ? `“${r.position}”` : 'No position'} is not a position of ${lower(c.name)} on this part.`;
+      return;
+    }
+    if (entries[c.code]?.[r.position]) {
+      fields[key] = `${pos.label}: ${lower(c.name)} was sent twice.`;
+      return;
+    }
+    if (c.kind === 'variable') {
+      if (r.passed !== undefined) fields[key] = `${c.name} is measured: send a value, not pass/fail.`;
+      else if (r.value === undefined) fields[key] = `${pos.label}: enter the ${lower(c.name)}.`;
+      else if (r.unit !== undefined && r.unit !== c.unit) {
+        fields[key] = `${c.name} is recorded in ${c.unit}, not ${r.unit || 'no unit'}.`;
+      } else if (!physicallyPossible(c, r.value)) {
+        fields[key] =
+          `${r.value} ${c.unit ?? ''} is not a possible ${lower(c.name)} (${c.physicalMin}–${c.physicalMax} ${c.unit ?? ''}): check the reading.`.replace(
+            /\s+/g,
+            ' ',
+          );
+      }
+    } else {
+      if (r.value !== undefined) fields[key] = `${c.name} is a pass/fail check: send pass or fail, not a value.`;
+      else if (r.passed === undefined) fields[key] = `${pos.label}: choose pass or fail for ${lower(c.name)}.`;
+      else if (!r.passed && c.critical && !r.location) {
+        fields[key] = `${c.name} failed: say where (the location field).`;
+      }
+    }
+    (entries[c.code] ??= {})[r.position] = { value: r.value ?? null, passed: r.passed ?? null };
+    if (r.location) locations.set(key, r.location);
+  });
+  for (const c of chars) {
+    if (c.kind === 'derived') continue;
+    for (const p of c.positions) {
+      if (!entries[c.code]?.[p.code] && !fields[`${c.code}@${p.code}`]) {
+        fields[`${c.code}@${p.code}`] = `Missing: ${p.label} — ${lower(c.name)}.`;
+      }
+    }
+  }
+  const problems = Object.keys(fields).length;
+  if (problems) {
+    throw invalid(`${problems} reading${problems > 1 ? 's need' : ' needs'} attention. Nothing was recorded.`, fields);
+  }
+  return { entries, locations };
+}
+
+type Outcome = { status: number; body: ResultJson; replay: boolean };
+
+/**
+ * Records one station result. In one transaction: replay or refuse a used idempotency key, lock the
+ * part, check the sequence (or the correction), judge every reading against the rule in force,
+ * store the result and readings with verdicts and rule versions, raise an NCR and hold the part on
+ * any failure, move it on after a pass, write the audit events, and keep the reply for retries.
+ */
+export async function submitResult(
+  sequelize: Sequelize,
+  ctx: Ctx,
+  body: SubmitResultBody,
+  {
+    path = '/api/results',
+    correction = null,
+  }: { path?: string; correction?: { resultId: number; reason: string } | null } = {},
+): Promise<Outcome> {
+  const requestHash = hashBody(body);
+  return sequelize.transaction(async (transaction) => {
+    // two requests with one key take turns here; the second finds the first's stored reply
+    await sequelize.query('SELECT pg_advisory_xact_lock(hashtextextended(:key, 7241))', {
+      replacements: { key: body.idempotencyKey },
+      transaction,
+    });
+    const seen = await IdempotencyKey.findByPk(body.idempotencyKey, { transaction });
+    if (seen) {
+      if (seen.userId !== ctx.actor!.id || seen.requestHash !== requestHash || seen.path !== path) {
+        throw new AppError(
+          422,
+          'idempotency_key_reused',
+          'This idempotency key was already used for a different submission. Nothing was recorded; send a new key for a new result.',
+        );
+      }
+      return { status: seen.statusCode, body: seen.response as ResultJson, replay: true };
+    }
+
+    const { station, stage } = await stationByCode(body.station, transaction);
+    const found = await findBySerial(body.serial, transaction);
+    // the part's row lock: a second tablet submitting the same part waits here, then sees the first
+    const item = (await Item.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
+    const family = (await EngineFamily.findByPk(item.engineFamilyId, { transaction }))!;
+    const route = await routeFor(item.engineFamilyId, item.kind, transaction);
+    const holds = await openNcrsOf(item.id, transaction);
+    const reentry = await openReentry(item.id, transaction);
+
+    let supersedes: StageResult | null = null;
+    if (correction) {
+      supersedes = await currentResultAt(item.id, stage.id, transaction);
+      if (!supersedes || supersedes.id !== correction.resultId) {
+        throw conflict(
+          `Result ${correction.resultId} is not the current ${stage.name} result of ${item.serial}: only the current result can be corrected.`,
+          { reason: 'not_current' },
+        );
+      }
+      if (item.kind !== stage.partKind || item.status === 'scrapped') {
+        throw conflict(`${item.serial} cannot take a correction at ${stage.name}.`);
+      }
+    } else {
+      const check = checkSequence(item, stage, route, holds, reentry);
+      if (!check.ok) {
+        const last = await currentResultAt(item.id, stage.id, transaction);
+        if (check.code === 'out_of_sequence' && last && Date.now() - last.createdAt.getTime() < 15 * 60_000) {
+          const by = await User.findByPk(last.operatorId, { attributes: ['name'], transaction });
+          throw conflict(
+            `${stage.name} was already recorded for ${item.serial} by ${by?.name ?? 'someone'} at ${last.createdAt.toISOString().slice(11, 16)} UTC (${last.verdict}). Nothing was recorded twice.`,
+            { reason: 'already_recorded', resultId: last.id },
+          );
+        }
+        throw conflict(check.message, { reason: check.code, expectedStage: check.expectedStage });
+      }
+    }
+
+    const now = new Date();
+    const chars = await formCharacteristics(
+      stage.id,
+      family.id,
+      now,
+      (c) => expandPositions(c.positions, family, item),
+      transaction,
+    );
+    if (!chars.length) throw conflict(`${stage.name} has no characteristics to record yet.`);
+    const unruled = chars.filter((c) => c.kind !== 'attribute' && !c.rule);
+    if (unruled.length) {
+      throw conflict(
+        `No approved rule is in force for ${unruled.map((c) => lower(c.name)).join(', ')} on ${family.code}. Quality must approve one before ${stage.name} can be recorded.`,
+        { reason: 'no_rule' },
+      );
+    }
+
+    let gauge: Gauge | null = null;
+    const gauges = await gaugeChoices(transaction);
+    if (body.gauge) {
+      gauge = gauges.byCode.get(body.gauge.toUpperCase()) ?? null;
+      const choice = gauges.choices.find((g) => g.code === gauge?.code);
+      if (!gauge || !choice) throw invalid('Choose a gauge from the list.', { gauge: `No gauge ${body.gauge}.` });
+      if (!choice.usable) {
+        throw invalid(`${gauge.code} cannot be used: ${choice.why} Use another gauge.`, { gauge: choice.why });
+      }
+    } else if (chars.some((c) => c.kind === 'variable')) {
+      throw invalid('Choose the gauge the readings were taken with.', { gauge: 'Choose the gauge used.' });
+    }
+
+    const { entries, locations } = checkReadings(chars, body);
+    const judged = evaluateForm(chars, entries);
+    const verdict = judged.verdict === 'pass' ? 'pass' : 'fail';
+
+    const result = await StageResult.create(
+      {
+        itemId: item.id,
+        stageId: stage.id,
+        stationId: station.id,
+        operatorId: ctx.actor!.id,
+        gaugeId: gauge?.id ?? null,
+        startedAt: body.startedAt ? new Date(body.startedAt) : null,
+        finishedAt: now,
+        verdict,
+        idempotencyKey: body.idempotencyKey,
+        supersedesId: supersedes?.id ?? null,
+        correctionReason: correction?.reason ?? null,
+        reentryReason: reentry && reentry.stageId === stage.id && !supersedes ? reentry.reason : null,
+        reentryById: reentry && reentry.stageId === stage.id && !supersedes ? reentry.allowedById : null,
+        notes: body.notes,
+      },
+      { transaction },
+    );
+    const charByCode = new Map(chars.map((c) => [c.code, c]));
+    await Reading.bulkCreate(
+      judged.readings.map((r) => {
+        const c = charByCode.get(r.characteristic)!;
+        return {
+          stageResultId: result.id,
+          characteristicId: c.id,
+          position: r.position,
+          value: r.value,
+          passed: r.passed,
+          locationNote: locations.get(`${r.characteristic}@${r.position}`) ?? null,
+          unit: c.kind === 'attribute' ? null : c.unit,
+          verdict: r.verdict ?? 'fail',
+          toleranceRuleId: r.ruleId,
+          ruleVersion: r.ruleVersion,
+          gaugeId: c.kind === 'variable' ? (gauge?.id ?? null) : null,
+        };
+      }),
+      { transaction },
+    );
+    if (reentry && reentry.stageId === stage.id && !supersedes) {
+      await reentry.update({ usedByResultId: result.id }, { transaction });
+    }
+    await claimUploads(ctx, transaction, body.photoIds, 'stage_result', result.id);
+
+    const readings: ReadingJson[] = judged.readings.map((r) => {
+      const c = charByCode.get(r.characteristic)!;
+      return {
+        ...r,
+        name: c.name,
+        positionLabel: c.positions.find((p) => p.code === r.position)?.label ?? describePosition(r.position),
+        unit: c.unit,
+        kind: c.kind,
+        location: locations.get(`${r.characteristic}@${r.position}`) ?? null,
+      };
+    });
+    const failing = readings.filter((r) => r.verdict === 'fail');
+
+    // where the part goes next
+    const before = { status: item.status, currentStage: item.currentStageId };
+    let ncr = null;
+    if (verdict === 'fail') {
+      const critical = failing.some((r) => charByCode.get(r.characteristic)!.critical);
+      const first = charByCode.get(failing[0]!.characteristic)!;
+      const shown = failing.slice(0, 4).map((r) => `${r.name} at ${lower(r.positionLabel)}: ${r.reason}`);
+      const snapshot: FailingReading[] = failing.map((r) => ({
+        characteristic: r.characteristic,
+        name: r.name,
+        position: r.position,
+        positionLabel: r.positionLabel,
+        value: r.value,
+        passed: r.passed,
+        unit: r.unit,
+        lower: r.lower,
+        upper: r.upper,
+        reason: r.reason,
+        ruleVersion: r.ruleVersion,
+        location: r.location,
+      }));
+      ncr = await raiseNonconformance(sequelize, ctx, transaction, {
+        itemId: item.id,
+        itemSerial: item.serial,
+        stageId: stage.id,
+        stageResultId: result.id,
+        severity: critical ? 'critical' : 'major',
+        defectCode: first.defectCode,
+        description: `${stage.name} failed on ${item.serial}: ${shown.join('; ')}${failing.length > 4 ? `; and ${failing.length - 4} more` : ''}.`,
+        failing: snapshot,
+      });
+      await item.update({ status: 'on_hold', currentStageId: stage.id }, { transaction });
+    } else if (!supersedes) {
+      const steps = route?.steps ?? [];
+      const at = steps.findIndex((s) => s.stageId === stage.id);
+      const next = steps[at + 1];
+      await item.update(
+        next ? { status: 'in_process', currentStageId: next.stageId } : { status: 'finished', currentStageId: null },
+        { transaction },
+      );
+    }
+
+    await recordAudit(ctx, transaction, {
+      action: supersedes ? 'result.corrected' : 'result.recorded',
+      entity: 'stage_result',
+      entityId: result.id,
+      before: supersedes ? { resultId: supersedes.id, verdict: supersedes.verdict } : undefined,
+      after: {
+        item: item.serial,
+        stage: stage.code,
+        station: station.code,
+        gauge: gauge?.code ?? null,
+        verdict,
+        idempotencyKey: body.idempotencyKey,
+        correctionReason: correction?.reason ?? null,
+        reentryReason: result.reentryReason,
+        readings: judged.readings.map((r) => [
+          r.characteristic,
+          r.position,
+          r.value ?? r.passed,
+          r.verdict,
+          r.ruleVersion,
+        ]),
+        nonconformance: ncr?.number ?? null,
+      },
+    });
+    if (before.status !== item.status || before.currentStage !== item.currentStageId) {
+      await recordAudit(ctx, transaction, {
+        action: verdict === 'fail' ? 'item.held' : 'item.moved',
+        entity: 'item',
+        entityId: item.serial,
+        before,
+        after: { status: item.status, currentStage: item.currentStageId, byResult: result.id },
+      });
+    }
+
+    const nextStage = item.currentStageId ? await Stage.findByPk(item.currentStageId, { transaction }) : null;
+    const operator = await User.findByPk(ctx.actor!.id, { attributes: ['name'], transaction });
+    const photos = body.photoIds.length
+      ? (await Attachment.findAll({ where: { entity: 'stage_result', entityId: String(result.id) }, transaction })).map(
+          presentAttachment,
+        )
+      : [];
+    const reply: ResultJson = {
+      id: result.id,
+      serial: item.serial,
+      stage: { code: stage.code, name: stage.name },
+      station: { code: station.code, name: station.name },
+      operator: operator?.name ?? '',
+      gauge: gauge?.code ?? null,
+      verdict,
+      finishedAt: now.toISOString(),
+      notes: result.notes,
+      readings,
+      failing,
+      nonconformance: ncr ? { number: ncr.number, severity: ncr.severity } : null,
+      supersedes: supersedes?.id ?? null,
+      correctionReason: result.correctionReason,
+      reentryReason: result.reentryReason,
+      photos,
+      item: {
+        status: item.status,
+        currentStage: nextStage ? { code: nextStage.code, name: nextStage.name } : null,
+      },
+    };
+    await IdempotencyKey.create(
+      {
+        key: body.idempotencyKey,
+        userId: ctx.actor!.id,
+        method: 'POST',
+        path,
+        requestHash,
+        statusCode: 201,
+        response: reply,
+      },
+      { transaction },
+    );
+    return { status: 201, body: reply, replay: false };
+  });
+}
+
+/**
+ * A supervisor's sanctioned re-entry: the item goes back to a stage it has passed (or finished),
+ * and the next result there carries the reason.
+ */
+export async function allowReentry(
+  sequelize: Sequelize,
+  ctx: Ctx,
+  serial: string,
+  input: { stage: string; reason: string },
+) {
+  await sequelize.transaction(async (transaction) => {
+    const found = await findBySerial(serial, transaction);
+    const item = (await Item.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
+    const stage = await Stage.findOne({ where: { code: input.stage }, transaction });
+    if (!stage) throw invalid('Choose a stage of this part’s route.', { stage: `No stage ${input.stage}.` });
+    const route = await routeFor(item.engineFamilyId, item.kind, transaction);
+    if (!route?.steps.some((s) => s.stageId === stage.id)) {
+      throw invalid(`${stage.name} is not on the route of ${item.serial}.`, { stage: 'Not on this route.' });
+    }
+    if (['scrapped', 'installed', 'released', 'shipped'].includes(item.status)) {
+      throw conflict(`${item.serial} is ${item.status}: it cannot go back through a stage.`);
+    }
+    const holds = await openNcrsOf(item.id, transaction);
+    if (holds.length) {
+      throw conflict(
+        `${item.serial} is on hold with ${holds.map((h) => h.number).join(', ')}: quality sends it back through a stage by disposition (rework).`,
+      );
+    }
+    if (item.currentStageId === stage.id && item.status === 'in_process') {
+      throw conflict(`${item.serial} is already due at ${stage.name}: no re-entry is needed.`);
+    }
+    const waiting = await openReentry(item.id, transaction);
+    if (waiting) {
+      throw conflict(`A re-entry of ${item.serial} is already waiting to be used: record that stage first.`);
+    }
+    const before = { status: item.status, currentStage: item.currentStageId };
+    await StageReentry.create(
+      {
+        itemId: item.id,
+        stageId: stage.id,
+        fromStageId: item.currentStageId,
+        fromStatus: item.status,
+        reason: input.reason,
+        allowedById: ctx.actor!.id,
+        usedByResultId: null,
+      },
+      { transaction },
+    );
+    await item.update({ status: 'in_process', currentStageId: stage.id }, { transaction });
+    await recordAudit(ctx, transaction, {
+      action: 'item.reentry_allowed',
+      entity: 'item',
+      entityId: item.serial,
+      before,
+      after: { status: item.status, currentStage: stage.id, stage: stage.code, reason: input.reason },
+    });
+  });
+  return presentItem(await findBySerial(serial));
+}
+
+/** An item's results, newest first, each with its readings, in a fixed number of queries. */
+export async function resultsOf(serial: string): Promise<(ResultJson & { supersededBy: number | null })[]> {
+  const item = await findBySerial(serial);
+  const family = (await EngineFamily.findByPk(item.engineFamilyId))!;
+  const results = await StageResult.findAll({
+    where: { itemId: item.id },
+    order: [
+      ['finishedAt', 'DESC'],
+      ['id', 'DESC'],
+    ],
+  });
+  if (!results.length) return [];
+  const ids = results.map((r) => r.id);
+  const [readings, stages, stations, users, gauges, ncrs, photos] = await Promise.all([
+    Reading.findAll({ where: { stageResultId: { [Op.in]: ids } }, order: [['id', 'ASC']] }),
+    Stage.findAll(),
+    Station.findAll(),
+    User.findAll({
+      where: { id: { [Op.in]: [...new Set(results.map((r) => r.operatorId))] } },
+      attributes: ['id', 'name'],
+    }),
+    Gauge.findAll(),
+    (StageResult.sequelize as Sequelize).query<{ stage_result_id: number; number: string; severity: string }>(
+      'SELECT stage_result_id, number, severity FROM nonconformances WHERE stage_result_id IN (:ids)',
+      { type: QueryTypes.SELECT, replacements: { ids } },
+    ),
+    Attachment.findAll({ where: { entity: 'stage_result', entityId: { [Op.in]: ids.map(String) } } }),
+  ]);
+  const chars = await Characteristic.findAll({
+    where: { id: { [Op.in]: [...new Set(readings.map((r) => r.characteristicId))] } },
+  });
+  const charById = new Map(chars.map((c) => [c.id, c]));
+  const stageById = new Map(stages.map((s) => [s.id, s]));
+  const stationById = new Map(stations.map((s) => [s.id, s]));
+  const userById = new Map(users.map((u) => [u.id, u.name]));
+  const gaugeById = new Map(gauges.map((g) => [g.id, g.code]));
+  const ncrByResult = new Map(ncrs.map((n) => [n.stage_result_id, n]));
+  const supersededBy = new Map(results.filter((r) => r.supersedesId).map((r) => [r.supersedesId!, r.id]));
+  const labels = new Map<number, Map<string, string>>();
+  const labelOf = (charId: number, pos: string) => {
+    let m = labels.get(charId);
+    if (!m) {
+      const c = charById.get(charId)!;
+      m = new Map(expandPositions(c.positions, family, item).map((p) => [p.code, p.label]));
+      labels.set(charId, m);
+    }
+    return m.get(pos) ?? describePosition(pos);
+  };
+  return results.map((r) => {
+    const rs: ReadingJson[] = readings
+      .filter((x) => x.stageResultId === r.id)
+      .map((x) => {
+        const c = charById.get(x.characteristicId)!;
+        return {
+          characteristic: c.code,
+          position: x.position,
+          value: x.value === null ? null : Number(x.value),
+          passed: x.passed,
+          verdict: x.verdict,
+          rounded: null,
+          lower: null,
+          upper: null,
+          reason: '',
+          ruleId: x.toleranceRuleId,
+          ruleVersion: x.ruleVersion,
+          name: c.name,
+          positionLabel: labelOf(c.id, x.position),
+          unit: x.unit,
+          kind: c.kind,
+          location: x.locationNote,
+        };
+      });
+    const stage = stageById.get(r.stageId)!;
+    const station = r.stationId ? stationById.get(r.stationId) : null;
+    const ncr = ncrByResult.get(r.id);
+    return {
+      id: r.id,
+      serial: item.serial,
+      stage: { code: stage.code, name: stage.name },
+      station: station ? { code: station.code, name: station.name } : null,
+      operator: userById.get(r.operatorId) ?? '',
+      gauge: r.gaugeId ? (gaugeById.get(r.gaugeId) ?? null) : null,
+      verdict: r.verdict,
+      finishedAt: r.finishedAt.toISOString(),
+      notes: r.notes,
+      readings: rs,
+      failing: rs.filter((x) => x.verdict === 'fail'),
+      nonconformance: ncr ? { number: ncr.number, severity: ncr.severity } : null,
+      supersedes: r.supersedesId,
+      supersededBy: supersededBy.get(r.id) ?? null,
+      correctionReason: r.correctionReason,
+      reentryReason: r.reentryReason,
+      photos: photos.filter((p) => p.entityId === String(r.id)).map(presentAttachment),
+      item: { status: item.status, currentStage: null },
+    };
+  });
+}

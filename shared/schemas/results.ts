@@ -1,0 +1,107 @@
+import { z } from 'zod';
+import type { EvaluatedReading, FormCharacteristic } from '../domain/evaluate.js';
+import type { Verdict } from '../domain/tolerance.js';
+import type { AttachmentJson } from './attachments.js';
+import type { ItemJson } from './items.js';
+
+/** Station results: what a tablet sends for one pass of a part through a stage, and the replies. */
+
+export const readingInput = z.strictObject({
+  characteristic: z.string().trim().min(1, 'Name the characteristic.').max(40),
+  position: z.string().trim().max(40).default(''),
+  // JSON has no NaN; 1e999 parses to Infinity, which z.number() refuses
+  value: z.number('Enter a number.').optional(),
+  passed: z.boolean('Choose pass or fail.').optional(),
+  unit: z.string().trim().max(20).optional(),
+  location: z.string().trim().max(200, 'At most 200 characters.').optional(),
+});
+export type ReadingInput = z.output<typeof readingInput>;
+
+export const submitResultBody = z.strictObject({
+  idempotencyKey: z.uuid('Send a UUID as the idempotency key.'),
+  serial: z.string().trim().min(1, 'Scan or type a serial.').max(24),
+  station: z.string().trim().min(1, 'Choose the station.').max(20),
+  gauge: z.string().trim().max(30).nullable().default(null),
+  startedAt: z.iso.datetime({ offset: true }).nullable().default(null),
+  notes: z.string().trim().max(2000, 'At most 2000 characters.').default(''),
+  readings: z.array(readingInput).min(1, 'Record at least one reading.').max(2000),
+  photoIds: z.array(z.number().int().positive()).max(10, 'At most 10 photos.').default([]),
+});
+export type SubmitResultBody = z.output<typeof submitResultBody>;
+
+/** A correction: a whole new result for the same part and stage, superseding the current one. */
+export const correctResultBody = submitResultBody.extend({
+  reason: z.string().trim().min(5, 'Say why, in at least 5 characters.').max(500, 'At most 500 characters.'),
+});
+export type CorrectResultBody = z.output<typeof correctResultBody>;
+
+export const stationFormQuery = z.strictObject({ serial: z.string().trim().min(1).max(24) });
+export const stationParam = z.strictObject({ code: z.string().trim().min(1).max(20) });
+
+export const reentryBody = z.strictObject({
+  stage: z.string().trim().min(1, 'Choose the stage.').max(40),
+  reason: z.string().trim().min(5, 'Say why, in at least 5 characters.').max(500, 'At most 500 characters.'),
+});
+
+/** Why a part can or cannot be recorded at a station now. */
+export type SequenceCheck =
+  | { ok: true; code: 'ready' | 'reentry'; message: string }
+  | {
+      ok: false;
+      code: 'out_of_sequence' | 'on_hold' | 'finished' | 'wrong_part' | 'scrapped' | 'not_on_route';
+      message: string;
+      expectedStage: { code: string; name: string } | null;
+    };
+
+export type GaugeChoice = {
+  code: string;
+  description: string;
+  unit: string | null;
+  resolution: number | null;
+  calibrationDueOn: string | null;
+  usable: boolean;
+  why: string;
+};
+
+export type HoldJson = { number: string; state: string; description: string };
+
+export type StationFormJson = {
+  station: { code: string; name: string; location: string };
+  stage: { code: string; name: string; hazard: string | null; description: string };
+  item: ItemJson;
+  sequence: SequenceCheck;
+  holds: HoldJson[];
+  characteristics: (FormCharacteristic & { help: string })[];
+  gauges: GaugeChoice[];
+  /** The current result at this stage, for a correction. */
+  currentResult: { id: number; verdict: Verdict; finishedAt: string; operator: string } | null;
+};
+
+export type ReadingJson = EvaluatedReading & {
+  name: string;
+  positionLabel: string;
+  unit: string | null;
+  kind: 'variable' | 'attribute' | 'derived';
+  location: string | null;
+};
+
+export type ResultJson = {
+  id: number;
+  serial: string;
+  stage: { code: string; name: string };
+  station: { code: string; name: string } | null;
+  operator: string;
+  gauge: string | null;
+  verdict: Verdict;
+  finishedAt: string;
+  notes: string;
+  readings: ReadingJson[];
+  failing: ReadingJson[];
+  nonconformance: { number: string; severity: string } | null;
+  supersedes: number | null;
+  correctionReason: string | null;
+  reentryReason: string | null;
+  photos: AttachmentJson[];
+  /** Where the part stands after this result. */
+  item: { status: string; currentStage: { code: string; name: string } | null };
+};
