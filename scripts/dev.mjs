@@ -14,6 +14,8 @@ const env = {
   PORT: String(apiPort),
   API_PORT: String(apiPort),
   JWT_SECRET: process.env.JWT_SECRET ?? projectSecret(),
+  MAIL_SINK: process.env.MAIL_SINK ?? 'on',
+  MAIL_SINK_DIR: process.env.MAIL_SINK_DIR ?? path.join(projectDir, '.data', 'mail-sink'),
 };
 // the tools' own entry points under this Node, not `npx`: a signal to an npx wrapper does not
 // always reach the process it started, which then outlives Ctrl-C holding its port

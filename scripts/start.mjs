@@ -24,6 +24,10 @@ const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
     JWT_SECRET: process.env.JWT_SECRET ?? projectSecret(),
     CLIENT_DIR: path.join(projectDir, 'dist'),
     UPLOAD_DIR: process.env.UPLOAD_DIR ?? path.join(projectDir, '.data', 'uploads'),
+    // e-mail goes to a sink on loopback that keeps what it receives (the admin's Mail page)
+    MAIL_SINK: process.env.MAIL_SINK ?? 'on',
+    MAIL_SINK_DIR: process.env.MAIL_SINK_DIR ?? path.join(projectDir, '.data', 'mail-sink'),
+    APP_URL: process.env.APP_URL ?? `http://127.0.0.1:${appPort}`,
   },
 });
 

@@ -10,6 +10,9 @@ import { authenticate } from './middleware/authenticate.js';
 import { errorHandler } from './middleware/errors.js';
 import { requestId } from './middleware/request-id.js';
 import { attachmentRoutes } from './routes/attachments.js';
+import { setAppUrl } from './mail/links.js';
+import { ncrRoutes } from './routes/ncrs.js';
+import { mailRoutes } from './routes/mail.js';
 import { specRoutes } from './routes/spec.js';
 import { stationRoutes } from './routes/station.js';
 import { auditRoutes } from './routes/audit.js';
@@ -36,6 +39,7 @@ export function createApp({
   store?: BlobStore;
 }): Express & { apiRoutes: Api['routes']; state: AppState } {
   setBcryptCost(config.BCRYPT_COST);
+  setAppUrl(config.APP_URL ?? `http://${config.HOST}:${config.PORT}`);
   const app = express();
   const state: AppState = { draining: false };
   app.disable('x-powered-by');
@@ -96,6 +100,8 @@ export function createApp({
   attachmentRoutes(api, sequelize, store);
   stationRoutes(api, sequelize);
   specRoutes(api, sequelize);
+  ncrRoutes(api, sequelize);
+  mailRoutes(api, sequelize, config);
   router.use((req, res) => {
     res.status(404).json({
       error: {

@@ -15,6 +15,17 @@ const schema = z.object({
   // uploaded photos: outside any folder the server serves; read back only through /api/attachments
   UPLOAD_DIR: z.string().default('.data/uploads'),
   SEED_DEMO: z.enum(['auto', 'never']).default('auto'),
+  // e-mail: an SMTP server (for npm start and the tests, the loopback sink in server/mail/sink.ts)
+  SMTP_HOST: z.string().default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
+  MAIL_FROM: z.string().default('Coretrail <coretrail@larkspur.example>'),
+  MAIL_WORKER: z.enum(['on', 'off']).default('on'),
+  // run the loopback SMTP sink in this process (npm start, npm run dev); never with a real relay
+  MAIL_SINK: z.enum(['on', 'off']).default('off'),
+  // where the loopback sink keeps what it received; the admin mail page reads it
+  MAIL_SINK_DIR: z.string().default('.data/mail-sink'),
+  // the address people open Coretrail at, for links in e-mail
+  APP_URL: z.string().optional(),
 });
 
 export type Config = z.infer<typeof schema>;

@@ -3,6 +3,8 @@ import { createApp } from './app.js';
 import { loadConfig } from './config.js';
 import { createSequelize } from './db.js';
 import { migrate } from './migrate.js';
+import { startMailSink } from './mail/sink.js';
+import { MailWorker } from './mail/worker.js';
 import { DEMO_USERS, seedDemoIfEmpty } from '../db/seeders/demo.js';
 
 async function main() {
@@ -14,6 +16,20 @@ async function main() {
     const seeded = await seedDemoIfEmpty(sequelize, { bcryptCost: config.BCRYPT_COST });
     if (seeded) console.log('[api] the database was empty: demo plant seeded');
   }
+  const sink =
+    config.MAIL_SINK === 'on'
+      ? await startMailSink({ port: config.SMTP_PORT, dir: config.MAIL_SINK_DIR }).catch((err: Error) => {
+          throw new Error(
+            `The local mail sink could not listen on 127.0.0.1:${config.SMTP_PORT} (${err.message}). Set SMTP_PORT to a free port.`,
+          );
+        })
+      : null;
+  if (sink) console.log(`[mail] loopback sink on 127.0.0.1:${sink.port}, keeping messages in ${sink.dir}`);
+  const worker =
+    config.MAIL_WORKER === 'on'
+      ? new MailWorker(sequelize, { smtp: { host: config.SMTP_HOST, port: config.SMTP_PORT }, from: config.MAIL_FROM })
+      : null;
+  worker?.start();
   const app = createApp({ sequelize, config });
   const server: Server = await new Promise((resolve, reject) => {
     // Express 5 hands a listen error to this callback rather than only emitting it
@@ -40,6 +56,8 @@ async function main() {
     console.log(`[api] ${signal}: finishing requests in flight, refusing new ones…`);
     app.state.draining = true;
     server.close(async () => {
+      await worker?.stop();
+      await sink?.close();
       await sequelize.close();
       console.log('[api] stopped');
       process.exit(0);

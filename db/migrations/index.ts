@@ -2,6 +2,7 @@ import type { MigrationFn } from 'umzug';
 import type { QueryInterface } from 'sequelize';
 import * as m20261201120000 from './20261201120000-foundation.js';
 import * as m20261202090000 from './20261202090000-station-results.js';
+import * as m20261202110000 from './20261202110000-nonconformance-workflow.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -12,4 +13,5 @@ type Migration = { name: string; up: MigrationFn<QueryInterface>; down: Migratio
 export const MIGRATIONS: Migration[] = [
   { name: '20261201120000-foundation', ...m20261201120000 },
   { name: '20261202090000-station-results', ...m20261202090000 },
+  { name: '20261202110000-nonconformance-workflow', ...m20261202110000 },
 ];

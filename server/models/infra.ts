@@ -57,6 +57,10 @@ export class MailOutbox extends Model<InferAttributes<MailOutbox>, InferCreation
   declare claimedUntil: Date | null;
   declare lastError: string | null;
   declare sentAt: Date | null;
+  /** `<outbox-N@coretrail.local>`: the same on every attempt, so a resend is recognisable. */
+  declare messageId: string | null;
+  /** Why it was sent (ncr.raised, ncr.decided …), for the outbox page. */
+  declare reason: CreationOptional<string>;
   declare createdAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize) {
@@ -75,6 +79,8 @@ export class MailOutbox extends Model<InferAttributes<MailOutbox>, InferCreation
         claimedUntil: { type: DataTypes.DATE, allowNull: true },
         lastError: { type: DataTypes.TEXT, allowNull: true },
         sentAt: { type: DataTypes.DATE, allowNull: true },
+        messageId: { type: DataTypes.STRING(200), allowNull: true },
+        reason: { type: DataTypes.STRING(60), allowNull: false, defaultValue: '' },
         createdAt: DataTypes.DATE,
       },
       { sequelize, tableName: 'mail_outbox', underscored: true, updatedAt: false },

@@ -55,6 +55,12 @@ export class Nonconformance extends Model<InferAttributes<Nonconformance>, Infer
   declare raisedById: number;
   declare assigneeId: number | null;
   declare closedAt: Date | null;
+  /** What the item was doing before this NCR held it, to put it back when a concern is closed. */
+  declare itemStatusBefore: string | null;
+  /** A use-as-is on a critical NCR: signed once, waiting for a second quality signer. */
+  declare awaitingSecondSignature: CreationOptional<boolean>;
+  declare decidedById: number | null;
+  declare decidedAt: Date | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -79,6 +85,10 @@ export class Nonconformance extends Model<InferAttributes<Nonconformance>, Infer
         raisedById: { type: DataTypes.INTEGER, allowNull: false },
         assigneeId: { type: DataTypes.INTEGER, allowNull: true },
         closedAt: { type: DataTypes.DATE, allowNull: true },
+        itemStatusBefore: { type: DataTypes.STRING(20), allowNull: true },
+        awaitingSecondSignature: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+        decidedById: { type: DataTypes.INTEGER, allowNull: true },
+        decidedAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -1,29 +1,71 @@
 import { Op, QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { can } from '../../shared/permissions.js';
+import type { Role } from '../../shared/roles.js';
+import {
+  DISPOSITION_LABELS,
+  NCR_STATE_LABELS,
+  OPEN_NCR_STATES,
+  type DispositionBody,
+  type NcrAction,
+  type NcrDetail,
+  type NcrListQuery,
+  type NcrRow,
+  type NcrState,
+  type RaiseNcrBody,
+  type Severity,
+} from '../../shared/schemas/ncr.js';
 import type { HoldJson } from '../../shared/schemas/results.js';
 import { recordAudit, type Ctx } from '../audit.js';
-import { DefectCode, Nonconformance, NonconformanceTransition } from '../models/index.js';
-import type { Severity } from '../models/nonconformances.js';
+import { AppError, conflict, invalid, notFound } from '../errors.js';
+import { appLink } from '../mail/links.js';
+import { enqueueMail, quoted, type Mail } from '../mail/messages.js';
+import {
+  DefectCode,
+  Item,
+  Nonconformance,
+  NonconformanceTransition,
+  Signature,
+  Stage,
+  StageResult,
+  User,
+} from '../models/index.js';
+import { attachmentsOf, claimUploads } from './attachments.js';
+import { findBySerial, presentItem, routeFor } from './items.js';
+import { checkPassword } from './passwords.js';
 
-/** Coretrail's NCR states. An NCR that is neither closed nor voided holds its item. */
-export const NCR_STATES = ['raised', 'in_review', 'decided', 'closed', 'voided'] as const;
-export type NcrState = (typeof NCR_STATES)[number];
-export const NCR_STATE_LABELS: Record<NcrState, string> = {
-  raised: 'Raised',
-  in_review: 'In review',
-  decided: 'Decided',
-  closed: 'Closed',
-  voided: 'Voided',
-};
-export const OPEN_NCR_STATES: NcrState[] = ['raised', 'in_review', 'decided'];
+export { NCR_STATE_LABELS, OPEN_NCR_STATES };
 
-export async function openNcrsOf(itemId: number, transaction?: Transaction): Promise<HoldJson[]> {
+/**
+ * The NCR workflow. raised → in_review → decided → closed, or voided when raised in error. Each
+ * step records who, when and why (a transition row and an audit event, in one transaction);
+ * dispositions are signed with the decider's password, and a use-as-is on a critical NCR needs a
+ * second quality signer. While an NCR is open its item is held — except that a rework or repair
+ * lets the item through the one stage it was sent back to.
+ */
+
+const ncrLink = (number: string) => appLink(`/ncrs/${number}`);
+
+/** Open NCRs that stop an item being recorded at `stageId` (all open ones when no stage is given). */
+export async function blockingNcrsOf(itemId: number, stageId?: number, transaction?: Transaction): Promise<HoldJson[]> {
   const rows = await Nonconformance.findAll({
     where: { itemId, state: { [Op.in]: OPEN_NCR_STATES } },
     order: [['id', 'ASC']],
     transaction,
   });
-  return rows.map((n) => ({ number: n.number, state: n.state, description: n.description }));
+  return rows
+    .filter(
+      (n) =>
+        !(
+          stageId !== undefined &&
+          n.state === 'decided' &&
+          (n.disposition === 'rework' || n.disposition === 'repair') &&
+          n.reworkStageId === stageId
+        ),
+    )
+    .map((n) => ({ number: n.number, state: n.state, description: n.description }));
 }
+
+export const openNcrsOf = (itemId: number, transaction?: Transaction) => blockingNcrsOf(itemId, undefined, transaction);
 
 /** NC-2026-00042: the year it was raised and a plant-wide running number. */
 async function nextNumber(sequelize: Sequelize, transaction: Transaction) {
@@ -34,24 +76,40 @@ async function nextNumber(sequelize: Sequelize, transaction: Transaction) {
   return `NC-${new Date().getUTCFullYear()}-${row!.n.padStart(5, '0')}`;
 }
 
-export type FailingReading = {
-  characteristic: string;
-  name: string;
-  position: string;
-  positionLabel: string;
-  value: number | null;
-  passed: boolean | null;
-  unit: string | null;
-  lower: number | null;
-  upper: number | null;
-  reason: string;
-  ruleVersion: number | null;
-  location: string | null;
-};
+export type FailingReading = NcrDetail['failing'][number];
+
+async function recipients(roles: Role[], transaction: Transaction) {
+  return User.findAll({
+    where: { role: { [Op.in]: roles }, active: true },
+    attributes: ['email', 'name'],
+    transaction,
+  });
+}
+
+async function raisedMails(ncr: Nonconformance, serial: string, transaction: Transaction): Promise<Mail[]> {
+  const roles: Role[] = ncr.severity === 'critical' ? ['quality', 'supervisor'] : ['quality'];
+  const people = await recipients(roles, transaction);
+  const text = [
+    `${ncr.number} was raised on ${serial} (${ncr.severity}).`,
+    '',
+    'What was found:',
+    quoted(ncr.description),
+    '',
+    `The part is on hold until the NCR is decided. Open it: ${ncrLink(ncr.number)}`,
+    '',
+    '— Coretrail',
+  ].join('\n');
+  return people.map((p) => ({
+    to: p.email,
+    subject: `${ncr.severity === 'critical' ? 'Critical ' : ''}NCR ${ncr.number} raised on ${serial}`,
+    text,
+    reason: 'ncr.raised',
+  }));
+}
 
 /**
  * Raises an NCR inside the caller's transaction (the failing result's, or a concern raised by hand),
- * with its first transition and an audit event.
+ * with its first transition, an audit event and the messages to quality.
  */
 export async function raiseNonconformance(
   sequelize: Sequelize,
@@ -60,12 +118,14 @@ export async function raiseNonconformance(
   input: {
     itemId: number;
     itemSerial: string;
+    itemStatusBefore: string | null;
     stageId: number | null;
     stageResultId: number | null;
     severity: Severity;
     defectCode: string | null;
     description: string;
     failing: FailingReading[];
+    containment?: string;
   },
 ): Promise<Nonconformance> {
   const defect = input.defectCode ? await DefectCode.findOne({ where: { code: input.defectCode }, transaction }) : null;
@@ -81,12 +141,16 @@ export async function raiseNonconformance(
       state: 'raised',
       description: input.description,
       failing: input.failing,
+      containment: input.containment ?? '',
       disposition: null,
       dispositionReason: null,
       reworkStageId: null,
       raisedById: ctx.actor!.id,
       assigneeId: null,
       closedAt: null,
+      itemStatusBefore: input.itemStatusBefore,
+      decidedById: null,
+      decidedAt: null,
     },
     { transaction },
   );
@@ -96,7 +160,7 @@ export async function raiseNonconformance(
       fromState: null,
       toState: 'raised',
       actorId: ctx.actor!.id,
-      reason: input.stageResultId ? 'Raised by a failing station result' : 'Raised by hand',
+      reason: input.stageResultId ? `Raised by failing result ${input.stageResultId}` : 'Raised by hand',
     },
     { transaction },
   );
@@ -113,5 +177,595 @@ export async function raiseNonconformance(
       failing: input.failing,
     },
   });
+  await enqueueMail(transaction, await raisedMails(ncr, input.itemSerial, transaction));
   return ncr;
+}
+
+/** Anyone on the floor raising a concern about a part: it goes on hold at once. */
+export async function raiseConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNcrBody): Promise<NcrDetail> {
+  const number = await sequelize.transaction(async (transaction) => {
+    const found = await findBySerial(body.serial, transaction);
+    const item = (await Item.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
+    if (item.status === 'scrapped') throw conflict(`${item.serial} has been scrapped: there is nothing left to hold.`);
+    const defect = await DefectCode.findOne({
+      where: { code: body.defectCode.toUpperCase(), active: true },
+      transaction,
+    });
+    if (!defect)
+      throw invalid('Choose a defect code from the list.', { defectCode: `No defect code ${body.defectCode}.` });
+    const holds = !['shipped'].includes(item.status);
+    const ncr = await raiseNonconformance(sequelize, ctx, transaction, {
+      itemId: item.id,
+      itemSerial: item.serial,
+      itemStatusBefore: item.status,
+      stageId: item.currentStageId,
+      stageResultId: null,
+      severity: body.severity,
+      defectCode: defect.code,
+      description: body.description,
+      failing: [],
+      containment: body.containment,
+    });
+    await claimUploads(ctx, transaction, body.photoIds, 'nonconformance', ncr.number);
+    if (holds && item.status !== 'on_hold') {
+      const before = { status: item.status };
+      await item.update({ status: 'on_hold' }, { transaction });
+      await recordAudit(ctx, transaction, {
+        action: 'item.held',
+        entity: 'item',
+        entityId: item.serial,
+        before,
+        after: { status: 'on_hold', byNcr: ncr.number },
+      });
+    }
+    return ncr.number;
+  });
+  return ncrDetail(number, ctx);
+}
+
+// ——— reading ———
+
+const SORT: Record<NcrListQuery['sort'], string> = {
+  raised: 'n.created_at',
+  number: 'n.number',
+  severity: "array_position(ARRAY['critical','major','minor']::varchar[], n.severity)",
+  state: "array_position(ARRAY['raised','in_review','decided','closed','voided']::varchar[], n.state)",
+  serial: 'i.serial',
+};
+
+/** The NCR list: filtered, sorted and paged in SQL. */
+export async function listNcrs(sequelize: Sequelize, q: NcrListQuery, { all = false } = {}) {
+  const where: string[] = [];
+  const r: Record<string, unknown> = {};
+  if (q.state === 'open') where.push(`n.state IN ('raised','in_review','decided')`);
+  else if (q.state) (where.push('n.state = :state'), (r.state = q.state));
+  if (q.severity) (where.push('n.severity = :severity'), (r.severity = q.severity));
+  if (q.defect) (where.push('d.code = :defect'), (r.defect = q.defect.toUpperCase()));
+  if (q.family) (where.push('i.engine_family_id = :family'), (r.family = q.family));
+  if (q.stage) (where.push('s.code = :stage'), (r.stage = q.stage));
+  if (q.olderThanDays !== undefined) {
+    where.push('n.created_at <= now() - make_interval(days => :age)');
+    r.age = q.olderThanDays;
+  }
+  if (q.assignee === 'none') where.push('n.assignee_id IS NULL');
+  else if (q.assignee) (where.push('n.assignee_id = :assignee'), (r.assignee = q.assignee));
+  if (q.q) {
+    where.push('(n.number ILIKE :q OR i.serial ILIKE :q OR n.description ILIKE :q)');
+    r.q = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+  }
+  const filter = where.length ? `WHERE ${where.join(' AND ')}` : '';
+  const from = `FROM nonconformances n
+    LEFT JOIN items i ON i.id = n.item_id
+    LEFT JOIN engine_families f ON f.id = i.engine_family_id
+    LEFT JOIN stages s ON s.id = n.stage_id
+    LEFT JOIN defect_codes d ON d.id = n.defect_code_id
+    JOIN users ru ON ru.id = n.raised_by_id
+    LEFT JOIN users au ON au.id = n.assignee_id`;
+  const dir = q.dir === 'asc' ? 'ASC' : 'DESC';
+  const [rows, [count]] = await Promise.all([
+    sequelize.query<NcrRow>(
+      `SELECT n.number, n.state, n.severity, i.serial, i.kind AS "itemKind", f.code AS "familyCode",
+              s.code AS "stageCode", s.name AS "stageName", d.code AS "defectCode", n.description,
+              n.disposition, ru.name AS "raisedBy", au.name AS assignee,
+              to_char(n.created_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') AS "raisedAt",
+              (extract(epoch FROM now() - n.created_at) / 86400)::int AS "ageDays"
+         ${from} ${filter} ORDER BY ${SORT[q.sort]} ${dir} NULLS LAST, n.id ${dir}
+         ${all ? '' : 'LIMIT :limit OFFSET :offset'}`,
+      { type: QueryTypes.SELECT, replacements: { ...r, limit: q.pageSize, offset: (q.page - 1) * q.pageSize } },
+    ),
+    sequelize.query<{ n: number }>(`SELECT count(*)::int AS n ${from} ${filter}`, {
+      type: QueryTypes.SELECT,
+      replacements: r,
+    }),
+  ]);
+  return { rows, total: count?.n ?? 0, page: q.page, pageSize: q.pageSize };
+}
+
+async function findNcr(number: string, transaction?: Transaction, lock = false) {
+  const ncr = await Nonconformance.findOne({
+    where: { number },
+    transaction,
+    ...(lock && transaction ? { lock: transaction.LOCK.UPDATE } : {}),
+  });
+  if (!ncr) throw notFound(`NCR ${number}`);
+  return ncr;
+}
+
+/** The steps open to this person now. */
+export function allowedActions(ncr: Nonconformance, role: Role | undefined, userId?: number): NcrAction[] {
+  if (!role || !can(role, 'ncr.disposition')) return [];
+  switch (ncr.state as NcrState) {
+    case 'raised':
+      return ['review', 'void'];
+    case 'in_review':
+      if (ncr.awaitingSecondSignature) return ncr.decidedById === userId ? ['void'] : ['countersign', 'void'];
+      return ['disposition', 'void'];
+    case 'decided':
+      return ['close'];
+    default:
+      return [];
+  }
+}
+
+export async function ncrDetail(number: string, ctx: Ctx): Promise<NcrDetail> {
+  const ncr = await findNcr(number);
+  const [transitions, signatures, photos, item, stage, reworkStage, defect] = await Promise.all([
+    NonconformanceTransition.findAll({ where: { nonconformanceId: ncr.id }, order: [['id', 'ASC']] }),
+    Signature.findAll({ where: { entity: 'nonconformance', entityId: ncr.number }, order: [['id', 'ASC']] }),
+    attachmentsOf('nonconformance', ncr.number),
+    ncr.itemId ? Item.findByPk(ncr.itemId) : null,
+    ncr.stageId ? Stage.findByPk(ncr.stageId) : null,
+    ncr.reworkStageId ? Stage.findByPk(ncr.reworkStageId) : null,
+    ncr.defectCodeId ? DefectCode.findByPk(ncr.defectCodeId) : null,
+  ]);
+  const userIds = [
+    ...new Set([ncr.raisedById, ncr.assigneeId, ncr.decidedById, ...transitions.map((t) => t.actorId)]),
+  ].filter((x): x is number => x !== null);
+  const users = new Map(
+    (await User.findAll({ where: { id: { [Op.in]: userIds } }, attributes: ['id', 'name'] })).map((u) => [
+      u.id,
+      u.name,
+    ]),
+  );
+  const presented = item ? await presentItem(item) : null;
+  return {
+    number: ncr.number,
+    state: ncr.state as NcrState,
+    severity: ncr.severity,
+    serial: item?.serial ?? null,
+    itemKind: item?.kind ?? null,
+    familyCode: presented?.family.code ?? null,
+    stageCode: stage?.code ?? null,
+    stageName: stage?.name ?? null,
+    defectCode: defect?.code ?? null,
+    description: ncr.description,
+    disposition: ncr.disposition,
+    raisedBy: users.get(ncr.raisedById) ?? '',
+    assignee: ncr.assigneeId ? (users.get(ncr.assigneeId) ?? null) : null,
+    raisedAt: ncr.createdAt.toISOString(),
+    ageDays: Math.floor((Date.now() - ncr.createdAt.getTime()) / 86_400_000),
+    failing: ncr.failing as FailingReading[],
+    containment: ncr.containment,
+    dispositionReason: ncr.dispositionReason,
+    reworkStage: reworkStage ? { code: reworkStage.code, name: reworkStage.name } : null,
+    awaitingSecondSignature: ncr.awaitingSecondSignature,
+    decidedBy: ncr.decidedById ? (users.get(ncr.decidedById) ?? null) : null,
+    decidedAt: ncr.decidedAt?.toISOString() ?? null,
+    closedAt: ncr.closedAt?.toISOString() ?? null,
+    stageResultId: ncr.stageResultId,
+    item: presented,
+    timeline: transitions.map((t) => ({
+      at: t.createdAt.toISOString(),
+      from: t.fromState as NcrState | null,
+      to: t.toState as NcrState,
+      actor: users.get(t.actorId) ?? '',
+      reason: t.reason,
+    })),
+    signatures: signatures.map((s) => ({
+      printedName: s.printedName,
+      meaning: s.meaning,
+      signedAt: s.signedAt.toISOString(),
+    })),
+    photos,
+    allowed: allowedActions(ncr, ctx.actor?.role as Role | undefined, ctx.actor?.id),
+  };
+}
+
+// ——— transitions ———
+
+function refuse(ncr: Nonconformance, action: NcrAction, ctx: Ctx): never {
+  const allowed = allowedActions(ncr, ctx.actor!.role as Role, ctx.actor!.id);
+  const label = NCR_STATE_LABELS[ncr.state as NcrState].toLowerCase();
+  throw conflict(
+    `${ncr.number} is ${label}${ncr.awaitingSecondSignature ? ' and waiting for a second signature' : ''}: it cannot take “${action}” now.${
+      allowed.length ? ` Possible next steps: ${allowed.join(', ')}.` : ' It takes no further steps.'
+    }`,
+    { reason: 'invalid_transition', state: ncr.state, allowed },
+  );
+}
+
+async function transition(
+  ctx: Ctx,
+  transaction: Transaction,
+  ncr: Nonconformance,
+  to: NcrState,
+  reason: string,
+  changes: Partial<Nonconformance> = {},
+) {
+  const from = ncr.state as NcrState;
+  const before = { state: from, disposition: ncr.disposition, assigneeId: ncr.assigneeId };
+  await ncr.update(
+    { ...changes, state: to, ...(to === 'closed' || to === 'voided' ? { closedAt: new Date() } : {}) },
+    { transaction },
+  );
+  await NonconformanceTransition.create(
+    { nonconformanceId: ncr.id, fromState: from, toState: to, actorId: ctx.actor!.id, reason },
+    { transaction },
+  );
+  await recordAudit(ctx, transaction, {
+    action: `ncr.${to}`,
+    entity: 'nonconformance',
+    entityId: ncr.number,
+    before,
+    after: { state: to, disposition: ncr.disposition, reworkStageId: ncr.reworkStageId, reason },
+  });
+}
+
+async function sign(ctx: Ctx, transaction: Transaction, ncr: Nonconformance, password: string, meaning: string) {
+  const user = (await User.findByPk(ctx.actor!.id, { transaction }))!;
+  if (!(await checkPassword(password, user.passwordHash))) {
+    throw new AppError(400, 'signature_refused', 'The password does not match: nothing was signed or changed.', {
+      password: 'That is not your password.',
+    });
+  }
+  const s = await Signature.create(
+    {
+      userId: user.id,
+      printedName: user.name,
+      meaning,
+      entity: 'nonconformance',
+      entityId: ncr.number,
+      signedAt: new Date(),
+    },
+    { transaction },
+  );
+  return { user, signature: s };
+}
+
+/**
+ * Lets the item go when no open NCR holds it any more. After a use-as-is on a failing result the
+ * part carries on past the stage it failed; a concern raised by hand puts it back as it was.
+ */
+async function releaseIfClear(ctx: Ctx, transaction: Transaction, item: Item, ncr: Nonconformance) {
+  if (item.status === 'scrapped') return;
+  const still = await blockingNcrsOf(item.id, undefined, transaction);
+  if (still.length) return;
+  const before = { status: item.status, currentStage: item.currentStageId };
+  let next: Partial<Item>;
+  const result = ncr.stageResultId ? await StageResult.findByPk(ncr.stageResultId, { transaction }) : null;
+  // a use-as-is accepts the failure; a void after a passing correction means the stage was passed
+  const corrected = result
+    ? await StageResult.findOne({ where: { supersedesId: result.id, verdict: 'pass' }, transaction })
+    : null;
+  if (result && (ncr.disposition === 'use_as_is' || corrected)) {
+    const route = await routeFor(item.engineFamilyId, item.kind, transaction);
+    const steps = route?.steps ?? [];
+    const at = steps.findIndex((s) => s.stageId === result.stageId);
+    const following = steps[at + 1];
+    next = following
+      ? { status: 'in_process', currentStageId: following.stageId }
+      : { status: 'finished', currentStageId: null };
+  } else {
+    const back = ncr.itemStatusBefore && ncr.itemStatusBefore !== 'on_hold' ? ncr.itemStatusBefore : 'in_process';
+    next = { status: back };
+  }
+  if (next.status === item.status && (next.currentStageId ?? item.currentStageId) === item.currentStageId) return;
+  await item.update(next, { transaction });
+  await recordAudit(ctx, transaction, {
+    action: 'item.released_from_hold',
+    entity: 'item',
+    entityId: item.serial,
+    before,
+    after: { status: item.status, currentStage: item.currentStageId, byNcr: ncr.number },
+  });
+}
+
+async function lockedItem(ncr: Nonconformance, transaction: Transaction) {
+  return ncr.itemId ? Item.findByPk(ncr.itemId, { transaction, lock: transaction.LOCK.UPDATE }) : null;
+}
+
+/** Locks the item before the NCR (the order every writer uses), then runs the step. */
+async function step<T>(
+  sequelize: Sequelize,
+  number: string,
+  fn: (t: Transaction, ncr: Nonconformance, item: Item | null) => Promise<T>,
+): Promise<T> {
+  return sequelize.transaction(async (transaction) => {
+    const peek = await findNcr(number, transaction);
+    const item = await lockedItem(peek, transaction);
+    const ncr = await findNcr(number, transaction, true);
+    return fn(transaction, ncr, item);
+  });
+}
+
+export async function startReview(sequelize: Sequelize, ctx: Ctx, number: string, note: string) {
+  await step(sequelize, number, async (t, ncr) => {
+    if (ncr.state !== 'raised') refuse(ncr, 'review', ctx);
+    await transition(ctx, t, ncr, 'in_review', note || 'Review started', {
+      assigneeId: ncr.assigneeId ?? ctx.actor!.id,
+    });
+  });
+  return ncrDetail(number, ctx);
+}
+
+export async function assignNcr(sequelize: Sequelize, ctx: Ctx, number: string, assigneeId: number | null) {
+  await step(sequelize, number, async (t, ncr) => {
+    if (!OPEN_NCR_STATES.includes(ncr.state as NcrState)) refuse(ncr, 'review', ctx);
+    if (assigneeId) {
+      const u = await User.findByPk(assigneeId, { transaction: t });
+      if (!u || !u.active || !can(u.role, 'ncr.disposition')) {
+        throw invalid('Assign the NCR to an active quality engineer.', { assigneeId: 'Not a quality engineer.' });
+      }
+    }
+    const before = { assigneeId: ncr.assigneeId };
+    await ncr.update({ assigneeId }, { transaction: t });
+    await recordAudit(ctx, t, {
+      action: 'ncr.assigned',
+      entity: 'nonconformance',
+      entityId: ncr.number,
+      before,
+      after: { assigneeId },
+    });
+  });
+  return ncrDetail(number, ctx);
+}
+
+export async function updateContainment(sequelize: Sequelize, ctx: Ctx, number: string, containment: string) {
+  await step(sequelize, number, async (t, ncr) => {
+    if (!OPEN_NCR_STATES.includes(ncr.state as NcrState)) {
+      throw conflict(`${ncr.number} is ${ncr.state}: its containment note is part of the closed record.`);
+    }
+    const before = { containment: ncr.containment };
+    await ncr.update({ containment }, { transaction: t });
+    await recordAudit(ctx, t, {
+      action: 'ncr.containment',
+      entity: 'nonconformance',
+      entityId: ncr.number,
+      before,
+      after: { containment },
+    });
+  });
+  return ncrDetail(number, ctx);
+}
+
+async function decidedMail(t: Transaction, ncr: Nonconformance, serial: string, decider: string): Promise<Mail[]> {
+  const raiser = await User.findByPk(ncr.raisedById, { attributes: ['email', 'name', 'active'], transaction: t });
+  if (!raiser?.active) return [];
+  return [
+    {
+      to: raiser.email,
+      subject: `NCR ${ncr.number} on ${serial}: ${DISPOSITION_LABELS[ncr.disposition!]}`,
+      text: [
+        `${decider} decided ${ncr.number}, which you raised on ${serial}: ${DISPOSITION_LABELS[ncr.disposition!].toLowerCase()}.`,
+        '',
+        'Reason:',
+        quoted(ncr.dispositionReason ?? ''),
+        '',
+        `Open it: ${ncrLink(ncr.number)}`,
+        '',
+        '— Coretrail',
+      ].join('\n'),
+      reason: 'ncr.decided',
+    },
+  ];
+}
+
+/** Carries out a decision once it is fully signed: rework sends the part back, scrap ends it. */
+async function carryOut(ctx: Ctx, t: Transaction, ncr: Nonconformance, item: Item | null, signer: string) {
+  await transition(ctx, t, ncr, 'decided', `${DISPOSITION_LABELS[ncr.disposition!]}: ${ncr.dispositionReason ?? ''}`, {
+    awaitingSecondSignature: false,
+    decidedAt: new Date(),
+  });
+  const serial = item?.serial ?? '';
+  await enqueueMail(t, await decidedMail(t, ncr, serial, signer));
+  if (!item) return;
+  switch (ncr.disposition) {
+    case 'rework':
+    case 'repair': {
+      const before = { status: item.status, currentStage: item.currentStageId };
+      await item.update({ status: 'on_hold', currentStageId: ncr.reworkStageId }, { transaction: t });
+      await recordAudit(ctx, t, {
+        action: 'item.sent_back',
+        entity: 'item',
+        entityId: item.serial,
+        before,
+        after: { currentStage: ncr.reworkStageId, byNcr: ncr.number, disposition: ncr.disposition },
+      });
+      // with no other NCR holding it, the part may now be recorded at the rework stage
+      if (!(await blockingNcrsOf(item.id, ncr.reworkStageId!, t)).length) {
+        await item.update({ status: 'in_process' }, { transaction: t });
+      }
+      return;
+    }
+    case 'scrap': {
+      const before = { status: item.status };
+      await item.update({ status: 'scrapped', currentStageId: null }, { transaction: t });
+      await recordAudit(ctx, t, {
+        action: 'item.scrapped',
+        entity: 'item',
+        entityId: item.serial,
+        before,
+        after: { status: 'scrapped', byNcr: ncr.number },
+      });
+      await transition(ctx, t, ncr, 'closed', 'Scrapped: nothing further to do');
+      return;
+    }
+    case 'use_as_is':
+    case 'return_to_supplier': {
+      await transition(ctx, t, ncr, 'closed', `${DISPOSITION_LABELS[ncr.disposition]}: closed on decision`);
+      await releaseIfClear(ctx, t, item, ncr);
+      return;
+    }
+  }
+}
+
+export async function disposition(sequelize: Sequelize, ctx: Ctx, number: string, body: DispositionBody) {
+  await step(sequelize, number, async (t, ncr, item) => {
+    if (ncr.state !== 'in_review' || ncr.awaitingSecondSignature) refuse(ncr, 'disposition', ctx);
+    if (body.disposition === 'return_to_supplier' && !ncr.partLotId) {
+      throw invalid('Return to supplier is for purchased lots; this NCR is on a part the plant remanufactures.', {
+        disposition: 'Only for a purchased lot.',
+      });
+    }
+    let reworkStageId: number | null = null;
+    if (body.reworkStage && item) {
+      const stage = await Stage.findOne({ where: { code: body.reworkStage }, transaction: t });
+      const route = await routeFor(item.engineFamilyId, item.kind, t);
+      if (!stage || !route?.steps.some((s) => s.stageId === stage.id)) {
+        throw invalid(`Choose a stage on the route of ${item.serial}.`, { reworkStage: 'Not on this part’s route.' });
+      }
+      reworkStageId = stage.id;
+    }
+    const critical = ncr.severity === 'critical' && body.disposition === 'use_as_is';
+    const { user } = await sign(
+      ctx,
+      t,
+      ncr,
+      body.password,
+      `${critical ? 'First signature: ' : ''}${DISPOSITION_LABELS[body.disposition]} on ${ncr.number}`,
+    );
+    await ncr.update(
+      {
+        disposition: body.disposition,
+        dispositionReason: body.reason,
+        reworkStageId,
+        decidedById: user.id,
+        awaitingSecondSignature: critical,
+      },
+      { transaction: t },
+    );
+    if (critical) {
+      await recordAudit(ctx, t, {
+        action: 'ncr.first_signature',
+        entity: 'nonconformance',
+        entityId: ncr.number,
+        after: { disposition: body.disposition, reason: body.reason, signedBy: user.name },
+      });
+      return;
+    }
+    await carryOut(ctx, t, ncr, item, user.name);
+  });
+  return ncrDetail(number, ctx);
+}
+
+export async function countersign(
+  sequelize: Sequelize,
+  ctx: Ctx,
+  number: string,
+  body: { reason: string; password: string },
+) {
+  await step(sequelize, number, async (t, ncr, item) => {
+    if (ncr.state !== 'in_review' || !ncr.awaitingSecondSignature) refuse(ncr, 'countersign', ctx);
+    if (ncr.decidedById === ctx.actor!.id) {
+      throw conflict('A critical use-as-is needs a second quality engineer: the first signer cannot sign again.', {
+        reason: 'same_signer',
+      });
+    }
+    const { user } = await sign(ctx, t, ncr, body.password, `Second signature: use as is on ${ncr.number}`);
+    await recordAudit(ctx, t, {
+      action: 'ncr.second_signature',
+      entity: 'nonconformance',
+      entityId: ncr.number,
+      after: { signedBy: user.name, reason: body.reason },
+    });
+    await carryOut(ctx, t, ncr, item, user.name);
+  });
+  return ncrDetail(number, ctx);
+}
+
+/** A rework or repair closes only after a new passing result at the stage it went back to. */
+export async function closeNcr(sequelize: Sequelize, ctx: Ctx, number: string, note: string) {
+  await step(sequelize, number, async (t, ncr, item) => {
+    if (ncr.state !== 'decided') refuse(ncr, 'close', ctx);
+    const proof = await reworkProof(ncr, t);
+    if (!proof) {
+      const stage = ncr.reworkStageId ? await Stage.findByPk(ncr.reworkStageId, { transaction: t }) : null;
+      throw conflict(
+        `${ncr.number} can close only after a new passing result at ${stage?.name ?? 'the rework stage'}.`,
+        {
+          reason: 'rework_not_passed',
+        },
+      );
+    }
+    await transition(ctx, t, ncr, 'closed', note || `Rework passed: result ${proof.id}`);
+    if (item) await releaseIfClear(ctx, t, item, ncr);
+  });
+  return ncrDetail(number, ctx);
+}
+
+async function reworkProof(ncr: Nonconformance, transaction: Transaction) {
+  if (!ncr.itemId || !ncr.reworkStageId || !ncr.decidedAt) return null;
+  return StageResult.findOne({
+    where: { itemId: ncr.itemId, stageId: ncr.reworkStageId, verdict: 'pass', createdAt: { [Op.gt]: ncr.decidedAt } },
+    order: [['id', 'DESC']],
+    transaction,
+  });
+}
+
+/**
+ * Called inside a station result's transaction: a result at the stage a rework sent the part back to
+ * closes that NCR when it passes; when it fails, the new failure raises its own NCR, and the old one
+ * closes pointing at it.
+ */
+export async function settleRework(
+  ctx: Ctx,
+  transaction: Transaction,
+  item: Item,
+  stageId: number,
+  result: StageResult,
+  newNcr: Nonconformance | null,
+) {
+  const waiting = await Nonconformance.findAll({
+    where: {
+      itemId: item.id,
+      state: 'decided',
+      reworkStageId: stageId,
+      disposition: { [Op.in]: ['rework', 'repair'] },
+    },
+    transaction,
+    lock: transaction.LOCK.UPDATE,
+  });
+  for (const ncr of waiting) {
+    await transition(
+      ctx,
+      transaction,
+      ncr,
+      'closed',
+      result.verdict === 'pass'
+        ? `Rework passed: result ${result.id}`
+        : `Rework failed: result ${result.id}; carried on as ${newNcr?.number ?? 'a new NCR'}`,
+    );
+  }
+  return waiting.map((n) => n.number);
+}
+
+export async function voidNcr(sequelize: Sequelize, ctx: Ctx, number: string, reason: string) {
+  await step(sequelize, number, async (t, ncr, item) => {
+    if (!['raised', 'in_review'].includes(ncr.state)) refuse(ncr, 'void', ctx);
+    if (ncr.stageResultId) {
+      const superseded = await StageResult.findOne({
+        where: { supersedesId: ncr.stageResultId, verdict: 'pass' },
+        transaction: t,
+      });
+      if (!superseded) {
+        throw conflict(
+          `${ncr.number} was raised by a failing result: a recorded failure is a fact. Disposition it, or correct the result first if the reading was wrong.`,
+          { reason: 'raised_by_result' },
+        );
+      }
+    }
+    await transition(ctx, t, ncr, 'voided', reason, { awaitingSecondSignature: false });
+    if (item) await releaseIfClear(ctx, t, item, ncr);
+  });
+  return ncrDetail(number, ctx);
 }

@@ -30,7 +30,13 @@ import {
 } from '../models/index.js';
 import { claimUploads, presentAttachment } from './attachments.js';
 import { findBySerial, presentItem, routeFor } from './items.js';
-import { openNcrsOf, raiseNonconformance, type FailingReading } from './nonconformances.js';
+import {
+  blockingNcrsOf,
+  openNcrsOf,
+  raiseNonconformance,
+  settleRework,
+  type FailingReading,
+} from './nonconformances.js';
 import { formCharacteristics } from './spec.js';
 
 type Route = NonNullable<Awaited<ReturnType<typeof routeFor>>>;
@@ -168,7 +174,7 @@ export async function stationForm(stationCode: string, serial: string): Promise<
   const family = (await EngineFamily.findByPk(item.engineFamilyId))!;
   const [route, holds, reentry, gauges, current] = await Promise.all([
     routeFor(item.engineFamilyId, item.kind),
-    openNcrsOf(item.id),
+    blockingNcrsOf(item.id, stage.id),
     openReentry(item.id),
     gaugeChoices(),
     currentResultAt(item.id, stage.id),
@@ -314,7 +320,7 @@ export async function submitResult(
     const item = (await Item.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
     const family = (await EngineFamily.findByPk(item.engineFamilyId, { transaction }))!;
     const route = await routeFor(item.engineFamilyId, item.kind, transaction);
-    const holds = await openNcrsOf(item.id, transaction);
+    const holds = await blockingNcrsOf(item.id, stage.id, transaction);
     const reentry = await openReentry(item.id, transaction);
 
     let supersedes: StageResult | null = null;
@@ -459,6 +465,7 @@ export async function submitResult(
       ncr = await raiseNonconformance(sequelize, ctx, transaction, {
         itemId: item.id,
         itemSerial: item.serial,
+        itemStatusBefore: before.status,
         stageId: stage.id,
         stageResultId: result.id,
         severity: critical ? 'critical' : 'major',
@@ -476,6 +483,8 @@ export async function submitResult(
         { transaction },
       );
     }
+
+    if (!supersedes) await settleRework(ctx, transaction, item, stage.id, result, ncr);
 
     await recordAudit(ctx, transaction, {
       action: supersedes ? 'result.corrected' : 'result.recorded',

@@ -75,8 +75,8 @@ export const createDraftBody = z.strictObject({
 export const updateDraftBody = z.strictObject({ limits: ruleLimits });
 
 export const approveRuleBody = z.strictObject({
-  reason: z.string().trim().min(5, 'Say why, in at least 5 characters.').max(500, 'At most 500 characters.'),
-  password: z.string().min(1, 'Enter your password to sign.').max(200),
+  reason: z.string('Say why.').trim().min(5, 'Say why, in at least 5 characters.').max(500, 'At most 500 characters.'),
+  password: z.string('Enter your password to sign.').min(1, 'Enter your password to sign.').max(200),
   /** When the new version takes over; now when left out. Never in the past. */
   effectiveFrom: z.iso.datetime({ offset: true, error: 'Use a date and time like 2026-12-02T08:00:00Z.' }).optional(),
 });

@@ -1,0 +1,153 @@
+import type { Sequelize } from 'sequelize';
+import {
+  assignBody,
+  closeBody,
+  containmentBody,
+  countersignBody,
+  dispositionBody,
+  ncrListQuery,
+  ncrParam,
+  raiseNcrBody,
+  reviewBody,
+  voidBody,
+} from '../../shared/schemas/ncr.js';
+import type { Api } from '../http/api.js';
+import { csvCell } from '../services/intake.js';
+import {
+  assignNcr,
+  closeNcr,
+  countersign,
+  disposition,
+  listNcrs,
+  ncrDetail,
+  raiseConcern,
+  startReview,
+  updateContainment,
+  voidNcr,
+} from '../services/nonconformances.js';
+
+const CSV_COLUMNS = [
+  ['number', 'NCR'],
+  ['state', 'State'],
+  ['severity', 'Severity'],
+  ['serial', 'Serial'],
+  ['familyCode', 'Family'],
+  ['stageName', 'Stage'],
+  ['defectCode', 'Defect code'],
+  ['disposition', 'Disposition'],
+  ['raisedBy', 'Raised by'],
+  ['assignee', 'Assignee'],
+  ['raisedAt', 'Raised at (UTC)'],
+  ['ageDays', 'Age (days)'],
+  ['description', 'Description'],
+] as const;
+
+export function ncrRoutes(api: Api, sequelize: Sequelize) {
+  api.define({
+    method: 'get',
+    path: '/ncrs',
+    access: 'ncr.read',
+    summary: 'The NCR list: filter by state, severity, defect code, family, stage, age, assignee or text; sort; page.',
+    query: ncrListQuery,
+    handler: ({ query }) => listNcrs(sequelize, query),
+  });
+  api.define({
+    method: 'get',
+    path: '/ncrs/export.csv',
+    access: 'ncr.read',
+    summary: 'The NCR list with the same filters, every row, as CSV.',
+    query: ncrListQuery,
+    handler: async ({ query, res }) => {
+      const { rows } = await listNcrs(sequelize, query, { all: true });
+      const lines = [
+        CSV_COLUMNS.map(([, h]) => h).join(','),
+        ...rows.map((r) => CSV_COLUMNS.map(([k]) => csvCell(r[k])).join(',')),
+      ];
+      res.setHeader('Content-Type', 'text/csv; charset=utf-8');
+      res.setHeader('Content-Disposition', 'attachment; filename="ncrs.csv"');
+      res.send(`\ufeff${lines.join('\r\n')}\r\n`);
+      return undefined;
+    },
+  });
+  api.define({
+    method: 'post',
+    path: '/ncrs',
+    access: 'ncr.raise',
+    summary: 'Raise a concern about a part by hand (what was seen, severity, defect code, photos); it goes on hold.',
+    body: raiseNcrBody,
+    status: 201,
+    handler: ({ ctx, body }) => raiseConcern(sequelize, ctx, body),
+  });
+  api.define({
+    method: 'get',
+    path: '/ncrs/:number',
+    access: 'ncr.read',
+    summary: "One NCR: its item, failing readings, timeline, signatures, photos and the viewer's possible next steps.",
+    params: ncrParam,
+    handler: ({ ctx, params }) => ncrDetail(params.number, ctx),
+  });
+  api.define({
+    method: 'post',
+    path: '/ncrs/:number/review',
+    access: 'ncr.disposition',
+    summary: 'Start reviewing a raised NCR (assigns it to you if nobody has it).',
+    params: ncrParam,
+    body: reviewBody,
+    handler: ({ ctx, params, body }) => startReview(sequelize, ctx, params.number, body.note),
+  });
+  api.define({
+    method: 'post',
+    path: '/ncrs/:number/assign',
+    access: 'ncr.disposition',
+    summary: 'Assign an open NCR to a quality engineer, or to nobody.',
+    params: ncrParam,
+    body: assignBody,
+    handler: ({ ctx, params, body }) => assignNcr(sequelize, ctx, params.number, body.assigneeId),
+  });
+  api.define({
+    method: 'post',
+    path: '/ncrs/:number/containment',
+    access: 'ncr.disposition',
+    summary: 'Record the containment taken while an NCR is open.',
+    params: ncrParam,
+    body: containmentBody,
+    handler: ({ ctx, params, body }) => updateContainment(sequelize, ctx, params.number, body.containment),
+  });
+  api.define({
+    method: 'post',
+    path: '/ncrs/:number/disposition',
+    access: 'ncr.disposition',
+    summary:
+      'Decide an NCR under review, signed with your password: use as is, rework, repair, scrap, return to supplier.',
+    params: ncrParam,
+    body: dispositionBody,
+    handler: ({ ctx, params, body }) => disposition(sequelize, ctx, params.number, body),
+  });
+  api.define({
+    method: 'post',
+    path: '/ncrs/:number/countersign',
+    access: 'ncr.disposition',
+    summary: 'Second signature on a critical use-as-is, by a different quality engineer.',
+    params: ncrParam,
+    body: countersignBody,
+    handler: ({ ctx, params, body }) => countersign(sequelize, ctx, params.number, body),
+  });
+  api.define({
+    method: 'post',
+    path: '/ncrs/:number/close',
+    access: 'ncr.disposition',
+    summary: 'Close a decided rework or repair once the part has passed the stage again.',
+    params: ncrParam,
+    body: closeBody,
+    handler: ({ ctx, params, body }) => closeNcr(sequelize, ctx, params.number, body.note),
+  });
+  api.define({
+    method: 'post',
+    path: '/ncrs/:number/void',
+    access: 'ncr.disposition',
+    summary: 'Void an NCR raised in error, with a reason; the part is released if nothing else holds it.',
+    params: ncrParam,
+    body: voidBody,
+    handler: ({ ctx, params, body }) => voidNcr(sequelize, ctx, params.number, body.reason),
+  });
+}

@@ -1,0 +1,168 @@
+import { z } from 'zod';
+import type { AttachmentJson } from './attachments.js';
+import { paging } from './common.js';
+import type { ItemJson } from './items.js';
+
+/** Nonconformances (NCRs): states of Coretrail's own naming, dispositions in the trade's terms. */
+
+export const NCR_STATES = ['raised', 'in_review', 'decided', 'closed', 'voided'] as const;
+export type NcrState = (typeof NCR_STATES)[number];
+export const NCR_STATE_LABELS: Record<NcrState, string> = {
+  raised: 'Raised',
+  in_review: 'In review',
+  decided: 'Decided',
+  closed: 'Closed',
+  voided: 'Voided',
+};
+/** An NCR in one of these states holds its item. */
+export const OPEN_NCR_STATES: NcrState[] = ['raised', 'in_review', 'decided'];
+
+export const SEVERITIES = ['critical', 'major', 'minor'] as const;
+export type Severity = (typeof SEVERITIES)[number];
+
+export const DISPOSITIONS = ['use_as_is', 'rework', 'repair', 'scrap', 'return_to_supplier'] as const;
+export type Disposition = (typeof DISPOSITIONS)[number];
+export const DISPOSITION_LABELS: Record<Disposition, string> = {
+  use_as_is: 'Use as is',
+  rework: 'Rework',
+  repair: 'Repair',
+  scrap: 'Scrap',
+  return_to_supplier: 'Return to supplier',
+};
+
+/** The steps a person can take on an NCR; the server answers an impossible one with the possible ones. */
+export const NCR_ACTIONS = ['review', 'disposition', 'countersign', 'close', 'void'] as const;
+export type NcrAction = (typeof NCR_ACTIONS)[number];
+
+const reasonText = (min: number, what: string) =>
+  z
+    .string(`Say ${what}.`)
+    .trim()
+    .min(min, `Say ${what}, in at least ${min} characters.`)
+    .max(2000, 'At most 2000 characters.');
+
+export const raiseNcrBody = z.strictObject({
+  serial: z
+    .string('Scan or type the serial of the part.')
+    .trim()
+    .min(1, 'Scan or type the serial of the part.')
+    .max(24),
+  description: reasonText(10, 'what was seen'),
+  severity: z.enum(SEVERITIES, 'Choose how serious it is.'),
+  defectCode: z.string('Choose a defect code.').trim().min(1, 'Choose a defect code.').max(20),
+  containment: z.string().trim().max(2000).default(''),
+  photoIds: z.array(z.number().int().positive()).max(10, 'At most 10 photos.').default([]),
+});
+export type RaiseNcrBody = z.output<typeof raiseNcrBody>;
+
+export const ncrParam = z.strictObject({
+  number: z
+    .string()
+    .trim()
+    .toUpperCase()
+    .regex(/^NC-\d{4}-\d{5,}$/, 'An NCR number looks like NC-2026-00042.'),
+});
+
+export const reviewBody = z.strictObject({ note: z.string().trim().max(2000).default('') });
+export const assignBody = z.strictObject({ assigneeId: z.number().int().positive().nullable() });
+export const containmentBody = z.strictObject({ containment: z.string().trim().max(2000) });
+
+const password = z.string('Enter your password to sign.').min(1, 'Enter your password to sign.').max(200);
+
+export const dispositionBody = z
+  .strictObject({
+    disposition: z.enum(DISPOSITIONS, 'Choose a disposition.'),
+    reason: reasonText(5, 'why'),
+    /** For rework and repair: the stage the item goes back to. */
+    reworkStage: z.string().trim().min(1).max(40).optional(),
+    password,
+  })
+  .superRefine((b, ctx) => {
+    if ((b.disposition === 'rework' || b.disposition === 'repair') && !b.reworkStage) {
+      ctx.addIssue({ code: 'custom', path: ['reworkStage'], message: 'Choose the stage the part goes back to.' });
+    }
+    if (b.disposition !== 'rework' && b.disposition !== 'repair' && b.reworkStage) {
+      ctx.addIssue({ code: 'custom', path: ['reworkStage'], message: 'Only rework and repair send a part back.' });
+    }
+  });
+export type DispositionBody = z.output<typeof dispositionBody>;
+
+export const countersignBody = z.strictObject({ reason: reasonText(5, 'why you agree'), password });
+export const closeBody = z.strictObject({ note: z.string().trim().max(2000).default('') });
+export const voidBody = z.strictObject({ reason: reasonText(5, 'why it was raised in error') });
+
+export const NCR_SORTS = ['raised', 'number', 'severity', 'state', 'serial'] as const;
+export const ncrListQuery = z.strictObject({
+  ...paging,
+  state: z.enum([...NCR_STATES, 'open']).optional(),
+  severity: z.enum(SEVERITIES).optional(),
+  defect: z.string().trim().max(20).optional(),
+  family: z.coerce.number().int().positive().optional(),
+  stage: z.string().trim().max(40).optional(),
+  /** Raised at least this many days ago. */
+  olderThanDays: z.coerce.number().int().min(0).max(3650).optional(),
+  assignee: z.union([z.coerce.number().int().positive(), z.literal('none')]).optional(),
+  q: z.string().trim().max(60).optional(),
+  sort: z.enum(NCR_SORTS).default('raised'),
+  dir: z.enum(['asc', 'desc']).default('desc'),
+});
+export type NcrListQuery = z.output<typeof ncrListQuery>;
+
+export type NcrRow = {
+  number: string;
+  state: NcrState;
+  severity: Severity;
+  serial: string | null;
+  itemKind: string | null;
+  familyCode: string | null;
+  stageCode: string | null;
+  stageName: string | null;
+  defectCode: string | null;
+  description: string;
+  disposition: Disposition | null;
+  raisedBy: string;
+  assignee: string | null;
+  raisedAt: string;
+  ageDays: number;
+};
+
+export type NcrTimelineEntry = {
+  at: string;
+  from: NcrState | null;
+  to: NcrState;
+  actor: string;
+  reason: string;
+};
+
+export type NcrSignature = { printedName: string; meaning: string; signedAt: string };
+
+export type NcrDetail = NcrRow & {
+  failing: {
+    characteristic: string;
+    name: string;
+    position: string;
+    positionLabel: string;
+    value: number | null;
+    passed: boolean | null;
+    unit: string | null;
+    lower: number | null;
+    upper: number | null;
+    reason: string;
+    ruleVersion: number | null;
+    location: string | null;
+  }[];
+  containment: string;
+  dispositionReason: string | null;
+  reworkStage: { code: string; name: string } | null;
+  awaitingSecondSignature: boolean;
+  decidedBy: string | null;
+  decidedAt: string | null;
+  closedAt: string | null;
+  stageResultId: number | null;
+  item: ItemJson | null;
+  timeline: NcrTimelineEntry[];
+  signatures: NcrSignature[];
+  photos: AttachmentJson[];
+  /** What the signed-in person may do next. */
+  allowed: NcrAction[];
+};
