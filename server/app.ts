@@ -12,6 +12,7 @@ import { requestId } from './middleware/request-id.js';
 import { attachmentRoutes } from './routes/attachments.js';
 import { setAppUrl } from './mail/links.js';
 import { ncrRoutes } from './routes/ncrs.js';
+import { unitRoutes } from './routes/units.js';
 import { mailRoutes } from './routes/mail.js';
 import { specRoutes } from './routes/spec.js';
 import { stationRoutes } from './routes/station.js';
@@ -101,6 +102,7 @@ export function createApp({
   stationRoutes(api, sequelize);
   specRoutes(api, sequelize);
   ncrRoutes(api, sequelize);
+  unitRoutes(api, sequelize);
   mailRoutes(api, sequelize, config);
   router.use((req, res) => {
     res.status(404).json({

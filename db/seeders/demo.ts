@@ -213,6 +213,7 @@ async function seedSpecBook(
         physicalMax: c.physical?.[1] ?? null,
         defectCode: c.defectCode,
         help: c.help ?? '',
+        optional: c.optional ?? false,
       },
       { transaction },
     );

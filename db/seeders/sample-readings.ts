@@ -12,7 +12,8 @@ export function passingReadings(
 ): ReadingInput[] {
   const out: ReadingInput[] = [];
   for (const c of form.characteristics) {
-    if (c.kind === 'derived') continue;
+    // optional characteristics (torque on a stand without a dynamometer) are left out
+    if (c.kind === 'derived' || c.optional) continue;
     for (const p of c.positions) {
       if (c.kind === 'attribute') {
         out.push({ characteristic: c.code, position: p.code, passed: true });

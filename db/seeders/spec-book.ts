@@ -22,6 +22,7 @@ export type SeedCharacteristic = {
   physical?: [number, number];
   defectCode: string;
   help?: string;
+  optional?: boolean;
 };
 
 const once: PositionScheme = { per: 'part' };
@@ -117,6 +118,175 @@ const deckChecks = (stage: string, what: string): SeedCharacteristic[] => [
     positions: { per: 'deck' },
     physical: [0, 1000],
     defectCode: 'FIN',
+  },
+];
+
+const TTY_HELP =
+  'Torque-to-yield: torque first, then turn the stated angle. These bolts stretch past yield and are never reused.';
+const fastener = (
+  code: string,
+  name: string,
+  positions: PositionScheme,
+  angle: boolean,
+  help = '',
+): SeedCharacteristic[] => [
+  {
+    stage: 'long-block-assembly',
+    code: `${code}-torque`,
+    name: `${name} torque`,
+    kind: 'variable',
+    unit: 'lbf·ft',
+    resolution: 1,
+    positions,
+    physical: [0, 400],
+    defectCode: 'OOT',
+    help: angle ? TTY_HELP : help,
+  },
+  ...(angle
+    ? [
+        {
+          stage: 'long-block-assembly',
+          code: `${code}-angle`,
+          name: `${name} angle`,
+          kind: 'variable' as const,
+          unit: 'deg',
+          resolution: 1,
+          positions,
+          physical: [0, 360] as [number, number],
+          defectCode: 'OOT',
+          help: TTY_HELP,
+        },
+      ]
+    : []),
+];
+
+const ASSEMBLY: SeedCharacteristic[] = [
+  {
+    stage: 'long-block-assembly',
+    code: 'tty-new',
+    name: 'Torque-to-yield bolts are new, not reused',
+    kind: 'attribute',
+    positions: once,
+    critical: true,
+    defectCode: 'OTHER',
+    help: TTY_HELP,
+  },
+  ...fastener('main-bolt', 'Main cap bolt', { per: 'main' }, true),
+  ...fastener('rod-bolt', 'Rod bolt', { per: 'cylinder' }, true),
+  ...fastener('head-bolt', 'Head bolt', { per: 'deck' }, true),
+  ...fastener('flywheel-bolt', 'Flywheel bolt', once, false),
+  ...fastener('rocker-bolt', 'Rocker shaft bolt', once, false),
+  {
+    stage: 'long-block-assembly',
+    code: 'main-oil-clearance',
+    name: 'Main bearing oil clearance',
+    kind: 'variable',
+    unit: 'in',
+    resolution: 0.0001,
+    positions: { per: 'main' },
+    physical: [0, 0.02],
+    defectCode: 'OOT',
+    help: 'Bearing inside diameter (installed, caps torqued) minus journal diameter.',
+  },
+  {
+    stage: 'long-block-assembly',
+    code: 'rod-oil-clearance',
+    name: 'Rod bearing oil clearance',
+    kind: 'variable',
+    unit: 'in',
+    resolution: 0.0001,
+    positions: { per: 'crankpin' },
+    physical: [0, 0.02],
+    defectCode: 'OOT',
+  },
+  {
+    stage: 'long-block-assembly',
+    code: 'ring-gap-top',
+    name: 'Top ring end gap',
+    kind: 'variable',
+    unit: 'in',
+    resolution: 0.001,
+    positions: { per: 'cylinder' },
+    physical: [0, 0.1],
+    defectCode: 'OOT',
+  },
+  {
+    stage: 'long-block-assembly',
+    code: 'ring-gap-second',
+    name: 'Second ring end gap',
+    kind: 'variable',
+    unit: 'in',
+    resolution: 0.001,
+    positions: { per: 'cylinder' },
+    physical: [0, 0.1],
+    defectCode: 'OOT',
+  },
+  {
+    stage: 'long-block-assembly',
+    code: 'bore-at-fit',
+    name: 'Bore at piston fit (middle, thrust)',
+    kind: 'variable',
+    unit: 'in',
+    resolution: 0.0001,
+    positions: { per: 'cylinder' },
+    physical: [2, 6],
+    defectCode: 'OOT',
+  },
+  {
+    stage: 'long-block-assembly',
+    code: 'piston-skirt',
+    name: 'Piston skirt diameter',
+    kind: 'variable',
+    unit: 'in',
+    resolution: 0.0001,
+    positions: { per: 'cylinder' },
+    physical: [2, 6],
+    defectCode: 'OOT',
+  },
+  {
+    stage: 'long-block-assembly',
+    code: 'piston-to-wall',
+    name: 'Piston-to-wall clearance',
+    kind: 'derived',
+    unit: 'in',
+    resolution: 0.0001,
+    positions: { per: 'cylinder' },
+    derivation: { fn: 'clearance', outer: 'bore-at-fit', inner: 'piston-skirt' },
+    defectCode: 'OOT',
+  },
+  {
+    stage: 'long-block-assembly',
+    code: 'end-play',
+    name: 'Crankshaft end play',
+    kind: 'variable',
+    unit: 'in',
+    resolution: 0.001,
+    positions: once,
+    physical: [0, 0.05],
+    defectCode: 'OOT',
+  },
+  {
+    stage: 'long-block-assembly',
+    code: 'cam-icl',
+    name: 'Intake centreline (degreed in)',
+    kind: 'variable',
+    unit: 'deg',
+    resolution: 0.5,
+    positions: once,
+    physical: [80, 140],
+    defectCode: 'OOT',
+    help: 'Degree wheel and dial indicator on the intake lifter: the crank angle of maximum lift.',
+  },
+  {
+    stage: 'long-block-assembly',
+    code: 'cam-advance',
+    name: 'Cam advance (lobe separation 110° on the card − intake centreline)',
+    kind: 'derived',
+    unit: 'deg',
+    resolution: 0.5,
+    positions: once,
+    derivation: { fn: 'offset', from: 110, of: 'cam-icl' },
+    defectCode: 'OOT',
   },
 ];
 
@@ -305,6 +475,7 @@ export const CHARACTERISTICS: SeedCharacteristic[] = [
     defectCode: 'LEAK',
     help: 'Vacuum cup on each port with the valve closed; read after the hold time.',
   },
+  ...ASSEMBLY,
   {
     stage: 'run-test',
     code: 'oil-pressure-idle',
@@ -366,6 +537,43 @@ export const CHARACTERISTICS: SeedCharacteristic[] = [
     kind: 'attribute',
     positions: once,
     defectCode: 'RUN',
+  },
+  {
+    stage: 'run-test',
+    code: 'torque',
+    name: 'Torque at the test speed',
+    kind: 'variable',
+    unit: 'lbf·ft',
+    resolution: 1,
+    positions: once,
+    physical: [0, 2000],
+    defectCode: 'RUN',
+    optional: true,
+    help: 'Only on a stand with a dynamometer.',
+  },
+  {
+    stage: 'run-test',
+    code: 'speed',
+    name: 'Test speed',
+    kind: 'variable',
+    unit: 'rpm',
+    resolution: 10,
+    positions: once,
+    physical: [0, 8000],
+    defectCode: 'RUN',
+    optional: true,
+  },
+  {
+    stage: 'run-test',
+    code: 'power',
+    name: 'Power (hp = lbf·ft × rpm ÷ 5252)',
+    kind: 'derived',
+    unit: 'hp',
+    resolution: 0.1,
+    positions: once,
+    derivation: { fn: 'power', torque: 'torque', rpm: 'speed' },
+    defectCode: 'RUN',
+    optional: true,
   },
   {
     stage: 'final-inspection',
@@ -438,6 +646,27 @@ const COMMON: Record<string, Seeded> = {
   'run-test/oil-pressure-2500': atLeast(25, 1, 'About 10 psi per 1000 rpm; common practice'),
   'run-test/compression': atLeast(120, 1, MEMORY),
   'run-test/compression-spread': atMost(10, 0.1, 'Within 10 % — common shop rule (brief: rules of thumb)'),
+  'run-test/torque': atLeast(0, 1, 'Recorded, not judged: any positive torque'),
+  'run-test/speed': range(1000, 3000, 10, 'The cell runs the engine between 1000 and 3000 rpm; from memory'),
+  'run-test/power': atLeast(50, 0.1, 'Illustrative floor for a warm engine at part throttle; from memory'),
+  'long-block-assembly/main-bolt-torque': nominal(37, 2, 1, 'Torque-to-yield: 37 lbf·ft then 140° (common practice)'),
+  'long-block-assembly/main-bolt-angle': nominal(140, 5, 1, 'Torque-to-yield: 37 lbf·ft then 140° (common practice)'),
+  'long-block-assembly/rod-bolt-torque': nominal(20, 2, 1, MEMORY),
+  'long-block-assembly/rod-bolt-angle': nominal(70, 5, 1, MEMORY),
+  'long-block-assembly/head-bolt-torque': nominal(22, 2, 1, MEMORY),
+  'long-block-assembly/head-bolt-angle': nominal(180, 5, 1, MEMORY),
+  'long-block-assembly/flywheel-bolt-torque': nominal(85, 2, 1, 'Flywheel bolts 85 lbf·ft (common practice)'),
+  'long-block-assembly/rocker-bolt-torque': nominal(22, 1, 1, 'Rocker shaft bolts 22 lbf·ft (common practice)'),
+  'long-block-assembly/rod-oil-clearance': range(0.0015, 0.0025, 0.0001, MEMORY),
+  'long-block-assembly/end-play': range(0.002, 0.008, 0.001, MEMORY),
+  'long-block-assembly/piston-to-wall': range(0.0015, 0.0025, 0.0001, MEMORY),
+  'long-block-assembly/cam-icl': nominal(
+    106,
+    1,
+    0.5,
+    'Cam card: 110° lobe separation, installed 4° advanced (106° ICL)',
+  ),
+  'long-block-assembly/cam-advance': nominal(4, 1, 0.5, 'Advance = LSA − ICL (common practice): 110 − 106 = 4°'),
 };
 
 /**
@@ -446,6 +675,33 @@ const COMMON: Record<string, Seeded> = {
  */
 const BY_FAMILY: Record<string, Record<string, Seeded>> = {
   'CORRIE-8': {
+    // 0.00075–0.0010 in per inch of a 2.449 in journal (bearing maker's rule of thumb, common practice)
+    'long-block-assembly/main-oil-clearance': range(
+      0.0018,
+      0.0025,
+      0.0001,
+      'Rule of thumb 0.00075–0.0010 in per inch of journal (common practice)',
+    ),
+    // top ring: bore × 0.0045 in/in = 4.030 × 0.0045 ≈ 0.018 in; second ≈ 1.25 × top (ring maker's guidance)
+    'long-block-assembly/ring-gap-top': range(
+      0.016,
+      0.022,
+      0.001,
+      'Bore × 0.0045 in/in ≈ 0.018 in (ring maker guidance, common practice)',
+    ),
+    'long-block-assembly/ring-gap-second': range(
+      0.02,
+      0.027,
+      0.001,
+      'About 1.25 × the top gap (ring maker guidance, common practice)',
+    ),
+    'long-block-assembly/bore-at-fit': nominal(4.03, 0.0005, 0.0001, 'As finished at bore and hone'),
+    'long-block-assembly/piston-skirt': nominal(
+      4.028,
+      0.0005,
+      0.0001,
+      `Invented piston for the 0.030 in oversize; ${MEMORY}`,
+    ),
     'bore-hone/bore': nominal(
       4.03,
       0.0005,
@@ -457,6 +713,31 @@ const BY_FAMILY: Record<string, Record<string, Seeded>> = {
     'crank-grind/rod-journal': nominal(2.099, 0.0005, 0.0001, `Invented journal, 0.010 in under; ${MEMORY}`),
   },
   'TARN-6': {
+    'long-block-assembly/main-oil-clearance': range(
+      0.0018,
+      0.0024,
+      0.0001,
+      'Rule of thumb 0.00075–0.0010 in per inch of journal (common practice)',
+    ),
+    'long-block-assembly/ring-gap-top': range(
+      0.015,
+      0.02,
+      0.001,
+      'Bore × 0.0045 in/in ≈ 0.0167 in (ring maker guidance, common practice)',
+    ),
+    'long-block-assembly/ring-gap-second': range(
+      0.018,
+      0.025,
+      0.001,
+      'About 1.25 × the top gap (ring maker guidance, common practice)',
+    ),
+    'long-block-assembly/bore-at-fit': nominal(3.7205, 0.0005, 0.0001, 'As finished at bore and hone'),
+    'long-block-assembly/piston-skirt': nominal(
+      3.7185,
+      0.0005,
+      0.0001,
+      `Invented piston for the 0.5 mm oversize; ${MEMORY}`,
+    ),
     'bore-hone/bore': nominal(
       3.7205,
       0.0005,

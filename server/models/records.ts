@@ -78,13 +78,18 @@ export class Shipment extends Model<InferAttributes<Shipment>, InferCreationAttr
   /** Calendar date as `YYYY-MM-DD`. */
   declare warrantyEndsOn: string | null;
   declare warrantyKm: number | null;
+  /** The day it left the dock (`YYYY-MM-DD`): the warranty term starts here. */
+  declare shipDate: string | null;
+  declare warrantyMonths: number | null;
+  /** Set when the unit comes back (a warranty return); until then it cannot ship again. */
+  declare returnedAt: Date | null;
   declare createdAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize) {
     Shipment.init(
       {
         id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
-        unitItemId: { type: DataTypes.INTEGER, allowNull: false, unique: true },
+        unitItemId: { type: DataTypes.INTEGER, allowNull: false },
         customerId: { type: DataTypes.INTEGER, allowNull: true },
         reference: { type: DataTypes.STRING(60), allowNull: false },
         carrier: { type: DataTypes.STRING(80), allowNull: true },
@@ -92,6 +97,9 @@ export class Shipment extends Model<InferAttributes<Shipment>, InferCreationAttr
         releasedById: { type: DataTypes.INTEGER, allowNull: false },
         warrantyEndsOn: { type: DataTypes.DATEONLY, allowNull: true },
         warrantyKm: { type: DataTypes.INTEGER, allowNull: true },
+        shipDate: { type: DataTypes.DATEONLY, allowNull: true },
+        warrantyMonths: { type: DataTypes.SMALLINT, allowNull: true },
+        returnedAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
       },
       { sequelize, tableName: 'shipments', underscored: true, updatedAt: false },

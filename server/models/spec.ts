@@ -35,6 +35,8 @@ export class Characteristic extends Model<InferAttributes<Characteristic>, Infer
   /** The defect code an NCR raised by this characteristic's failure carries. */
   declare defectCode: string | null;
   declare help: CreationOptional<string>;
+  /** Recorded when the station can (torque on a stand with a dynamometer); not required. */
+  declare optional: CreationOptional<boolean>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -56,6 +58,7 @@ export class Characteristic extends Model<InferAttributes<Characteristic>, Infer
         physicalMax: { type: DataTypes.DECIMAL(14, 6), allowNull: true },
         defectCode: { type: DataTypes.STRING(20), allowNull: true },
         help: { type: DataTypes.STRING(300), allowNull: false, defaultValue: '' },
+        optional: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

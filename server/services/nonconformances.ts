@@ -31,7 +31,9 @@ import {
 } from '../models/index.js';
 import { attachmentsOf, claimUploads } from './attachments.js';
 import { findBySerial, presentItem, routeFor } from './items.js';
+import { lockUnitOf } from './build.js';
 import { checkPassword } from './passwords.js';
+import { notifyIfReleasable } from './release.js';
 
 export { NCR_STATE_LABELS, OPEN_NCR_STATES };
 
@@ -185,6 +187,8 @@ export async function raiseNonconformance(
 export async function raiseConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNcrBody): Promise<NcrDetail> {
   const number = await sequelize.transaction(async (transaction) => {
     const found = await findBySerial(body.serial, transaction);
+    // the unit the part is in first, as the release gate locks it: an NCR cannot slip past a release
+    await lockUnitOf(found.id, transaction);
     const item = (await Item.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
     if (item.status === 'scrapped') throw conflict(`${item.serial} has been scrapped: there is nothing left to hold.`);
     const defect = await DefectCode.findOne({
@@ -461,6 +465,7 @@ async function releaseIfClear(ctx: Ctx, transaction: Transaction, item: Item, nc
   }
   if (next.status === item.status && (next.currentStageId ?? item.currentStageId) === item.currentStageId) return;
   await item.update(next, { transaction });
+  await notifyIfReleasable(item.sequelize as Sequelize, item.id, transaction);
   await recordAudit(ctx, transaction, {
     action: 'item.released_from_hold',
     entity: 'item',
@@ -471,7 +476,9 @@ async function releaseIfClear(ctx: Ctx, transaction: Transaction, item: Item, nc
 }
 
 async function lockedItem(ncr: Nonconformance, transaction: Transaction) {
-  return ncr.itemId ? Item.findByPk(ncr.itemId, { transaction, lock: transaction.LOCK.UPDATE }) : null;
+  if (!ncr.itemId) return null;
+  await lockUnitOf(ncr.itemId, transaction);
+  return Item.findByPk(ncr.itemId, { transaction, lock: transaction.LOCK.UPDATE });
 }
 
 /** Locks the item before the NCR (the order every writer uses), then runs the step. */

@@ -491,6 +491,7 @@ export async function formCharacteristics(
       physicalMin: num(c.physicalMin),
       physicalMax: num(c.physicalMax),
       rule: rule ? toRuleInForce(rule) : null,
+      optional: c.optional,
       help: c.help,
       defectCode: c.defectCode,
     };

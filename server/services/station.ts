@@ -29,6 +29,7 @@ import {
   User,
 } from '../models/index.js';
 import { claimUploads, presentAttachment } from './attachments.js';
+import { lockUnitOf } from './build.js';
 import { findBySerial, presentItem, routeFor } from './items.js';
 import {
   blockingNcrsOf,
@@ -264,7 +265,7 @@ function checkReadings(
     if (r.location) locations.set(key, r.location);
   });
   for (const c of chars) {
-    if (c.kind === 'derived') continue;
+    if (c.kind === 'derived' || c.optional) continue;
     for (const p of c.positions) {
       if (!entries[c.code]?.[p.code] && !fields[`${c.code}@${p.code}`]) {
         fields[`${c.code}@${p.code}`] = `Missing: ${p.label} — ${lower(c.name)}.`;
@@ -316,6 +317,8 @@ export async function submitResult(
 
     const { station, stage } = await stationByCode(body.station, transaction);
     const found = await findBySerial(body.serial, transaction);
+    // a part already in a unit: the unit's lock first, as the release gate takes it (no NCR slips past a release)
+    await lockUnitOf(found.id, transaction);
     // the part's row lock: a second tablet submitting the same part waits here, then sees the first
     const item = (await Item.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
     const family = (await EngineFamily.findByPk(item.engineFamilyId, { transaction }))!;

@@ -19,7 +19,11 @@ export type Derivation =
   /** (highest − lowest) / highest × 100 across all positions (common practice). */
   | { fn: 'spread_pct'; of: string }
   /** Spread of point heights against a reference plane. */
-  | { fn: 'flatness'; of: string };
+  | { fn: 'flatness'; of: string }
+  /** constant − value: cam advance = lobe separation on the card − measured intake centreline (common practice). */
+  | { fn: 'offset'; from: number; of: string }
+  /** Power from torque and speed: hp = lbf·ft × rpm / 5252.11 (derivation from 1 hp = 33 000 ft·lbf/min). */
+  | { fn: 'power'; torque: string; rpm: string };
 
 export type CharacteristicKind = 'variable' | 'attribute' | 'derived';
 
@@ -37,6 +41,8 @@ export type FormCharacteristic = {
   physicalMin: number | null;
   physicalMax: number | null;
   rule: RuleInForce | null;
+  /** May be left out; judged only when recorded. */
+  optional?: boolean;
 };
 
 /** What was typed: characteristic code → position code → a number or a pass/fail. */
@@ -113,6 +119,19 @@ export function deriveValue(
         .filter((s): s is { top: Decimal; bottom: Decimal } => !!s.top && !!s.bottom)
         .map((s) => s.top.minus(s.bottom).abs());
       return tapers.length ? Decimal.max(...tapers).toNumber() : null;
+    }
+    case 'offset': {
+      const v = typed(d.of).get(position);
+      return v === undefined ? null : new Decimal(d.from).minus(v).toNumber();
+    }
+    case 'power': {
+      const t = typed(d.torque).get(position);
+      const n = typed(d.rpm).get(position);
+      if (t === undefined || n === undefined) return null;
+      return new Decimal(t)
+        .times(n)
+        .div(new Decimal(33_000).div(new Decimal(2).times(Math.PI)))
+        .toNumber();
     }
     case 'clearance': {
       const at = (base: string, suffix?: string) => [base, suffix].filter(Boolean).join('/');
@@ -203,6 +222,13 @@ export function evaluateForm(
       }
     }
   }
+  const optional = new Set(characteristics.filter((c) => c.optional).map((c) => c.code));
+  // an optional characteristic left out is simply not recorded
+  const kept = readings.filter(
+    (r) => !(optional.has(r.characteristic) && r.verdict === null && r.value === null && r.passed === null),
+  );
+  readings.length = 0;
+  readings.push(...kept);
   const missing = readings.filter((r) => r.verdict === null).length;
   const verdict = readings.some((r) => r.verdict === 'fail') ? 'fail' : missing === 0 ? 'pass' : null;
   return { readings, verdict, missing };

@@ -67,7 +67,7 @@ function cylinderGroup(family: FamilyShape, c: number) {
 }
 
 function decksOf(family: FamilyShape, item: ItemShape): { code: string; label: string }[] {
-  if (item.kind === 'block' && family.layout === 'v') {
+  if ((item.kind === 'block' || item.kind === 'long_block') && family.layout === 'v') {
     return [
       { code: 'deck-l', label: 'Left deck' },
       { code: 'deck-r', label: 'Right deck' },

@@ -81,3 +81,65 @@ export async function pass(t: TestApp, cookie: string, station: string, serial: 
   if (res.status !== 201 || res.body.verdict !== 'pass') throw new Error(`pass failed: ${JSON.stringify(res.body)}`);
   return res.body;
 }
+
+export const CRANK_STATIONS = ['CLN-2', 'MPI-2', 'CG-1'];
+export const HEAD_STATIONS = ['CLN-3', 'MPI-3', 'PT-2', 'DK-2', 'VS-1', 'HA-1'];
+
+/** Parts of one core that have finished their routes, ready to build. */
+export async function finishedParts(t: TestApp, cookies: { receiving: string; operator: string }, familyCode: string) {
+  const parts = await tornDownCore(t, cookies, familyCode);
+  await passThrough(t, cookies.operator, BLOCK_STATIONS, parts.block);
+  await passThrough(t, cookies.operator, CRANK_STATIONS, parts.crankshaft);
+  for (const h of parts.heads) await passThrough(t, cookies.operator, HEAD_STATIONS, h);
+  return parts;
+}
+
+/** The nine purchased lots a long block takes; pistons at the given oversize. */
+export async function lotsFor(oversizeIn: number, tag = 'T') {
+  const { Supplier } = await import('../../server/models/index.js');
+  const suppliers = await Supplier.findAll({ order: [['id', 'ASC']] });
+  const kinds = [
+    'pistons',
+    'rings',
+    'main_bearings',
+    'rod_bearings',
+    'gasket_set',
+    'camshaft',
+    'lifters',
+    'oil_pump',
+    'timing_set',
+  ];
+  return kinds.map((kind, i) => ({
+    kind,
+    supplierId: suppliers[i % suppliers.length]!.id,
+    partNumber: `PN-${kind.toUpperCase().replace(/_/g, '')}-${i}`,
+    lotCode: `${tag}-${kind.toUpperCase().replace(/_/g, '')}`,
+    quantity: kind === 'pistons' ? 8 : 1,
+    ...(kind === 'pistons' ? { oversizeIn } : {}),
+  }));
+}
+
+/** A long block built from finished parts, through assembly, run test and final inspection. */
+export async function releasableUnit(
+  t: TestApp,
+  cookies: { receiving: string; operator: string },
+  familyCode = 'TARN-6',
+  lotTag = 'T',
+) {
+  const parts = await finishedParts(t, cookies, familyCode);
+  const oversize = familyCode === 'CORRIE-8' ? 0.03 : 0.0197;
+  const built = await request(t.app)
+    .post('/api/units')
+    .set('Cookie', cookies.operator)
+    .send({
+      family: familyCode,
+      block: parts.block,
+      crankshaft: parts.crankshaft,
+      heads: parts.heads,
+      lots: await lotsFor(oversize, lotTag),
+    });
+  if (built.status !== 201) throw new Error(`build failed: ${JSON.stringify(built.body)}`);
+  const unit = built.body.serial as string;
+  await passThrough(t, cookies.operator, ['AS-1', 'RT-1', 'FI-1'], unit);
+  return { unit, parts };
+}

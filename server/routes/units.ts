@@ -1,0 +1,99 @@
+import type { Sequelize } from 'sequelize';
+import { z } from 'zod';
+import { parseRunCsv } from '../../shared/domain/run-csv.js';
+import { buildBody, lotCodeParam, releaseBody, runCsvBody } from '../../shared/schemas/build.js';
+import { serialParam } from '../../shared/schemas/intake.js';
+import { AppError } from '../errors.js';
+import type { Api } from '../http/api.js';
+import { EngineFamily } from '../models/index.js';
+import { buildUnit } from '../services/build.js';
+import { buildRecordPdf } from '../services/build-record.js';
+import { findBySerial } from '../services/items.js';
+import { checkUnit, releaseUnit } from '../services/release.js';
+import { lotLookup, trailOf } from '../services/trail.js';
+
+export function unitRoutes(api: Api, sequelize: Sequelize) {
+  api.define({
+    method: 'post',
+    path: '/units',
+    access: 'assembly.record',
+    summary:
+      'Start a long block from a finished block, crankshaft and heads plus purchased lots; every refusal is listed (409).',
+    body: buildBody,
+    status: 201,
+    handler: ({ ctx, body }) => buildUnit(sequelize, ctx, body),
+  });
+  api.define({
+    method: 'get',
+    path: '/units/:serial/release-check',
+    access: 'release.check',
+    summary:
+      'The release gate for a long block: every check, and each reason it cannot ship yet, in words with a link.',
+    params: serialParam,
+    handler: ({ params }) => checkUnit(sequelize, params.serial),
+  });
+  api.define({
+    method: 'post',
+    path: '/units/:serial/release',
+    access: 'release.ship',
+    summary: 'Release a unit that passes the gate (checked again under its lock): the shipment and warranty start.',
+    params: serialParam,
+    body: releaseBody,
+    status: 201,
+    handler: ({ ctx, params, body }) => releaseUnit(sequelize, ctx, params.serial, body),
+  });
+  api.define({
+    method: 'get',
+    path: '/units/:serial/build-record.pdf',
+    access: 'trail.read',
+    summary: "The unit's build record as a PDF: genealogy, lots, key measurements with limits, NCRs, release.",
+    params: serialParam,
+    handler: async ({ params, res }) => {
+      const pdf = await buildRecordPdf(sequelize, params.serial);
+      res.setHeader('Content-Type', 'application/pdf');
+      res.setHeader('Content-Disposition', `inline; filename="build-record-${params.serial.toUpperCase()}.pdf"`);
+      res.send(pdf);
+      return undefined;
+    },
+  });
+  api.define({
+    method: 'get',
+    path: '/trail/:serial',
+    access: 'trail.read',
+    summary:
+      'Everything about a serial: genealogy tree, every result with readings and rule versions, NCRs, lots, shipment, warranty.',
+    params: serialParam,
+    handler: ({ params }) => trailOf(sequelize, params.serial),
+  });
+  api.define({
+    method: 'get',
+    path: '/lots/:lotCode',
+    access: 'trail.read',
+    summary: 'A purchased lot code: every unit it went into, with ship dates and customers.',
+    params: lotCodeParam,
+    handler: ({ params }) => lotLookup(sequelize, params.lotCode),
+  });
+  api.define({
+    method: 'post',
+    path: '/run-test/parse',
+    access: 'results.record',
+    summary:
+      "Read a test stand's CSV export into run-test readings; a malformed file is refused with its line and column.",
+    body: runCsvBody.extend({ serial: z.string().trim().min(1).max(24) }),
+    handler: async ({ body }) => {
+      const item = await findBySerial(body.serial);
+      const family = (await EngineFamily.findByPk(item.engineFamilyId))!;
+      const parsed = parseRunCsv(body.csv, family.cylinders);
+      if (!parsed.ok) {
+        throw new AppError(
+          400,
+          'invalid_csv',
+          parsed.message,
+          { csv: parsed.message },
+          { line: parsed.line, column: parsed.column },
+        );
+      }
+      return { readings: parsed.readings };
+    },
+  });
+}

@@ -1,0 +1,347 @@
+import { Op, QueryTypes, type Sequelize } from 'sequelize';
+import { describePosition, expandPositions } from '../../shared/domain/positions.js';
+import { limitsOf } from '../../shared/domain/tolerance.js';
+import type { LotLookupJson, TrailJson, TrailNcr, TrailNode, TrailResult } from '../../shared/schemas/build.js';
+import type { NcrState } from '../../shared/schemas/ncr.js';
+import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.js';
+import {
+  Attachment,
+  Characteristic,
+  EngineFamily,
+  Gauge,
+  Item,
+  Nonconformance,
+  NonconformanceTransition,
+  Reading,
+  Shipment,
+  Signature,
+  Stage,
+  StageResult,
+  Station,
+  ToleranceRule,
+  User,
+} from '../models/index.js';
+import { presentAttachment } from './attachments.js';
+import { findBySerial, presentItem } from './items.js';
+import { presentShipment } from './release.js';
+import { toRuleInForce } from './spec.js';
+
+/**
+ * The trail: what is in a unit and what was done to it, for any serial. It loads in a fixed number
+ * of queries whatever the genealogy holds — the genealogy in one recursive query, then each kind
+ * of record for all of its items at once (indexes: item_links_parent_idx / item_links_child_idx,
+ * stage_results_item_stage_idx, readings' unique (stage_result_id, …), nonconformances_item_state_idx).
+ */
+
+type Link = { parent_item_id: number; child_item_id: number; link_type: 'harvested_from' | 'installed_in' };
+
+export async function trailOf(sequelize: Sequelize, serial: string): Promise<TrailJson> {
+  const item = await findBySerial(serial);
+  // every item linked to this one, up to a core's parts' units and a unit's parts' cores
+  const links = await sequelize.query<Link>(
+    `WITH RECURSIVE g(id, depth) AS (
+       SELECT :id::int, 0
+       UNION
+       SELECT CASE WHEN l.parent_item_id = g.id THEN l.child_item_id ELSE l.parent_item_id END, g.depth + 1
+         FROM item_links l JOIN g ON (l.parent_item_id = g.id OR l.child_item_id = g.id)
+        WHERE l.removed_at IS NULL AND g.depth < 2
+     )
+     SELECT DISTINCT l.parent_item_id, l.child_item_id, l.link_type
+       FROM item_links l
+      WHERE l.removed_at IS NULL AND (l.parent_item_id IN (SELECT id FROM g) AND l.child_item_id IN (SELECT id FROM g))`,
+    { type: QueryTypes.SELECT, replacements: { id: item.id } },
+  );
+  const ids = [...new Set([item.id, ...links.flatMap((l) => [l.parent_item_id, l.child_item_id])])];
+  const [items, families] = await Promise.all([
+    Item.findAll({ where: { id: { [Op.in]: ids } } }),
+    EngineFamily.findAll(),
+  ]);
+  const byId = new Map(items.map((i) => [i.id, i]));
+  const familyById = new Map(families.map((f) => [f.id, f]));
+
+  const node = (i: Item, link: TrailNode['link'], children: TrailNode[]): TrailNode => ({
+    serial: i.serial,
+    kind: i.kind,
+    kindLabel: PART_KIND_LABELS[i.kind as PartKind],
+    status: i.status,
+    positionLabel: i.positionLabel,
+    familyCode: familyById.get(i.engineFamilyId)?.code ?? '',
+    link,
+    children,
+  });
+  const installedIn = (id: number) => links.find((l) => l.link_type === 'installed_in' && l.child_item_id === id);
+  const harvestedFrom = (id: number) => links.find((l) => l.link_type === 'harvested_from' && l.child_item_id === id);
+  const coreOf = (id: number) => {
+    const l = harvestedFrom(id);
+    return l ? [node(byId.get(l.parent_item_id)!, 'harvested_from', [])] : [];
+  };
+  let tree: TrailNode;
+  const unitId = item.kind === 'long_block' ? item.id : installedIn(item.id)?.parent_item_id;
+  if (unitId) {
+    const parts = links.filter((l) => l.link_type === 'installed_in' && l.parent_item_id === unitId);
+    tree = node(
+      byId.get(unitId)!,
+      null,
+      parts.map((l) => node(byId.get(l.child_item_id)!, 'installed_in', coreOf(l.child_item_id))),
+    );
+  } else if (item.kind === 'core') {
+    const parts = links.filter((l) => l.link_type === 'harvested_from' && l.parent_item_id === item.id);
+    tree = node(
+      item,
+      null,
+      parts.map((l) => {
+        const unit = installedIn(l.child_item_id);
+        return node(
+          byId.get(l.child_item_id)!,
+          'harvested_from',
+          unit ? [node(byId.get(unit.parent_item_id)!, 'installed_in', [])] : [],
+        );
+      }),
+    );
+  } else {
+    tree = node(item, null, coreOf(item.id));
+  }
+
+  // the records of every item in the tree
+  const treeIds = new Set<number>();
+  const walk = (n: TrailNode) => {
+    const i = items.find((x) => x.serial === n.serial);
+    if (i) treeIds.add(i.id);
+    n.children.forEach(walk);
+  };
+  walk(tree);
+  const scope = [...treeIds];
+  const results = await StageResult.findAll({
+    where: { itemId: { [Op.in]: scope } },
+    order: [
+      ['finishedAt', 'ASC'],
+      ['id', 'ASC'],
+    ],
+  });
+  const resultIds = results.map((r) => r.id);
+  const top = byId.get(unitId ?? item.id)!;
+  const [readings, stages, stations, gauges, ncrs, lots, shipment, photos] = await Promise.all([
+    resultIds.length
+      ? Reading.findAll({ where: { stageResultId: { [Op.in]: resultIds } }, order: [['id', 'ASC']] })
+      : [],
+    Stage.findAll(),
+    Station.findAll(),
+    Gauge.findAll(),
+    sequelize.query<{
+      id: number;
+      number: string;
+      item_id: number | null;
+      lot_code: string | null;
+      state: string;
+      severity: string;
+      description: string;
+      disposition: string | null;
+      disposition_reason: string | null;
+      created_at: Date;
+    }>(
+      `SELECT n.id, n.number, n.item_id, pl.lot_code, n.state, n.severity, n.description, n.disposition,
+              n.disposition_reason, n.created_at
+         FROM nonconformances n LEFT JOIN part_lots pl ON pl.id = n.part_lot_id
+        WHERE n.item_id IN (:scope)
+           OR n.part_lot_id IN (SELECT part_lot_id FROM unit_lots WHERE unit_item_id = :top)
+        ORDER BY n.created_at, n.id`,
+      { type: QueryTypes.SELECT, replacements: { scope, top: top.id } },
+    ),
+    sequelize.query<{
+      kind: string;
+      supplier: string;
+      part_number: string;
+      lot_code: string;
+      quantity: number;
+      attributes: Record<string, unknown>;
+    }>(
+      `SELECT pl.part_kind AS kind, s.name AS supplier, pl.part_number, pl.lot_code, ul.quantity, pl.attributes
+         FROM unit_lots ul JOIN part_lots pl ON pl.id = ul.part_lot_id JOIN suppliers s ON s.id = pl.supplier_id
+        WHERE ul.unit_item_id = :top ORDER BY ul.id`,
+      { type: QueryTypes.SELECT, replacements: { top: top.id } },
+    ),
+    Shipment.findOne({ where: { unitItemId: top.id }, order: [['id', 'DESC']] }),
+    resultIds.length
+      ? Attachment.findAll({ where: { entity: 'stage_result', entityId: { [Op.in]: resultIds.map(String) } } })
+      : [],
+  ]);
+  const charIds = [...new Set(readings.map((r) => r.characteristicId))];
+  const ruleIds = [...new Set(readings.map((r) => r.toleranceRuleId).filter((x): x is number => x !== null))];
+  const ncrIds = ncrs.map((n) => n.id);
+  const [chars, rules, transitions, signatures] = await Promise.all([
+    charIds.length ? Characteristic.findAll({ where: { id: { [Op.in]: charIds } } }) : [],
+    ruleIds.length ? ToleranceRule.findAll({ where: { id: { [Op.in]: ruleIds } } }) : [],
+    ncrIds.length
+      ? NonconformanceTransition.findAll({ where: { nonconformanceId: { [Op.in]: ncrIds } }, order: [['id', 'ASC']] })
+      : [],
+    ncrIds.length
+      ? Signature.findAll({
+          where: { entity: 'nonconformance', entityId: { [Op.in]: ncrs.map((n) => n.number) } },
+          order: [['id', 'ASC']],
+        })
+      : [],
+  ]);
+  const userIds = [...new Set([...results.map((r) => r.operatorId), ...transitions.map((t) => t.actorId)])];
+  const users = new Map(
+    (userIds.length ? await User.findAll({ where: { id: { [Op.in]: userIds } }, attributes: ['id', 'name'] }) : []).map(
+      (u) => [u.id, u.name],
+    ),
+  );
+
+  const charById = new Map(chars.map((c) => [c.id, c]));
+  const ruleById = new Map(rules.map((r) => [r.id, r]));
+  const stageById = new Map(stages.map((s) => [s.id, s]));
+  const stationById = new Map(stations.map((s) => [s.id, s]));
+  const gaugeById = new Map(gauges.map((g) => [g.id, g.code]));
+  const readingsOf = new Map<number, Reading[]>();
+  for (const r of readings) readingsOf.set(r.stageResultId, [...(readingsOf.get(r.stageResultId) ?? []), r]);
+  const supersededBy = new Map(results.filter((r) => r.supersedesId).map((r) => [r.supersedesId!, r.id]));
+  const labelCache = new Map<string, Map<string, string>>();
+  const labelOf = (itemId: number, c: Characteristic, pos: string) => {
+    const key = `${itemId}:${c.id}`;
+    let m = labelCache.get(key);
+    if (!m) {
+      const i = byId.get(itemId)!;
+      m = new Map(expandPositions(c.positions, familyById.get(i.engineFamilyId)!, i).map((p) => [p.code, p.label]));
+      labelCache.set(key, m);
+    }
+    return m.get(pos) ?? describePosition(pos);
+  };
+
+  const trailResults: TrailResult[] = results.map((r) => {
+    const stage = stageById.get(r.stageId)!;
+    return {
+      id: r.id,
+      serial: byId.get(r.itemId)!.serial,
+      stage: { code: stage.code, name: stage.name },
+      station: r.stationId ? (stationById.get(r.stationId)?.code ?? null) : null,
+      operator: users.get(r.operatorId) ?? '',
+      gauge: r.gaugeId ? (gaugeById.get(r.gaugeId) ?? null) : null,
+      verdict: r.verdict,
+      finishedAt: r.finishedAt.toISOString(),
+      supersedes: r.supersedesId,
+      supersededBy: supersededBy.get(r.id) ?? null,
+      correctionReason: r.correctionReason,
+      reentryReason: r.reentryReason,
+      readings: (readingsOf.get(r.id) ?? []).map((x) => {
+        const c = charById.get(x.characteristicId)!;
+        const rule = x.toleranceRuleId ? ruleById.get(x.toleranceRuleId) : undefined;
+        const limits =
+          rule && rule.limitType !== 'attribute' ? limitsOf(toRuleInForce(rule)) : { lower: null, upper: null };
+        return {
+          characteristic: c.code,
+          name: c.name,
+          position: x.position,
+          positionLabel: labelOf(r.itemId, c, x.position),
+          value: x.value === null ? null : Number(x.value),
+          passed: x.passed,
+          unit: x.unit,
+          verdict: x.verdict,
+          ruleVersion: x.ruleVersion,
+          lower: limits.lower,
+          upper: limits.upper,
+          location: x.locationNote,
+        };
+      }),
+      photos: photos.filter((p) => p.entityId === String(r.id)).map(presentAttachment),
+    };
+  });
+  const trailNcrs: TrailNcr[] = ncrs.map((n) => ({
+    number: n.number,
+    serial: n.item_id ? (byId.get(n.item_id)?.serial ?? null) : null,
+    lotCode: n.lot_code,
+    state: n.state as NcrState,
+    severity: n.severity,
+    description: n.description,
+    disposition: n.disposition,
+    dispositionReason: n.disposition_reason,
+    raisedAt: new Date(n.created_at).toISOString(),
+    timeline: transitions
+      .filter((t) => t.nonconformanceId === n.id)
+      .map((t) => ({
+        at: t.createdAt.toISOString(),
+        from: t.fromState,
+        to: t.toState,
+        actor: users.get(t.actorId) ?? '',
+        reason: t.reason,
+      })),
+    signatures: signatures
+      .filter((s) => s.entityId === n.number)
+      .map((s) => ({ printedName: s.printedName, meaning: s.meaning, signedAt: s.signedAt.toISOString() })),
+  }));
+  const shipped = shipment ? await presentShipment(shipment) : null;
+  return {
+    item: await presentItem(item),
+    tree,
+    lots: lots.map((l) => ({
+      kind: l.kind,
+      supplier: l.supplier,
+      partNumber: l.part_number,
+      lotCode: l.lot_code,
+      quantity: l.quantity,
+      attributes: l.attributes,
+    })),
+    results: trailResults,
+    ncrs: trailNcrs,
+    shipment: shipped,
+    warranty: shipped?.warranty ?? null,
+  };
+}
+
+/** Every unit a lot code went into, with its ship date and customer (one query). */
+export async function lotLookup(sequelize: Sequelize, lotCode: string): Promise<LotLookupJson> {
+  const rows = await sequelize.query<{
+    lot_id: number;
+    kind: string;
+    supplier: string;
+    part_number: string;
+    lot_code: string;
+    status: string;
+    serial: string | null;
+    family: string | null;
+    unit_status: string | null;
+    installed_at: Date | null;
+    ship_date: string | null;
+    customer: string | null;
+  }>(
+    `SELECT pl.id AS lot_id, pl.part_kind AS kind, s.name AS supplier, pl.part_number, pl.lot_code, pl.status,
+            i.serial, f.code AS family, i.status AS unit_status, ul.created_at AS installed_at,
+            to_char(sh.ship_date, 'YYYY-MM-DD') AS ship_date, c.name AS customer
+       FROM part_lots pl
+       JOIN suppliers s ON s.id = pl.supplier_id
+       LEFT JOIN unit_lots ul ON ul.part_lot_id = pl.id
+       LEFT JOIN items i ON i.id = ul.unit_item_id
+       LEFT JOIN engine_families f ON f.id = i.engine_family_id
+       LEFT JOIN shipments sh ON sh.unit_item_id = i.id AND sh.returned_at IS NULL
+       LEFT JOIN customers c ON c.id = sh.customer_id
+      WHERE upper(pl.lot_code) = upper(:lotCode)
+      ORDER BY pl.id, ul.created_at`,
+    { type: QueryTypes.SELECT, replacements: { lotCode } },
+  );
+  const lots = new Map<number, LotLookupJson['lots'][number]>();
+  for (const r of rows) {
+    let lot = lots.get(r.lot_id);
+    if (!lot) {
+      lot = {
+        kind: r.kind,
+        supplier: r.supplier,
+        partNumber: r.part_number,
+        lotCode: r.lot_code,
+        status: r.status,
+        units: [],
+      };
+      lots.set(r.lot_id, lot);
+    }
+    if (r.serial) {
+      lot.units.push({
+        serial: r.serial,
+        family: r.family ?? '',
+        status: r.unit_status ?? '',
+        installedAt: new Date(r.installed_at!).toISOString(),
+        shipDate: r.ship_date,
+        customer: r.customer,
+      });
+    }
+  }
+  return { lotCode: lotCode.toUpperCase(), lots: [...lots.values()] };
+}

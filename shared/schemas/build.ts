@@ -1,0 +1,227 @@
+import { z } from 'zod';
+import type { NcrState } from './ncr.js';
+import type { ItemJson } from './items.js';
+import type { AttachmentJson } from './attachments.js';
+
+/** Building a long block, the release gate, shipping, the trail and lot lookup. */
+
+/** The purchased parts every long block takes, each from a supplier's lot. */
+export const LOT_KINDS = [
+  'pistons',
+  'rings',
+  'main_bearings',
+  'rod_bearings',
+  'gasket_set',
+  'camshaft',
+  'lifters',
+  'oil_pump',
+  'timing_set',
+] as const;
+export type LotKind = (typeof LOT_KINDS)[number];
+export const LOT_KIND_LABELS: Record<LotKind, string> = {
+  pistons: 'Pistons',
+  rings: 'Piston rings',
+  main_bearings: 'Main bearings',
+  rod_bearings: 'Rod bearings',
+  gasket_set: 'Gasket set',
+  camshaft: 'Camshaft',
+  lifters: 'Lifters',
+  oil_pump: 'Oil pump',
+  timing_set: 'Timing set',
+};
+
+const code = (what: string, max = 60) =>
+  z
+    .string(`Enter the ${what}.`)
+    .trim()
+    .min(1, `Enter the ${what}.`)
+    .max(max, `At most ${max} characters.`)
+    .regex(/^[A-Za-z0-9][A-Za-z0-9 ./_-]*$/, 'Use letters, digits, spaces, dots, dashes or slashes.');
+
+export const lotInput = z.strictObject({
+  kind: z.enum(LOT_KINDS, 'Choose what the lot is.'),
+  supplierId: z.number('Choose the supplier.').int().positive(),
+  partNumber: code('part number'),
+  lotCode: code('lot code'),
+  quantity: z.number().int().min(1).max(64).default(1),
+  /** Pistons only: how far over the standard bore they are made, in inches (0.030 for "+.030"). */
+  oversizeIn: z.number('Enter the oversize in inches (0 for standard).').min(0).max(0.2).optional(),
+});
+export type LotInput = z.output<typeof lotInput>;
+
+const serial = (what: string) => z.string(`Scan the ${what}.`).trim().min(1, `Scan the ${what}.`).max(24);
+
+export const buildBody = z
+  .strictObject({
+    family: z.string('Choose the engine family.').trim().min(1).max(20),
+    block: serial('block'),
+    crankshaft: serial('crankshaft'),
+    heads: z.array(serial('cylinder head')).min(1, 'Scan the cylinder head(s).').max(2),
+    lots: z.array(lotInput).max(20),
+    notes: z.string().trim().max(2000).default(''),
+  })
+  .superRefine((b, ctx) => {
+    const kinds = new Set(b.lots.map((l) => l.kind));
+    const missing = LOT_KINDS.filter((k) => !kinds.has(k));
+    if (missing.length) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['lots'],
+        message: `Record the lots of: ${missing.map((k) => LOT_KIND_LABELS[k].toLowerCase()).join(', ')}.`,
+      });
+    }
+    b.lots.forEach((l, i) => {
+      if (l.kind === 'pistons' && l.oversizeIn === undefined) {
+        ctx.addIssue({ code: 'custom', path: ['lots', i, 'oversizeIn'], message: 'Enter the pistons’ oversize.' });
+      }
+    });
+    if (new Set(b.heads).size !== b.heads.length) {
+      ctx.addIssue({ code: 'custom', path: ['heads'], message: 'Each head is scanned once.' });
+    }
+  });
+export type BuildBody = z.output<typeof buildBody>;
+
+export const releaseBody = z.strictObject({
+  customerId: z.number('Choose the customer.').int().positive(),
+  reference: z.string('Enter the order reference.').trim().min(1, 'Enter the order reference.').max(60),
+  shipDate: z.iso.date('Use a date like 2026-12-02.'),
+  carrier: z.string().trim().max(80).default(''),
+});
+export type ReleaseBody = z.output<typeof releaseBody>;
+
+export const lotCodeParam = z.strictObject({ lotCode: z.string().trim().min(1).max(60) });
+
+export const runCsvBody = z.strictObject({
+  csv: z.string('Attach the test stand export.').min(1, 'The file is empty.').max(200_000, 'At most 200 kB.'),
+});
+
+export type BlockingReason = {
+  code: 'stage_missing' | 'stage_failed' | 'ncr_open' | 'lot_ncr_open' | 'run_test' | 'not_finished' | 'shipped';
+  message: string;
+  serial: string | null;
+  link: string;
+};
+
+export type ReleaseCheckJson = {
+  serial: string;
+  releasable: boolean;
+  reasons: BlockingReason[];
+  /** Every check that was made, passed or not, for the checklist. */
+  checks: { label: string; ok: boolean; link: string | null }[];
+};
+
+export type WarrantyJson = {
+  months: number;
+  km: number | null;
+  startsOn: string;
+  endsOn: string;
+  inWarranty: boolean;
+  daysLeft: number;
+};
+
+export type ShipmentJson = {
+  customer: { code: string; name: string } | null;
+  reference: string;
+  carrier: string | null;
+  shipDate: string;
+  releasedBy: string;
+  releasedAt: string;
+  warranty: WarrantyJson;
+};
+
+export type TrailNode = {
+  serial: string;
+  kind: string;
+  kindLabel: string;
+  status: string;
+  positionLabel: string | null;
+  familyCode: string;
+  /** How it is joined to its parent in the tree: harvested from a core, installed in a unit. */
+  link: 'harvested_from' | 'installed_in' | null;
+  children: TrailNode[];
+};
+
+export type TrailReading = {
+  characteristic: string;
+  name: string;
+  position: string;
+  positionLabel: string;
+  value: number | null;
+  passed: boolean | null;
+  unit: string | null;
+  verdict: 'pass' | 'fail';
+  ruleVersion: number | null;
+  lower: number | null;
+  upper: number | null;
+  location: string | null;
+};
+
+export type TrailResult = {
+  id: number;
+  serial: string;
+  stage: { code: string; name: string };
+  station: string | null;
+  operator: string;
+  gauge: string | null;
+  verdict: 'pass' | 'fail';
+  finishedAt: string;
+  supersedes: number | null;
+  supersededBy: number | null;
+  correctionReason: string | null;
+  reentryReason: string | null;
+  readings: TrailReading[];
+  photos: AttachmentJson[];
+};
+
+export type TrailNcr = {
+  number: string;
+  serial: string | null;
+  lotCode: string | null;
+  state: NcrState;
+  severity: string;
+  description: string;
+  disposition: string | null;
+  dispositionReason: string | null;
+  raisedAt: string;
+  timeline: { at: string; from: string | null; to: string; actor: string; reason: string }[];
+  signatures: { printedName: string; meaning: string; signedAt: string }[];
+};
+
+export type TrailLot = {
+  kind: string;
+  supplier: string;
+  partNumber: string;
+  lotCode: string;
+  quantity: number;
+  attributes: Record<string, unknown>;
+};
+
+export type TrailJson = {
+  item: ItemJson;
+  /** The unit at the top of the tree (or the item itself when it is in none). */
+  tree: TrailNode;
+  lots: TrailLot[];
+  results: TrailResult[];
+  ncrs: TrailNcr[];
+  shipment: ShipmentJson | null;
+  warranty: WarrantyJson | null;
+};
+
+export type LotLookupJson = {
+  lotCode: string;
+  lots: {
+    kind: string;
+    supplier: string;
+    partNumber: string;
+    lotCode: string;
+    status: string;
+    units: {
+      serial: string;
+      family: string;
+      status: string;
+      installedAt: string;
+      shipDate: string | null;
+      customer: string | null;
+    }[];
+  }[];
+};
