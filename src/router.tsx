@@ -104,6 +104,83 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
                 return { Component: m.LabelsPage, loader: m.labelsLoader(queryClient) };
               },
             },
+            {
+              path: paths.station,
+              lazy: async () => {
+                const m = await import('./routes/station/station-page');
+                return { Component: m.StationPage, loader: m.stationLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.specBook,
+              lazy: async () => {
+                const m = await import('./routes/spec/spec-book-page');
+                return { Component: m.SpecBookPage, loader: m.specBookLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.specRule,
+              lazy: async () => {
+                const m = await import('./routes/spec/rule-page');
+                return { Component: m.RulePage, loader: m.ruleLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.ncrs,
+              lazy: async () => {
+                const m = await import('./routes/ncrs/ncr-list-page');
+                return { Component: m.NcrListPage, loader: m.ncrListLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.raiseConcern,
+              lazy: async () => {
+                const m = await import('./routes/ncrs/raise-concern-page');
+                return { Component: m.RaiseConcernPage, loader: m.raiseConcernLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.ncr,
+              lazy: async () => {
+                const m = await import('./routes/ncrs/ncr-page');
+                return { Component: m.NcrPage, loader: m.ncrLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.mail,
+              lazy: async () => {
+                const m = await import('./routes/admin/mail/mail-page');
+                return { Component: m.MailPage, loader: m.mailLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.build,
+              lazy: async () => {
+                const m = await import('./routes/build/build-page');
+                return { Component: m.BuildPage, loader: m.buildLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.release,
+              lazy: async () => {
+                const m = await import('./routes/release/release-page');
+                return { Component: m.ReleasePage, loader: m.releaseLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.trail,
+              lazy: async () => {
+                const m = await import('./routes/trail/trail-page');
+                return { Component: m.TrailPage, loader: m.trailLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.lot,
+              lazy: async () => {
+                const m = await import('./routes/trail/lot-page');
+                return { Component: m.LotPage, loader: m.lotLoader(queryClient) };
+              },
+            },
             { path: '*', element: <NotFoundPage /> },
           ],
         },

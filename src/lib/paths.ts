@@ -16,6 +16,17 @@ export const paths = {
   item: '/items/:serial',
   teardown: '/teardown',
   labels: '/labels',
+  station: '/station',
+  specBook: '/spec',
+  specRule: '/spec/:family/:characteristicId',
+  ncrs: '/ncrs',
+  ncr: '/ncrs/:number',
+  raiseConcern: '/ncrs/new',
+  mail: '/admin/mail',
+  build: '/build',
+  release: '/release',
+  trail: '/trail',
+  lot: '/lots/:lotCode',
 } as const;
 
 /** Why the sign-in page was shown, so it can say so in plain words. */
@@ -76,3 +87,34 @@ export function auditHref(filter: { entity?: string; entityId?: string | number;
   const s = q.toString();
   return s ? `${paths.audit}?${s}` : paths.audit;
 }
+
+/** The station screen, optionally opened on a serial (a link from an item page, a scan elsewhere). */
+export const stationHref = (serial?: string) =>
+  serial ? `${paths.station}?serial=${encodeURIComponent(serial)}` : paths.station;
+
+export const specBookHref = (family?: string, stage?: string) => {
+  const q = new URLSearchParams();
+  if (family) q.set('family', family);
+  if (stage) q.set('stage', stage);
+  const s = q.toString();
+  return s ? `${paths.specBook}?${s}` : paths.specBook;
+};
+
+/** One rule's versions; `compare` picks the two shown side by side. */
+export const specRuleHref = (family: string, characteristicId: number, compare?: [number, number]) =>
+  `/spec/${encodeURIComponent(family)}/${characteristicId}${compare ? `?compare=${compare.join(',')}` : ''}`;
+
+export const ncrHref = (number: string) => `/ncrs/${encodeURIComponent(number)}`;
+
+/** Raise a concern, optionally about a part already in hand. */
+export const raiseConcernHref = (serial?: string) =>
+  serial ? `${paths.raiseConcern}?serial=${encodeURIComponent(serial)}` : paths.raiseConcern;
+
+/** Start a long block, optionally with a part already scanned. */
+export const buildHref = () => paths.build;
+export const releaseHref = (serial?: string) =>
+  serial ? `${paths.release}?serial=${encodeURIComponent(serial)}` : paths.release;
+export const trailHref = (serial?: string) =>
+  serial ? `${paths.trail}?serial=${encodeURIComponent(serial)}` : paths.trail;
+export const lotHref = (lotCode: string) => `/lots/${encodeURIComponent(lotCode)}`;
+export const buildRecordHref = (serial: string) => `/api/units/${encodeURIComponent(serial)}/build-record.pdf`;

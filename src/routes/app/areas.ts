@@ -18,6 +18,12 @@ export type Area = {
 
 export const AREAS: Area[] = [
   {
+    label: 'Station',
+    to: paths.station,
+    permission: 'station.form',
+    summary: 'Scan a part, record its readings and results, and see at once what is out of tolerance.',
+  },
+  {
     label: 'Receive a core',
     to: paths.receiveCore,
     permission: 'intake.record',
@@ -61,6 +67,49 @@ export const AREAS: Area[] = [
     summary: 'Layout, cylinders, bore and stroke, heads and warranty term for each family.',
   },
   {
+    label: 'Build',
+    to: paths.build,
+    permission: 'assembly.record',
+    summary: 'Start a long block from a finished block, crankshaft and heads plus purchased lots.',
+  },
+  {
+    label: 'Release',
+    to: paths.release,
+    permission: 'release.check',
+    summary: 'See exactly what keeps a unit from shipping; release it and record the shipment.',
+  },
+  {
+    label: 'Trail',
+    to: paths.trail,
+    permission: 'trail.read',
+    summary: 'Look up any serial or lot code: genealogy, every reading and decision, shipment and warranty.',
+  },
+  {
+    label: 'Raise a concern',
+    to: paths.raiseConcern,
+    permission: 'ncr.raise',
+    summary: 'Seen something wrong with a part? Scan it, say what you saw, add a photo: it goes on hold.',
+    homeOnly: true,
+  },
+  {
+    label: 'NCRs',
+    to: paths.ncrs,
+    permission: 'ncr.read',
+    summary: 'Every nonconformance, filtered by state, severity, defect, family, stage, age or assignee.',
+  },
+  {
+    label: 'Spec book',
+    to: paths.specBook,
+    permission: 'spec.read',
+    summary: 'Tolerance rules per engine family, stage and characteristic: drafts, signed approvals, every version.',
+  },
+  {
+    label: 'Mail',
+    to: paths.mail,
+    permission: 'mail.read',
+    summary: 'What Coretrail has queued and sent, and what the local mail sink received.',
+  },
+  {
     label: 'Audit trail',
     to: paths.audit,
     permission: 'audit.read',
@@ -76,55 +125,9 @@ export type Coming = { label: string; permissions: Permission[]; summary: string
 
 export const COMING: Coming[] = [
   {
-    label: 'Station work',
-    permissions: ['results.record'],
-    summary: 'Scan a part, record its readings and results, and see at once what is out of tolerance.',
-  },
-  {
-    label: 'Corrections',
-    permissions: ['results.correct'],
-    summary: 'Correct a recorded result with a reason; the original stays on record.',
-  },
-  {
-    label: 'Stage re-entry',
-    permissions: ['stage.reentry'],
-    summary: 'Let a part go back through a stage it has already passed, with a reason.',
-  },
-  {
-    label: 'Spec book',
-    permissions: ['spec.read', 'spec.edit', 'spec.approve'],
-    summary: 'Tolerance rules per engine family, stage and characteristic, versioned and approved.',
-  },
-  {
-    label: 'NCRs',
-    permissions: ['ncr.read', 'ncr.raise', 'ncr.disposition'],
-    summary:
-      'Raise a nonconformance and follow it to its disposition: use as is, rework, repair, scrap or return to supplier.',
-  },
-  {
-    label: 'Assembly',
-    permissions: ['assembly.record'],
-    summary: 'Build a long block from finished parts and purchased lots; record torques and clearances.',
-  },
-  {
-    label: 'Release',
-    permissions: ['release.check', 'release.ship'],
-    summary: 'See exactly what keeps a unit from shipping; release it and record the shipment.',
-  },
-  {
-    label: 'Trail',
-    permissions: ['trail.read'],
-    summary: 'Look up any serial and follow its parts, readings and decisions back to the core.',
-  },
-  {
     label: 'Warranty claims',
     permissions: ['warranty.record'],
     summary: 'Log a claim and the teardown findings of a returned unit.',
-  },
-  {
-    label: 'Mail outbox',
-    permissions: ['mail.read'],
-    summary: 'The messages Coretrail has sent or is waiting to send.',
   },
 ];
 

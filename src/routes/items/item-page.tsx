@@ -3,6 +3,7 @@ import { Link, redirect, useParams, type LoaderFunctionArgs } from 'react-router
 import { PART_KIND_LABELS } from '../../../shared/schemas/reference';
 import { useSignedIn } from '../../api/auth/me';
 import { itemQueryOptions, useItem } from '../../api/items/item';
+import { itemResultsQueryOptions } from '../../api/items/results';
 import type { RouteStep } from '../../api/items/types';
 import { StatusBadge } from '../../components/item-status';
 import { RouteProgress } from '../../components/route-progress';
@@ -10,18 +11,23 @@ import { ButtonLink } from '../../components/ui/button';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Notice } from '../../components/ui/notice';
 import { partName } from '../../lib/item-status';
-import { coreHref, labelsHref, serialHref, teardownHref } from '../../lib/paths';
+import { coreHref, labelsHref, serialHref, stationHref, teardownHref } from '../../lib/paths';
 import { canonicalSerial, requireSerial } from '../../lib/serial';
 import { requirePermission } from '../../lib/session';
 import { PartList } from '../cores/core-sections';
+import { ResultsHistory } from './results-history';
 
 export const itemLoader =
   (queryClient: QueryClient) =>
   async ({ request, params }: LoaderFunctionArgs) => {
     const me = await requirePermission(queryClient, request, 'items.read');
-    const item = await queryClient.ensureQueryData(itemQueryOptions(requireSerial(params.serial)));
+    const serial = requireSerial(params.serial);
+    // asked for alongside the item; a failure is said in its own section, not as an error page
+    const results = queryClient.prefetchQuery(itemResultsQueryOptions(serial));
+    const item = await queryClient.ensureQueryData(itemQueryOptions(serial));
     // a core's own page holds its receipt; those who may read intake go there
     if (item.kind === 'core' && me.can('intake.read')) throw redirect(coreHref(item.serial));
+    await results;
     return null;
   };
 
@@ -54,6 +60,11 @@ export function ItemPage() {
           </div>
         </div>
         <div className="flex flex-wrap gap-2">
+          {item.status === 'in_process' && me.can('station.form') && (
+            <ButtonLink to={stationHref(item.serial)} variant="primary" size="lg">
+              Record at the station
+            </ButtonLink>
+          )}
           {item.kind === 'core' && item.status === 'received' && me.can('teardown.record') && (
             <ButtonLink to={teardownHref(item.serial)} variant="primary" size="lg">
               Tear down
@@ -110,6 +121,9 @@ export function ItemPage() {
             </Card>
           )}
         </div>
+      </div>
+      <div className="mt-5">
+        <ResultsHistory serial={item.serial} />
       </div>
     </>
   );

@@ -1,0 +1,10 @@
+export type {
+  Disposition,
+  NcrAction,
+  NcrDetail,
+  NcrRow,
+  NcrSignature,
+  NcrState,
+  NcrTimelineEntry,
+  Severity,
+} from '../../../shared/schemas/ncr';

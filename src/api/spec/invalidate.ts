@@ -1,0 +1,10 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { auditKeys } from '../audit/keys';
+import { specKeys } from './keys';
+
+/** A change to one rule shows in its family's book and in the rule's history, and is audited. */
+export const afterRuleChange = (queryClient: QueryClient) =>
+  Promise.all([
+    queryClient.invalidateQueries({ queryKey: specKeys.all }),
+    queryClient.invalidateQueries({ queryKey: auditKeys.all }),
+  ]);

@@ -1,0 +1,61 @@
+import { createColumnHelper, getCoreRowModel, useReactTable } from '@tanstack/react-table';
+import { useMemo } from 'react';
+import type { OutboxMessage, OutboxStatus } from '../../../api/mail/outbox';
+import { DataTable } from '../../../components/data-table';
+import { Badge, type Tone } from '../../../components/ui/badge';
+import { formatWhen } from '../../../lib/format';
+
+export const OUTBOX_STATUS_LABELS: Record<OutboxStatus, string> = {
+  pending: 'Waiting',
+  sending: 'Sending',
+  sent: 'Sent',
+  failed: 'Failed',
+};
+const STATUS_TONES: Record<OutboxStatus, Tone> = { pending: 'wait', sending: 'wait', sent: 'ok', failed: 'bad' };
+
+const col = createColumnHelper<OutboxMessage>();
+const none = <span className="text-ink-soft">—</span>;
+
+export function OutboxTable({ rows, busy, empty }: { rows: OutboxMessage[]; busy: boolean; empty: string }) {
+  const columns = useMemo(
+    () => [
+      col.accessor('createdAt', {
+        header: 'Created',
+        meta: { mono: true, nowrap: true },
+        cell: (c) => formatWhen(c.getValue()),
+      }),
+      col.accessor('to', { header: 'To', meta: { nowrap: true } }),
+      col.accessor('subject', {
+        header: 'Subject',
+        cell: (c) => <span className="block min-w-48">{c.getValue()}</span>,
+      }),
+      col.accessor('reason', { header: 'Reason', meta: { mono: true, nowrap: true } }),
+      col.accessor('status', {
+        header: 'Status',
+        cell: (c) => <Badge tone={STATUS_TONES[c.getValue()]}>{OUTBOX_STATUS_LABELS[c.getValue()]}</Badge>,
+      }),
+      col.accessor('attempts', { header: 'Attempts', meta: { align: 'right', mono: true } }),
+      col.accessor('lastError', {
+        header: 'Last error',
+        cell: (c) => {
+          const e = c.getValue();
+          return e ? <span className="block max-w-72 break-words text-sm text-bad">{e}</span> : none;
+        },
+      }),
+      col.accessor('sentAt', {
+        header: 'Sent',
+        meta: { mono: true, nowrap: true },
+        cell: (c) => (c.getValue() ? formatWhen(c.getValue()) : none),
+      }),
+    ],
+    [],
+  );
+  // eslint-disable-next-line react-hooks/incompatible-library -- the table instance is rebuilt each render by design
+  const table = useReactTable({
+    data: rows,
+    columns,
+    getCoreRowModel: getCoreRowModel(),
+    getRowId: (r) => String(r.id),
+  });
+  return <DataTable table={table} caption="Outbox" empty={empty} busy={busy} />;
+}

@@ -1,0 +1,234 @@
+import type { ReadingJson } from '../../../shared/schemas/results';
+import { useItemResults, type ItemResult } from '../../api/items/results';
+import { Badge } from '../../components/ui/badge';
+import { Card, CardBody, CardHeader } from '../../components/ui/card';
+import { Icon } from '../../components/ui/icon';
+import { Notice } from '../../components/ui/notice';
+import { Table, TBody, TD, TH, THead } from '../../components/ui/table';
+import { formatWhen, plural } from '../../lib/format';
+
+const decimalsOf = (v: number) => {
+  const s = v.toLocaleString('en-US', { maximumFractionDigits: 10, useGrouping: false });
+  const dot = s.indexOf('.');
+  return dot < 0 ? 0 : s.length - dot - 1;
+};
+
+/** Per characteristic, the most decimals any of its readings has, so a column lines up on the point. */
+function decimalsByCharacteristic(readings: ReadingJson[]): Map<string, number> {
+  const m = new Map<string, number>();
+  for (const r of readings) {
+    if (r.value !== null) m.set(r.characteristic, Math.max(m.get(r.characteristic) ?? 0, decimalsOf(r.value)));
+  }
+  return m;
+}
+
+function valueText(r: ReadingJson, decimals?: number): string {
+  if (r.kind === 'attribute' || r.value === null) {
+    if (r.passed === null) return '—';
+    return r.passed ? 'Pass' : 'Fail';
+  }
+  const d = Math.min(10, decimals ?? decimalsOf(r.value));
+  const n = r.value
+    .toLocaleString('en-US', { minimumFractionDigits: d, maximumFractionDigits: d, useGrouping: false })
+    .replace('-', '−');
+  return r.unit ? `${n} ${r.unit}` : n;
+}
+
+function VerdictWord({ r }: { r: ReadingJson }) {
+  if (r.verdict === null) return <Badge tone="off">Not judged</Badge>;
+  const checked = r.kind === 'attribute';
+  if (r.verdict === 'pass') return <Badge tone="ok">{checked ? 'Passed' : 'In tolerance'}</Badge>;
+  return <Badge tone="bad">{checked ? 'Failed' : 'Out of tolerance'}</Badge>;
+}
+
+function ReadingsTable({ result }: { result: ItemResult }) {
+  const decimals = decimalsByCharacteristic(result.readings);
+  return (
+    <div className="overflow-x-auto rounded-control border border-rule">
+      <Table caption={`Readings of result ${result.id}, ${result.stage.name}`}>
+        <THead>
+          <tr>
+            <TH>Characteristic</TH>
+            <TH>Position</TH>
+            <TH align="right">Value</TH>
+            <TH>Verdict</TH>
+            <TH>Rule version</TH>
+          </tr>
+        </THead>
+        <TBody>
+          {result.readings.map((r, i) => {
+            const failed = r.verdict === 'fail';
+            return (
+              <tr key={`${r.characteristic}/${r.position}/${i}`} className={failed ? 'bg-bad-tint font-medium' : ''}>
+                <TD>
+                  <span className="inline-flex items-center gap-1.5">
+                    {failed && <Icon name="bad" size={16} className="shrink-0 text-bad" />}
+                    {r.name}
+                  </span>
+                </TD>
+                <TD>
+                  {r.positionLabel}
+                  {r.location && <span className="block text-sm text-ink-soft">{r.location}</span>}
+                </TD>
+                <TD align="right" mono nowrap>
+                  {valueText(r, decimals.get(r.characteristic))}
+                </TD>
+                <TD nowrap>
+                  <VerdictWord r={r} />
+                </TD>
+                <TD mono nowrap>
+                  {r.ruleVersion === null ? '—' : `v${r.ruleVersion}`}
+                </TD>
+              </tr>
+            );
+          })}
+        </TBody>
+      </Table>
+    </div>
+  );
+}
+
+function Facts({ result }: { result: ItemResult }) {
+  const ncr = result.nonconformance;
+  const rows: [string, string, boolean][] = [
+    ['Finished', formatWhen(result.finishedAt), true],
+    ['Operator', result.operator || '—', false],
+    ['Station', result.station ? `${result.station.name} (${result.station.code})` : '—', false],
+    ['Gauge', result.gauge ?? 'None recorded', result.gauge !== null],
+  ];
+  if (ncr) rows.push(['NCR', `${ncr.number} (${ncr.severity})`, true]);
+  return (
+    <dl className={`grid grid-cols-2 gap-x-5 gap-y-2 ${ncr ? 'sm:grid-cols-5' : 'sm:grid-cols-4'}`}>
+      {rows.map(([k, v, mono]) => (
+        <div key={k} className="min-w-0">
+          <dt className="text-xs font-semibold uppercase tracking-wide text-ink-soft">{k}</dt>
+          <dd className={mono ? 'font-mono' : ''}>{v}</dd>
+        </div>
+      ))}
+    </dl>
+  );
+}
+
+function ResultEntry({ result }: { result: ItemResult }) {
+  const passed = result.verdict === 'pass';
+  const headingId = `result-${result.id}`;
+  const replaced = result.supersededBy !== null;
+  return (
+    <article
+      aria-labelledby={headingId}
+      className={`flex flex-col gap-3 rounded-control border px-4 py-3 ${replaced ? 'border-dashed border-rule-strong bg-sunk' : passed ? 'border-rule bg-card' : 'border-2 border-bad bg-card'}`}
+    >
+      <header className="flex flex-wrap items-start justify-between gap-x-4 gap-y-1.5">
+        <h3 id={headingId} className="flex items-center gap-2 text-lg font-semibold">
+          <Icon name={passed ? 'ok' : 'bad'} size={20} className={passed ? 'text-ok' : 'text-bad'} />
+          {result.stage.name} — {passed ? 'Passed' : 'Failed'}
+        </h3>
+        <div className="flex flex-wrap items-center gap-2">
+          {replaced && (
+            <Badge tone="off">
+              Superseded by result <span className="font-mono">{result.supersededBy}</span>
+            </Badge>
+          )}
+          <span className="font-mono text-sm text-ink-soft">Result {result.id}</span>
+        </div>
+      </header>
+      <Facts result={result} />
+      {result.supersedes !== null && (
+        <p>
+          <span className="font-medium">Correction of result </span>
+          <span className="font-mono">{result.supersedes}</span>
+          {result.correctionReason && <>: {result.correctionReason}</>}
+        </p>
+      )}
+      {result.reentryReason && (
+        <p>
+          <span className="font-medium">Re-entry: </span>
+          {result.reentryReason}
+        </p>
+      )}
+      {result.notes && (
+        <p>
+          <span className="font-medium">Notes: </span>
+          {result.notes}
+        </p>
+      )}
+      {result.failing.length > 0 && (
+        <div className="rounded-control border-l-4 border-bad bg-bad-tint px-3 py-2">
+          <p className="font-semibold text-bad">Failing readings ({result.failing.length})</p>
+          <ul className="mt-1 flex flex-col gap-0.5">
+            {result.failing.slice(0, 6).map((r, i) => (
+              <li key={`${r.characteristic}/${r.position}/${i}`}>
+                {r.name}, {r.positionLabel}: <span className="font-mono font-semibold">{valueText(r)}</span>
+              </li>
+            ))}
+            {result.failing.length > 6 && (
+              <li className="text-ink-soft">and {result.failing.length - 6} more below.</li>
+            )}
+          </ul>
+        </div>
+      )}
+      {result.photos.length > 0 && (
+        <ul className="flex flex-wrap gap-2" aria-label={`Photos of result ${result.id}`}>
+          {result.photos.map((p, i) => (
+            <li key={p.id}>
+              <a href={p.url} target="_blank" rel="noopener" className="block rounded-control">
+                <img
+                  src={p.url}
+                  alt={`Photo ${i + 1} of result ${result.id}: ${p.fileName}`}
+                  className="aspect-[4/3] w-28 rounded-control border border-rule-strong bg-sunk object-cover"
+                />
+              </a>
+            </li>
+          ))}
+        </ul>
+      )}
+      {result.readings.length > 0 && (
+        <details className="group">
+          <summary className="inline-flex min-h-9 cursor-pointer list-none items-center gap-1.5 rounded-control font-medium text-accent hover:underline floor:min-h-11 [&::-webkit-details-marker]:hidden">
+            <Icon name="chevronRight" size={18} className="transition-transform group-open:rotate-90" />
+            Readings ({result.readings.length})
+          </summary>
+          <div className="mt-2">
+            <ReadingsTable result={result} />
+          </div>
+        </details>
+      )}
+    </article>
+  );
+}
+
+/** Every pass of the item through a station, newest first; a corrected result stays, marked. */
+export function ResultsHistory({ serial }: { serial: string }) {
+  const results = useItemResults(serial);
+  const list = results.data ?? [];
+  return (
+    <Card labelledBy="results-heading">
+      <CardHeader
+        id="results-heading"
+        title="Station results"
+        description={
+          results.data
+            ? `${plural(list.length, 'result')}, newest first. Each reading keeps the rule version it was judged by.`
+            : undefined
+        }
+      />
+      <CardBody>
+        {results.error ? (
+          <Notice tone="bad" live="alert">
+            {results.error.message}
+          </Notice>
+        ) : results.isPending ? (
+          <p className="text-ink-soft">Loading results…</p>
+        ) : list.length === 0 ? (
+          <p className="text-ink-soft">No station has recorded a result for this item yet.</p>
+        ) : (
+          <div className="flex flex-col gap-3">
+            {list.map((r) => (
+              <ResultEntry key={r.id} result={r} />
+            ))}
+          </div>
+        )}
+      </CardBody>
+    </Card>
+  );
+}

@@ -1,0 +1,158 @@
+import {
+  createColumnHelper,
+  getCoreRowModel,
+  useReactTable,
+  type OnChangeFn,
+  type SortingState,
+} from '@tanstack/react-table';
+import { useMemo } from 'react';
+import { Link } from 'react-router';
+import type { NcrFilter } from '../../api/ncrs/list-ncrs';
+import type { NcrRow } from '../../api/ncrs/types';
+import { DataTable, SortButton } from '../../components/data-table';
+import { formatWhen } from '../../lib/format';
+import { itemHref, ncrHref } from '../../lib/paths';
+import { defectDescription } from '../../api/ncrs/defect-codes';
+import { dispositionWord, NcrStateBadge, SeverityMark } from './ncr-badges';
+
+const col = createColumnHelper<NcrRow>();
+const linkClass = 'font-semibold text-accent underline-offset-4 hover:underline';
+const none = <span className="text-ink-soft">—</span>;
+
+type NcrTableProps = {
+  rows: NcrRow[];
+  busy: boolean;
+  empty?: string;
+  sort: NcrFilter['sort'];
+  dir: 'asc' | 'desc';
+  onSort: (sort: string, dir: 'asc' | 'desc') => void;
+};
+
+/** Sorting and paging are the server's; the table shows which way it is sorted and asks for more. */
+export function NcrTable({ rows, busy, empty, sort, dir, onSort }: NcrTableProps) {
+  const columns = useMemo(
+    () => [
+      col.accessor('number', {
+        header: ({ column }) => <SortButton column={column}>NCR</SortButton>,
+        cell: (c) => (
+          <span className="flex flex-col leading-snug xl:w-60">
+            <Link to={ncrHref(c.getValue())} className={`font-mono ${linkClass}`}>
+              {c.getValue()}
+            </Link>
+            <span className="hidden truncate text-sm text-ink-soft xl:block" title={c.row.original.description}>
+              {c.row.original.description}
+            </span>
+          </span>
+        ),
+      }),
+      col.accessor('state', {
+        header: ({ column }) => <SortButton column={column}>State</SortButton>,
+        cell: (c) => {
+          const d = dispositionWord(c.row.original.disposition);
+          return (
+            <span className="flex flex-col items-start gap-0.5">
+              <NcrStateBadge state={c.getValue()} />
+              {/* the disposition has its own column on a wide screen */}
+              {d && <span className="text-sm text-ink-soft xl:hidden">{d}</span>}
+            </span>
+          );
+        },
+      }),
+      col.accessor('severity', {
+        header: ({ column }) => <SortButton column={column}>Severity</SortButton>,
+        cell: (c) => <SeverityMark severity={c.getValue()} />,
+      }),
+      col.accessor('serial', {
+        header: ({ column }) => <SortButton column={column}>Serial</SortButton>,
+        meta: { nowrap: true },
+        cell: (c) => {
+          const serial = c.getValue();
+          if (!serial) return none;
+          return (
+            <span className="flex flex-col leading-snug">
+              <Link to={itemHref(serial)} className={`font-mono ${linkClass}`}>
+                {serial}
+              </Link>
+              <span className="font-mono text-sm text-ink-soft xl:hidden">{c.row.original.familyCode}</span>
+            </span>
+          );
+        },
+      }),
+      col.accessor('familyCode', {
+        id: 'family',
+        header: 'Family',
+        enableSorting: false,
+        meta: { mono: true, nowrap: true, wideOnly: true },
+        cell: (c) => c.getValue() ?? none,
+      }),
+      col.accessor('stageName', {
+        id: 'stage',
+        header: 'Stage',
+        enableSorting: false,
+        cell: (c) => <span className="block min-w-28">{c.getValue() ?? <span className="text-ink-soft">—</span>}</span>,
+      }),
+      col.accessor('defectCode', {
+        id: 'defect',
+        header: 'Defect',
+        enableSorting: false,
+        meta: { mono: true, nowrap: true },
+        cell: (c) => {
+          const code = c.getValue();
+          return code ? <abbr title={defectDescription(code) ?? code}>{code}</abbr> : none;
+        },
+      }),
+      col.accessor('disposition', {
+        header: 'Disposition',
+        enableSorting: false,
+        meta: { nowrap: true, wideOnly: true },
+        cell: (c) => dispositionWord(c.getValue()) ?? none,
+      }),
+      col.accessor('raisedAt', {
+        id: 'raised',
+        header: ({ column }) => <SortButton column={column}>Raised</SortButton>,
+        meta: { nowrap: true },
+        cell: (c) => (
+          <span className="flex flex-col leading-snug">
+            <time dateTime={c.getValue()} title={formatWhen(c.getValue())} className="font-mono text-[0.875rem]">
+              {formatWhen(c.getValue()).slice(0, 10)}
+            </time>
+            <span className="text-sm text-ink-soft">{c.row.original.raisedBy}</span>
+          </span>
+        ),
+      }),
+      col.accessor('ageDays', {
+        id: 'age',
+        header: 'Days old',
+        enableSorting: false,
+        meta: { align: 'right', mono: true, wideOnly: true },
+      }),
+      col.accessor('assignee', {
+        header: 'Assignee',
+        enableSorting: false,
+        cell: (c) => c.getValue() ?? <span className="text-ink-soft">Nobody</span>,
+      }),
+    ],
+    [],
+  );
+
+  const sorting: SortingState = [{ id: sort, desc: dir === 'desc' }];
+  const onSortingChange: OnChangeFn<SortingState> = (updater) => {
+    const next = typeof updater === 'function' ? updater(sorting) : updater;
+    const first = next[0];
+    if (first) onSort(first.id, first.desc ? 'desc' : 'asc');
+  };
+
+  // eslint-disable-next-line react-hooks/incompatible-library -- the table instance is rebuilt each render by design
+  const table = useReactTable({
+    data: rows,
+    columns,
+    getCoreRowModel: getCoreRowModel(),
+    getRowId: (r) => r.number,
+    manualSorting: true,
+    enableSortingRemoval: false,
+    state: { sorting },
+    onSortingChange,
+  });
+
+  return <DataTable table={table} caption="NCRs" empty={empty ?? 'No NCRs match these filters.'} busy={busy} />;
+}
