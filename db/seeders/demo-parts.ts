@@ -6,7 +6,10 @@ import { Customer, EngineFamily, Item, Station, Supplier, User } from '../../ser
 import { receiveCore } from '../../server/services/intake.js';
 import { stationForm, submitResult } from '../../server/services/station.js';
 import { tearDownCore } from '../../server/services/teardown.js';
+import { buildBody, LOT_KINDS } from '../../shared/schemas/build.js';
 import { receiveCoreBody, teardownBody } from '../../shared/schemas/intake.js';
+import { buildUnit } from '../../server/services/build.js';
+import { releaseUnit } from '../../server/services/release.js';
 import { passingReadings } from './sample-readings.js';
 
 /**
@@ -25,11 +28,21 @@ const ROUTE_STATIONS: Record<string, string[]> = {
 };
 
 /** How far along its route each demo core's parts go (number of stations passed). */
-const PLAN: { family: string; block: number; crankshaft: number; heads: number; failBore?: boolean }[] = [
+type Plan = {
+  family: string;
+  block: number;
+  crankshaft: number;
+  heads: number;
+  failBore?: boolean;
+  /** Build the parts into a long block and pass it through this many of its stations; ship it after all three. */
+  unit?: { stations: number; ship?: boolean };
+};
+const PLAN: Plan[] = [
   { family: 'CORRIE-8', block: 4, crankshaft: 2, heads: 4 },
   { family: 'CORRIE-8', block: 4, crankshaft: 3, heads: 5 },
   { family: 'CORRIE-8', block: 4, crankshaft: 2, heads: 1, failBore: true },
-  { family: 'CORRIE-8', block: 7, crankshaft: 4, heads: 6 },
+  { family: 'CORRIE-8', block: 7, crankshaft: 4, heads: 6, unit: { stations: 3, ship: true } },
+  { family: 'TARN-6', block: 7, crankshaft: 3, heads: 6, unit: { stations: 1 } },
   { family: 'CORRIE-8', block: 1, crankshaft: 0, heads: 0 },
   { family: 'TARN-6', block: 4, crankshaft: 3, heads: 4 },
   { family: 'TARN-6', block: 5, crankshaft: 1, heads: 2 },
@@ -131,6 +144,36 @@ export async function seedDemoPartsIfEmpty(sequelize: Sequelize): Promise<number
       }
       if (part.kind === 'crankshaft') await walk(part.serial, ROUTE_STATIONS.crankshaft!, plan.crankshaft);
       if (part.kind === 'cylinder_head') await walk(part.serial, ROUTE_STATIONS.cylinder_head!, plan.heads);
+    }
+    if (plan.unit) {
+      const lots = LOT_KINDS.map((kind, k) => ({
+        kind,
+        supplierId: suppliers[k % suppliers.length]!.id,
+        partNumber: `${kind.slice(0, 3).toUpperCase()}-${family.code.slice(0, 1)}${faker.string.numeric(4)}`,
+        lotCode: `L${faker.string.numeric(2)}-${faker.string.alpha({ length: 3, casing: 'upper' })}`,
+        quantity: kind === 'pistons' || kind === 'lifters' ? family.cylinders * (kind === 'lifters' ? 2 : 1) : 1,
+        ...(kind === 'pistons' ? { oversizeIn: family.code === 'CORRIE-8' ? 0.03 : 0.0197 } : {}),
+      }));
+      const unit = await buildUnit(
+        sequelize,
+        operator,
+        buildBody.parse({
+          family: family.code,
+          block: kept.find((k) => k.kind === 'block')!.serial,
+          crankshaft: kept.find((k) => k.kind === 'crankshaft')!.serial,
+          heads: kept.filter((k) => k.kind === 'cylinder_head').map((k) => k.serial),
+          lots,
+        }),
+      );
+      await walk(unit.serial, ['AS-1', 'RT-1', 'FI-1'], plan.unit.stations);
+      if (plan.unit.ship) {
+        await releaseUnit(sequelize, await as('shipping'), unit.serial, {
+          customerId: customers[2]!.id,
+          reference: `SO-${faker.string.numeric(5)}`,
+          shipDate: new Date().toISOString().slice(0, 10),
+          carrier: 'Valley Freight',
+        });
+      }
     }
   }
   return results;

@@ -241,18 +241,19 @@ const SORT: Record<NcrListQuery['sort'], string> = {
 export async function listNcrs(sequelize: Sequelize, q: NcrListQuery, { all = false } = {}) {
   const where: string[] = [];
   const r: Record<string, unknown> = {};
-  if (q.state === 'open') where.push(`n.state IN ('raised','in_review','decided')`);
-  else if (q.state) (where.push('n.state = :state'), (r.state = q.state));
-  if (q.severity) (where.push('n.severity = :severity'), (r.severity = q.severity));
-  if (q.defect) (where.push('d.code = :defect'), (r.defect = q.defect.toUpperCase()));
-  if (q.family) (where.push('i.engine_family_id = :family'), (r.family = q.family));
-  if (q.stage) (where.push('s.code = :stage'), (r.stage = q.stage));
-  if (q.olderThanDays !== undefined) {
-    where.push('n.created_at <= now() - make_interval(days => :age)');
-    r.age = q.olderThanDays;
-  }
-  if (q.assignee === 'none') where.push('n.assignee_id IS NULL');
-  else if (q.assignee) (where.push('n.assignee_id = :assignee'), (r.assignee = q.assignee));
+  const add = (sql: string, key?: string, value?: unknown) => {
+    where.push(sql);
+    if (key) r[key] = value;
+  };
+  if (q.state === 'open') add(`n.state IN ('raised','in_review','decided')`);
+  else if (q.state) add('n.state = :state', 'state', q.state);
+  if (q.severity) add('n.severity = :severity', 'severity', q.severity);
+  if (q.defect) add('d.code = :defect', 'defect', q.defect.toUpperCase());
+  if (q.family) add('i.engine_family_id = :family', 'family', q.family);
+  if (q.stage) add('s.code = :stage', 'stage', q.stage);
+  if (q.olderThanDays !== undefined) add('n.created_at <= now() - make_interval(days => :age)', 'age', q.olderThanDays);
+  if (q.assignee === 'none') add('n.assignee_id IS NULL');
+  else if (q.assignee) add('n.assignee_id = :assignee', 'assignee', q.assignee);
   if (q.q) {
     where.push('(n.number ILIKE :q OR i.serial ILIKE :q OR n.description ILIKE :q)');
     r.q = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;

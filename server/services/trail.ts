@@ -10,7 +10,6 @@ import {
   EngineFamily,
   Gauge,
   Item,
-  Nonconformance,
   NonconformanceTransition,
   Reading,
   Shipment,

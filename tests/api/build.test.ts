@@ -45,15 +45,12 @@ describe('building a long block', () => {
     const six = await finishedParts(t, cookies, 'TARN-6');
     // a finished Tarn head on hold with a concern
     const held = await finishedParts(t, cookies, 'TARN-6');
-    await request(t.app)
-      .post('/api/ncrs')
-      .set('Cookie', cookies.operator)
-      .send({
-        serial: held.heads[0],
-        description: 'Dropped on the bench corner',
-        severity: 'major',
-        defectCode: 'DMG',
-      });
+    await request(t.app).post('/api/ncrs').set('Cookie', cookies.operator).send({
+      serial: held.heads[0],
+      description: 'Dropped on the bench corner',
+      severity: 'major',
+      defectCode: 'DMG',
+    });
     const res = await build({
       family: 'TARN-6',
       block: v8.block,
@@ -287,15 +284,12 @@ describe('release, trail and lots', () => {
     });
     const unit = built.body.serial;
     await pass(t, cookies.operator, 'AS-1', unit);
-    await request(t.app)
-      .post('/api/ncrs')
-      .set('Cookie', cookies.operator)
-      .send({
-        serial: parts.crankshaft,
-        description: 'Thrust face scored, seen at assembly',
-        severity: 'major',
-        defectCode: 'DMG',
-      });
+    await request(t.app).post('/api/ncrs').set('Cookie', cookies.operator).send({
+      serial: parts.crankshaft,
+      description: 'Thrust face scored, seen at assembly',
+      severity: 'major',
+      defectCode: 'DMG',
+    });
     const check = await request(t.app).get(`/api/units/${unit}/release-check`).set('Cookie', quality);
     expect(check.body.releasable).toBe(false);
     const messages = check.body.reasons.map((r: { message: string }) => r.message);
@@ -350,13 +344,14 @@ describe('the trail’s cost does not grow with the genealogy', () => {
     // 300 more results with 4 readings each on the big unit's block, as years of re-entries would leave
     const block = (await Item.findOne({ where: { serial: big.parts.block } }))!;
     const stage = (await Stage.findOne({ where: { code: 'block-clean' } }))!;
-    const [{ id: operatorId }] = (await t.sequelize.query('SELECT id FROM users LIMIT 1', { type: 'SELECT' })) as {
-      id: number;
-    }[];
-    const [{ id: charId }] = (await t.sequelize.query(
-      `SELECT id FROM characteristics WHERE stage_id = ${stage.id} LIMIT 1`,
-      { type: 'SELECT' },
-    )) as { id: number }[];
+    const operatorId = (
+      (await t.sequelize.query('SELECT id FROM users LIMIT 1', { type: 'SELECT' })) as { id: number }[]
+    )[0]!.id;
+    const charId = (
+      (await t.sequelize.query(`SELECT id FROM characteristics WHERE stage_id = ${stage.id} LIMIT 1`, {
+        type: 'SELECT',
+      })) as { id: number }[]
+    )[0]!.id;
     await t.sequelize.query(
       `WITH r AS (
          INSERT INTO stage_results (item_id, stage_id, operator_id, finished_at, verdict, idempotency_key, notes, created_at)
