@@ -1,0 +1,29 @@
+// `npm run db:restore FILE [DATABASE]`: restores a backup into a fresh database and checks it.
+import { verifyAuditChain } from '../audit.js';
+import { createSequelize } from '../db.js';
+import { restoreDatabase, rowCounts } from '../ops/backup.js';
+
+const [file, name] = process.argv.slice(2);
+const url = process.env.DATABASE_URL;
+if (!file || !url) {
+  console.error('usage: npm run db:restore FILE [DATABASE]   (the project cluster is started for you)');
+  process.exit(2);
+}
+const admin = new URL(url);
+admin.pathname = '/postgres';
+const database = name ?? `coretrail_restored_${new Date().toISOString().replace(/\D/g, '').slice(0, 14)}`;
+const restored = await restoreDatabase(admin.toString(), file, database);
+const sequelize = createSequelize(restored.url, { poolMax: 1 });
+try {
+  const counts = await rowCounts(sequelize);
+  const chain = await verifyAuditChain(sequelize);
+  console.log(`restored into database ${database}`);
+  for (const [t, n] of Object.entries(counts)) console.log(`  ${t.padEnd(28)} ${n}`);
+  console.log(
+    chain.ok ? `audit chain intact: ${chain.checked} events` : `audit chain BROKEN at ${chain.firstBroken?.id}`,
+  );
+  console.log(`\nTo run Coretrail on it: CORETRAIL_DB=${database} npm start`);
+  if (!chain.ok) process.exitCode = 1;
+} finally {
+  await sequelize.close();
+}

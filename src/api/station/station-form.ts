@@ -1,0 +1,22 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { http } from '../../lib/http';
+import { stationKeys } from './keys';
+import type { StationFormJson } from './types';
+
+/** `serial` is the checked, printed form (parseSerial), so one part has one cache entry per station. */
+export const fetchStationForm = (station: string, serial: string, signal?: AbortSignal) =>
+  http<StationFormJson>(`/api/stations/${encodeURIComponent(station)}/form`, { query: { serial }, signal });
+
+/**
+ * Kept only briefly: whether a part is due here changes as other stations record it, and a form
+ * opened on an old answer would only be refused on submit. A new scan asks again.
+ */
+export const stationFormQueryOptions = (station: string, serial: string) =>
+  queryOptions({
+    queryKey: stationKeys.form(station, serial),
+    queryFn: ({ signal }) => fetchStationForm(station, serial, signal),
+    staleTime: 5_000,
+  });
+
+export const useStationForm = (station: string | null, serial: string | null) =>
+  useQuery({ ...stationFormQueryOptions(station ?? '', serial ?? ''), enabled: station !== null && serial !== null });

@@ -1,0 +1,256 @@
+import { useId, useMemo, useRef, useState, type KeyboardEvent } from 'react';
+import { FormProvider, useForm, useWatch } from 'react-hook-form';
+import { useRecordResult } from '../../api/station/record-result';
+import type { ResultJson, StationFormJson } from '../../api/station/types';
+import { PhotoField } from '../../components/photo-field';
+import { Button } from '../../components/ui/button';
+import { Card, CardBody } from '../../components/ui/card';
+import { Icon } from '../../components/ui/icon';
+import { Notice } from '../../components/ui/notice';
+import { ApiError } from '../../lib/http';
+import { plural } from '../../lib/format';
+import { bigControl, bigLabel } from './controls';
+import { FormStateContext, type FormState } from './form-state';
+import { GaugeField, preselectedGauge } from './gauge-field';
+import { sectionsOf } from './layout';
+import { ReadingSection } from './reading-section';
+import { judge, slotsOf } from './readings';
+import { RunTestImport } from './run-test-import';
+import { ProblemSummary, Tally } from './form-summary';
+import {
+  problemsBeforeSending,
+  readingsOf,
+  refusalOf,
+  sentSlots,
+  serverProblems,
+  summaryLines,
+  type Draft,
+  type Problem,
+  type Refusal,
+} from './submit';
+
+/** The stage whose readings can come from the test stand's CSV export as well as by hand. */
+const RUN_TEST = 'run-test';
+
+type ReadingFormProps = {
+  form: StationFormJson;
+  /** Made when this form was opened; kept for every retry of it, so a retry never records twice. */
+  idempotencyKey: string;
+  startedAt: string;
+  canRecord: boolean;
+  onRecorded: (result: ResultJson) => void;
+  onReload: () => void;
+};
+
+/** The whole form for one part at one station: readings laid out like the part, gauge, notes, photos. */
+export function ReadingForm({ form, idempotencyKey, startedAt, canRecord, onRecorded, onReload }: ReadingFormProps) {
+  const notesId = useId();
+  const slots = useMemo(() => slotsOf(form.characteristics), [form.characteristics]);
+  const sections = useMemo(() => sectionsOf(form.characteristics, slots), [form.characteristics, slots]);
+  const firstMeasured = form.characteristics.find((c) => c.kind === 'variable') ?? null;
+  const needsGauge = firstMeasured !== null;
+  const methods = useForm<Draft>({
+    defaultValues: {
+      slots: slots.map(() => ({ text: '', choice: '', where: '' })),
+      gauge: preselectedGauge(form.gauges, firstMeasured?.unit ?? null),
+      notes: '',
+      photoIds: [],
+    },
+  });
+  const values = useWatch({ control: methods.control, name: 'slots' });
+  const judged = useMemo(() => judge(form.characteristics, slots, values), [form.characteristics, slots, values]);
+  const [problems, setProblems] = useState<Problem[]>([]);
+  const [attempted, setAttempted] = useState(false);
+  const [summaryTitle, setSummaryTitle] = useState('');
+  const [refusal, setRefusal] = useState<Refusal | null>(null);
+  const record = useRecordResult();
+  const topRef = useRef<HTMLDivElement>(null);
+  const submitRef = useRef<HTMLButtonElement>(null);
+  const rootRef = useRef<HTMLFormElement>(null);
+
+  const problemMap = useMemo(
+    () => Object.fromEntries(problems.filter((p) => !p.missing).map((p) => [p.key, p.message])),
+    [problems],
+  );
+  const state: FormState = {
+    judged,
+    values,
+    problems: problemMap,
+    attempted,
+    clearProblem: (key) => setProblems((ps) => (ps.some((p) => p.key === key) ? ps.filter((p) => p.key !== key) : ps)),
+  };
+  const unruled = form.characteristics.filter((c) => c.kind !== 'attribute' && !c.rule);
+
+  const showTop = () => requestAnimationFrame(() => topRef.current?.focus());
+
+  const goTo = (key: string) => {
+    const el = rootRef.current?.querySelector<HTMLElement>(`[data-key="${CSS.escape(key)}"]`);
+    el?.focus();
+    el?.scrollIntoView({ block: 'center' });
+  };
+
+  const send = async (draft: Draft) => {
+    setAttempted(true);
+    setRefusal(null);
+    const now = judge(form.characteristics, slots, draft.slots);
+    const local = problemsBeforeSending(slots, now, draft, needsGauge, form.gauges);
+    if (local.length) {
+      setProblems(local);
+      const unread = local.filter((p) => !p.missing).length;
+      const missing = local.length - unread;
+      setSummaryTitle(
+        `Not recorded yet: ${[missing && `${plural(missing, 'reading')} still to enter`, unread && `${plural(unread, 'thing')} to put right`].filter(Boolean).join(' and ')}`,
+      );
+      showTop();
+      return;
+    }
+    try {
+      const result = await record.mutateAsync({
+        idempotencyKey,
+        serial: form.item.serial,
+        station: form.station.code,
+        gauge: needsGauge ? draft.gauge : null,
+        startedAt,
+        notes: draft.notes.trim(),
+        readings: readingsOf(slots, now, draft.slots),
+        photoIds: draft.photoIds,
+      });
+      setProblems([]);
+      onRecorded(result);
+    } catch (err) {
+      if (err instanceof ApiError && err.status === 400) {
+        const fromServer = serverProblems(err, slots, sentSlots(slots, now, draft.slots));
+        setProblems(fromServer);
+        setSummaryTitle(err.message);
+        if (!fromServer.length) setRefusal(refusalOf(err));
+      } else {
+        setProblems([]);
+        setRefusal(refusalOf(err));
+      }
+      showTop();
+    }
+  };
+
+  // Enter moves on to the next box, as a hand scanner or a gloved thumb expects; it never submits
+  const onKeyDown = (e: KeyboardEvent<HTMLFormElement>) => {
+    if (e.key !== 'Enter' || !(e.target instanceof HTMLInputElement) || e.target.type === 'file') return;
+    e.preventDefault();
+    const current = e.target;
+    const seen = new Set<string>();
+    const stops = [...e.currentTarget.querySelectorAll<HTMLElement>('[data-field]')].filter((el) => {
+      if (!(el instanceof HTMLInputElement) || el.type !== 'radio') return true;
+      if (seen.has(el.name)) return false;
+      seen.add(el.name);
+      return true;
+    });
+    const at = stops.findIndex((el) =>
+      current.type === 'radio' && el instanceof HTMLInputElement ? el.name === current.name : el === current,
+    );
+    const next = stops[at + 1];
+    if (next) next.focus();
+    else submitRef.current?.focus();
+  };
+
+  const submitting = record.isPending;
+  return (
+    <FormProvider {...methods}>
+      <FormStateContext.Provider value={state}>
+        <form
+          ref={rootRef}
+          noValidate
+          onSubmit={(e) => void methods.handleSubmit(send)(e)}
+          onKeyDown={onKeyDown}
+          aria-label={`${form.stage.name} readings for ${form.item.serial}`}
+          className="flex flex-col gap-5"
+        >
+          <div ref={topRef} tabIndex={-1} className="flex flex-col gap-3 outline-none empty:hidden">
+            {problems.length > 0 && (
+              <ProblemSummary title={summaryTitle} problems={summaryLines(problems, slots)} onGo={goTo} />
+            )}
+            {refusal && (
+              <Notice tone={refusal.retry ? 'hold' : 'bad'} live="alert" title={refusal.title}>
+                <p className="text-base">{refusal.message}</p>
+                {refusal.reload && (
+                  <div className="mt-2">
+                    <Button size="lg" onClick={onReload}>
+                      Load this part again
+                    </Button>
+                  </div>
+                )}
+              </Notice>
+            )}
+          </div>
+          {unruled.length > 0 && (
+            <Notice tone="hold" title="This stage cannot be recorded yet">
+              No approved rule is in force for {unruled.map((c) => c.name.toLowerCase()).join(', ')}. Quality must
+              approve one in the spec book first.
+            </Notice>
+          )}
+          {form.stage.code === RUN_TEST && (
+            <RunTestImport serial={form.item.serial} slots={slots} characteristics={form.characteristics} />
+          )}
+          {needsGauge && (
+            <Card as="div">
+              <CardBody>
+                <GaugeField
+                  gauges={form.gauges}
+                  unit={firstMeasured.unit}
+                  problem={problemMap.gauge}
+                  onChange={() => state.clearProblem('gauge')}
+                />
+              </CardBody>
+            </Card>
+          )}
+          {sections.map((s) => (
+            <ReadingSection key={s.char.code} section={s} slots={slots} />
+          ))}
+          <Card as="div">
+            <CardBody>
+              <div className="flex flex-col gap-5">
+                <div className="flex flex-col gap-1.5">
+                  <label htmlFor={notesId} className={bigLabel}>
+                    Notes
+                  </label>
+                  <textarea
+                    id={notesId}
+                    maxLength={2000}
+                    data-key="notes"
+                    aria-invalid={problemMap.notes ? true : undefined}
+                    className={`${bigControl} min-h-28 py-2`}
+                    {...methods.register('notes', { onChange: () => state.clearProblem('notes') })}
+                  />
+                  {problemMap.notes && <p className="font-semibold text-bad">{problemMap.notes}</p>}
+                </div>
+                <PhotoField
+                  name="photoIds"
+                  label="Photos"
+                  max={10}
+                  hint="A photo of what was found helps quality decide."
+                />
+              </div>
+            </CardBody>
+          </Card>
+          <div className="sticky bottom-0 z-10 flex flex-wrap items-center justify-between gap-x-6 gap-y-3 rounded-t-card border-2 border-b-0 border-ink bg-card px-5 py-3 shadow-[0_-4px_12px_rgba(29,33,36,0.12)]">
+            <Tally judged={judged} />
+            <div className="flex flex-wrap items-center gap-3">
+              {!canRecord && <p className="text-base text-ink-soft">Your role can see this form but not record it.</p>}
+              <p role="status" className="text-base text-ink-soft empty:hidden">
+                {submitting ? 'Recording…' : ''}
+              </p>
+              <button
+                ref={submitRef}
+                type="submit"
+                disabled={submitting || !canRecord}
+                aria-busy={submitting}
+                className="inline-flex h-14 min-w-48 items-center justify-center gap-2 rounded-control border border-accent-strong bg-accent px-6 text-xl font-semibold text-white hover:bg-accent-strong disabled:cursor-not-allowed disabled:opacity-55"
+              >
+                <Icon name="ok" size={22} />
+                Record result
+              </button>
+            </div>
+          </div>
+        </form>
+      </FormStateContext.Provider>
+    </FormProvider>
+  );
+}

@@ -1,0 +1,158 @@
+import { useId, useState } from 'react';
+import { useFormContext } from 'react-hook-form';
+import { reentryBody } from '../../../shared/schemas/results';
+import { useAllowReentry } from '../../api/station/allow-reentry';
+import type { StationFormJson } from '../../api/station/types';
+import { Form, SubmitButton } from '../../components/form';
+import { describedBy, Field } from '../../components/ui/field';
+import { Button } from '../../components/ui/button';
+import { Dialog, DialogActions } from '../../components/ui/dialog';
+import { Icon } from '../../components/ui/icon';
+import { bigControl } from './controls';
+import { NcrNumber } from './ncr-number';
+
+type Blocked = Extract<StationFormJson['sequence'], { ok: false }>;
+
+const TITLES: Record<Blocked['code'], string> = {
+  out_of_sequence: 'Not due at this station',
+  on_hold: 'On hold',
+  finished: 'Route finished',
+  wrong_part: 'Wrong part for this station',
+  scrapped: 'Scrapped',
+  not_on_route: 'Not on this part’s route',
+};
+
+/**
+ * A re-entry sends a part back through a stage it has been through; it is never a way to jump a
+ * part ahead of the stages it still owes.
+ */
+function reentryFits(form: StationFormJson, sequence: Blocked) {
+  if (sequence.code === 'finished') return true;
+  if (sequence.code !== 'out_of_sequence') return false;
+  return form.item.route.find((s) => s.code === form.stage.code)?.state === 'done';
+}
+
+const REASON_HINT = 'Why the part goes through this stage again, e.g. a reading taken with the wrong gauge.';
+
+function ReasonField() {
+  const id = useId();
+  const { register, formState } = useFormContext<{ reason: string }>();
+  const error = formState.errors.reason?.message;
+  return (
+    <Field id={id} label="Reason" hint={REASON_HINT} error={error}>
+      <textarea
+        id={id}
+        autoFocus
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(id, REASON_HINT, error)}
+        className={`${bigControl} min-h-28 py-2`}
+        {...register('reason')}
+      />
+    </Field>
+  );
+}
+
+function ReentryDialog({ form, onClose, onDone }: { form: StationFormJson; onClose: () => void; onDone: () => void }) {
+  const allow = useAllowReentry();
+  return (
+    <Dialog
+      open
+      onClose={onClose}
+      title="Allow re-entry"
+      description={`${form.item.serial} goes back to ${form.stage.name}. The next result there carries your reason.`}
+    >
+      <div data-density="floor">
+        <Form
+          schema={reentryBody}
+          defaultValues={{ stage: form.stage.code, reason: '' }}
+          onSubmit={async (body) => {
+            await allow.mutateAsync({ serial: form.item.serial, body });
+            onDone();
+          }}
+        >
+          <ReasonField />
+          <DialogActions>
+            <Button size="lg" onClick={onClose}>
+              Cancel
+            </Button>
+            <SubmitButton size="lg">Allow re-entry</SubmitButton>
+          </DialogActions>
+        </Form>
+      </div>
+    </Dialog>
+  );
+}
+
+type SequenceAlertProps = {
+  form: StationFormJson;
+  canAllowReentry: boolean;
+  canReadNcr: boolean;
+  onReentry: () => void;
+};
+
+/** Why this part cannot be recorded here now, in plain words, and what can be done about it. */
+export function SequenceAlert({ form, canAllowReentry, canReadNcr, onReentry }: SequenceAlertProps) {
+  const [open, setOpen] = useState(false);
+  const sequence = form.sequence;
+  if (sequence.ok) return null;
+  const fits = reentryFits(form, sequence);
+  const held = sequence.code === 'on_hold';
+  return (
+    <>
+      <div
+        role="alert"
+        className={`flex items-start gap-4 rounded-card border-l-8 border-2 bg-card px-5 py-4 ${held ? 'border-hold' : 'border-bad'}`}
+      >
+        <span className={`mt-1 ${held ? 'text-hold' : 'text-bad'}`}>
+          <Icon name={held ? 'hold' : 'alert'} size={40} />
+        </span>
+        <div className="flex min-w-0 flex-col gap-3">
+          <h2 className={`text-3xl font-bold ${held ? 'text-hold' : 'text-bad'}`}>{TITLES[sequence.code]}</h2>
+          <p className="text-xl">{sequence.message}</p>
+          {sequence.expectedStage && (
+            <p className="text-xl">
+              Its next stage: <span className="font-semibold">{sequence.expectedStage.name}</span>
+            </p>
+          )}
+          {form.holds.length > 0 && (
+            <div>
+              <p className="text-lg font-semibold">Open NCRs</p>
+              <ul className="mt-1 flex flex-col gap-1.5">
+                {form.holds.map((h) => (
+                  <li key={h.number} className="text-lg">
+                    <NcrNumber number={h.number} link={canReadNcr} />{' '}
+                    <span className="text-ink-soft">({h.state.replace(/_/g, ' ')})</span>
+                    <span className="block text-base text-ink-soft">{h.description}</span>
+                  </li>
+                ))}
+              </ul>
+            </div>
+          )}
+          {fits &&
+            (canAllowReentry ? (
+              <div>
+                <Button variant="primary" size="lg" onClick={() => setOpen(true)}>
+                  Allow re-entry
+                </Button>
+              </div>
+            ) : (
+              <p className="flex items-start gap-2 text-lg">
+                <Icon name="info" size={22} className="mt-0.5 text-accent" />
+                If it must go through {form.stage.name} again, a supervisor can allow a re-entry here, with a reason.
+              </p>
+            ))}
+        </div>
+      </div>
+      {open && (
+        <ReentryDialog
+          form={form}
+          onClose={() => setOpen(false)}
+          onDone={() => {
+            setOpen(false);
+            onReentry();
+          }}
+        />
+      )}
+    </>
+  );
+}

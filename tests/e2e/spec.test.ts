@@ -1,0 +1,117 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import { randomUUID } from 'node:crypto';
+import type { Browser } from 'playwright-core';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { DEMO_USERS } from '../../db/seeders/plant.js';
+import { Characteristic, Stage } from '../../server/models/index.js';
+import { cookieFor, makeUser } from '../support/app.js';
+import { launch, serveApp, signIn, type Served } from '../support/browser.js';
+import { formFor, gaugeFor, passThrough, tornDownCore } from '../support/parts.js';
+
+let served: Served;
+let browser: Browser;
+let cookies: { receiving: string; operator: string };
+const shots = path.resolve('test-results/e2e');
+const demo = (role: string) => DEMO_USERS.find((u) => u.role === role)!;
+
+beforeAll(async () => {
+  served = await serveApp();
+  browser = await launch();
+  fs.mkdirSync(shots, { recursive: true });
+  cookies = {
+    receiving: await cookieFor(await makeUser('receiving'), served.t.config),
+    operator: await cookieFor(await makeUser('operator'), served.t.config),
+  };
+});
+afterAll(async () => {
+  await browser?.close();
+  await served?.close();
+});
+
+/** A V8 block at deck resurface, recorded with a 95 µin finish on both decks (through the API). */
+async function deckResult() {
+  const parts = await tornDownCore(served.t, cookies, 'CORRIE-8');
+  await passThrough(served.t, cookies.operator, ['CLN-1', 'MPI-1', 'PT-1', 'LH-1', 'BH-1'], parts.block);
+  const form = await formFor(served.t, cookies.operator, 'DK-1', parts.block);
+  const res = await request(served.t.app)
+    .post('/api/results')
+    .set('Cookie', cookies.operator)
+    .send({
+      idempotencyKey: randomUUID(),
+      serial: parts.block,
+      station: 'DK-1',
+      gauge: gaugeFor(form),
+      readings: passingReadings(form, (c, _p, v) => (c === 'deck-finish' ? 95 : v)),
+    });
+  return { serial: parts.block, result: res.body };
+}
+
+describe('the spec book in the browser', () => {
+  it('quality tightens a limit and signs it; new results are judged by the new version, old ones keep theirs', async () => {
+    const before = await deckResult();
+    expect(before.result.verdict).toBe('pass');
+    const stage = (await Stage.findOne({ where: { code: 'block-deck' } }))!;
+    const c = (await Characteristic.findOne({ where: { stageId: stage.id, code: 'deck-finish' } }))!;
+    const oldVersion = before.result.readings.find(
+      (r: { characteristic: string }) => r.characteristic === 'deck-finish',
+    ).ruleVersion as number;
+
+    const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
+    const page = await context.newPage();
+    const q = demo('quality');
+    await signIn(page, served.base, q.email, q.password);
+    await page.goto(`${served.base}/spec?family=CORRIE-8&stage=block-deck`);
+    await page.getByRole('link', { name: 'Versions of Deck surface finish Ra' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Deck surface finish Ra' }).waitFor();
+    await page.getByRole('button', { name: 'Start a draft' }).click();
+    const upper = page.getByRole('textbox', { name: 'Upper limit' });
+    await upper.waitFor();
+    await upper.fill('90');
+    await page.getByRole('textbox', { name: 'Source note' }).fill('MLS gasket trial: tighter finish');
+    await page.getByRole('button', { name: 'Save draft' }).click();
+    await page.getByRole('button', { name: 'Approve…' }).first().click();
+    const dialog = page.getByRole('dialog');
+    await dialog
+      .getByText(`Approved CORRIE-8 Deck surface finish Ra, version ${oldVersion + 1}`)
+      .first()
+      .waitFor();
+    await dialog.getByRole('textbox', { name: 'Reason' }).fill('Multi-layer steel gaskets from next week');
+    await dialog.getByLabel('Password').fill(q.password);
+    await dialog.getByRole('button', { name: 'Sign and approve' }).click();
+    await page
+      .getByText(`Version ${oldVersion + 1} in force`)
+      .first()
+      .waitFor();
+    await page.screenshot({ path: path.join(shots, 'spec-approved-1440.png'), fullPage: true });
+    // the signature shows name, time and meaning
+    await expect(page.getByText('Quinn Ashdown').first().isVisible()).resolves.toBe(true);
+
+    // a block recorded now is judged by the new version: 95 µin is over 90
+    const after = await deckResult();
+    expect(after.result.verdict).toBe('fail');
+    const finish = after.result.failing.find((r: { characteristic: string }) => r.characteristic === 'deck-finish');
+    expect(finish).toMatchObject({ ruleVersion: oldVersion + 1, upper: 90 });
+
+    // the earlier block's result still shows the version it was judged by
+    await page.goto(`${served.base}/items/${before.serial}`);
+    const deck = page
+      .getByRole('article')
+      .filter({ has: page.getByRole('heading', { name: /Block deck resurface — Passed/ }) });
+    await deck.getByText(/Readings \(\d+\)/).click();
+    const row = deck.getByRole('row').filter({ hasText: 'Deck surface finish Ra' }).first();
+    await expect(row.textContent()).resolves.toContain(`v${oldVersion}`);
+    await page.goto(`${served.base}/items/${after.serial}`);
+    const deck2 = page
+      .getByRole('article')
+      .filter({ has: page.getByRole('heading', { name: /Block deck resurface — Failed/ }) });
+    await deck2.getByText(/Readings \(\d+\)/).click();
+    const row2 = deck2.getByRole('row').filter({ hasText: 'Deck surface finish Ra' }).first();
+    await expect(row2.textContent()).resolves.toContain(`v${oldVersion + 1}`);
+    await page.screenshot({ path: path.join(shots, 'spec-new-version-result-1440.png'), fullPage: true });
+    expect(c.id).toBeGreaterThan(0);
+    await context.close();
+  });
+});
