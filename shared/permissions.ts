@@ -33,7 +33,7 @@ export const PERMISSIONS = {
   'spec.edit': ['quality'],
   'spec.approve': ['quality'],
 
-  'ncr.read': ['quality', 'supervisor', 'operator', 'shipping', 'warranty', 'admin'],
+  'ncr.read': ['receiving', 'quality', 'supervisor', 'operator', 'shipping', 'warranty', 'admin'],
   'ncr.raise': ['receiving', 'operator', 'quality', 'supervisor', 'shipping', 'warranty'],
   'ncr.disposition': ['quality'],
 

@@ -378,12 +378,22 @@ export async function ncrDetail(number: string, ctx: Ctx): Promise<NcrDetail> {
 
 // ——— transitions ———
 
+const ACTION_WORDS: Record<NcrAction, string> = {
+  review: 'start the review',
+  disposition: 'decide it',
+  countersign: 'countersign it',
+  close: 'close it',
+  void: 'void it',
+};
+
 function refuse(ncr: Nonconformance, action: NcrAction, ctx: Ctx): never {
   const allowed = allowedActions(ncr, ctx.actor!.role as Role, ctx.actor!.id);
   const label = NCR_STATE_LABELS[ncr.state as NcrState].toLowerCase();
   throw conflict(
-    `${ncr.number} is ${label}${ncr.awaitingSecondSignature ? ' and waiting for a second signature' : ''}: it cannot take “${action}” now.${
-      allowed.length ? ` Possible next steps: ${allowed.join(', ')}.` : ' It takes no further steps.'
+    `${ncr.number} is ${label}${ncr.awaitingSecondSignature ? ' and waiting for a second signature' : ''}: you cannot ${ACTION_WORDS[action]} now.${
+      allowed.length
+        ? ` What you can do: ${allowed.map((a) => ACTION_WORDS[a]).join(', ')}.`
+        : ' It takes no further steps.'
     }`,
     { reason: 'invalid_transition', state: ncr.state, allowed },
   );

@@ -26,6 +26,7 @@ import {
   StageReentry,
   StageResult,
   Station,
+  ToleranceRule,
   User,
 } from '../models/index.js';
 import { claimUploads, presentAttachment } from './attachments.js';
@@ -38,7 +39,8 @@ import {
   settleRework,
   type FailingReading,
 } from './nonconformances.js';
-import { formCharacteristics } from './spec.js';
+import { formCharacteristics, toRuleInForce } from './spec.js';
+import { limitsOf } from '../../shared/domain/tolerance.js';
 
 type Route = NonNullable<Awaited<ReturnType<typeof routeFor>>>;
 type FormChar = Awaited<ReturnType<typeof formCharacteristics>>[number];
@@ -656,10 +658,14 @@ export async function resultsOf(serial: string): Promise<(ResultJson & { superse
     ),
     Attachment.findAll({ where: { entity: 'stage_result', entityId: { [Op.in]: ids.map(String) } } }),
   ]);
-  const chars = await Characteristic.findAll({
-    where: { id: { [Op.in]: [...new Set(readings.map((r) => r.characteristicId))] } },
-  });
+  const ruleIds = [...new Set(readings.map((r) => r.toleranceRuleId).filter((x): x is number => x !== null))];
+  const [chars, rules] = await Promise.all([
+    Characteristic.findAll({ where: { id: { [Op.in]: [...new Set(readings.map((r) => r.characteristicId))] } } }),
+    ruleIds.length ? ToleranceRule.findAll({ where: { id: { [Op.in]: ruleIds } } }) : [],
+  ]);
   const charById = new Map(chars.map((c) => [c.id, c]));
+  // the limits each reading was judged against, from the rule version it names
+  const limitsByRule = new Map(rules.map((r) => [r.id, limitsOf(toRuleInForce(r))]));
   const stageById = new Map(stages.map((s) => [s.id, s]));
   const stationById = new Map(stations.map((s) => [s.id, s]));
   const userById = new Map(users.map((u) => [u.id, u.name]));
@@ -688,8 +694,8 @@ export async function resultsOf(serial: string): Promise<(ResultJson & { superse
           passed: x.passed,
           verdict: x.verdict,
           rounded: null,
-          lower: null,
-          upper: null,
+          lower: x.toleranceRuleId ? (limitsByRule.get(x.toleranceRuleId)?.lower ?? null) : null,
+          upper: x.toleranceRuleId ? (limitsByRule.get(x.toleranceRuleId)?.upper ?? null) : null,
           reason: '',
           ruleId: x.toleranceRuleId,
           ruleVersion: x.ruleVersion,

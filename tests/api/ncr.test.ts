@@ -169,7 +169,7 @@ describe('refusals change nothing', () => {
     });
     expect(decide.status).toBe(409);
     expect(decide.body.error.message).toMatch(
-      /is raised: it cannot take “disposition” now\. Possible next steps: review, void\./,
+      /is raised: you cannot decide it now\. What you can do: start the review, void it\./,
     );
     const counter = await post(quality2, `/api/ncrs/${number}/countersign`, {
       reason: 'Agree',

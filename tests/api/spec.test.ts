@@ -202,7 +202,7 @@ describe('drafting and approving a new version', () => {
     // …while the first block's result still shows the version it was judged by
     const history = await request(t.app).get(`/api/items/${a.block}/results`).set('Cookie', operator);
     const finish = history.body[0].readings.find((r: { characteristic: string }) => r.characteristic === 'bore-finish');
-    expect(finish).toMatchObject({ value: 32, verdict: 'pass', ruleVersion: v1.version });
+    expect(finish).toMatchObject({ value: 32, verdict: 'pass', ruleVersion: v1.version, lower: 15, upper: 35 });
 
     const versions = await request(t.app)
       .get(`/api/spec/history?family=TARN-6&characteristicId=${c.id}`)
