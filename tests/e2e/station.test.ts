@@ -68,7 +68,7 @@ describe('the station screen on a tablet', () => {
     const op = demo('operator');
     await signIn(page, served.base, op.email, op.password);
     await page.goto(`${served.base}/station`);
-    await page.getByLabel('Station').selectOption('BH-1');
+    await page.getByLabel('Station', { exact: true }).selectOption('BH-1');
     await page.getByRole('button', { name: 'Use this station' }).click();
     await page.getByRole('heading', { level: 1, name: 'Bore and hone cell' }).waitFor();
 
@@ -118,7 +118,7 @@ describe('the station screen on a tablet', () => {
     const op = demo('operator');
     await signIn(page, served.base, op.email, op.password);
     await page.goto(`${served.base}/station`);
-    await page.getByLabel('Station').selectOption('BH-1');
+    await page.getByLabel('Station', { exact: true }).selectOption('BH-1');
     await page.getByRole('button', { name: 'Use this station' }).click();
     const box = page.getByRole('textbox', { name: 'Serial' });
     await box.fill(parts.block);
