@@ -72,7 +72,8 @@ export async function seedDemoPartsIfEmpty(sequelize: Sequelize): Promise<number
         if (code === failAt && c === 'bore' && p === 'c7/bottom/axial') return 4.0309;
         // scatter measured sizes a little inside their limits, as real readings are
         const rule = form.characteristics.find((x) => x.code === c)?.rule;
-        if (rule?.limitType === 'nominal' && rule.minusTol) {
+        // assembly clearances are differences of two readings: scattering both could push them out
+        if (rule?.limitType === 'nominal' && rule.minusTol && code !== 'AS-1') {
           const spread = faker.number.int({ min: -2, max: 2 }) * (rule.resolution ?? 0.0001);
           return Math.round((v + spread) / (rule.resolution ?? 0.0001)) * (rule.resolution ?? 0.0001);
         }

@@ -176,29 +176,46 @@ const ASSEMBLY: SeedCharacteristic[] = [
   ...fastener('head-bolt', 'Head bolt', { per: 'deck' }, true),
   ...fastener('flywheel-bolt', 'Flywheel bolt', once, false),
   ...fastener('rocker-bolt', 'Rocker shaft bolt', once, false),
-  {
-    stage: 'long-block-assembly',
-    code: 'main-oil-clearance',
-    name: 'Main bearing oil clearance',
-    kind: 'variable',
-    unit: 'in',
-    resolution: 0.0001,
-    positions: { per: 'main' },
-    physical: [0, 0.02],
-    defectCode: 'OOT',
-    help: 'Bearing inside diameter (installed, caps torqued) minus journal diameter.',
-  },
-  {
-    stage: 'long-block-assembly',
-    code: 'rod-oil-clearance',
-    name: 'Rod bearing oil clearance',
-    kind: 'variable',
-    unit: 'in',
-    resolution: 0.0001,
-    positions: { per: 'crankpin' },
-    physical: [0, 0.02],
-    defectCode: 'OOT',
-  },
+  ...(['main', 'rod'] as const).flatMap((k): SeedCharacteristic[] => {
+    const positions: PositionScheme = k === 'main' ? { per: 'main' } : { per: 'crankpin' };
+    const Name = k === 'main' ? 'Main' : 'Rod';
+    return [
+      {
+        stage: 'long-block-assembly',
+        code: `${k}-bearing-id`,
+        name: `${Name} bearing inside diameter (installed)`,
+        kind: 'variable',
+        unit: 'in',
+        resolution: 0.0001,
+        positions,
+        physical: [1, 5],
+        defectCode: 'OOT',
+        help: 'Bore gauge across the installed shells with the caps torqued.',
+      },
+      {
+        stage: 'long-block-assembly',
+        code: `${k}-journal-at-fit`,
+        name: `${Name} journal diameter at fit`,
+        kind: 'variable',
+        unit: 'in',
+        resolution: 0.0001,
+        positions,
+        physical: [1, 5],
+        defectCode: 'OOT',
+      },
+      {
+        stage: 'long-block-assembly',
+        code: `${k}-oil-clearance`,
+        name: `${Name} bearing oil clearance`,
+        kind: 'derived',
+        unit: 'in',
+        resolution: 0.0001,
+        positions,
+        derivation: { fn: 'clearance', outer: `${k}-bearing-id`, inner: `${k}-journal-at-fit` },
+        defectCode: 'OOT',
+      },
+    ];
+  }),
   {
     stage: 'long-block-assembly',
     code: 'ring-gap-top',
@@ -675,6 +692,20 @@ const COMMON: Record<string, Seeded> = {
  */
 const BY_FAMILY: Record<string, Record<string, Seeded>> = {
   'CORRIE-8': {
+    'long-block-assembly/main-bearing-id': nominal(
+      2.4511,
+      0.0003,
+      0.0001,
+      `Invented shell for the 2.449 in journal; ${MEMORY}`,
+    ),
+    'long-block-assembly/main-journal-at-fit': nominal(2.449, 0.0005, 0.0001, 'As ground at crank grind'),
+    'long-block-assembly/rod-bearing-id': nominal(
+      2.101,
+      0.0003,
+      0.0001,
+      `Invented shell for the 2.099 in journal; ${MEMORY}`,
+    ),
+    'long-block-assembly/rod-journal-at-fit': nominal(2.099, 0.0005, 0.0001, 'As ground at crank grind'),
     // 0.00075–0.0010 in per inch of a 2.449 in journal (bearing maker's rule of thumb, common practice)
     'long-block-assembly/main-oil-clearance': range(
       0.0018,
@@ -713,6 +744,20 @@ const BY_FAMILY: Record<string, Record<string, Seeded>> = {
     'crank-grind/rod-journal': nominal(2.099, 0.0005, 0.0001, `Invented journal, 0.010 in under; ${MEMORY}`),
   },
   'TARN-6': {
+    'long-block-assembly/main-bearing-id': nominal(
+      2.3711,
+      0.0003,
+      0.0001,
+      `Invented shell for the 2.369 in journal; ${MEMORY}`,
+    ),
+    'long-block-assembly/main-journal-at-fit': nominal(2.369, 0.0005, 0.0001, 'As ground at crank grind'),
+    'long-block-assembly/rod-bearing-id': nominal(
+      2.091,
+      0.0003,
+      0.0001,
+      `Invented shell for the 2.089 in journal; ${MEMORY}`,
+    ),
+    'long-block-assembly/rod-journal-at-fit': nominal(2.089, 0.0005, 0.0001, 'As ground at crank grind'),
     'long-block-assembly/main-oil-clearance': range(
       0.0018,
       0.0024,

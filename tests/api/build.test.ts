@@ -3,7 +3,7 @@ import { PDFParse } from 'pdf-parse';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEvent, Customer, Item, Shipment, Stage } from '../../server/models/index.js';
-import { cookieFor, makeTestApp, makeUser, unique, type TestApp } from '../support/app.js';
+import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, unique, type TestApp } from '../support/app.js';
 import {
   BLOCK_STATIONS,
   CRANK_STATIONS,
@@ -63,6 +63,29 @@ describe('building a long block', () => {
     expect(res.body.error.fields.block).toMatch(/belongs to another engine family, not TARN-6/);
     expect(res.body.error.fields.crankshaft).toMatch(/is a block, not a crankshaft/);
     expect(res.body.error.fields['heads.0']).toMatch(/is on hold: NC-/);
+
+    // a crankshaft scrapped by its NCR's disposition
+    const nick = await request(t.app).post('/api/ncrs').set('Cookie', cookies.operator).send({
+      serial: held.crankshaft,
+      description: 'Journal 3 cracked through the oil hole',
+      severity: 'critical',
+      defectCode: 'CRK',
+    });
+    await request(t.app).post(`/api/ncrs/${nick.body.number}/review`).set('Cookie', quality).send({});
+    const scrap = await request(t.app)
+      .post(`/api/ncrs/${nick.body.number}/disposition`)
+      .set('Cookie', quality)
+      .send({ disposition: 'scrap', reason: 'Crack through the oil hole', password: TEST_PASSWORD });
+    expect(scrap.body.item.status).toBe('scrapped');
+    const scrapped = await build({
+      family: 'TARN-6',
+      block: six.block,
+      crankshaft: held.crankshaft,
+      heads: six.heads,
+      lots: await lotsFor(0.0197),
+    });
+    expect(scrapped.status).toBe(409);
+    expect(scrapped.body.error.fields.crankshaft).toBe(`${held.crankshaft} (crankshaft) has been scrapped.`);
 
     const unfinished = await tornDownCore(t, cookies, 'TARN-6');
     await passThrough(t, cookies.operator, BLOCK_STATIONS, unfinished.block);
@@ -236,6 +259,13 @@ describe('release, trail and lots', () => {
       expect(c.children[0]).toMatchObject({ kind: 'core', link: 'harvested_from' });
     // clean → … → final inspection: 7 + 3 + 6 part results, 3 unit results, the core's teardown
     expect(trail.body.results).toHaveLength(7 + 3 + 6 + 3 + 1);
+    // oil clearance is worked out: installed bearing ID − journal at fit, 2.3711 − 2.369 in (common shop practice)
+    const assembly = trail.body.results.find(
+      (r: { stage: { code: string } }) => r.stage.code === 'long-block-assembly',
+    );
+    const oil = assembly.readings.filter((r: { characteristic: string }) => r.characteristic === 'main-oil-clearance');
+    expect(oil).toHaveLength(7);
+    expect(oil[0]).toMatchObject({ value: 0.0021, verdict: 'pass', lower: 0.0018, upper: 0.0024 });
     const bore = trail.body.results.find((r: { stage: { code: string } }) => r.stage.code === 'bore-hone');
     expect(bore.readings[0]).toMatchObject({
       characteristic: 'bore',

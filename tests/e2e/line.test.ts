@@ -13,6 +13,7 @@ import { MailWorker } from '../../server/mail/worker.js';
 import { Item, Nonconformance, Shipment, User } from '../../server/models/index.js';
 import { cookieFor, signInCookie, type TestApp } from '../support/app.js';
 import { launch, serveApp, signIn, type Served } from '../support/browser.js';
+import { fillPassing } from '../support/station-ui.js';
 import {
   BLOCK_STATIONS,
   CRANK_STATIONS,
@@ -222,7 +223,19 @@ describe('the line, end to end', () => {
     await op.getByText(unit).first().waitFor();
     await op.screenshot({ path: path.join(shots, 'built-1024.png'), fullPage: true });
 
-    await pass(t, cookies.operator, 'AS-1', unit);
+    // assembly on the tablet: torques, clearances, ring gaps, cam timing
+    await atStation(op, 'AS-1', unit);
+    await op.getByRole('textbox', { name: 'Main cap bolt torque, Main 1', exact: true }).waitFor();
+    await expect(
+      op
+        .getByText(/never reused/)
+        .first()
+        .isVisible(),
+    ).resolves.toBe(true);
+    await fillPassing(op, await formFor(t, cookies.operator, 'AS-1', unit));
+    await op.getByRole('button', { name: 'Record result' }).click();
+    await op.getByRole('heading', { level: 2, name: 'Passed' }).waitFor();
+    await op.getByText('Next stage: Run test').waitFor();
     // the run test from the stand's CSV export, on the tablet
     await atStation(op, 'RT-1', unit);
     const csv = path.join(os.tmpdir(), `run-${unit}.csv`);

@@ -1,0 +1,17 @@
+import type { Page } from 'playwright-core';
+import { passingReadings } from '../../db/seeders/sample-readings.js';
+import type { StationFormJson } from '../../shared/schemas/results.js';
+
+/** Types a passing reading into every box of a station form, and Pass on every check, as an operator would. */
+export async function fillPassing(page: Page, form: StationFormJson) {
+  for (const r of passingReadings(form)) {
+    const c = form.characteristics.find((x) => x.code === r.characteristic)!;
+    const label = c.positions.find((x) => x.code === r.position)!.label;
+    const name = `${c.name}, ${label}`;
+    if (r.passed !== undefined) {
+      await page.getByRole('radiogroup', { name, exact: true }).getByRole('radio', { name: 'Pass' }).check();
+    } else {
+      await page.getByRole('textbox', { name, exact: true }).fill(String(r.value));
+    }
+  }
+}
