@@ -36,6 +36,7 @@ export const PERMISSIONS = {
   'ncr.read': ['receiving', 'quality', 'supervisor', 'operator', 'shipping', 'warranty', 'admin'],
   'ncr.raise': ['receiving', 'operator', 'quality', 'supervisor', 'shipping', 'warranty'],
   'ncr.disposition': ['quality'],
+  'defects.manage': ['quality', 'admin'],
 
   'assembly.record': ['operator', 'supervisor'],
   'release.check': ['shipping', 'quality', 'supervisor'],

@@ -7,7 +7,10 @@ import {
   dispositionBody,
   ncrListQuery,
   ncrParam,
-  raiseNcrBody,
+  raiseNcrChecked,
+  defectCodeBody,
+  defectCodeParam,
+  updateDefectCodeBody,
   reviewBody,
   voidBody,
 } from '../../shared/schemas/ncr.js';
@@ -16,6 +19,9 @@ import { csvCell } from '../services/intake.js';
 import {
   assignNcr,
   closeNcr,
+  createDefectCode,
+  listDefectCodes,
+  updateDefectCode,
   countersign,
   disposition,
   listNcrs,
@@ -43,6 +49,31 @@ const CSV_COLUMNS = [
 ] as const;
 
 export function ncrRoutes(api: Api, sequelize: Sequelize) {
+  api.define({
+    method: 'get',
+    path: '/defect-codes',
+    access: 'reference.read',
+    summary: "The plant's defect codes, active and retired.",
+    handler: () => listDefectCodes(),
+  });
+  api.define({
+    method: 'post',
+    path: '/defect-codes',
+    access: 'defects.manage',
+    summary: 'Add a defect code to the plant’s list.',
+    body: defectCodeBody,
+    status: 201,
+    handler: ({ ctx, body }) => createDefectCode(sequelize, ctx, body),
+  });
+  api.define({
+    method: 'patch',
+    path: '/defect-codes/:code',
+    access: 'defects.manage',
+    summary: 'Reword a defect code or retire it (codes are never deleted: NCRs name them).',
+    params: defectCodeParam,
+    body: updateDefectCodeBody,
+    handler: ({ ctx, params, body }) => updateDefectCode(sequelize, ctx, params.code, body),
+  });
   api.define({
     method: 'get',
     path: '/ncrs',
@@ -73,8 +104,9 @@ export function ncrRoutes(api: Api, sequelize: Sequelize) {
     method: 'post',
     path: '/ncrs',
     access: 'ncr.raise',
-    summary: 'Raise a concern about a part by hand (what was seen, severity, defect code, photos); it goes on hold.',
-    body: raiseNcrBody,
+    summary:
+      'Raise a concern by hand about a part (it goes on hold) or a purchased lot (it cannot go into a unit): what was seen, severity, defect code, photos.',
+    body: raiseNcrChecked,
     status: 201,
     handler: ({ ctx, body }) => raiseConcern(sequelize, ctx, body),
   });

@@ -24,9 +24,11 @@ import {
   Item,
   Nonconformance,
   NonconformanceTransition,
+  PartLot,
   Signature,
   Stage,
   StageResult,
+  Supplier,
   User,
 } from '../models/index.js';
 import { attachmentsOf, claimUploads } from './attachments.js';
@@ -97,7 +99,9 @@ async function raisedMails(ncr: Nonconformance, serial: string, transaction: Tra
     'What was found:',
     quoted(ncr.description),
     '',
-    `The part is on hold until the NCR is decided. Open it: ${ncrLink(ncr.number)}`,
+    ncr.itemId
+      ? `The part is on hold until the NCR is decided. Open it: ${ncrLink(ncr.number)}`
+      : `The lot cannot go into a unit until the NCR is decided. Open it: ${ncrLink(ncr.number)}`,
     '',
     '— Coretrail',
   ].join('\n');
@@ -118,8 +122,10 @@ export async function raiseNonconformance(
   ctx: Ctx,
   transaction: Transaction,
   input: {
-    itemId: number;
+    itemId: number | null;
+    /** What the NCR is about, in words: a serial, or "lot L-12 (Pistons, Valley Piston Works)". */
     itemSerial: string;
+    partLotId?: number | null;
     itemStatusBefore: string | null;
     stageId: number | null;
     stageResultId: number | null;
@@ -135,7 +141,7 @@ export async function raiseNonconformance(
     {
       number: await nextNumber(sequelize, transaction),
       itemId: input.itemId,
-      partLotId: null,
+      partLotId: input.partLotId ?? null,
       stageResultId: input.stageResultId,
       stageId: input.stageId,
       defectCodeId: defect?.id ?? null,
@@ -185,8 +191,10 @@ export async function raiseNonconformance(
 
 /** Anyone on the floor raising a concern about a part: it goes on hold at once. */
 export async function raiseConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNcrBody): Promise<NcrDetail> {
+  if (!body.serial) return raiseLotConcern(sequelize, ctx, body);
+  const serial = body.serial;
   const number = await sequelize.transaction(async (transaction) => {
-    const found = await findBySerial(body.serial, transaction);
+    const found = await findBySerial(serial, transaction);
     // the unit the part is in first, as the release gate locks it: an NCR cannot slip past a release
     await lockUnitOf(found.id, transaction);
     const item = (await Item.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
@@ -227,6 +235,50 @@ export async function raiseConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNc
   return ncrDetail(number, ctx);
 }
 
+/** A concern about a purchased lot: no part is held, but the lot cannot go into a unit while it is open. */
+async function raiseLotConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNcrBody): Promise<NcrDetail> {
+  const number = await sequelize.transaction(async (transaction) => {
+    const lots = await PartLot.findAll({
+      where: {
+        lotCode: body.lotCode!.toUpperCase(),
+        ...(body.supplierId ? { supplierId: body.supplierId } : {}),
+      },
+      include: [{ model: Supplier, as: 'supplier' }],
+      transaction,
+    });
+    if (!lots.length) throw invalid(`No lot ${body.lotCode} is on record.`, { lotCode: 'Unknown lot code.' });
+    if (lots.length > 1) {
+      throw invalid(`Lot code ${body.lotCode} is used by more than one supplier: choose the supplier.`, {
+        supplierId: 'Choose the supplier.',
+      });
+    }
+    const lot = lots[0]!;
+    const defect = await DefectCode.findOne({
+      where: { code: body.defectCode.toUpperCase(), active: true },
+      transaction,
+    });
+    if (!defect)
+      throw invalid('Choose a defect code from the list.', { defectCode: `No defect code ${body.defectCode}.` });
+    const supplier = (lot as PartLot & { supplier?: Supplier }).supplier;
+    const ncr = await raiseNonconformance(sequelize, ctx, transaction, {
+      itemId: null,
+      itemSerial: `lot ${lot.lotCode} (${lot.partKind.replace(/_/g, ' ')}, ${supplier?.name ?? 'supplier'})`,
+      partLotId: lot.id,
+      itemStatusBefore: null,
+      stageId: null,
+      stageResultId: null,
+      severity: body.severity,
+      defectCode: defect.code,
+      description: body.description,
+      failing: [],
+      containment: body.containment,
+    });
+    await claimUploads(ctx, transaction, body.photoIds, 'nonconformance', ncr.number);
+    return ncr.number;
+  });
+  return ncrDetail(number, ctx);
+}
+
 // ——— reading ———
 
 const SORT: Record<NcrListQuery['sort'], string> = {
@@ -255,7 +307,7 @@ export async function listNcrs(sequelize: Sequelize, q: NcrListQuery, { all = fa
   if (q.assignee === 'none') add('n.assignee_id IS NULL');
   else if (q.assignee) add('n.assignee_id = :assignee', 'assignee', q.assignee);
   if (q.q) {
-    where.push('(n.number ILIKE :q OR i.serial ILIKE :q OR n.description ILIKE :q)');
+    where.push('(n.number ILIKE :q OR i.serial ILIKE :q OR pl.lot_code ILIKE :q OR n.description ILIKE :q)');
     r.q = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
   }
   const filter = where.length ? `WHERE ${where.join(' AND ')}` : '';
@@ -264,12 +316,15 @@ export async function listNcrs(sequelize: Sequelize, q: NcrListQuery, { all = fa
     LEFT JOIN engine_families f ON f.id = i.engine_family_id
     LEFT JOIN stages s ON s.id = n.stage_id
     LEFT JOIN defect_codes d ON d.id = n.defect_code_id
+    LEFT JOIN part_lots pl ON pl.id = n.part_lot_id
     JOIN users ru ON ru.id = n.raised_by_id
     LEFT JOIN users au ON au.id = n.assignee_id`;
   const dir = q.dir === 'asc' ? 'ASC' : 'DESC';
   const [rows, [count]] = await Promise.all([
     sequelize.query<NcrRow>(
-      `SELECT n.number, n.state, n.severity, i.serial, i.kind AS "itemKind", f.code AS "familyCode",
+      `SELECT n.number, n.state, n.severity, pl.lot_code AS "lotCode",
+              n.awaiting_second_signature AS "awaitingSecondSignature", n.assignee_id AS "assigneeId",
+              i.serial, i.kind AS "itemKind", f.code AS "familyCode",
               s.code AS "stageCode", s.name AS "stageName", d.code AS "defectCode", n.description,
               n.disposition, ru.name AS "raisedBy", au.name AS assignee,
               to_char(n.created_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') AS "raisedAt",
@@ -314,6 +369,9 @@ export function allowedActions(ncr: Nonconformance, role: Role | undefined, user
 
 export async function ncrDetail(number: string, ctx: Ctx): Promise<NcrDetail> {
   const ncr = await findNcr(number);
+  const lot = ncr.partLotId
+    ? await PartLot.findByPk(ncr.partLotId, { include: [{ model: Supplier, as: 'supplier' }] })
+    : null;
   const [transitions, signatures, photos, item, stage, reworkStage, defect] = await Promise.all([
     NonconformanceTransition.findAll({ where: { nonconformanceId: ncr.id }, order: [['id', 'ASC']] }),
     Signature.findAll({ where: { entity: 'nonconformance', entityId: ncr.number }, order: [['id', 'ASC']] }),
@@ -337,6 +395,18 @@ export async function ncrDetail(number: string, ctx: Ctx): Promise<NcrDetail> {
     number: ncr.number,
     state: ncr.state as NcrState,
     severity: ncr.severity,
+    lotCode: lot?.lotCode ?? null,
+    awaitingSecondSignature: ncr.awaitingSecondSignature,
+    assigneeId: ncr.assigneeId,
+    lot: lot
+      ? {
+          lotCode: lot.lotCode,
+          partNumber: lot.partNumber,
+          kind: lot.partKind,
+          supplier: (lot as PartLot & { supplier?: Supplier }).supplier?.name ?? '',
+          status: lot.status,
+        }
+      : null,
     serial: item?.serial ?? null,
     itemKind: item?.kind ?? null,
     familyCode: presented?.family.code ?? null,
@@ -353,7 +423,7 @@ export async function ncrDetail(number: string, ctx: Ctx): Promise<NcrDetail> {
     containment: ncr.containment,
     dispositionReason: ncr.dispositionReason,
     reworkStage: reworkStage ? { code: reworkStage.code, name: reworkStage.name } : null,
-    awaitingSecondSignature: ncr.awaitingSecondSignature,
+    decidedById: ncr.decidedById,
     decidedBy: ncr.decidedById ? (users.get(ncr.decidedById) ?? null) : null,
     decidedAt: ncr.decidedAt?.toISOString() ?? null,
     closedAt: ncr.closedAt?.toISOString() ?? null,
@@ -584,9 +654,28 @@ async function carryOut(ctx: Ctx, t: Transaction, ncr: Nonconformance, item: Ite
     awaitingSecondSignature: false,
     decidedAt: new Date(),
   });
-  const serial = item?.serial ?? '';
+  const lot = ncr.partLotId ? await PartLot.findByPk(ncr.partLotId, { transaction: t, lock: t.LOCK.UPDATE }) : null;
+  const serial = item?.serial ?? (lot ? `lot ${lot.lotCode}` : '');
   await enqueueMail(t, await decidedMail(t, ncr, serial, signer));
-  if (!item) return;
+  if (!item) {
+    if (lot) {
+      const status =
+        ncr.disposition === 'return_to_supplier' ? 'returned' : ncr.disposition === 'scrap' ? 'scrapped' : lot.status;
+      if (status !== lot.status) {
+        const before = { status: lot.status };
+        await lot.update({ status }, { transaction: t });
+        await recordAudit(ctx, t, {
+          action: `lot.${status}`,
+          entity: 'part_lot',
+          entityId: lot.id,
+          before,
+          after: { status, byNcr: ncr.number },
+        });
+      }
+    }
+    await transition(ctx, t, ncr, 'closed', `${DISPOSITION_LABELS[ncr.disposition!]}: closed on decision`);
+    return;
+  }
   switch (ncr.disposition) {
     case 'rework':
     case 'repair': {
@@ -633,6 +722,11 @@ export async function disposition(sequelize: Sequelize, ctx: Ctx, number: string
     if (body.disposition === 'return_to_supplier' && !ncr.partLotId) {
       throw invalid('Return to supplier is for purchased lots; this NCR is on a part the plant remanufactures.', {
         disposition: 'Only for a purchased lot.',
+      });
+    }
+    if (!item && (body.disposition === 'rework' || body.disposition === 'repair')) {
+      throw invalid('A purchased lot has no route to send it back through: return it, scrap it or use it as is.', {
+        disposition: 'Not for a lot.',
       });
     }
     let reworkStageId: number | null = null;
@@ -786,4 +880,47 @@ export async function voidNcr(sequelize: Sequelize, ctx: Ctx, number: string, re
     if (item) await releaseIfClear(ctx, t, item, ncr);
   });
   return ncrDetail(number, ctx);
+}
+
+// ——— defect codes: the plant's own list ———
+
+export async function listDefectCodes() {
+  const rows = await DefectCode.findAll({ order: [['code', 'ASC']] });
+  return rows.map((d) => ({ code: d.code, description: d.description, active: d.active }));
+}
+
+export async function createDefectCode(sequelize: Sequelize, ctx: Ctx, body: { code: string; description: string }) {
+  return sequelize.transaction(async (transaction) => {
+    const d = await DefectCode.create({ code: body.code, description: body.description }, { transaction });
+    await recordAudit(ctx, transaction, {
+      action: 'defect_code.created',
+      entity: 'defect_code',
+      entityId: d.code,
+      after: body,
+    });
+    return { code: d.code, description: d.description, active: d.active };
+  });
+}
+
+/** Codes are never deleted (NCRs name them); one no longer used is made inactive. */
+export async function updateDefectCode(
+  sequelize: Sequelize,
+  ctx: Ctx,
+  code: string,
+  body: { description?: string; active?: boolean },
+) {
+  return sequelize.transaction(async (transaction) => {
+    const d = await DefectCode.findOne({ where: { code }, transaction, lock: transaction.LOCK.UPDATE });
+    if (!d) throw notFound(`Defect code ${code}`);
+    const before = { description: d.description, active: d.active };
+    await d.update(body, { transaction });
+    await recordAudit(ctx, transaction, {
+      action: 'defect_code.updated',
+      entity: 'defect_code',
+      entityId: d.code,
+      before,
+      after: { description: d.description, active: d.active },
+    });
+    return { code: d.code, description: d.description, active: d.active };
+  });
 }

@@ -41,12 +41,11 @@ const reasonText = (min: number, what: string) =>
     .min(min, `Say ${what}, in at least ${min} characters.`)
     .max(2000, 'At most 2000 characters.');
 
+/** About a part (its serial) or a purchased lot (its code, and the supplier when two share a code). */
 export const raiseNcrBody = z.strictObject({
-  serial: z
-    .string('Scan or type the serial of the part.')
-    .trim()
-    .min(1, 'Scan or type the serial of the part.')
-    .max(24),
+  serial: z.string().trim().max(24).optional(),
+  lotCode: z.string().trim().max(60).optional(),
+  supplierId: z.number().int().positive().optional(),
   description: reasonText(10, 'what was seen'),
   severity: z.enum(SEVERITIES, 'Choose how serious it is.'),
   defectCode: z.string('Choose a defect code.').trim().min(1, 'Choose a defect code.').max(20),
@@ -54,6 +53,42 @@ export const raiseNcrBody = z.strictObject({
   photoIds: z.array(z.number().int().positive()).max(10, 'At most 10 photos.').default([]),
 });
 export type RaiseNcrBody = z.output<typeof raiseNcrBody>;
+export const raiseNcrChecked = raiseNcrBody.superRefine((b, ctx) => {
+  if (!b.serial && !b.lotCode) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['serial'],
+      message: 'Scan or type the serial of the part, or give a lot code.',
+    });
+  }
+  if (b.serial && b.lotCode) {
+    ctx.addIssue({ code: 'custom', path: ['lotCode'], message: 'One concern is about a part or a lot, not both.' });
+  }
+});
+
+export const DEFECT_CODE_PATTERN = /^[A-Z0-9][A-Z0-9-]{1,19}$/;
+export const defectCodeBody = z.strictObject({
+  code: z
+    .string('Enter a code.')
+    .trim()
+    .toUpperCase()
+    .regex(DEFECT_CODE_PATTERN, 'Use 2–20 letters, digits or dashes.'),
+  description: z
+    .string('Describe the defect.')
+    .trim()
+    .min(3, 'At least 3 characters.')
+    .max(200, 'At most 200 characters.'),
+});
+export const updateDefectCodeBody = z
+  .strictObject({
+    description: z.string().trim().min(3, 'At least 3 characters.').max(200).optional(),
+    active: z.boolean().optional(),
+  })
+  .refine((b) => Object.keys(b).length > 0, 'Change at least one field.');
+export const defectCodeParam = z.strictObject({
+  code: z.string().trim().toUpperCase().regex(DEFECT_CODE_PATTERN, 'Not a defect code.'),
+});
+export type DefectCodeJson = { code: string; description: string; active: boolean };
 
 export const ncrParam = z.strictObject({
   number: z
@@ -112,6 +147,10 @@ export type NcrRow = {
   number: string;
   state: NcrState;
   severity: Severity;
+  /** For an NCR on a purchased lot instead of a part. */
+  lotCode: string | null;
+  awaitingSecondSignature: boolean;
+  assigneeId: number | null;
   serial: string | null;
   itemKind: string | null;
   familyCode: string | null;
@@ -156,7 +195,9 @@ export type NcrDetail = NcrRow & {
   reworkStage: { code: string; name: string } | null;
   awaitingSecondSignature: boolean;
   decidedBy: string | null;
+  decidedById: number | null;
   decidedAt: string | null;
+  lot: { lotCode: string; partNumber: string; kind: string; supplier: string; status: string } | null;
   closedAt: string | null;
   stageResultId: number | null;
   item: ItemJson | null;

@@ -391,3 +391,82 @@ describe('mail delivery', () => {
     }
   });
 });
+
+describe('purchased lots and the plant’s defect codes', () => {
+  it('a concern about a lot holds it out of builds; returning it to the supplier closes the NCR', async () => {
+    const { PartLot, Supplier } = await import('../../server/models/index.js');
+    const supplier = (await Supplier.findOne({ order: [['id', 'DESC']] }))!;
+    const lotCode = `RB-${randomUUID().slice(0, 6).toUpperCase()}`;
+    const lot = await PartLot.create({
+      supplierId: supplier.id,
+      partKind: 'rod_bearings',
+      partNumber: 'RB-2210',
+      lotCode,
+    });
+    const raised = await post(operator, '/api/ncrs', {
+      lotCode,
+      description: 'Shells in this box show scoring straight out of the wrapper',
+      severity: 'major',
+      defectCode: 'LOT',
+    });
+    expect(raised.status).toBe(201);
+    expect(raised.body).toMatchObject({
+      serial: null,
+      item: null,
+      lotCode,
+      lot: { lotCode, partNumber: 'RB-2210', status: 'usable' },
+    });
+    const neither = await post(operator, '/api/ncrs', {
+      description: 'Something is wrong here',
+      severity: 'minor',
+      defectCode: 'LOT',
+    });
+    expect(neither.body.error.fields.serial).toMatch(/or give a lot code/);
+
+    await post(quality, `/api/ncrs/${raised.body.number}/review`);
+    const rework = await post(quality, `/api/ncrs/${raised.body.number}/disposition`, {
+      disposition: 'rework',
+      reason: 'Polish them',
+      reworkStage: 'bore-hone',
+      password: TEST_PASSWORD,
+    });
+    expect(rework.status).toBe(400);
+    expect(rework.body.error.message).toMatch(/no route/);
+    const returned = await post(quality, `/api/ncrs/${raised.body.number}/disposition`, {
+      disposition: 'return_to_supplier',
+      reason: 'Scored shells: supplier credit requested',
+      password: TEST_PASSWORD,
+    });
+    expect(returned.body).toMatchObject({
+      state: 'closed',
+      disposition: 'return_to_supplier',
+      lot: { status: 'returned' },
+    });
+    await lot.reload();
+    expect(lot.status).toBe('returned');
+  });
+
+  it('quality keeps the defect code list: add, reword, retire; a retired code cannot be used', async () => {
+    const code = `T${randomUUID().slice(0, 5).toUpperCase()}`;
+    const added = await post(quality, '/api/defect-codes', { code, description: 'Thread damage in a bolt hole' });
+    expect(added.status).toBe(201);
+    expect((await post(quality, '/api/defect-codes', { code, description: 'Again' })).status).toBe(409);
+    expect((await post(operator, '/api/defect-codes', { code: 'XX', description: 'Nope' })).status).toBe(403);
+    const retired = await request(t.app)
+      .patch(`/api/defect-codes/${code}`)
+      .set('Cookie', quality)
+      .send({ active: false });
+    expect(retired.body).toEqual({ code, description: 'Thread damage in a bolt hole', active: false });
+    const list = await get(operator, '/api/defect-codes');
+    expect(list.body).toContainEqual({ code, description: 'Thread damage in a bolt hole', active: false });
+    const parts = await tornDownCore(t, { receiving, operator }, 'TARN-6');
+    const refused = await post(operator, '/api/ncrs', {
+      serial: parts.block,
+      description: 'Stripped head bolt hole at the rear',
+      severity: 'major',
+      defectCode: code,
+    });
+    expect(refused.status).toBe(400);
+    expect(refused.body.error.fields.defectCode).toBe(`No defect code ${code}.`);
+  });
+});
