@@ -3,22 +3,14 @@ import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 import { simpleParser } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
+import type { SinkMessage } from '../../shared/schemas/mail.js';
 
 /**
  * A stand-in for the plant's mail server: an SMTP server on loopback that accepts every message
  * and files it as JSON in a folder. `npm start` runs it; the admin mail page and the tests read what
  * it received. It is not a relay: nothing leaves the machine.
  */
-export type SinkMessage = {
-  file: string;
-  receivedAt: string;
-  messageId: string | null;
-  from: string;
-  to: string[];
-  subject: string;
-  text: string;
-  headers: Record<string, string>;
-};
+export type { SinkMessage };
 
 export async function startMailSink({ port, dir, host = '127.0.0.1' }: { port: number; dir: string; host?: string }) {
   fs.mkdirSync(dir, { recursive: true });

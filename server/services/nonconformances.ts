@@ -189,6 +189,12 @@ export async function raiseNonconformance(
   return ncr;
 }
 
+async function activeDefect(code: string, transaction: Transaction) {
+  const defect = await DefectCode.findOne({ where: { code: code.toUpperCase(), active: true }, transaction });
+  if (!defect) throw invalid('Choose a defect code from the list.', { defectCode: `No defect code ${code}.` });
+  return defect;
+}
+
 /** Anyone on the floor raising a concern about a part: it goes on hold at once. */
 export async function raiseConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNcrBody): Promise<NcrDetail> {
   if (!body.serial) return raiseLotConcern(sequelize, ctx, body);
@@ -199,12 +205,7 @@ export async function raiseConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNc
     await lockUnitOf(found.id, transaction);
     const item = (await Item.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
     if (item.status === 'scrapped') throw conflict(`${item.serial} has been scrapped: there is nothing left to hold.`);
-    const defect = await DefectCode.findOne({
-      where: { code: body.defectCode.toUpperCase(), active: true },
-      transaction,
-    });
-    if (!defect)
-      throw invalid('Choose a defect code from the list.', { defectCode: `No defect code ${body.defectCode}.` });
+    const defect = await activeDefect(body.defectCode, transaction);
     const holds = !['shipped'].includes(item.status);
     const ncr = await raiseNonconformance(sequelize, ctx, transaction, {
       itemId: item.id,
@@ -253,12 +254,7 @@ async function raiseLotConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNcrBod
       });
     }
     const lot = lots[0]!;
-    const defect = await DefectCode.findOne({
-      where: { code: body.defectCode.toUpperCase(), active: true },
-      transaction,
-    });
-    if (!defect)
-      throw invalid('Choose a defect code from the list.', { defectCode: `No defect code ${body.defectCode}.` });
+    const defect = await activeDefect(body.defectCode, transaction);
     const supplier = (lot as PartLot & { supplier?: Supplier }).supplier;
     const ncr = await raiseNonconformance(sequelize, ctx, transaction, {
       itemId: null,

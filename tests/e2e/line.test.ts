@@ -9,6 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { passingReadings } from '../../db/seeders/sample-readings.js';
 import { DEMO_USERS } from '../../db/seeders/plant.js';
 import { readMailSink, startMailSink } from '../../server/mail/sink.js';
+import { LOT_KIND_LABELS } from '../../shared/schemas/build.js';
 import { MailWorker } from '../../server/mail/worker.js';
 import { Item, Nonconformance, Shipment, User } from '../../server/models/index.js';
 import { cookieFor, signInCookie, type TestApp } from '../support/app.js';
@@ -193,21 +194,11 @@ describe('the line, end to end', () => {
     await fill('Crankshaft', parts.crankshaft);
     await fill('Cylinder head', parts.heads[0]!);
     const lots = await lotsFor(0.0197, 'WD');
-    const labels: Record<string, string> = {
-      pistons: 'Pistons',
-      rings: 'Piston rings',
-      main_bearings: 'Main bearings',
-      rod_bearings: 'Rod bearings',
-      gasket_set: 'Gasket set',
-      camshaft: 'Camshaft',
-      lifters: 'Lifters',
-      oil_pump: 'Oil pump',
-      timing_set: 'Timing set',
-    };
+
     for (const l of lots) {
-      await op.getByLabel(`${labels[l.kind]} supplier`).selectOption(String(l.supplierId));
-      await op.getByLabel(`${labels[l.kind]} part number`).fill(l.partNumber);
-      await op.getByLabel(`${labels[l.kind]} lot code`).fill(l.lotCode);
+      await op.getByLabel(`${LOT_KIND_LABELS[l.kind]} supplier`).selectOption(String(l.supplierId));
+      await op.getByLabel(`${LOT_KIND_LABELS[l.kind]} part number`).fill(l.partNumber);
+      await op.getByLabel(`${LOT_KIND_LABELS[l.kind]} lot code`).fill(l.lotCode);
     }
     await op.getByLabel('Pistons oversize (in)').fill('0.0197');
     await op.getByRole('button', { name: 'Start long block' }).click();

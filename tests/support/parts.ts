@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { passingReadings } from '../../db/seeders/sample-readings.js';
 import { Customer, EngineFamily } from '../../server/models/index.js';
+import { LOT_KINDS } from '../../shared/schemas/build.js';
 import type { StationFormJson } from '../../shared/schemas/results.js';
 import type { TestApp } from './app.js';
 import { unique } from './app.js';
@@ -98,18 +99,7 @@ export async function finishedParts(t: TestApp, cookies: { receiving: string; op
 export async function lotsFor(oversizeIn: number, tag = 'T') {
   const { Supplier } = await import('../../server/models/index.js');
   const suppliers = await Supplier.findAll({ order: [['id', 'ASC']] });
-  const kinds = [
-    'pistons',
-    'rings',
-    'main_bearings',
-    'rod_bearings',
-    'gasket_set',
-    'camshaft',
-    'lifters',
-    'oil_pump',
-    'timing_set',
-  ];
-  return kinds.map((kind, i) => ({
+  return LOT_KINDS.map((kind, i) => ({
     kind,
     supplierId: suppliers[i % suppliers.length]!.id,
     partNumber: `PN-${kind.toUpperCase().replace(/_/g, '')}-${i}`,

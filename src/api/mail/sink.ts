@@ -2,17 +2,9 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { http } from '../../lib/http';
 import { mailKeys } from './keys';
 
-/** One message the loopback mail sink received (server/mail/sink.ts), newest first. */
-export type SinkMessage = {
-  file: string;
-  receivedAt: string;
-  messageId: string | null;
-  from: string;
-  to: string[];
-  subject: string;
-  text: string;
-  headers: Record<string, string>;
-};
+import type { SinkMessage } from '../../../shared/schemas/mail';
+
+export type { SinkMessage };
 
 export const fetchMailSink = (signal?: AbortSignal) => http<SinkMessage[]>('/api/mail/sink', { signal });
 
