@@ -1,5 +1,5 @@
 import { Op, QueryTypes, type Sequelize, type Transaction } from 'sequelize';
-import { LOT_KIND_LABELS, type BuildBody } from '../../shared/schemas/build.js';
+import { LOT_KIND_LABELS, OVERSIZE_MATCH_IN, type BuildBody } from '../../shared/schemas/build.js';
 import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.js';
 import { mmToIn } from '../../shared/domain/units.js';
 import { recordAudit, type Ctx } from '../audit.js';
@@ -15,9 +15,6 @@ import { familyByCode } from './spec.js';
  * unit) and every problem is reported at once; the pistons' oversize must agree with the block's
  * finished bores. The unit gets its serial and its route; each part an "installed in" link.
  */
-
-/** Pistons and bores agree when the bores' mean oversize is within this of the pistons' (common practice). */
-export const OVERSIZE_MATCH_IN = 0.002;
 
 /** The unit a part is installed in, locked: every path that raises an NCR or releases takes it first. */
 export async function lockUnitOf(itemId: number, transaction: Transaction): Promise<Item | null> {

@@ -64,10 +64,13 @@ export async function presentItem(item: Item, { receipt }: { receipt?: CoreRecei
             : 'todo',
   }));
   const current = currentIdx >= 0 ? route!.steps[currentIdx]!.stage : null;
-  const [originLink, childLinks, intake] = await Promise.all([
+  // a core's parts were harvested from it; a unit's parts are installed in it
+  const partLink = item.kind === 'long_block' ? 'installed_in' : 'harvested_from';
+  const [originLink, unitLink, childLinks, intake] = await Promise.all([
     ItemLink.findOne({ where: { childItemId: item.id, linkType: 'harvested_from', removedAt: null } }),
+    ItemLink.findOne({ where: { childItemId: item.id, linkType: 'installed_in', removedAt: null } }),
     ItemLink.findAll({
-      where: { parentItemId: item.id, linkType: 'harvested_from', removedAt: null },
+      where: { parentItemId: item.id, linkType: partLink, removedAt: null },
       order: [['id', 'ASC']],
     }),
     item.kind !== 'core'
@@ -75,7 +78,11 @@ export async function presentItem(item: Item, { receipt }: { receipt?: CoreRecei
       : (receipt ?? CoreReceipt.findOne({ where: { itemId: item.id }, attributes: ['condition'] })),
   ]);
   const related = await Item.findAll({
-    where: { id: { [Op.in]: [originLink?.parentItemId ?? 0, ...childLinks.map((l) => l.childItemId)] } },
+    where: {
+      id: {
+        [Op.in]: [originLink?.parentItemId ?? 0, unitLink?.parentItemId ?? 0, ...childLinks.map((l) => l.childItemId)],
+      },
+    },
   });
   const byId = new Map(related.map((r) => [r.id, r]));
   const origin = originLink ? byId.get(originLink.parentItemId) : undefined;
@@ -95,6 +102,8 @@ export async function presentItem(item: Item, { receipt }: { receipt?: CoreRecei
     currentStage: current ? { code: current.code, name: current.name, hazard: current.hazard } : null,
     route: steps,
     harvestedFrom: origin ? { serial: origin.serial, kind: origin.kind } : null,
+    installedIn:
+      unitLink && byId.get(unitLink.parentItemId) ? { serial: byId.get(unitLink.parentItemId)!.serial } : null,
     parts: childLinks
       .map((l) => byId.get(l.childItemId))
       .filter((p): p is Item => !!p)

@@ -5,6 +5,9 @@ import type { AttachmentJson } from './attachments.js';
 
 /** Building a long block, the release gate, shipping, the trail and lot lookup. */
 
+/** Pistons fit a block when the bores' mean oversize is within this of theirs, in inches (common practice). */
+export const OVERSIZE_MATCH_IN = 0.002;
+
 /** The purchased parts every long block takes, each from a supplier's lot. */
 export const LOT_KINDS = [
   'pistons',

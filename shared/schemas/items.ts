@@ -29,6 +29,9 @@ export type ItemJson = {
   currentStage: { code: string; name: string; hazard: string | null } | null;
   route: RouteStep[];
   harvestedFrom: { serial: string; kind: PartKind } | null;
+  /** The long block a part is installed in. */
+  installedIn: { serial: string } | null;
+  /** A core's harvested parts, or a long block's installed ones. */
   parts: ItemPart[];
   /** For a core: what intake found missing or damaged (no customer or credit details). */
   intakeCondition: { complete: boolean; missing: string[]; damage: string[] } | null;

@@ -250,6 +250,14 @@ describe('release, trail and lots', () => {
     expect(twice.body.error.reasons[0].code).toBe('shipped');
     expect(await Shipment.count({ where: { reference: 'SO-55012' } })).toBe(1);
 
+    const asItem = await request(t.app).get(`/api/items/${unit}`).set('Cookie', warranty);
+    expect(asItem.body.parts.map((p: { kind: string }) => p.kind).sort()).toEqual([
+      'block',
+      'crankshaft',
+      'cylinder_head',
+    ]);
+    const headItem = await request(t.app).get(`/api/items/${parts.heads[0]}`).set('Cookie', warranty);
+    expect(headItem.body.installedIn).toEqual({ serial: unit });
     const trail = await request(t.app).get(`/api/trail/${parts.heads[0]}`).set('Cookie', warranty);
     expect(trail.status).toBe(200);
     expect(trail.body.tree.serial).toBe(unit);

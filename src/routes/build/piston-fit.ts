@@ -1,12 +1,13 @@
 import { mmToIn } from '../../../shared/domain/units';
+import { OVERSIZE_MATCH_IN } from '../../../shared/schemas/build';
 import type { ItemResult } from '../../api/items/results';
 
 /**
  * Pistons are made for an oversize bore; a block is honed to one. The server refuses a build whose
- * pistons and mean finished bore differ by more than its allowance (0.002 in, common practice);
- * this reads the block's current bore-and-hone result to say so before anything is sent.
+ * pistons and mean finished bore differ by more than the shared allowance; this reads the block's
+ * current bore-and-hone result to say so before anything is sent.
  */
-export const OVERSIZE_WARN_IN = 0.002;
+export const OVERSIZE_WARN_IN = OVERSIZE_MATCH_IN;
 
 export type BoreFit = { serial: string; meanIn: number; standardIn: number; oversizeIn: number };
 
