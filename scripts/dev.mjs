@@ -15,6 +15,8 @@ const env = {
   API_PORT: String(apiPort),
   JWT_SECRET: process.env.JWT_SECRET ?? projectSecret(),
   MAIL_SINK: process.env.MAIL_SINK ?? 'on',
+  // links in e-mail open the Vite dev server, which serves the client during development
+  APP_URL: process.env.APP_URL ?? `http://127.0.0.1:${process.env.VITE_PORT ?? 5173}`,
   MAIL_SINK_DIR: process.env.MAIL_SINK_DIR ?? path.join(projectDir, '.data', 'mail-sink'),
 };
 // the tools' own entry points under this Node, not `npx`: a signal to an npx wrapper does not

@@ -147,6 +147,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.defectCodes,
+              lazy: async () => {
+                const m = await import('./routes/admin/defect-codes/defect-codes-page');
+                return { Component: m.DefectCodesPage, loader: m.defectCodesLoader(queryClient) };
+              },
+            },
+            {
               path: paths.mail,
               lazy: async () => {
                 const m = await import('./routes/admin/mail/mail-page');

@@ -37,6 +37,7 @@ const CSV_COLUMNS = [
   ['state', 'State'],
   ['severity', 'Severity'],
   ['serial', 'Serial'],
+  ['lotCode', 'Lot'],
   ['familyCode', 'Family'],
   ['stageName', 'Stage'],
   ['defectCode', 'Defect code'],

@@ -1,4 +1,3 @@
-import { createRequire } from 'node:module';
 import PDFDocument from 'pdfkit';
 import type { Sequelize } from 'sequelize';
 import { LOT_KIND_LABELS, type LotKind, type TrailJson, type TrailNode } from '../../shared/schemas/build.js';
@@ -6,14 +5,11 @@ import { DISPOSITION_LABELS, NCR_STATE_LABELS, type Disposition } from '../../sh
 import { invalid } from '../errors.js';
 import { trailOf } from './trail.js';
 
-const require = createRequire(import.meta.url);
-// IBM Plex, the product's type, from IBM's own packages: the complete faces (the web subsets the
-// client uses make pdfkit's font subsetter fail)
-const FONT = {
-  regular: require.resolve('@ibm/plex-sans/fonts/complete/woff/IBMPlexSans-Regular.woff'),
-  bold: require.resolve('@ibm/plex-sans/fonts/complete/woff/IBMPlexSans-SemiBold.woff'),
-  mono: require.resolve('@ibm/plex-mono/fonts/complete/woff/IBMPlexMono-Regular.woff'),
-};
+// The PDF's own standard faces, which every reader has: nothing is embedded or fetched. They cover
+// WinAnsi only, so the few signs outside it are written out.
+const FONT = { regular: 'Helvetica', bold: 'Helvetica-Bold', mono: 'Courier' };
+const winAnsi = (text: string) =>
+  text.replace(/≥/g, '>=').replace(/≤/g, '<=').replace(/−/g, '-').replace(/→/g, '->').replace(/≠/g, '!=');
 
 export const BUILD_RECORD_CAUTION =
   'Limits shown are those of the plant spec book version each reading was judged against. Specification values come from the plant’s own engineering documents; this record does not replace them.';
@@ -38,16 +34,20 @@ function keyMeasurements(trail: TrailJson) {
     for (const xs of byChar.values()) {
       const first = xs[0]!;
       const nums = xs.map((x) => x.value).filter((v): v is number => v !== null);
+      const lo = Math.min(...nums);
+      const hi = Math.max(...nums);
       const values = nums.length
         ? nums.length === 1
           ? fmt(nums[0]!, first.unit)
-          : `${Math.min(...nums)}–${Math.max(...nums)} ${first.unit ?? ''} (${nums.length})`
+          : lo === hi
+            ? `${lo} ${first.unit ?? ''} (all ${nums.length})`
+            : `${lo} to ${hi} ${first.unit ?? ''} (${nums.length})`
         : xs.every((x) => x.passed)
           ? 'Pass'
           : 'Fail';
       const limits =
         first.lower !== null && first.upper !== null
-          ? `${first.lower}–${first.upper} ${first.unit ?? ''}`
+          ? `${first.lower} to ${first.upper} ${first.unit ?? ''}`
           : first.lower !== null
             ? `≥ ${first.lower} ${first.unit ?? ''}`
             : first.upper !== null
@@ -82,6 +82,9 @@ export async function buildRecordPdf(sequelize: Sequelize, serial: string): Prom
   doc.registerFont('regular', FONT.regular);
   doc.registerFont('bold', FONT.bold);
   doc.registerFont('mono', FONT.mono);
+  // every string goes through one place, so none can carry a sign the standard faces lack
+  const text = doc.text.bind(doc);
+  doc.text = ((t: string, ...rest: unknown[]) => text(winAnsi(String(t)), ...(rest as []))) as typeof doc.text;
   const chunks: Buffer[] = [];
   doc.on('data', (c: Buffer) => chunks.push(c));
   const done = new Promise<Buffer>((resolve) => doc.on('end', () => resolve(Buffer.concat(chunks))));
@@ -152,7 +155,7 @@ export async function buildRecordPdf(sequelize: Sequelize, serial: string): Prom
       `Shipped ${s.shipDate} to ${s.customer?.name ?? '—'} (${s.customer?.code ?? ''}), order ${s.reference}${s.carrier ? `, by ${s.carrier}` : ''}.`,
     );
     p(
-      `Released by ${s.releasedBy}. Warranty ${s.warranty.months} months${s.warranty.km ? ` or ${s.warranty.km.toLocaleString('en-US')} km` : ''}, to ${s.warranty.endsOn}.`,
+      `Released by ${s.releasedBy}. Warranty ${s.warranty.months} months${s.warranty.km ? ` or ${String(s.warranty.km).replace(/\B(?=(\d{3})+(?!\d))/g, ' ')} km` : ''}, to ${s.warranty.endsOn}.`,
     );
   } else {
     p('Not released yet.');

@@ -303,8 +303,12 @@ export async function listNcrs(sequelize: Sequelize, q: NcrListQuery, { all = fa
   if (q.assignee === 'none') add('n.assignee_id IS NULL');
   else if (q.assignee) add('n.assignee_id = :assignee', 'assignee', q.assignee);
   if (q.q) {
-    where.push('(n.number ILIKE :q OR i.serial ILIKE :q OR pl.lot_code ILIKE :q OR n.description ILIKE :q)');
+    // serials match however they were typed: case, dashes and spaces do not matter
+    where.push(
+      "(n.number ILIKE :q OR i.serial ILIKE :q OR replace(i.serial, '-', '') ILIKE :qc OR pl.lot_code ILIKE :q OR n.description ILIKE :q)",
+    );
     r.q = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    r.qc = `%${q.q.replace(/[^A-Za-z0-9]/g, '') || '-'}%`;
   }
   const filter = where.length ? `WHERE ${where.join(' AND ')}` : '';
   const from = `FROM nonconformances n
@@ -519,8 +523,30 @@ async function sign(ctx: Ctx, transaction: Transaction, ncr: Nonconformance, pas
  */
 async function releaseIfClear(ctx: Ctx, transaction: Transaction, item: Item, ncr: Nonconformance) {
   if (item.status === 'scrapped') return;
-  const still = await blockingNcrsOf(item.id, undefined, transaction);
-  if (still.length) return;
+  const open = await Nonconformance.findAll({
+    where: { itemId: item.id, state: { [Op.in]: OPEN_NCR_STATES } },
+    transaction,
+  });
+  const reworks = open.filter(
+    (n) => n.state === 'decided' && (n.disposition === 'rework' || n.disposition === 'repair'),
+  );
+  if (open.length && open.length === reworks.length) {
+    // only a decided rework is left: the part may now go through the stage it was sent back to
+    const stageId = reworks[0]!.reworkStageId;
+    if (item.status !== 'in_process' || item.currentStageId !== stageId) {
+      const before = { status: item.status, currentStage: item.currentStageId };
+      await item.update({ status: 'in_process', currentStageId: stageId }, { transaction });
+      await recordAudit(ctx, transaction, {
+        action: 'item.released_for_rework',
+        entity: 'item',
+        entityId: item.serial,
+        before,
+        after: { status: 'in_process', currentStage: stageId, byNcr: ncr.number, rework: reworks[0]!.number },
+      });
+    }
+    return;
+  }
+  if (open.length) return;
   const before = { status: item.status, currentStage: item.currentStageId };
   let next: Partial<Item>;
   const result = ncr.stageResultId ? await StageResult.findByPk(ncr.stageResultId, { transaction }) : null;
@@ -729,8 +755,18 @@ export async function disposition(sequelize: Sequelize, ctx: Ctx, number: string
     if (body.reworkStage && item) {
       const stage = await Stage.findOne({ where: { code: body.reworkStage }, transaction: t });
       const route = await routeFor(item.engineFamilyId, item.kind, t);
-      if (!stage || !route?.steps.some((s) => s.stageId === stage.id)) {
+      const steps = route?.steps ?? [];
+      const to = stage ? steps.findIndex((s) => s.stageId === stage.id) : -1;
+      if (!stage || to < 0) {
         throw invalid(`Choose a stage on the route of ${item.serial}.`, { reworkStage: 'Not on this part’s route.' });
+      }
+      // back to the stage where it was found, or an earlier one: never past stages it has not passed
+      const foundAt = steps.findIndex((s) => s.stageId === (ncr.stageId ?? item.currentStageId));
+      if (foundAt >= 0 && to > foundAt) {
+        const where = steps[foundAt]!.stage.name;
+        throw invalid(`A rework goes back to ${where}, where the problem was found, or to an earlier stage.`, {
+          reworkStage: `${where} or earlier.`,
+        });
       }
       reworkStageId = stage.id;
     }

@@ -23,6 +23,7 @@ export const paths = {
   ncr: '/ncrs/:number',
   raiseConcern: '/ncrs/new',
   mail: '/admin/mail',
+  defectCodes: '/admin/defect-codes',
   build: '/build',
   release: '/release',
   trail: '/trail',

@@ -470,3 +470,56 @@ describe('purchased lots and the plant’s defect codes', () => {
     expect(refused.body.error.fields.defectCode).toBe(`No defect code ${code}.`);
   });
 });
+
+describe('two NCRs on one part', () => {
+  it('voiding a concern while a rework is decided lets the part through its rework stage', async () => {
+    const { serial, number } = await failedBlock();
+    await post(quality, `/api/ncrs/${number}/review`);
+    const concern = await post(operator, '/api/ncrs', {
+      serial,
+      description: 'Chipped pan rail corner noticed at the hone',
+      severity: 'minor',
+      defectCode: 'DMG',
+    });
+    await post(quality, `/api/ncrs/${number}/disposition`, {
+      disposition: 'rework',
+      reason: 'Re-hone cylinder 2',
+      reworkStage: 'bore-hone',
+      password: TEST_PASSWORD,
+    });
+    // the concern still holds it
+    expect((await formFor(t, operator, 'BH-1', serial)).sequence).toMatchObject({ ok: false, code: 'on_hold' });
+    await post(quality, `/api/ncrs/${concern.body.number}/void`, {
+      reason: 'Old damage, already on the intake photos',
+    });
+    const form = await formFor(t, operator, 'BH-1', serial);
+    expect(form.sequence.ok).toBe(true);
+    await pass(t, operator, 'BH-1', serial);
+    expect((await Nonconformance.findOne({ where: { number } }))!.state).toBe('closed');
+  });
+});
+
+describe('rework goes back, never forward', () => {
+  it('refuses a rework stage after the one where the problem was found', async () => {
+    const { number, serial } = await failedBlock();
+    await post(quality, `/api/ncrs/${number}/review`);
+    const forward = await post(quality, `/api/ncrs/${number}/disposition`, {
+      disposition: 'rework',
+      reason: 'Skip ahead',
+      reworkStage: 'block-deck',
+      password: TEST_PASSWORD,
+    });
+    expect(forward.status).toBe(400);
+    expect(forward.body.error.fields.reworkStage).toBe('Bore and hone or earlier.');
+    const back = await post(quality, `/api/ncrs/${number}/disposition`, {
+      disposition: 'rework',
+      reason: 'Re-bore from line hone',
+      reworkStage: 'line-hone',
+      password: TEST_PASSWORD,
+    });
+    expect(back.body.item).toMatchObject({ status: 'in_process', currentStage: { code: 'line-hone' } });
+    // found by its serial however it is typed
+    const found = await get(quality, `/api/ncrs?state=open&q=${serial.replace(/-/g, '').toLowerCase()}`);
+    expect(found.body.rows.map((r: { number: string }) => r.number)).toContain(number);
+  });
+});

@@ -104,6 +104,12 @@ export const AREAS: Area[] = [
     summary: 'Tolerance rules per engine family, stage and characteristic: drafts, signed approvals, every version.',
   },
   {
+    label: 'Defect codes',
+    to: paths.defectCodes,
+    permission: 'defects.manage',
+    summary: 'The plant’s list of defect codes for NCRs: add, reword, retire.',
+  },
+  {
     label: 'Mail',
     to: paths.mail,
     permission: 'mail.read',

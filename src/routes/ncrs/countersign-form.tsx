@@ -15,10 +15,14 @@ export function CountersignForm({ ncr, signer, run }: { ncr: NcrDetail; signer: 
       onSubmit={(body) => run(() => countersign.mutateAsync(body))}
     >
       <p>
-        {ncr.decidedBy ?? 'A quality engineer'} signed to use this critical part as is. It takes effect once a second
-        quality engineer agrees and signs.
+        {ncr.decidedBy ?? 'A quality engineer'} signed to use this critical {ncr.lot ? 'lot' : 'part'} as is. It takes
+        effect once a second quality engineer agrees and signs.
       </p>
-      <TextAreaField name="reason" label="Reason" hint="Why you agree the part can be used as it is." />
+      <TextAreaField
+        name="reason"
+        label="Reason"
+        hint={`Why you agree the ${ncr.lot ? 'lot' : 'part'} can be used as it is.`}
+      />
       <SigningStatement signer={signer} meaning="Use as is (second signature)" number={ncr.number} />
       <TextField
         name="password"

@@ -7,10 +7,17 @@ import { RadioGroupField } from '../../components/choice-fields';
 import { Form, SubmitButton } from '../../components/form';
 import { SelectField, TextAreaField, TextField } from '../../components/form-fields';
 import { Notice } from '../../components/ui/notice';
+import { heldWords } from './ncr-words';
 import { PASSWORD_HINT, SigningStatement, type RunStep } from './signing';
 
-const dispositionOptions = DISPOSITIONS.map((d) => ({ value: d, label: DISPOSITION_LABELS[d] }));
 const sendsBack = (d: Disposition | undefined) => d === 'rework' || d === 'repair';
+
+/** A lot has no route to go back through; a part the plant remanufactures has no supplier to go back to. */
+const dispositionsFor = (ncr: NcrDetail) =>
+  DISPOSITIONS.filter((d) => (ncr.lot ? !sendsBack(d) : d !== 'return_to_supplier')).map((d) => ({
+    value: d,
+    label: DISPOSITION_LABELS[d],
+  }));
 
 function DecideFields({ ncr, signer }: { ncr: NcrDetail; signer: string }) {
   const disposition = useWatch({ name: 'disposition' }) as Disposition | undefined;
@@ -32,9 +39,13 @@ function DecideFields({ ncr, signer }: { ncr: NcrDetail; signer: string }) {
       <RadioGroupField
         name="disposition"
         legend="Disposition"
-        options={dispositionOptions}
+        options={dispositionsFor(ncr)}
         columns={2}
-        hint="Rework and repair send the part back to a stage of its route. Scrap ends it. Return to supplier is only for purchased lots."
+        hint={
+          ncr.lot
+            ? 'A purchased lot has no route, so it cannot be reworked or repaired. Any of these closes the NCR.'
+            : 'Rework and repair send the part back to a stage of its route. Scrap ends it.'
+        }
       />
       {back && (
         <SelectField
@@ -45,15 +56,15 @@ function DecideFields({ ncr, signer }: { ncr: NcrDetail; signer: string }) {
           optional
           hint={
             ncr.stageName
-              ? `It was found at ${ncr.stageName}. The part goes back there and may be recorded at that stage only.`
-              : 'The part goes back there and may be recorded at that stage only.'
+              ? `It was found at ${ncr.stageName}: choose that stage or an earlier one. The part may then be recorded at the chosen stage only.`
+              : 'The part may then be recorded at the chosen stage only.'
           }
         />
       )}
       {twoSigners && (
         <Notice tone="hold" title="Two signatures">
-          This NCR is critical: using the part as is needs a second quality engineer to countersign. Until then the part
-          stays on hold.
+          This NCR is critical: using the {ncr.lot ? 'lot' : 'part'} as is needs a second quality engineer to
+          countersign. Until then {heldWords(ncr)}.
         </Notice>
       )}
       <TextAreaField

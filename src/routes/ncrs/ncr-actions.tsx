@@ -8,6 +8,7 @@ import { ApiError } from '../../lib/http';
 import { CountersignForm } from './countersign-form';
 import { DecideForm } from './decide-form';
 import { CloseStep, ReviewStep, VoidStep } from './ncr-steps';
+import { heldWords } from './ncr-words';
 import type { RunStep } from './signing';
 
 function Step({ title, children }: { title: string; children: ReactNode }) {
@@ -19,7 +20,7 @@ function Step({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-/** What was decided, by whom, and what it means for the part. */
+/** What was decided, by whom, and what it means for the part or lot. */
 export function NcrDecision({ ncr }: { ncr: NcrDetail }) {
   if (!ncr.disposition) return null;
   return (
@@ -49,8 +50,8 @@ export function NcrDecision({ ncr }: { ncr: NcrDetail }) {
         {ncr.awaitingSecondSignature && (
           <div className="mt-3">
             <Notice tone="hold" title="Waiting for a second signature">
-              A critical part used as is needs a second quality engineer to countersign. The part stays on hold until
-              then.
+              A critical {ncr.lot ? 'lot' : 'part'} used as is needs a second quality engineer to countersign. Until
+              then {heldWords(ncr)}.
             </Notice>
           </div>
         )}
@@ -63,7 +64,16 @@ export function NcrDecision({ ncr }: { ncr: NcrDetail }) {
  * The steps the server says this person may take now (`allowed`), and nothing else. A step refused
  * because the NCR moved on meanwhile is said above the steps, which by then show what is possible.
  */
-export function NcrActions({ ncr, signer, canDecide }: { ncr: NcrDetail; signer: string; canDecide: boolean }) {
+export function NcrActions({
+  ncr,
+  me,
+  canDecide,
+}: {
+  ncr: NcrDetail;
+  me: { id: number; name: string };
+  canDecide: boolean;
+}) {
+  const signer = me.name;
   const [refusal, setRefusal] = useState<string | null>(null);
   const run: RunStep = async (step) => {
     setRefusal(null);
@@ -98,15 +108,15 @@ export function NcrActions({ ncr, signer, canDecide }: { ncr: NcrDetail; signer:
               ? `This NCR is ${ncr.state === 'voided' ? 'voided' : 'closed'}: it takes no further steps.`
               : canDecide
                 ? 'Nothing for you to do on it now.'
-                : 'A quality engineer decides this NCR. Until then the part stays on hold; you can follow it here.'}
+                : `A quality engineer decides this NCR. Until then ${heldWords(ncr)}; you can follow it here.`}
           </p>
         </CardBody>
       )}
       {waitingOnOther && canDecide && (
         <CardBody>
           <p>
-            {ncr.decidedBy === signer ? 'You signed first, so' : 'Once the first signature is in,'} the countersignature
-            must come from another quality engineer.
+            {ncr.decidedById === me.id ? 'You signed first, so' : 'Once the first signature is in,'} the
+            countersignature must come from another quality engineer.
           </p>
         </CardBody>
       )}

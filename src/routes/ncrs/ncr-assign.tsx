@@ -4,19 +4,10 @@ import type { NcrDetail } from '../../api/ncrs/types';
 import { Button } from '../../components/ui/button';
 
 /** Who has the NCR, and for quality the one-click ways to take it or let it go. */
-export function NcrAssignee({
-  ncr,
-  me,
-  canDecide,
-}: {
-  ncr: NcrDetail;
-  me: { id: number; name: string };
-  canDecide: boolean;
-}) {
+export function NcrAssignee({ ncr, me, canDecide }: { ncr: NcrDetail; me: { id: number }; canDecide: boolean }) {
   const assign = useAssignNcr(ncr.number);
   const open = OPEN_NCR_STATES.includes(ncr.state);
-  // the detail names the assignee but not their id; names are unique enough to tell "me" apart
-  const mine = ncr.assignee === me.name;
+  const mine = ncr.assigneeId === me.id;
   return (
     <span className="inline-flex flex-wrap items-center gap-2">
       <span>
@@ -29,7 +20,7 @@ export function NcrAssignee({
               Assign to me
             </Button>
           )}
-          {ncr.assignee && (
+          {ncr.assigneeId !== null && (
             <Button
               size="sm"
               variant="quiet"

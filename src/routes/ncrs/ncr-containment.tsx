@@ -17,7 +17,11 @@ export function NcrContainment({ ncr, canEdit }: { ncr: NcrDetail; canEdit: bool
       <CardHeader
         id="ncr-containment-heading"
         title="Containment"
-        description="What was done to keep the part, and any like it, from going on."
+        description={
+          ncr.lot
+            ? 'What was done to keep the lot, and any other boxes of it, from being used.'
+            : 'What was done to keep the part, and any like it, from going on.'
+        }
       />
       <CardBody>
         {editable ? (
@@ -35,7 +39,11 @@ export function NcrContainment({ ncr, canEdit }: { ncr: NcrDetail; canEdit: bool
             <TextAreaField
               name="containment"
               label="Containment note"
-              hint="For example: tagged and moved to the hold rack; the other blocks of the batch checked."
+              hint={
+                ncr.lot
+                  ? 'For example: boxes tagged and moved to the hold rack; the build bench told not to use the lot.'
+                  : 'For example: tagged and moved to the hold rack; the other blocks of the batch checked.'
+              }
             />
             <div className="flex flex-wrap items-center gap-3">
               <SubmitButton variant="secondary">Save containment</SubmitButton>

@@ -3,7 +3,7 @@ import type { LoaderFunctionArgs } from 'react-router';
 import { NCR_STATE_LABELS, NCR_STATES, SEVERITIES } from '../../../shared/schemas/ncr';
 import { PART_KIND_LABELS, type PartKind } from '../../../shared/schemas/reference';
 import { useSignedIn } from '../../api/auth/me';
-import { DEFECT_CODES } from '../../api/ncrs/defect-codes';
+import { defectCodesQueryOptions, useDefectCodes } from '../../api/defect-codes/defect-codes';
 import { ncrExportHref, ncrListQueryOptions, useNcrs } from '../../api/ncrs/list-ncrs';
 import { familiesQueryOptions, useFamilies } from '../../api/reference/families';
 import { stagesQueryOptions, useStages } from '../../api/reference/stages';
@@ -21,6 +21,7 @@ import { plural } from '../../lib/format';
 import { paths } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
 import { useDebouncedText, useUrlFilter } from '../../lib/use-url-filter';
+import { allDefectOptions } from './defect-options';
 import { ALL_STATES, ncrFilterFrom } from './filter';
 import { SEVERITY_LABELS } from './ncr-badges';
 import { NcrTable } from './ncr-table';
@@ -33,6 +34,7 @@ export const ncrListLoader =
       queryClient.ensureQueryData(ncrListQueryOptions(ncrFilterFrom(new URL(request.url).searchParams))),
       queryClient.ensureQueryData(familiesQueryOptions()),
       queryClient.ensureQueryData(stagesQueryOptions()),
+      queryClient.ensureQueryData(defectCodesQueryOptions()),
     ]);
     return null;
   };
@@ -43,7 +45,6 @@ const stateOptions = [
   { value: ALL_STATES, label: 'Any state' },
 ];
 const severityOptions = SEVERITIES.map((s) => ({ value: s, label: SEVERITY_LABELS[s] }));
-const defectOptions = DEFECT_CODES.map((d) => ({ value: d.code, label: `${d.code} — ${d.description}` }));
 const FILTER_KEYS = ['state', 'severity', 'defect', 'family', 'stage', 'olderThanDays', 'assignee', 'q'] as const;
 
 export function NcrListPage() {
@@ -53,6 +54,7 @@ export function NcrListPage() {
   const list = useNcrs(filter);
   const families = useFamilies();
   const stages = useStages();
+  const defects = useDefectCodes();
   const [draft, onSearch] = useDebouncedText(filter.q ?? '', (v) => set('q', v));
   const [age, onAge] = useDebouncedText(filter.olderThanDays === undefined ? '' : String(filter.olderThanDays), (v) =>
     set('olderThanDays', /^\d{1,4}$/.test(v) ? v : ''),
@@ -83,7 +85,7 @@ export function NcrListPage() {
     <>
       <PageHeader
         title="NCRs"
-        description="Nonconformances: what was found wrong with a part, what was decided and by whom. An open NCR holds its part."
+        description="Nonconformances: what was found wrong with a part or a purchased lot, what was decided and by whom. An open NCR holds its part or lot."
         actions={
           me.can('ncr.raise') && (
             <ButtonLink to={paths.raiseConcern} variant="primary" icon="plus">
@@ -106,7 +108,7 @@ export function NcrListPage() {
             <FilterInput
               id="ncr-q"
               label="Search"
-              placeholder="NCR number, serial or words"
+              placeholder="NCR number, serial, lot code or words"
               value={draft}
               onChange={onSearch}
             />
@@ -131,7 +133,7 @@ export function NcrListPage() {
             id="ncr-defect"
             label="Defect code"
             placeholder="Any defect"
-            options={defectOptions}
+            options={allDefectOptions(defects.data ?? [])}
             value={filter.defect ?? ''}
             onChange={(v) => set('defect', v)}
           />
@@ -209,6 +211,7 @@ export function NcrListPage() {
         {data && (
           <NcrTable
             rows={data.rows}
+            canOpenLot={me.can('trail.read')}
             busy={list.isPlaceholderData}
             empty={
               data.total > 0

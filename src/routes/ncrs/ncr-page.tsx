@@ -1,7 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router';
 import { useSignedIn } from '../../api/auth/me';
-import { defectDescription } from '../../api/ncrs/defect-codes';
+import { defectCodesQueryOptions, useDefectCodes } from '../../api/defect-codes/defect-codes';
 import { ncrQueryOptions, useNcr } from '../../api/ncrs/ncr';
 import { PageHeader } from '../../components/page-header';
 import { ButtonLink } from '../../components/ui/button';
@@ -15,6 +15,8 @@ import { NcrStateBadge, SeverityMark } from './ncr-badges';
 import { NcrContainment } from './ncr-containment';
 import { NcrFindings, NcrPhotos } from './ncr-findings';
 import { NcrSignatures, NcrTimeline } from './ncr-history';
+import { defectDescription } from './defect-options';
+import { NcrLot } from './ncr-lot';
 import { NcrPart } from './ncr-part';
 
 const NCR_NUMBER = /^NC-\d{4}-\d{5,}$/;
@@ -28,16 +30,20 @@ export const ncrLoader =
     if (!NCR_NUMBER.test(number)) {
       throw new ApiError(400, { code: 'invalid', message: 'An NCR number looks like NC-2026-00042.' });
     }
-    await queryClient.ensureQueryData(ncrQueryOptions(number));
+    await Promise.all([
+      queryClient.ensureQueryData(ncrQueryOptions(number)),
+      queryClient.ensureQueryData(defectCodesQueryOptions()),
+    ]);
     return null;
   };
 
 export function NcrPage() {
   const me = useSignedIn();
   const { data: ncr } = useNcr(canonicalNumber(useParams().number));
+  const defects = useDefectCodes().data;
   if (!me || !ncr) return null;
   const canDecide = me.can('ncr.disposition');
-  const defect = ncr.defectCode ? defectDescription(ncr.defectCode) : undefined;
+  const defect = defectDescription(defects, ncr.defectCode);
 
   return (
     <>
@@ -71,12 +77,12 @@ export function NcrPage() {
       {/* on a wide screen the steps sit beside the record; narrower, they follow what was found */}
       <div className="grid grid-cols-1 items-start gap-5 xl:grid-flow-dense xl:grid-cols-[minmax(0,1fr)_26rem]">
         <div className="flex flex-col gap-5 xl:col-start-1">
-          <NcrPart ncr={ncr} />
+          {ncr.lot ? <NcrLot ncr={ncr} lot={ncr.lot} canOpenLot={me.can('trail.read')} /> : <NcrPart ncr={ncr} />}
           <NcrFindings ncr={ncr} />
         </div>
         <div className="flex flex-col gap-5 xl:col-start-2 xl:row-span-2 xl:row-start-1">
           <NcrDecision ncr={ncr} />
-          <NcrActions ncr={ncr} signer={me.user.name} canDecide={canDecide} />
+          <NcrActions ncr={ncr} me={me.user} canDecide={canDecide} />
         </div>
         <div className="flex flex-col gap-5 xl:col-start-1">
           <NcrContainment ncr={ncr} canEdit={canDecide} />

@@ -50,7 +50,10 @@ export function VoidStep({ ncr, run }: { ncr: NcrDetail; run: RunStep }) {
   return (
     <>
       <p className="text-ink-soft">
-        Raised in error? Voiding keeps it on record, with your reason, and releases the part if nothing else holds it.
+        Raised in error? Voiding keeps it on record, with your reason, and{' '}
+        {ncr.lot
+          ? 'lets the lot go into units again if nothing else holds it.'
+          : 'releases the part if nothing else holds it.'}
       </p>
       <div className="flex justify-end">
         <Button variant="danger" onClick={() => setOpen(true)}>

@@ -11,16 +11,34 @@ import type { NcrFilter } from '../../api/ncrs/list-ncrs';
 import type { NcrRow } from '../../api/ncrs/types';
 import { DataTable, SortButton } from '../../components/data-table';
 import { formatWhen } from '../../lib/format';
-import { itemHref, ncrHref } from '../../lib/paths';
-import { defectDescription } from '../../api/ncrs/defect-codes';
+import { useDefectCodes } from '../../api/defect-codes/defect-codes';
+import { Icon } from '../../components/ui/icon';
+import { itemHref, lotHref, ncrHref } from '../../lib/paths';
+import { defectDescription } from './defect-options';
 import { dispositionWord, NcrStateBadge, SeverityMark } from './ncr-badges';
 
 const col = createColumnHelper<NcrRow>();
 const linkClass = 'font-semibold text-accent underline-offset-4 hover:underline';
 const none = <span className="text-ink-soft">—</span>;
 
+/** A critical use-as-is signed once is not in effect yet: say so wherever the disposition is shown. */
+function DispositionText({ row, quiet = false }: { row: NcrRow; quiet?: boolean }) {
+  if (row.awaitingSecondSignature) {
+    return (
+      <span className="inline-flex items-start gap-1 text-wait">
+        <Icon name="wait" size={15} className="mt-0.5 shrink-0" />
+        <span>Use as is — waiting for second signature</span>
+      </span>
+    );
+  }
+  const d = dispositionWord(row.disposition);
+  return d ? <span className={quiet ? 'text-ink-soft' : ''}>{d}</span> : null;
+}
+
 type NcrTableProps = {
   rows: NcrRow[];
+  /** The lot page is part of the trail, which not every role reads. */
+  canOpenLot: boolean;
   busy: boolean;
   empty?: string;
   sort: NcrFilter['sort'];
@@ -29,13 +47,14 @@ type NcrTableProps = {
 };
 
 /** Sorting and paging are the server's; the table shows which way it is sorted and asks for more. */
-export function NcrTable({ rows, busy, empty, sort, dir, onSort }: NcrTableProps) {
+export function NcrTable({ rows, canOpenLot, busy, empty, sort, dir, onSort }: NcrTableProps) {
+  const defects = useDefectCodes().data;
   const columns = useMemo(
     () => [
       col.accessor('number', {
         header: ({ column }) => <SortButton column={column}>NCR</SortButton>,
         cell: (c) => (
-          <span className="flex flex-col leading-snug xl:w-60">
+          <span className="flex flex-col leading-snug xl:w-48">
             <Link to={ncrHref(c.getValue())} className={`font-mono ${linkClass}`}>
               {c.getValue()}
             </Link>
@@ -47,16 +66,15 @@ export function NcrTable({ rows, busy, empty, sort, dir, onSort }: NcrTableProps
       }),
       col.accessor('state', {
         header: ({ column }) => <SortButton column={column}>State</SortButton>,
-        cell: (c) => {
-          const d = dispositionWord(c.row.original.disposition);
-          return (
-            <span className="flex flex-col items-start gap-0.5">
-              <NcrStateBadge state={c.getValue()} />
-              {/* the disposition has its own column on a wide screen */}
-              {d && <span className="text-sm text-ink-soft xl:hidden">{d}</span>}
+        cell: (c) => (
+          <span className="flex flex-col items-start gap-0.5">
+            <NcrStateBadge state={c.getValue()} />
+            {/* the disposition has its own column on a wide screen */}
+            <span className="max-w-44 text-sm xl:hidden">
+              <DispositionText row={c.row.original} quiet />
             </span>
-          );
-        },
+          </span>
+        ),
       }),
       col.accessor('severity', {
         header: ({ column }) => <SortButton column={column}>Severity</SortButton>,
@@ -67,6 +85,17 @@ export function NcrTable({ rows, busy, empty, sort, dir, onSort }: NcrTableProps
         meta: { nowrap: true },
         cell: (c) => {
           const serial = c.getValue();
+          const lot = c.row.original.lotCode;
+          if (!serial && lot) {
+            const code = <span className="font-mono">{lot}</span>;
+            return canOpenLot ? (
+              <Link to={lotHref(lot)} className={linkClass}>
+                Lot {code}
+              </Link>
+            ) : (
+              <span className="font-medium">Lot {code}</span>
+            );
+          }
           if (!serial) return none;
           return (
             <span className="flex flex-col leading-snug">
@@ -98,14 +127,22 @@ export function NcrTable({ rows, busy, empty, sort, dir, onSort }: NcrTableProps
         meta: { mono: true, nowrap: true },
         cell: (c) => {
           const code = c.getValue();
-          return code ? <abbr title={defectDescription(code) ?? code}>{code}</abbr> : none;
+          return code ? <abbr title={defectDescription(defects, code) ?? code}>{code}</abbr> : none;
         },
       }),
       col.accessor('disposition', {
         header: 'Disposition',
         enableSorting: false,
-        meta: { nowrap: true, wideOnly: true },
-        cell: (c) => dispositionWord(c.getValue()) ?? none,
+        meta: { wideOnly: true },
+        cell: (c) => (
+          <span className="block max-w-44">
+            {c.row.original.disposition || c.row.original.awaitingSecondSignature ? (
+              <DispositionText row={c.row.original} />
+            ) : (
+              none
+            )}
+          </span>
+        ),
       }),
       col.accessor('raisedAt', {
         id: 'raised',
@@ -132,7 +169,7 @@ export function NcrTable({ rows, busy, empty, sort, dir, onSort }: NcrTableProps
         cell: (c) => c.getValue() ?? <span className="text-ink-soft">Nobody</span>,
       }),
     ],
-    [],
+    [canOpenLot, defects],
   );
 
   const sorting: SortingState = [{ id: sort, desc: dir === 'desc' }];

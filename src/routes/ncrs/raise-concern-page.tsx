@@ -1,174 +1,137 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
-import { Link, type LoaderFunctionArgs } from 'react-router';
+import { useId, useState } from 'react';
+import type { LoaderFunctionArgs } from 'react-router';
 import { parseSerial } from '../../../shared/domain/serial';
-import { raiseNcrBody, type RaiseNcrBody } from '../../../shared/schemas/ncr';
 import { useSignedIn } from '../../api/auth/me';
+import { defectCodesQueryOptions } from '../../api/defect-codes/defect-codes';
 import { itemQueryOptions, useItem } from '../../api/items/item';
-import type { ItemJson } from '../../api/items/types';
-import { DEFECT_CODES } from '../../api/ncrs/defect-codes';
-import { useRaiseNcr } from '../../api/ncrs/raise-ncr';
 import type { NcrDetail } from '../../api/ncrs/types';
-import { Form, SubmitButton } from '../../components/form';
-import { SelectField, TextAreaField } from '../../components/form-fields';
+import { suppliersQueryOptions } from '../../api/reference/suppliers';
 import { ItemSummary } from '../../components/item-summary';
 import { PageHeader } from '../../components/page-header';
-import { PhotoField } from '../../components/photo-field';
 import { ScanBox } from '../../components/scan-box';
-import { Button, ButtonLink } from '../../components/ui/button';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
-import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
-import { itemHref, ncrHref } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
 import { useUrlFilter } from '../../lib/use-url-filter';
-import { SeverityField } from './severity-field';
+import { ConcernForm, Raised, type ConcernAbout } from './concern-form';
 
 export const raiseConcernLoader =
   (queryClient: QueryClient) =>
   async ({ request }: LoaderFunctionArgs) => {
     await requirePermission(queryClient, request, 'ncr.raise');
-    const parsed = parseSerial(new URL(request.url).searchParams.get('serial') ?? '');
-    // a serial that cannot be found is said beside the scan box, not as an error page
-    if (parsed.ok) await queryClient.prefetchQuery(itemQueryOptions(parsed.serial));
+    const search = new URL(request.url).searchParams;
+    const parsed = parseSerial(search.get('serial') ?? '');
+    await Promise.all([
+      queryClient.ensureQueryData(defectCodesQueryOptions()),
+      // a serial that cannot be found is said beside the scan box, not as an error page
+      parsed.ok ? queryClient.prefetchQuery(itemQueryOptions(parsed.serial)) : null,
+      search.get('about') === 'lot' ? queryClient.prefetchQuery(suppliersQueryOptions()) : null,
+    ]);
     return null;
   };
 
-const defectOptions = DEFECT_CODES.map((d) => ({ value: d.code, label: `${d.code} — ${d.description}` }));
+type Kind = ConcernAbout['kind'];
 
-function ConcernForm({
-  item,
-  canPhoto,
-  onRaised,
-}: {
-  item: ItemJson;
-  canPhoto: boolean;
-  onRaised: (n: NcrDetail) => void;
-}) {
-  const raise = useRaiseNcr();
-  return (
-    <Card labelledBy="concern-heading">
-      <CardHeader
-        id="concern-heading"
-        title="What is wrong"
-        description={`About ${item.serial}. It goes on hold as soon as you raise the concern.`}
-      />
-      <CardBody>
-        <Form
-          schema={raiseNcrBody}
-          defaultValues={{ serial: item.serial, description: '', containment: '', photoIds: [] }}
-          onSubmit={async (body: RaiseNcrBody) => onRaised(await raise.mutateAsync(body))}
-        >
-          <TextAreaField
-            name="description"
-            label="What did you see?"
-            hint="Where on the part, and what you saw or measured. At least 10 characters."
-          />
-          <SeverityField name="severity" />
-          <SelectField
-            name="defectCode"
-            label="Defect code"
-            options={defectOptions}
-            placeholder="Choose the closest…"
-          />
-          <TextAreaField
-            name="containment"
-            label="Containment (optional)"
-            hint="What you did to keep it from going on: tagged it, moved it to the hold rack, told the next station."
-            optional
-          />
-          {canPhoto && <PhotoField name="photoIds" label="Photos (optional)" max={10} />}
-          <SubmitButton size="lg" wide>
-            Raise concern
-          </SubmitButton>
-        </Form>
-      </CardBody>
-    </Card>
-  );
-}
+const KINDS: { value: Kind; label: string; why: string }[] = [
+  { value: 'part', label: 'A part', why: 'Scan or type its serial. It goes on hold at once.' },
+  {
+    value: 'lot',
+    label: 'A purchased lot',
+    why: 'Pistons, bearings, gaskets and the like, by lot code. None of it can go into a unit until it is decided.',
+  },
+];
 
-function Raised({ ncr, canRead, onAnother }: { ncr: NcrDetail; canRead: boolean; onAnother: () => void }) {
-  const held = ncr.item?.status === 'on_hold';
+/** Two large tiles, as the severity is chosen further down, so the page reads the same way throughout. */
+function AboutChoice({ value, onChange }: { value: Kind; onChange: (k: Kind) => void }) {
+  const id = useId();
   return (
-    <Card labelledBy="raised-heading">
-      <CardBody>
-        <div role="status" className="flex flex-col gap-3">
-          <h2 id="raised-heading" className="flex items-center gap-2.5 text-2xl font-semibold">
-            <Icon name="ok" size={28} className="text-ok" />
-            Concern raised as{' '}
-            {canRead ? (
-              <Link to={ncrHref(ncr.number)} className="font-mono text-accent underline underline-offset-4">
-                {ncr.number}
-              </Link>
-            ) : (
-              <span className="font-mono">{ncr.number}</span>
-            )}
-          </h2>
-          {held ? (
-            <Notice tone="hold" title={`${ncr.serial} is on hold`}>
-              It stays where it is until a quality engineer decides the NCR. Keep it tagged and apart.
-            </Notice>
-          ) : (
-            <Notice tone="info" title={`${ncr.serial} was not put on hold`}>
-              It has already left the plant, so there is nothing to hold; quality will follow it up.
-            </Notice>
-          )}
-        </div>
-        <div className="mt-5 flex flex-wrap gap-2">
-          <Button variant="primary" size="lg" onClick={onAnother}>
-            Raise another concern
-          </Button>
-          {ncr.serial && (
-            <ButtonLink to={itemHref(ncr.serial)} size="lg">
-              Open the part
-            </ButtonLink>
-          )}
-        </div>
-      </CardBody>
-    </Card>
+    <fieldset>
+      <legend className="sr-only">The concern is about</legend>
+      <div className="grid grid-cols-1 gap-2 md:grid-cols-2">
+        {KINDS.map((k) => (
+          <label
+            key={k.value}
+            className="flex min-h-16 cursor-pointer items-start gap-3 rounded-control border border-rule-strong bg-field px-3.5 py-3 hover:border-ink-soft has-checked:border-2 has-checked:border-accent has-checked:bg-accent-tint has-focus-visible:outline-3 has-focus-visible:outline-offset-2 has-focus-visible:outline-accent"
+          >
+            <input
+              type="radio"
+              name={`${id}-about`}
+              className="mt-0.5 size-6 shrink-0 accent-accent"
+              checked={value === k.value}
+              onChange={() => onChange(k.value)}
+              aria-labelledby={`${id}-${k.value}`}
+              aria-describedby={`${id}-${k.value}-why`}
+            />
+            <span className="flex flex-col gap-0.5">
+              <span id={`${id}-${k.value}`} className="text-lg font-semibold">
+                {k.label}
+              </span>
+              <span id={`${id}-${k.value}-why`} className="text-[0.95rem] text-ink-soft">
+                {k.why}
+              </span>
+            </span>
+          </label>
+        ))}
+      </div>
+    </fieldset>
   );
 }
 
 export function RaiseConcernPage() {
   const me = useSignedIn();
-  const { params, set } = useUrlFilter();
+  const { params, setMany } = useUrlFilter();
+  // a link may open the page on the lot form (?about=lot); the choice itself stays on the page, so the
+  // tiles answer at once instead of after a navigation
+  const [kind, setKind] = useState<Kind>(params.get('about') === 'lot' ? 'lot' : 'part');
   const parsed = parseSerial(params.get('serial') ?? '');
-  const serial = parsed.ok ? parsed.serial : null;
+  const serial = kind === 'part' && parsed.ok ? parsed.serial : null;
   const item = useItem(serial);
   const [raised, setRaised] = useState<NcrDetail | null>(null);
   if (!me) return null;
-  const done = raised && raised.serial === serial ? raised : null;
+  const done = raised && (kind === 'lot' ? raised.lot !== null : raised.serial === serial) ? raised : null;
+  const canPhoto = me.can('attachments.upload');
+  const choose = (k: Kind) => {
+    setRaised(null);
+    setKind(k);
+  };
 
   return (
     // raised from the floor on a tablet as often as from a desk: the large targets either way
     <div data-density="floor" className="mx-auto max-w-[52rem]">
       <PageHeader
         title="Raise a concern"
-        description="Seen something wrong with a part? Scan it and say what you saw. It goes on hold until a quality engineer decides what happens to it."
+        description="Seen something wrong with a part or a purchased lot? Say what you saw. A part goes on hold, and a lot is kept out of units, until a quality engineer decides what happens to it."
       />
       <div className="flex flex-col gap-5">
         {done ? (
           <Raised
             ncr={done}
             canRead={me.can('ncr.read')}
+            canOpenLot={me.can('trail.read')}
             onAnother={() => {
               setRaised(null);
-              set('serial', '');
+              setMany({ serial: '' });
             }}
           />
         ) : (
           <>
-            <Card labelledBy="part-heading">
-              <CardHeader id="part-heading" title="Which part" />
+            <Card labelledBy="about-heading">
+              <CardHeader id="about-heading" title="What the concern is about" />
               <CardBody>
                 <div className="flex flex-col gap-5">
-                  <ScanBox
-                    onItem={(i) => set('serial', i.serial)}
-                    preview={false}
-                    autoFocus={!serial}
-                    initial={params.get('serial') ?? ''}
-                  />
-                  {item.data && (
+                  <AboutChoice value={kind} onChange={choose} />
+                  {kind === 'part' && (
+                    <div className="border-t border-rule pt-4">
+                      <ScanBox
+                        onItem={(i) => setMany({ serial: i.serial })}
+                        preview={false}
+                        autoFocus={!serial}
+                        initial={params.get('serial') ?? ''}
+                      />
+                    </div>
+                  )}
+                  {kind === 'part' && item.data && (
                     <div className="border-t border-rule pt-4">
                       <ItemSummary item={item.data} />
                     </div>
@@ -176,12 +139,16 @@ export function RaiseConcernPage() {
                 </div>
               </CardBody>
             </Card>
-            {item.error && (
+            {kind === 'lot' && (
+              <ConcernForm key="lot" about={{ kind: 'lot' }} canPhoto={canPhoto} onRaised={setRaised} />
+            )}
+            {kind === 'part' && item.error && (
               <Notice tone="bad" live="alert">
                 {item.error.message}
               </Notice>
             )}
-            {item.data &&
+            {kind === 'part' &&
+              item.data &&
               (item.data.status === 'scrapped' ? (
                 <Notice tone="info" title="Already scrapped">
                   {item.data.serial} has been scrapped: there is nothing left to hold.
@@ -189,8 +156,8 @@ export function RaiseConcernPage() {
               ) : (
                 <ConcernForm
                   key={item.data.serial}
-                  item={item.data}
-                  canPhoto={me.can('attachments.upload')}
+                  about={{ kind: 'part', item: item.data }}
+                  canPhoto={canPhoto}
                   onRaised={setRaised}
                 />
               ))}

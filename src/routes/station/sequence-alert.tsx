@@ -1,4 +1,4 @@
-import { useId, useState } from 'react';
+import { useEffect, useId, useRef, useState } from 'react';
 import { useFormContext } from 'react-hook-form';
 import { reentryBody } from '../../../shared/schemas/results';
 import { useAllowReentry } from '../../api/station/allow-reentry';
@@ -94,12 +94,18 @@ type SequenceAlertProps = {
 export function SequenceAlert({ form, canAllowReentry, canReadNcr, onReentry }: SequenceAlertProps) {
   const [open, setOpen] = useState(false);
   const sequence = form.sequence;
+  const ref = useRef<HTMLDivElement>(null);
+  // on a tablet the refusal may sit below the part's card: bring it into view
+  useEffect(() => {
+    if (!form.sequence.ok) ref.current?.scrollIntoView({ block: 'center' });
+  }, [form.sequence.ok, form.item.serial]);
   if (sequence.ok) return null;
   const fits = reentryFits(form, sequence);
   const held = sequence.code === 'on_hold';
   return (
     <>
       <div
+        ref={ref}
         role="alert"
         className={`flex items-start gap-4 rounded-card border-l-8 border-2 bg-card px-5 py-4 ${held ? 'border-hold' : 'border-bad'}`}
       >

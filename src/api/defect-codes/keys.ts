@@ -1,0 +1,3 @@
+export const defectCodeKeys = {
+  all: ['defect-codes'] as const,
+};
