@@ -21,6 +21,7 @@ import {
   Gauge,
   IdempotencyKey,
   Item,
+  Nonconformance,
   Reading,
   Stage,
   StageReentry,
@@ -186,6 +187,15 @@ export async function stationForm(stationCode: string, serial: string): Promise<
     expandPositions(c.positions, family, item),
   );
   const operator = current ? await User.findByPk(current.operatorId, { attributes: ['name'] }) : null;
+  const rework = await Nonconformance.findOne({
+    where: {
+      itemId: item.id,
+      state: 'decided',
+      reworkStageId: stage.id,
+      disposition: { [Op.in]: ['rework', 'repair'] },
+    },
+    order: [['id', 'DESC']],
+  });
   return {
     station: { code: station.code, name: station.name, location: station.location },
     stage: { code: stage.code, name: stage.name, hazard: stage.hazard, description: stage.description },
@@ -194,6 +204,9 @@ export async function stationForm(stationCode: string, serial: string): Promise<
     holds,
     characteristics: characteristics.map(({ id: _id, defectCode: _d, ...c }) => c),
     gauges: gauges.choices,
+    rework: rework
+      ? { number: rework.number, disposition: rework.disposition!, reason: rework.dispositionReason ?? '' }
+      : null,
     currentResult: current
       ? {
           id: current.id,

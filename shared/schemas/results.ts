@@ -75,6 +75,8 @@ export type StationFormJson = {
   gauges: GaugeChoice[];
   /** The current result at this stage, for a correction. */
   currentResult: { id: number; verdict: Verdict; finishedAt: string; operator: string } | null;
+  /** Why the part is here again: quality sent it back to this stage by a rework or repair. */
+  rework: { number: string; disposition: string; reason: string } | null;
 };
 
 export type ReadingJson = EvaluatedReading & {

@@ -129,7 +129,7 @@ export function ScanBox({ onItem, preview = true, autoFocus = false, hint, initi
           ) : check.ok ? (
             <p className="flex items-start gap-1.5 font-medium text-ok">
               <Icon name="ok" size={20} className="mt-0.5" />
-              {looking ? `Looking up ${check.serial}…` : `Check character matches: ${check.serial}.`}
+              {looking ? `Looking up ${check.serial}…` : `Serial read correctly: ${check.serial}.`}
             </p>
           ) : (
             <p className="text-ink-soft">

@@ -98,6 +98,9 @@ describe('an NCR from a failing result', () => {
     expect(early.status).toBe(409);
     expect(early.body.error.reason).toBe('rework_not_passed');
 
+    // the station says why the part is back
+    const due = await formFor(t, operator, 'BH-1', serial);
+    expect(due.rework).toEqual({ number, disposition: 'rework', reason: 'Re-hone cylinder 2 to size' });
     const reworked = await pass(t, operator, 'BH-1', serial);
     expect(reworked.item.currentStage.code).toBe('block-deck');
     const closed = await get(quality, `/api/ncrs/${number}`);

@@ -68,6 +68,16 @@ export function PartAtStation({
               <p className="text-base">{sequence.message}</p>
             </Notice>
           )}
+          {form.rework && (
+            <Notice
+              tone="info"
+              title={`Sent back by ${form.rework.number}: ${form.rework.disposition === 'repair' ? 'repair' : 'rework'}`}
+            >
+              <p className="text-base">
+                Quality decided: {form.rework.reason} A passing result here closes {form.rework.number}.
+              </p>
+            </Notice>
+          )}
           {stage.hazard && (
             <Caution title={stage.name}>
               <p className="text-lg">{stage.hazard}</p>
