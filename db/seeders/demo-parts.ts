@@ -49,6 +49,31 @@ const PLAN: Plan[] = [
   { family: 'TARN-6', block: 0, crankshaft: 0, heads: 0 },
 ];
 
+/** The gauge the demo plant uses for a characteristic, where a unit alone does not say (invented). */
+const PREFERRED_GAUGE: Record<string, string> = {
+  'main-journal': 'OM-022',
+  'rod-journal': 'OM-022',
+  'main-journal-at-fit': 'OM-022',
+  'rod-journal-at-fit': 'OM-022',
+  'piston-skirt': 'OM-022',
+  'deck-point': 'DI-031',
+  'seat-runout': 'DI-031',
+  'end-play': 'DI-031',
+};
+
+/** One gauge for the result, and another for each measured characteristic read with a different one. */
+function gaugesFor(form: Awaited<ReturnType<typeof stationForm>>) {
+  const usable = form.gauges.filter((g) => g.usable);
+  const pick = (c: (typeof form.characteristics)[number]) =>
+    usable.find((g) => g.code === PREFERRED_GAUGE[c.code]) ?? usable.find((g) => g.unit === c.unit) ?? usable[0]!;
+  const measured = form.characteristics.filter((c) => c.kind === 'variable' && !c.optional);
+  if (!measured.length) return { gauge: null, gauges: {} };
+  const gauge = pick(measured[0]!).code;
+  const gauges: Record<string, string> = {};
+  for (const c of measured) if (pick(c).code !== gauge) gauges[c.code] = pick(c).code;
+  return { gauge, gauges };
+}
+
 export async function seedDemoPartsIfEmpty(sequelize: Sequelize): Promise<number> {
   if ((await Item.count()) > 0) return 0;
   const faker = new Faker({ locale: [en] });
@@ -79,15 +104,13 @@ export async function seedDemoPartsIfEmpty(sequelize: Sequelize): Promise<number
         }
         return v;
       });
-      const measured = form.characteristics.filter((c) => c.kind === 'variable');
-      const gauge =
-        form.gauges.find((g) => g.usable && measured.some((c) => c.unit === g.unit)) ??
-        form.gauges.find((g) => g.usable)!;
+      const { gauge, gauges } = gaugesFor(form);
       await submitResult(sequelize, operator, {
         idempotencyKey: randomUUID(),
         serial,
         station: code,
-        gauge: measured.length ? gauge.code : null,
+        gauge,
+        gauges,
         startedAt: null,
         notes: '',
         readings,

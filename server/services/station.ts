@@ -385,16 +385,29 @@ export async function submitResult(
       );
     }
 
-    let gauge: Gauge | null = null;
+    // the result's gauge, and any measured characteristic taken with another one
     const gauges = await gaugeChoices(transaction);
-    if (body.gauge) {
-      gauge = gauges.byCode.get(body.gauge.toUpperCase()) ?? null;
-      const choice = gauges.choices.find((g) => g.code === gauge?.code);
-      if (!gauge || !choice) throw invalid('Choose a gauge from the list.', { gauge: `No gauge ${body.gauge}.` });
-      if (!choice.usable) {
-        throw invalid(`${gauge.code} cannot be used: ${choice.why} Use another gauge.`, { gauge: choice.why });
+    const usableGauge = (code: string, field: string) => {
+      const g = gauges.byCode.get(code.toUpperCase()) ?? null;
+      const choice = gauges.choices.find((x) => x.code === g?.code);
+      if (!g || !choice) throw invalid('Choose a gauge from the list.', { [field]: `No gauge ${code}.` });
+      if (!choice.usable)
+        throw invalid(`${g.code} cannot be used: ${choice.why} Use another gauge.`, { [field]: choice.why });
+      return g;
+    };
+    const gauge: Gauge | null = body.gauge ? usableGauge(body.gauge, 'gauge') : null;
+    const gaugeOf = new Map<string, Gauge>();
+    for (const [code, g] of Object.entries(body.gauges)) {
+      const c = chars.find((x) => x.code === code);
+      if (!c || c.kind !== 'variable') {
+        throw invalid(`${code} is not measured at this stage.`, {
+          [`gauges.${code}`]: 'Not a measured characteristic here.',
+        });
       }
-    } else if (chars.some((c) => c.kind === 'variable')) {
+      gaugeOf.set(code, usableGauge(g, `gauges.${code}`));
+    }
+    const unmeasured = chars.filter((c) => c.kind === 'variable' && !c.optional && !gaugeOf.has(c.code));
+    if (!gauge && unmeasured.length) {
       throw invalid('Choose the gauge the readings were taken with.', { gauge: 'Choose the gauge used.' });
     }
 
@@ -436,7 +449,7 @@ export async function submitResult(
           verdict: r.verdict ?? 'fail',
           toleranceRuleId: r.ruleId,
           ruleVersion: r.ruleVersion,
-          gaugeId: c.kind === 'variable' ? (gauge?.id ?? null) : null,
+          gaugeId: c.kind === 'variable' ? (gaugeOf.get(c.code)?.id ?? gauge?.id ?? null) : null,
         };
       }),
       { transaction },
@@ -514,6 +527,7 @@ export async function submitResult(
         stage: stage.code,
         station: station.code,
         gauge: gauge?.code ?? null,
+        gauges: Object.fromEntries([...gaugeOf].map(([c, g]) => [c, g.code])),
         verdict,
         idempotencyKey: body.idempotencyKey,
         correctionReason: correction?.reason ?? null,

@@ -22,6 +22,8 @@ export const submitResultBody = z.strictObject({
   serial: z.string().trim().min(1, 'Scan or type a serial.').max(24),
   station: z.string().trim().min(1, 'Choose the station.').max(20),
   gauge: z.string().trim().max(30).nullable().default(null),
+  /** A gauge per measured characteristic where it differs from \`gauge\` (the profilometer for a finish). */
+  gauges: z.record(z.string().trim().max(40), z.string().trim().min(1).max(30)).default({}),
   startedAt: z.iso.datetime({ offset: true }).nullable().default(null),
   notes: z.string().trim().max(2000, 'At most 2000 characters.').default(''),
   readings: z.array(readingInput).min(1, 'Record at least one reading.').max(2000),

@@ -394,3 +394,35 @@ describe('results are records', () => {
     expect(res.item.currentStage.code).toBe('block-deck');
   });
 });
+
+describe('gauges', () => {
+  it('a measured characteristic read with another gauge keeps that gauge on its readings', async () => {
+    const serial = await blockAtBoreHone();
+    const form = await formFor(t, operator, 'BH-1', serial);
+    const res = await submit(operator, {
+      ...boreBody(serial, form, passingReadings(form)),
+      gauge: 'BG-014',
+      gauges: { 'bore-finish': 'PR-007' },
+    });
+    expect(res.status).toBe(201);
+    const rows = (await t.sequelize.query(
+      `SELECT c.code, g.code AS gauge FROM readings r JOIN characteristics c ON c.id = r.characteristic_id
+         LEFT JOIN gauges g ON g.id = r.gauge_id WHERE r.stage_result_id = ${res.body.id} GROUP BY 1, 2 ORDER BY 1`,
+      { type: 'SELECT' },
+    )) as { code: string; gauge: string | null }[];
+    expect(rows).toEqual([
+      { code: 'bore', gauge: 'BG-014' },
+      { code: 'bore-finish', gauge: 'PR-007' },
+      { code: 'bore-oor', gauge: null },
+      { code: 'bore-taper', gauge: null },
+    ]);
+    const serial2 = await blockAtBoreHone();
+    const form2 = await formFor(t, operator, 'BH-1', serial2);
+    const overdue = await submit(operator, {
+      ...boreBody(serial2, form2, passingReadings(form2)),
+      gauges: { 'bore-finish': 'BG-009' },
+    });
+    expect(overdue.status).toBe(400);
+    expect(overdue.body.error.fields['gauges.bore-finish']).toMatch(/Calibration was due/);
+  });
+});
