@@ -1,5 +1,6 @@
 import { useState } from 'react';
-import type { ResultJson, StationFormJson } from '../../api/station/types';
+import type { StationFormJson } from '../../api/station/types';
+import type { RecordedResult } from './verdict-panel';
 import { Caution } from '../../components/caution';
 import { ItemSummary } from '../../components/item-summary';
 import { ButtonLink } from '../../components/ui/button';
@@ -17,7 +18,7 @@ type PartAtStationProps = {
   canReadNcr: boolean;
   /** May raise a concern (an NCR) about the part in hand, whatever this station records. */
   canRaiseConcern: boolean;
-  onRecorded: (result: ResultJson) => void;
+  onRecorded: (result: RecordedResult) => void;
   onReload: () => void;
 };
 

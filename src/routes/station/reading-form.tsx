@@ -1,7 +1,7 @@
 import { useId, useMemo, useRef, useState, type KeyboardEvent } from 'react';
 import { FormProvider, useForm, useWatch } from 'react-hook-form';
 import { useRecordResult } from '../../api/station/record-result';
-import type { ResultJson, StationFormJson } from '../../api/station/types';
+import type { StationFormJson } from '../../api/station/types';
 import { PhotoField } from '../../components/photo-field';
 import { Button } from '../../components/ui/button';
 import { Card, CardBody } from '../../components/ui/card';
@@ -9,6 +9,15 @@ import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
 import { ApiError } from '../../lib/http';
 import { plural } from '../../lib/format';
+import {
+  CharGaugeField,
+  charGaugeKey,
+  charGaugeProblems,
+  choicesAfterMainChange,
+  gaugesToSend,
+  measuredOf,
+  startingChoices,
+} from './char-gauges';
 import { bigControl, bigLabel } from './controls';
 import { FormStateContext, type FormState } from './form-state';
 import { GaugeField, preselectedGauge } from './gauge-field';
@@ -16,6 +25,7 @@ import { sectionsOf } from './layout';
 import { ReadingSection } from './reading-section';
 import { judge, slotsOf } from './readings';
 import { RunTestImport } from './run-test-import';
+import type { RecordedResult } from './verdict-panel';
 import { ProblemSummary, Tally } from './form-summary';
 import {
   problemsBeforeSending,
@@ -38,7 +48,7 @@ type ReadingFormProps = {
   idempotencyKey: string;
   startedAt: string;
   canRecord: boolean;
-  onRecorded: (result: ResultJson) => void;
+  onRecorded: (result: RecordedResult) => void;
   onReload: () => void;
 };
 
@@ -47,12 +57,15 @@ export function ReadingForm({ form, idempotencyKey, startedAt, canRecord, onReco
   const notesId = useId();
   const slots = useMemo(() => slotsOf(form.characteristics), [form.characteristics]);
   const sections = useMemo(() => sectionsOf(form.characteristics, slots), [form.characteristics, slots]);
-  const firstMeasured = form.characteristics.find((c) => c.kind === 'variable') ?? null;
+  const measured = useMemo(() => measuredOf(form.characteristics), [form.characteristics]);
+  const firstMeasured = measured[0] ?? null;
   const needsGauge = firstMeasured !== null;
+  const mainGauge = preselectedGauge(form.gauges, firstMeasured?.unit ?? null);
   const methods = useForm<Draft>({
     defaultValues: {
       slots: slots.map(() => ({ text: '', choice: '', where: '' })),
-      gauge: preselectedGauge(form.gauges, firstMeasured?.unit ?? null),
+      gauge: mainGauge,
+      gauges: startingChoices(measured, form.gauges, mainGauge),
       notes: '',
       photoIds: [],
     },
@@ -93,7 +106,10 @@ export function ReadingForm({ form, idempotencyKey, startedAt, canRecord, onReco
     setAttempted(true);
     setRefusal(null);
     const now = judge(form.characteristics, slots, draft.slots);
-    const local = problemsBeforeSending(slots, now, draft, needsGauge, form.gauges);
+    const local = [
+      ...problemsBeforeSending(slots, now, draft, needsGauge, form.gauges),
+      ...charGaugeProblems(measured, form.gauges, draft),
+    ];
     if (local.length) {
       setProblems(local);
       const unread = local.filter((p) => !p.missing).length;
@@ -104,19 +120,24 @@ export function ReadingForm({ form, idempotencyKey, startedAt, canRecord, onReco
       showTop();
       return;
     }
+    const own = needsGauge ? gaugesToSend(measured, form.gauges, draft.gauge, draft.gauges) : {};
     try {
       const result = await record.mutateAsync({
         idempotencyKey,
         serial: form.item.serial,
         station: form.station.code,
         gauge: needsGauge ? draft.gauge : null,
+        ...(Object.keys(own).length ? { gauges: own } : {}),
         startedAt,
         notes: draft.notes.trim(),
         readings: readingsOf(slots, now, draft.slots),
         photoIds: draft.photoIds,
       });
       setProblems([]);
-      onRecorded(result);
+      onRecorded({
+        ...result,
+        otherGauges: measured.filter((c) => own[c.code]).map((c) => ({ name: c.name, gauge: own[c.code]! })),
+      });
     } catch (err) {
       if (err instanceof ApiError && err.status === 400) {
         const fromServer = serverProblems(err, slots, sentSlots(slots, now, draft.slots));
@@ -196,13 +217,32 @@ export function ReadingForm({ form, idempotencyKey, startedAt, canRecord, onReco
                   gauges={form.gauges}
                   unit={firstMeasured.unit}
                   problem={problemMap.gauge}
-                  onChange={() => state.clearProblem('gauge')}
+                  onChange={() => {
+                    state.clearProblem('gauge');
+                    const { gauge, gauges } = methods.getValues();
+                    methods.setValue('gauges', choicesAfterMainChange(measured, form.gauges, gauge, gauges));
+                  }}
                 />
               </CardBody>
             </Card>
           )}
           {sections.map((s) => (
-            <ReadingSection key={s.char.code} section={s} slots={slots} />
+            <ReadingSection
+              key={s.char.code}
+              section={s}
+              slots={slots}
+              gauge={
+                needsGauge && s.char.kind === 'variable' ? (
+                  <CharGaugeField
+                    char={s.char}
+                    index={measured.indexOf(s.char)}
+                    gauges={form.gauges}
+                    problem={problemMap[charGaugeKey(s.char)]}
+                    onChange={() => state.clearProblem(charGaugeKey(s.char))}
+                  />
+                ) : null
+              }
+            />
           ))}
           <Card as="div">
             <CardBody>

@@ -1,4 +1,4 @@
-import { useId, type CSSProperties } from 'react';
+import { useId, type CSSProperties, type ReactNode } from 'react';
 import { Badge } from '../../components/ui/badge';
 import { Icon } from '../../components/ui/icon';
 import type { FormCharacteristic } from '../../api/station/types';
@@ -236,7 +236,7 @@ function Body({ section }: { section: Section }) {
 }
 
 /** One characteristic: its name and limits above, then its boxes laid out like the part. */
-export function ReadingSection({ section, slots }: { section: Section; slots: Slot[] }) {
+export function ReadingSection({ section, slots, gauge }: { section: Section; slots: Slot[]; gauge?: ReactNode }) {
   const id = useId();
   const { char, companions } = section;
   const mine = slots.filter((s) => s.char.code === char.code);
@@ -249,7 +249,10 @@ export function ReadingSection({ section, slots }: { section: Section; slots: Sl
             {char.critical && <Badge tone="hold">Critical</Badge>}
             {char.optional && <Badge tone="neutral">Optional</Badge>}
           </h3>
-          <Limits char={char} />
+          <div className="flex flex-wrap items-center gap-x-6 gap-y-2">
+            <Limits char={char} />
+            {gauge}
+          </div>
         </div>
         {companions.length > 0 && (
           <p className="flex flex-wrap gap-x-5 text-ink-soft">

@@ -5,7 +5,6 @@ import { parseSerial } from '../../../shared/domain/serial';
 import { useSignedIn } from '../../api/auth/me';
 import { stationsQueryOptions, useStations } from '../../api/reference/stations';
 import { stationFormQueryOptions, useStationForm } from '../../api/station/station-form';
-import type { ResultJson } from '../../api/station/types';
 import { PageHeader } from '../../components/page-header';
 import { ScanBox } from '../../components/scan-box';
 import { Button } from '../../components/ui/button';
@@ -16,7 +15,7 @@ import { useUrlFilter } from '../../lib/use-url-filter';
 import { PartAtStation } from './part-at-station';
 import { StationChoice } from './station-choice';
 import { readTabletStation, recordingStations, useTabletStation } from './tablet-station';
-import { VerdictPanel } from './verdict-panel';
+import { VerdictPanel, type RecordedResult } from './verdict-panel';
 
 export const stationLoader =
   (queryClient: QueryClient) =>
@@ -48,7 +47,7 @@ export function StationPage() {
   const station = recording.find((s) => s.code === stored) ?? null;
   const stale = stored && stations.data && !station ? stored : null;
   const form = useStationForm(station?.code ?? null, serial);
-  const [result, setResult] = useState<ResultJson | null>(null);
+  const [result, setResult] = useState<RecordedResult | null>(null);
   // each opening of a part's form is a new round, with a new idempotency key; a retry is not
   const [round, setRound] = useState(0);
   const [scanRound, setScanRound] = useState(0);

@@ -4,7 +4,14 @@ import { ApiError } from '../../lib/http';
 import { readingName, type Judged, type Slot, type SlotValue } from './readings';
 
 /** What the tablet sends for one form, apart from the key, part and station. */
-export type Draft = { slots: SlotValue[]; gauge: string; notes: string; photoIds: number[] };
+export type Draft = {
+  slots: SlotValue[];
+  gauge: string;
+  /** One per measured characteristic, in form order: its own gauge, or '' for the same as \`gauge\`. */
+  gauges: string[];
+  notes: string;
+  photoIds: number[];
+};
 
 /**
  * A note for the summary at the top: which box, in words, and where to take the operator. A
@@ -133,6 +140,11 @@ export function serverProblems(err: ApiError, slots: Slot[], sent: Slot[]): Prob
     const s = byKey.get(field);
     if (s) return { key: s.key, label: readingName(s.char, s.position), message };
     if (field === 'gauge') return { key: 'gauge', label: 'Gauge used', message };
+    const own = /^gauges\.(.+)$/.exec(field);
+    if (own) {
+      const name = slots.find((x) => x.char.code === own[1])?.char.name ?? own[1]!;
+      return { key: field, label: `Gauge for ${name}`, message };
+    }
     if (field === 'notes') return { key: 'notes', label: 'Notes', message };
     if (field.startsWith('photoIds')) return { key: 'photos', label: 'Photos', message };
     return { key: field, label: field, message };

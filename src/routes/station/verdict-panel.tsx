@@ -30,7 +30,10 @@ function resolutionOf(r: ReadingJson): number | null {
   return d ? 10 ** -d : 1;
 }
 
-type VerdictPanelProps = { result: ResultJson; onNext: () => void; canReadNcr: boolean };
+/** The reply, with the characteristics this tablet sent as read with another gauge than the result's. */
+export type RecordedResult = ResultJson & { otherGauges?: { name: string; gauge: string }[] };
+
+type VerdictPanelProps = { result: RecordedResult; onNext: () => void; canReadNcr: boolean };
 
 /** The answer, filling the width, plain words first: passed or failed, and where the part goes now. */
 export function VerdictPanel({ result, onNext, canReadNcr }: VerdictPanelProps) {
@@ -126,7 +129,11 @@ export function VerdictPanel({ result, onNext, canReadNcr }: VerdictPanelProps) 
         )}
         <p className="text-base text-ink-soft">
           Recorded {formatWhen(result.finishedAt)} by {result.operator}
-          {result.gauge ? ` with ${result.gauge}` : ''}.
+          {result.gauge ? ` with ${result.gauge}` : ''}
+          {result.otherGauges?.length
+            ? ` (${result.otherGauges.map((g) => `${g.name} with ${g.gauge}`).join('; ')})`
+            : ''}
+          .
         </p>
         <div>
           <button
