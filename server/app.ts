@@ -103,7 +103,7 @@ export function createApp({
   specRoutes(api, sequelize);
   ncrRoutes(api, sequelize);
   unitRoutes(api, sequelize);
-  mailRoutes(api, sequelize, config);
+  mailRoutes(api, config);
   router.use((req, res) => {
     res.status(404).json({
       error: {

@@ -7,6 +7,7 @@ import {
   teardownBody,
 } from '../../shared/schemas/intake.js';
 import type { Api } from '../http/api.js';
+import { sendCsv } from '../http/csv.js';
 import { coreDetail, findDuplicates, intakeCsv, intakeLog, receiveCore } from '../services/intake.js';
 import { tearDownCore } from '../services/teardown.js';
 
@@ -37,12 +38,7 @@ export function coreRoutes(api: Api, sequelize: Sequelize) {
     query: intakeLogQuery,
     handler: async ({ query, res }) => {
       const { rows } = await intakeLog(sequelize, query, { all: true });
-      res.setHeader('Content-Type', 'text/csv; charset=utf-8');
-      res.setHeader(
-        'Content-Disposition',
-        `attachment; filename="intake-log-${new Date().toISOString().slice(0, 10)}.csv"`,
-      );
-      res.send(intakeCsv(rows));
+      sendCsv(res, `intake-log-${new Date().toISOString().slice(0, 10)}.csv`, intakeCsv(rows));
       return undefined;
     },
   });

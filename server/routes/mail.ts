@@ -1,4 +1,3 @@
-import type { Sequelize } from 'sequelize';
 import { z } from 'zod';
 import { paging } from '../../shared/schemas/common.js';
 import type { Config } from '../config.js';
@@ -8,7 +7,7 @@ import { MailOutbox } from '../models/index.js';
 
 const outboxQuery = z.strictObject({ ...paging, status: z.enum(['pending', 'sending', 'sent', 'failed']).optional() });
 
-export function mailRoutes(api: Api, _sequelize: Sequelize, config: Config) {
+export function mailRoutes(api: Api, config: Config) {
   api.define({
     method: 'get',
     path: '/mail/outbox',

@@ -15,7 +15,7 @@ import {
   voidBody,
 } from '../../shared/schemas/ncr.js';
 import type { Api } from '../http/api.js';
-import { csvCell } from '../services/intake.js';
+import { csvDocument, sendCsv } from '../http/csv.js';
 import {
   assignNcr,
   closeNcr,
@@ -91,13 +91,12 @@ export function ncrRoutes(api: Api, sequelize: Sequelize) {
     query: ncrListQuery,
     handler: async ({ query, res }) => {
       const { rows } = await listNcrs(sequelize, query, { all: true });
-      const lines = [
-        CSV_COLUMNS.map(([, h]) => h).join(','),
-        ...rows.map((r) => CSV_COLUMNS.map(([k]) => csvCell(r[k])).join(',')),
-      ];
-      res.setHeader('Content-Type', 'text/csv; charset=utf-8');
-      res.setHeader('Content-Disposition', 'attachment; filename="ncrs.csv"');
-      res.send(`\ufeff${lines.join('\r\n')}\r\n`);
+      const body = csvDocument(
+        CSV_COLUMNS.map(([, h]) => h),
+        rows.map((r) => CSV_COLUMNS.map(([k]) => r[k])),
+      );
+      // the byte-order mark makes spreadsheets read the UTF-8 names (Ashdown, µin) correctly
+      sendCsv(res, 'ncrs.csv', `\ufeff${body}`);
       return undefined;
     },
   });

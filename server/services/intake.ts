@@ -8,6 +8,7 @@ import type {
   receiveCoreBody,
   TeardownRecord,
 } from '../../shared/schemas/intake.js';
+import { csvDocument } from '../http/csv.js';
 import { recordAudit, type Ctx } from '../audit.js';
 import { conflict, invalid, notFound } from '../errors.js';
 import { CoreReceipt, Customer, EngineFamily, Item, Supplier, User } from '../models/index.js';
@@ -211,13 +212,6 @@ export async function intakeLog(sequelize: Sequelize, q: LogQuery, { all = false
   return { rows, total: count?.total ?? 0, page: q.page, pageSize: q.pageSize };
 }
 
-/** A spreadsheet cell that starts with = + - @ could run as a formula: quote it as text. */
-export function csvCell(v: unknown): string {
-  let s = v === null || v === undefined ? '' : String(v);
-  if (/^[=+\-@\t\r]/.test(s)) s = `'${s}`;
-  return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
 export function intakeCsv(rows: CoreSummary[]): string {
   const head = [
     'serial',
@@ -234,8 +228,9 @@ export function intakeCsv(rows: CoreSummary[]): string {
     'core_credit',
     'status',
   ];
-  const lines = rows.map((r) =>
-    [
+  return csvDocument(
+    head,
+    rows.map((r) => [
       r.serial,
       r.familyCode,
       r.castingNumber,
@@ -249,9 +244,6 @@ export function intakeCsv(rows: CoreSummary[]): string {
       r.accepted ? 'yes' : 'no',
       r.creditDecision,
       r.status,
-    ]
-      .map(csvCell)
-      .join(','),
+    ]),
   );
-  return `${[head.join(','), ...lines].join('\r\n')}\r\n`;
 }

@@ -40,10 +40,13 @@ export async function findBySerial(input: string, transaction?: Transaction) {
   return item;
 }
 
-/** `receipt`: a core's receipt when the caller already has it, so it is not read twice. */
-export async function presentItem(item: Item, { receipt }: { receipt?: CoreReceipt } = {}): Promise<ItemJson> {
+/** `receipt`, `route`: what the caller has already read, so it is not read twice. */
+export async function presentItem(
+  item: Item,
+  { receipt, route: known }: { receipt?: CoreReceipt; route?: Awaited<ReturnType<typeof routeFor>> } = {},
+): Promise<ItemJson> {
   const family = (await EngineFamily.findByPk(item.engineFamilyId))!;
-  const route = await routeFor(item.engineFamilyId, item.kind);
+  const route = known !== undefined ? known : await routeFor(item.engineFamilyId, item.kind);
   const currentIdx = route?.steps.findIndex((s) => s.stageId === item.currentStageId) ?? -1;
   const finished = ['finished', 'torn_down', 'installed', 'released', 'shipped'].includes(item.status);
   // a core exists because it was received: intake is behind it whether it was accepted or not

@@ -16,7 +16,6 @@ import { recordAudit, type Ctx } from '../audit.js';
 import { AppError, conflict, invalid, notFound } from '../errors.js';
 import {
   Attachment,
-  Characteristic,
   EngineFamily,
   Gauge,
   IdempotencyKey,
@@ -27,10 +26,10 @@ import {
   StageReentry,
   StageResult,
   Station,
-  ToleranceRule,
   User,
 } from '../models/index.js';
 import { claimUploads, presentAttachment } from './attachments.js';
+import { loadResultRecords } from './result-records.js';
 import { lockUnitOf } from './build.js';
 import { findBySerial, presentItem, routeFor } from './items.js';
 import {
@@ -40,8 +39,7 @@ import {
   settleRework,
   type FailingReading,
 } from './nonconformances.js';
-import { formCharacteristics, toRuleInForce } from './spec.js';
-import { limitsOf } from '../../shared/domain/tolerance.js';
+import { formCharacteristics } from './spec.js';
 
 type Route = NonNullable<Awaited<ReturnType<typeof routeFor>>>;
 type FormChar = Awaited<ReturnType<typeof formCharacteristics>>[number];
@@ -199,7 +197,7 @@ export async function stationForm(stationCode: string, serial: string): Promise<
   return {
     station: { code: station.code, name: station.name, location: station.location },
     stage: { code: stage.code, name: stage.name, hazard: stage.hazard, description: stage.description },
-    item: await presentItem(item),
+    item: await presentItem(item, { route }),
     sequence: checkSequence(item, stage, route, holds, reentry),
     holds,
     characteristics: characteristics.map(({ id: _id, defectCode: _d, ...c }) => c),
@@ -660,7 +658,6 @@ export async function allowReentry(
 /** An item's results, newest first, each with its readings, in a fixed number of queries. */
 export async function resultsOf(serial: string): Promise<(ResultJson & { supersededBy: number | null })[]> {
   const item = await findBySerial(serial);
-  const family = (await EngineFamily.findByPk(item.engineFamilyId))!;
   const results = await StageResult.findAll({
     where: { itemId: item.id },
     order: [
@@ -670,79 +667,26 @@ export async function resultsOf(serial: string): Promise<(ResultJson & { superse
   });
   if (!results.length) return [];
   const ids = results.map((r) => r.id);
-  const [readings, stages, stations, users, gauges, ncrs, photos] = await Promise.all([
-    Reading.findAll({ where: { stageResultId: { [Op.in]: ids } }, order: [['id', 'ASC']] }),
-    Stage.findAll(),
-    Station.findAll(),
-    User.findAll({
-      where: { id: { [Op.in]: [...new Set(results.map((r) => r.operatorId))] } },
-      attributes: ['id', 'name'],
-    }),
-    Gauge.findAll(),
+  const [records, ncrs] = await Promise.all([
+    loadResultRecords(results, [item]),
     (StageResult.sequelize as Sequelize).query<{ stage_result_id: number; number: string; severity: string }>(
       'SELECT stage_result_id, number, severity FROM nonconformances WHERE stage_result_id IN (:ids)',
       { type: QueryTypes.SELECT, replacements: { ids } },
     ),
-    Attachment.findAll({ where: { entity: 'stage_result', entityId: { [Op.in]: ids.map(String) } } }),
   ]);
-  const ruleIds = [...new Set(readings.map((r) => r.toleranceRuleId).filter((x): x is number => x !== null))];
-  const [chars, rules] = await Promise.all([
-    Characteristic.findAll({ where: { id: { [Op.in]: [...new Set(readings.map((r) => r.characteristicId))] } } }),
-    ruleIds.length ? ToleranceRule.findAll({ where: { id: { [Op.in]: ruleIds } } }) : [],
-  ]);
-  const charById = new Map(chars.map((c) => [c.id, c]));
-  // the limits each reading was judged against, from the rule version it names
-  const limitsByRule = new Map(rules.map((r) => [r.id, limitsOf(toRuleInForce(r))]));
-  const stageById = new Map(stages.map((s) => [s.id, s]));
-  const stationById = new Map(stations.map((s) => [s.id, s]));
-  const userById = new Map(users.map((u) => [u.id, u.name]));
-  const gaugeById = new Map(gauges.map((g) => [g.id, g.code]));
   const ncrByResult = new Map(ncrs.map((n) => [n.stage_result_id, n]));
-  const supersededBy = new Map(results.filter((r) => r.supersedesId).map((r) => [r.supersedesId!, r.id]));
-  const labels = new Map<number, Map<string, string>>();
-  const labelOf = (charId: number, pos: string) => {
-    let m = labels.get(charId);
-    if (!m) {
-      const c = charById.get(charId)!;
-      m = new Map(expandPositions(c.positions, family, item).map((p) => [p.code, p.label]));
-      labels.set(charId, m);
-    }
-    return m.get(pos) ?? describePosition(pos);
-  };
   return results.map((r) => {
-    const rs: ReadingJson[] = readings
-      .filter((x) => x.stageResultId === r.id)
-      .map((x) => {
-        const c = charById.get(x.characteristicId)!;
-        return {
-          characteristic: c.code,
-          position: x.position,
-          value: x.value === null ? null : Number(x.value),
-          passed: x.passed,
-          verdict: x.verdict,
-          rounded: null,
-          lower: x.toleranceRuleId ? (limitsByRule.get(x.toleranceRuleId)?.lower ?? null) : null,
-          upper: x.toleranceRuleId ? (limitsByRule.get(x.toleranceRuleId)?.upper ?? null) : null,
-          reason: '',
-          ruleId: x.toleranceRuleId,
-          ruleVersion: x.ruleVersion,
-          name: c.name,
-          positionLabel: labelOf(c.id, x.position),
-          unit: x.unit,
-          kind: c.kind,
-          location: x.locationNote,
-        };
-      });
-    const stage = stageById.get(r.stageId)!;
-    const station = r.stationId ? stationById.get(r.stationId) : null;
+    const rs: ReadingJson[] = records.readings(r).map((x) => ({ ...x, rounded: null, reason: '' }));
+    const stage = records.stage(r);
+    const station = records.station(r);
     const ncr = ncrByResult.get(r.id);
     return {
       id: r.id,
       serial: item.serial,
       stage: { code: stage.code, name: stage.name },
       station: station ? { code: station.code, name: station.name } : null,
-      operator: userById.get(r.operatorId) ?? '',
-      gauge: r.gaugeId ? (gaugeById.get(r.gaugeId) ?? null) : null,
+      operator: records.name(r.operatorId),
+      gauge: records.gauge(r),
       verdict: r.verdict,
       finishedAt: r.finishedAt.toISOString(),
       notes: r.notes,
@@ -750,10 +694,10 @@ export async function resultsOf(serial: string): Promise<(ResultJson & { superse
       failing: rs.filter((x) => x.verdict === 'fail'),
       nonconformance: ncr ? { number: ncr.number, severity: ncr.severity } : null,
       supersedes: r.supersedesId,
-      supersededBy: supersededBy.get(r.id) ?? null,
+      supersededBy: records.supersededBy(r),
       correctionReason: r.correctionReason,
       reentryReason: r.reentryReason,
-      photos: photos.filter((p) => p.entityId === String(r.id)).map(presentAttachment),
+      photos: records.photos(r),
       item: { status: item.status, currentStage: null },
     };
   });

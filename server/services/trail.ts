@@ -1,29 +1,11 @@
 import { Op, QueryTypes, type Sequelize } from 'sequelize';
-import { describePosition, expandPositions } from '../../shared/domain/positions.js';
-import { limitsOf } from '../../shared/domain/tolerance.js';
 import type { LotLookupJson, TrailJson, TrailNcr, TrailNode, TrailResult } from '../../shared/schemas/build.js';
 import type { NcrState } from '../../shared/schemas/ncr.js';
 import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.js';
-import {
-  Attachment,
-  Characteristic,
-  EngineFamily,
-  Gauge,
-  Item,
-  NonconformanceTransition,
-  Reading,
-  Shipment,
-  Signature,
-  Stage,
-  StageResult,
-  Station,
-  ToleranceRule,
-  User,
-} from '../models/index.js';
-import { presentAttachment } from './attachments.js';
+import { EngineFamily, Item, NonconformanceTransition, Shipment, Signature, StageResult } from '../models/index.js';
 import { findBySerial, presentItem } from './items.js';
 import { presentShipment } from './release.js';
-import { toRuleInForce } from './spec.js';
+import { loadResultRecords } from './result-records.js';
 
 /**
  * The trail: what is in a unit and what was done to it, for any serial. It loads in a fixed number
@@ -117,15 +99,8 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
       ['id', 'ASC'],
     ],
   });
-  const resultIds = results.map((r) => r.id);
   const top = byId.get(unitId ?? item.id)!;
-  const [readings, stages, stations, gauges, ncrs, lots, shipment, photos] = await Promise.all([
-    resultIds.length
-      ? Reading.findAll({ where: { stageResultId: { [Op.in]: resultIds } }, order: [['id', 'ASC']] })
-      : [],
-    Stage.findAll(),
-    Station.findAll(),
-    Gauge.findAll(),
+  const [ncrs, lots, shipment] = await Promise.all([
     sequelize.query<{
       id: number;
       number: string;
@@ -160,16 +135,9 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
       { type: QueryTypes.SELECT, replacements: { top: top.id } },
     ),
     Shipment.findOne({ where: { unitItemId: top.id }, order: [['id', 'DESC']] }),
-    resultIds.length
-      ? Attachment.findAll({ where: { entity: 'stage_result', entityId: { [Op.in]: resultIds.map(String) } } })
-      : [],
   ]);
-  const charIds = [...new Set(readings.map((r) => r.characteristicId))];
-  const ruleIds = [...new Set(readings.map((r) => r.toleranceRuleId).filter((x): x is number => x !== null))];
   const ncrIds = ncrs.map((n) => n.id);
-  const [chars, rules, transitions, signatures] = await Promise.all([
-    charIds.length ? Characteristic.findAll({ where: { id: { [Op.in]: charIds } } }) : [],
-    ruleIds.length ? ToleranceRule.findAll({ where: { id: { [Op.in]: ruleIds } } }) : [],
+  const [transitions, signatures] = await Promise.all([
     ncrIds.length
       ? NonconformanceTransition.findAll({ where: { nonconformanceId: { [Op.in]: ncrIds } }, order: [['id', 'ASC']] })
       : [],
@@ -180,69 +148,28 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
         })
       : [],
   ]);
-  const userIds = [...new Set([...results.map((r) => r.operatorId), ...transitions.map((t) => t.actorId)])];
-  const users = new Map(
-    (userIds.length ? await User.findAll({ where: { id: { [Op.in]: userIds } }, attributes: ['id', 'name'] }) : []).map(
-      (u) => [u.id, u.name],
-    ),
-  );
-
-  const charById = new Map(chars.map((c) => [c.id, c]));
-  const ruleById = new Map(rules.map((r) => [r.id, r]));
-  const stageById = new Map(stages.map((s) => [s.id, s]));
-  const stationById = new Map(stations.map((s) => [s.id, s]));
-  const gaugeById = new Map(gauges.map((g) => [g.id, g.code]));
-  const readingsOf = new Map<number, Reading[]>();
-  for (const r of readings) readingsOf.set(r.stageResultId, [...(readingsOf.get(r.stageResultId) ?? []), r]);
-  const supersededBy = new Map(results.filter((r) => r.supersedesId).map((r) => [r.supersedesId!, r.id]));
-  const labelCache = new Map<string, Map<string, string>>();
-  const labelOf = (itemId: number, c: Characteristic, pos: string) => {
-    const key = `${itemId}:${c.id}`;
-    let m = labelCache.get(key);
-    if (!m) {
-      const i = byId.get(itemId)!;
-      m = new Map(expandPositions(c.positions, familyById.get(i.engineFamilyId)!, i).map((p) => [p.code, p.label]));
-      labelCache.set(key, m);
-    }
-    return m.get(pos) ?? describePosition(pos);
-  };
+  const records = await loadResultRecords(results, items, {
+    userIds: transitions.map((t) => t.actorId),
+    families,
+  });
 
   const trailResults: TrailResult[] = results.map((r) => {
-    const stage = stageById.get(r.stageId)!;
+    const stage = records.stage(r);
     return {
       id: r.id,
       serial: byId.get(r.itemId)!.serial,
       stage: { code: stage.code, name: stage.name },
-      station: r.stationId ? (stationById.get(r.stationId)?.code ?? null) : null,
-      operator: users.get(r.operatorId) ?? '',
-      gauge: r.gaugeId ? (gaugeById.get(r.gaugeId) ?? null) : null,
+      station: records.station(r)?.code ?? null,
+      operator: records.name(r.operatorId),
+      gauge: records.gauge(r),
       verdict: r.verdict,
       finishedAt: r.finishedAt.toISOString(),
       supersedes: r.supersedesId,
-      supersededBy: supersededBy.get(r.id) ?? null,
+      supersededBy: records.supersededBy(r),
       correctionReason: r.correctionReason,
       reentryReason: r.reentryReason,
-      readings: (readingsOf.get(r.id) ?? []).map((x) => {
-        const c = charById.get(x.characteristicId)!;
-        const rule = x.toleranceRuleId ? ruleById.get(x.toleranceRuleId) : undefined;
-        const limits =
-          rule && rule.limitType !== 'attribute' ? limitsOf(toRuleInForce(rule)) : { lower: null, upper: null };
-        return {
-          characteristic: c.code,
-          name: c.name,
-          position: x.position,
-          positionLabel: labelOf(r.itemId, c, x.position),
-          value: x.value === null ? null : Number(x.value),
-          passed: x.passed,
-          unit: x.unit,
-          verdict: x.verdict,
-          ruleVersion: x.ruleVersion,
-          lower: limits.lower,
-          upper: limits.upper,
-          location: x.locationNote,
-        };
-      }),
-      photos: photos.filter((p) => p.entityId === String(r.id)).map(presentAttachment),
+      readings: records.readings(r).map(({ kind: _k, ruleId: _r, ...x }) => x),
+      photos: records.photos(r),
     };
   });
   const trailNcrs: TrailNcr[] = ncrs.map((n) => ({
@@ -261,7 +188,7 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
         at: t.createdAt.toISOString(),
         from: t.fromState,
         to: t.toState,
-        actor: users.get(t.actorId) ?? '',
+        actor: records.name(t.actorId),
         reason: t.reason,
       })),
     signatures: signatures

@@ -165,12 +165,11 @@ function judged(
     return { ...base, verdict: j.verdict, rounded: null, lower: null, upper: null, reason: j.reason };
   }
   if (value === null || !c.rule) {
-    const lower = null;
     return {
       ...base,
       verdict: null,
       rounded: null,
-      lower,
+      lower: null,
       upper: null,
       reason: !c.rule ? 'no approved rule in force' : 'not recorded yet',
     };
@@ -227,11 +226,9 @@ export function evaluateForm(
   const kept = readings.filter(
     (r) => !(optional.has(r.characteristic) && r.verdict === null && r.value === null && r.passed === null),
   );
-  readings.length = 0;
-  readings.push(...kept);
-  const missing = readings.filter((r) => r.verdict === null).length;
-  const verdict = readings.some((r) => r.verdict === 'fail') ? 'fail' : missing === 0 ? 'pass' : null;
-  return { readings, verdict, missing };
+  const missing = kept.filter((r) => r.verdict === null).length;
+  const verdict = kept.some((r) => r.verdict === 'fail') ? 'fail' : missing === 0 ? 'pass' : null;
+  return { readings: kept, verdict, missing };
 }
 
 /** Whether a typed value is physically possible for the characteristic (a typing slip otherwise). */
