@@ -5,6 +5,13 @@ import { DataTable } from '../../../components/data-table';
 import { Badge, type Tone } from '../../../components/ui/badge';
 import { formatWhen } from '../../../lib/format';
 
+/** The events that queue mail (server/services/nonconformances.ts, release.ts), in words. */
+const REASON_WORDS: Record<string, string> = {
+  'ncr.raised': 'NCR raised',
+  'ncr.decided': 'NCR decided',
+  'unit.releasable': 'Unit can ship',
+};
+
 export const OUTBOX_STATUS_LABELS: Record<OutboxStatus, string> = {
   pending: 'Waiting',
   sending: 'Sending',
@@ -29,7 +36,11 @@ export function OutboxTable({ rows, busy, empty }: { rows: OutboxMessage[]; busy
         header: 'Subject',
         cell: (c) => <span className="block min-w-48">{c.getValue()}</span>,
       }),
-      col.accessor('reason', { header: 'Reason', meta: { mono: true, nowrap: true } }),
+      col.accessor('reason', {
+        header: 'Why it was sent',
+        cell: (c) => REASON_WORDS[c.getValue()] ?? c.getValue(),
+        meta: { nowrap: true },
+      }),
       col.accessor('status', {
         header: 'Status',
         cell: (c) => <Badge tone={STATUS_TONES[c.getValue()]}>{OUTBOX_STATUS_LABELS[c.getValue()]}</Badge>,
