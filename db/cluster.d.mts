@@ -14,5 +14,10 @@ export function ensurePostgres(): string;
 export function persistentClusterDir(projectDir: string): string;
 export function throwawayClusterDir(): string;
 export function freePort(): Promise<number>;
-export function startCluster(opts: { dir: string; port: number; bin?: string }): Promise<Cluster>;
+export function startCluster(opts: {
+  dir: string;
+  port: number;
+  bin?: string;
+  settings?: Record<string, string | number>;
+}): Promise<Cluster>;
 export function ensureDatabase(cluster: Cluster, database: string): Promise<void>;

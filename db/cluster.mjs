@@ -166,8 +166,9 @@ export function freePort() {
 /**
  * Creates the cluster if needed and starts it. Returns connection details and a stop function.
  * `dir` holds pgdata/ (the cluster), run/ (its socket), postgres.log and credentials.json.
+ * `settings`: more server settings for this start (`-c name=value`), e.g. the benchmark's memory sizes.
  */
-export async function startCluster({ dir, port, bin = ensurePostgres() }) {
+export async function startCluster({ dir, port, bin = ensurePostgres(), settings = {} }) {
   const ids = isRoot ? pgUserIds() : null;
   fs.mkdirSync(dir, { recursive: true, mode: 0o700 });
   if (ids) fs.chownSync(dir, ids.uid, ids.gid);
@@ -226,7 +227,10 @@ export async function startCluster({ dir, port, bin = ensurePostgres() }) {
           'Set CORETRAIL_PG_PORT to a free port, or stop whatever is listening there.',
       );
     }
-    const opts = `-c listen_addresses=127.0.0.1 -p ${port} -k ${runDir} -c max_connections=100 -c fsync=${process.env.CORETRAIL_PG_FSYNC ?? 'on'}`;
+    const extra = Object.entries(settings)
+      .map(([k, v]) => ` -c ${k}=${v}`)
+      .join('');
+    const opts = `-c listen_addresses=127.0.0.1 -p ${port} -k ${runDir} -c max_connections=100 -c fsync=${process.env.CORETRAIL_PG_FSYNC ?? 'on'}${extra}`;
     const r = runPg(bin, 'pg_ctl', ['-D', pgdata, '-l', logFile, '-w', '-t', '60', '-o', opts, 'start'], {
       detached: true,
       allowFail: true,

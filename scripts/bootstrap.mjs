@@ -62,3 +62,21 @@ export function projectSecret() {
   if (!fs.existsSync(file)) fs.writeFileSync(file, randomBytes(48).toString('base64url'), { mode: 0o600 });
   return fs.readFileSync(file, 'utf8').trim();
 }
+
+/** Debian's Chromium for the browser suite and the benchmark: installed with apt-get when missing (as root). */
+export function ensureChromium(tag = 'test') {
+  const exe = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+  if (fs.existsSync(exe)) return exe;
+  if (process.getuid?.() !== 0) {
+    process.stderr.write(`[${tag}] Chromium not found at ${exe}; install Debian's "chromium" package.\n`);
+    return exe;
+  }
+  process.stderr.write(`[${tag}] installing Debian package "chromium"…\n`);
+  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
+  spawnSync('apt-get', ['update', '-qq'], { stdio: 'inherit', env });
+  spawnSync('apt-get', ['install', '-y', '-qq', '--no-install-recommends', 'chromium', 'fonts-dejavu-core'], {
+    stdio: 'inherit',
+    env,
+  });
+  return exe;
+}

@@ -4,37 +4,17 @@ import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { ensureNodeModules, projectDir } from './bootstrap.mjs';
+import { ensureChromium, ensureNodeModules, projectDir } from './bootstrap.mjs';
 
 ensureNodeModules();
 const { ClusterError, ensureDatabase, ensurePostgres, freePort, startCluster, throwawayClusterDir } =
   await import('../db/cluster.mjs');
 
-const isRoot = process.getuid?.() === 0;
 const results = []; // { name, passed, failed }
 const step = (name, passed, failed) => {
   results.push({ name, passed, failed });
   process.stderr.write(`[test] ${name}: ${passed} passed, ${failed} failed\n`);
 };
-
-function ensureChromium() {
-  const exe = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
-  if (fs.existsSync(exe)) return exe;
-  if (!isRoot) {
-    process.stderr.write(
-      `[test] Chromium not found at ${exe}; install Debian's "chromium" package for the browser suite.\n`,
-    );
-    return exe;
-  }
-  process.stderr.write('[test] installing Debian package "chromium" for the browser suite…\n');
-  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
-  spawnSync('apt-get', ['update', '-qq'], { stdio: 'inherit', env });
-  spawnSync('apt-get', ['install', '-y', '-qq', '--no-install-recommends', 'chromium', 'fonts-dejavu-core'], {
-    stdio: 'inherit',
-    env,
-  });
-  return exe;
-}
 
 function runCheck(name, cmd, args, env = process.env) {
   const r = spawnSync(cmd, args, { cwd: projectDir, stdio: 'inherit', env });

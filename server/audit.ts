@@ -10,7 +10,8 @@ const AUDIT_CHAIN_LOCK = 72_410_002;
 
 /** Who is acting and for which request: every write path carries one. */
 export type Ctx = {
-  actor: { id: number; role: string } | null;
+  /** `name` as signed in, where the caller has it (spares a lookup for replies that name the actor). */
+  actor: { id: number; role: string; name?: string } | null;
   requestId: string | null;
 };
 
@@ -49,21 +50,28 @@ export function hashEvent(prevHash: string, e: Hashed): string {
     .digest('hex');
 }
 
+// the newest hash a transaction has written: while it holds the chain's lock, nobody else appends
+const chainHead = new WeakMap<Transaction, string>();
+
 /**
  * Writes one audit event inside the caller's transaction. Events are chained: the advisory lock
  * (released at commit) makes writers take turns, so each event links to the one committed before it.
+ * A second event in the same transaction links to the first without asking the database again.
  */
-export async function recordAudit(ctx: Ctx, transaction: Transaction, input: AuditInput): Promise<AuditEvent> {
+export async function recordAudit(ctx: Ctx, transaction: Transaction, input: AuditInput): Promise<void> {
   const sequelize = AuditEvent.sequelize as Sequelize;
-  await sequelize.query('SELECT pg_advisory_xact_lock(:k)', {
-    replacements: { k: AUDIT_CHAIN_LOCK },
-    transaction,
-  });
-  const last = await sequelize.query<{ hash: string }>('SELECT hash FROM audit_events ORDER BY id DESC LIMIT 1', {
-    type: QueryTypes.SELECT,
-    transaction,
-  });
-  const prevHash = last[0]?.hash ?? GENESIS_HASH;
+  let prevHash = chainHead.get(transaction);
+  if (prevHash === undefined) {
+    await sequelize.query('SELECT pg_advisory_xact_lock(:k)', {
+      replacements: { k: AUDIT_CHAIN_LOCK },
+      transaction,
+    });
+    const last = await sequelize.query<{ hash: string }>('SELECT hash FROM audit_events ORDER BY id DESC LIMIT 1', {
+      type: QueryTypes.SELECT,
+      transaction,
+    });
+    prevHash = last[0]?.hash ?? GENESIS_HASH;
+  }
   const occurredAt = new Date();
   const body: Hashed = {
     occurredAt: occurredAt.toISOString(),
@@ -76,7 +84,10 @@ export async function recordAudit(ctx: Ctx, transaction: Transaction, input: Aud
     after: plain(input.after),
     requestId: ctx.requestId,
   };
-  return AuditEvent.create({ ...body, occurredAt, prevHash, hash: hashEvent(prevHash, body) }, { transaction });
+  const hash = hashEvent(prevHash, body);
+  // nothing reads the row back: no RETURNING of its JSON
+  await AuditEvent.create({ ...body, occurredAt, prevHash, hash }, { transaction, returning: false });
+  chainHead.set(transaction, hash);
 }
 
 export type ChainReport = { ok: boolean; checked: number; firstBroken: { id: number; reason: string } | null };

@@ -8,11 +8,18 @@ pg.types.setTypeParser(pg.types.builtins.NUMERIC, (v: string) => Number(v));
 pg.types.setTypeParser(pg.types.builtins.INT8, (v: string) => Number(v));
 (DataTypes as unknown as { postgres: { DECIMAL: { parse: (v: string) => number } } }).postgres.DECIMAL.parse = Number;
 
-export function createSequelize(url: string, { poolMax = 10 }: { poolMax?: number } = {}): Sequelize {
+/**
+ * `poolMin`: connections kept open while idle. The server keeps a couple, so the first scan after a
+ * quiet spell does not pay for new connections (each starts with empty catalog caches).
+ */
+export function createSequelize(
+  url: string,
+  { poolMax = 10, poolMin = 0 }: { poolMax?: number; poolMin?: number } = {},
+): Sequelize {
   const sequelize = new Sequelize(url, {
     dialect: 'postgres',
     logging: false,
-    pool: { max: poolMax, min: 0, acquire: 10_000, idle: 10_000 },
+    pool: { max: poolMax, min: poolMin, acquire: 10_000, idle: 10_000 },
     define: { underscored: true },
     dialectOptions: { connectionTimeoutMillis: 5_000 },
   });

@@ -9,7 +9,7 @@ import { DEMO_USERS, seedDemoIfEmpty } from '../db/seeders/demo.js';
 
 async function main() {
   const config = loadConfig();
-  const sequelize = createSequelize(config.DATABASE_URL);
+  const sequelize = createSequelize(config.DATABASE_URL, { poolMin: 2 });
   const applied = await migrate(sequelize);
   if (applied.length) console.log(`[api] applied migrations: ${applied.join(', ')}`);
   if (config.SEED_DEMO === 'auto') {

@@ -61,8 +61,10 @@ const PREFERRED_GAUGE: Record<string, string> = {
   'end-play': 'DI-031',
 };
 
+type Form = Awaited<ReturnType<typeof stationForm>>;
+
 /** One gauge for the result, and another for each measured characteristic read with a different one. */
-function gaugesFor(form: Awaited<ReturnType<typeof stationForm>>) {
+export function gaugesFor(form: Form) {
   const usable = form.gauges.filter((g) => g.usable);
   const pick = (c: (typeof form.characteristics)[number]) =>
     usable.find((g) => g.code === PREFERRED_GAUGE[c.code]) ?? usable.find((g) => g.unit === c.unit) ?? usable[0]!;
@@ -72,6 +74,29 @@ function gaugesFor(form: Awaited<ReturnType<typeof stationForm>>) {
   const gauges: Record<string, string> = {};
   for (const c of measured) if (pick(c).code !== gauge) gauges[c.code] = pick(c).code;
   return { gauge, gauges };
+}
+
+/** Records a passing result for a part due at a station, through the station service, as a tablet would. */
+export async function recordPassingResult(
+  sequelize: Sequelize,
+  operator: Ctx,
+  station: string,
+  serial: string,
+  vary: (form: Form, characteristic: string, position: string, value: number) => number = (_f, _c, _p, v) => v,
+) {
+  const form = await stationForm(station, serial);
+  const { gauge, gauges } = gaugesFor(form);
+  return submitResult(sequelize, operator, {
+    idempotencyKey: randomUUID(),
+    serial,
+    station,
+    gauge,
+    gauges,
+    startedAt: null,
+    notes: '',
+    readings: passingReadings(form, (c, p, v) => vary(form, c, p, v)),
+    photoIds: [],
+  });
 }
 
 export async function seedDemoPartsIfEmpty(sequelize: Sequelize): Promise<number> {
@@ -92,8 +117,7 @@ export async function seedDemoPartsIfEmpty(sequelize: Sequelize): Promise<number
   const walk = async (serial: string, route: string[], upTo: number, failAt?: string) => {
     for (const code of route.slice(0, upTo)) {
       if (!stations.has(code)) continue;
-      const form = await stationForm(code, serial);
-      const readings = passingReadings(form, (c, p, v) => {
+      await recordPassingResult(sequelize, operator, code, serial, (form, c, p, v) => {
         if (code === failAt && c === 'bore' && p === 'c7/bottom/axial') return 4.0309;
         // scatter measured sizes a little inside their limits, as real readings are
         const rule = form.characteristics.find((x) => x.code === c)?.rule;
@@ -103,18 +127,6 @@ export async function seedDemoPartsIfEmpty(sequelize: Sequelize): Promise<number
           return Math.round((v + spread) / (rule.resolution ?? 0.0001)) * (rule.resolution ?? 0.0001);
         }
         return v;
-      });
-      const { gauge, gauges } = gaugesFor(form);
-      await submitResult(sequelize, operator, {
-        idempotencyKey: randomUUID(),
-        serial,
-        station: code,
-        gauge,
-        gauges,
-        startedAt: null,
-        notes: '',
-        readings,
-        photoIds: [],
       });
       results += 1;
     }

@@ -61,7 +61,7 @@ export class Api {
       const params = spec.params ? spec.params.parse(req.params) : undefined;
       const query = spec.query ? spec.query.parse(req.query) : undefined;
       const body = spec.body ? spec.body.parse(req.body ?? {}) : undefined;
-      const ctx: Ctx = { actor: user ? { id: user.id, role: user.role } : null, requestId: req.id };
+      const ctx: Ctx = { actor: user ? { id: user.id, role: user.role, name: user.name } : null, requestId: req.id };
       const result = await spec.handler({
         params: params as Out<P>,
         query: query as Out<Q>,

@@ -1,7 +1,9 @@
+import { createSecretKey } from 'node:crypto';
 import type { RequestHandler } from 'express';
 import jwt from 'jsonwebtoken';
+import { QueryTypes } from 'sequelize';
 import type { Role } from '../../shared/roles.js';
-import { Session, User } from '../models/index.js';
+import { Session } from '../models/index.js';
 
 export const SESSION_COOKIE = 'coretrail_session';
 export const JWT_ALGORITHM = 'HS256' as const;
@@ -28,28 +30,40 @@ type Claims = { sub: string; sid: string; tv: number };
  * deactivation bumps it, ending every session at once). Anything else is simply "signed out".
  */
 export function authenticate(secret: string): RequestHandler {
+  // made once: jsonwebtoken would otherwise build a key object from the string on every request
+  const key = createSecretKey(Buffer.from(secret, 'utf8'));
   return async (req, _res, next) => {
     const token: unknown = req.cookies?.[SESSION_COOKIE];
     if (typeof token !== 'string' || !token) return next();
     let claims: Claims;
     try {
-      claims = jwt.verify(token, secret, { algorithms: [JWT_ALGORITHM] }) as Claims;
+      claims = jwt.verify(token, key, { algorithms: [JWT_ALGORITHM] }) as Claims;
     } catch {
       return next();
     }
-    const session = await Session.findByPk(claims.sid);
-    if (!session || session.revokedAt || session.expiresAt.getTime() <= Date.now()) return next();
-    const user = await User.findByPk(session.userId);
-    if (
-      !user ||
-      !user.active ||
-      String(user.id) !== claims.sub ||
-      user.tokenVersion !== session.tokenVersion ||
-      user.tokenVersion !== claims.tv
-    ) {
+    // the session and its user in one round trip: every request pays for this
+    const [row] = await Session.sequelize!.query<{
+      session_id: string;
+      revoked_at: Date | null;
+      expires_at: Date;
+      session_tv: number;
+      id: number;
+      email: string;
+      name: string;
+      role: Role;
+      active: boolean;
+      user_tv: number;
+    }>(
+      `SELECT s.id AS session_id, s.revoked_at, s.expires_at, s.token_version AS session_tv,
+              u.id, u.email, u.name, u.role, u.active, u.token_version AS user_tv
+         FROM sessions s JOIN users u ON u.id = s.user_id WHERE s.id = :sid`,
+      { type: QueryTypes.SELECT, replacements: { sid: claims.sid } },
+    );
+    if (!row || row.revoked_at || new Date(row.expires_at).getTime() <= Date.now()) return next();
+    if (!row.active || String(row.id) !== claims.sub || row.user_tv !== row.session_tv || row.user_tv !== claims.tv) {
       return next();
     }
-    req.user = { id: user.id, email: user.email, name: user.name, role: user.role, sessionId: session.id };
+    req.user = { id: row.id, email: row.email, name: row.name, role: row.role, sessionId: row.session_id };
     next();
   };
 }

@@ -17,13 +17,22 @@ import { familyByCode } from './spec.js';
  */
 
 /** The unit a part is installed in, locked: every path that raises an NCR or releases takes it first. */
-export async function lockUnitOf(itemId: number, transaction: Transaction): Promise<Item | null> {
-  const link = await ItemLink.findOne({
-    where: { childItemId: itemId, linkType: 'installed_in', removedAt: null },
-    transaction,
-  });
-  if (!link) return null;
-  return Item.findByPk(link.parentItemId, { transaction, lock: transaction.LOCK.UPDATE });
+export async function lockUnitOf(part: number | { serial: string }, transaction: Transaction): Promise<Item | null> {
+  // one statement: the live install link and the unit's row lock together
+  const child = typeof part === 'number' ? ':part' : '(SELECT id FROM items WHERE serial = :part)';
+  const [unit] = await Item.sequelize!.query(
+    `SELECT u.* FROM items u
+      WHERE u.id = (SELECT l.parent_item_id FROM item_links l
+                     WHERE l.child_item_id = ${child} AND l.link_type = 'installed_in' AND l.removed_at IS NULL)
+      FOR UPDATE OF u`,
+    {
+      replacements: { part: typeof part === 'number' ? part : part.serial },
+      model: Item,
+      mapToModel: true,
+      transaction,
+    },
+  );
+  return unit ?? null;
 }
 
 async function finishedRoute(item: Item, transaction: Transaction) {

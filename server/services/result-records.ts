@@ -1,22 +1,26 @@
-import { Op } from 'sequelize';
+import { Op, type Sequelize } from 'sequelize';
 import type { AttachmentJson } from '../../shared/schemas/attachments.js';
 import { describePosition, expandPositions } from '../../shared/domain/positions.js';
 import { limitsOf } from '../../shared/domain/tolerance.js';
-import {
-  Attachment,
-  Characteristic,
-  EngineFamily,
-  Gauge,
-  Item,
-  Reading,
-  Stage,
-  StageResult,
-  Station,
-  ToleranceRule,
-  User,
-} from '../models/index.js';
+import { Attachment, Characteristic, Item, Reading, StageResult, ToleranceRule, User } from '../models/index.js';
 import { presentAttachment } from './attachments.js';
+import { referenceData, type Reference } from './reference-cache.js';
 import { toRuleInForce } from './spec.js';
+
+const READING_COLUMNS = [
+  'id',
+  'stageResultId',
+  'characteristicId',
+  'position',
+  'value',
+  'passed',
+  'unit',
+  'verdict',
+  'toleranceRuleId',
+  'ruleVersion',
+  'locationNote',
+] as const;
+type ReadingRow = Pick<Reading, (typeof READING_COLUMNS)[number]>;
 
 /** One stored reading as the history screens show it, with the limits of the rule version it was judged by. */
 export type RecordedReading = {
@@ -40,21 +44,27 @@ export type RecordedReading = {
  * Everything around a set of stage results, read once for all of them — readings, characteristics,
  * the rule versions used, stages, stations, gauges, operators, photos — in a fixed number of queries
  * however many results there are. An item's history and the trail both read through this.
+ * Stages, stations, gauges, characteristics and rules come from the reference data in memory.
  * `userIds`: more people whose names the caller needs (an NCR timeline's actors), read in the same query;
- * `families`: the engine families, when the caller has read them already.
+ * `ref`: the reference data, when the caller has it already.
  */
 export async function loadResultRecords(
   results: StageResult[],
   items: Item[],
-  { userIds = [], families: known }: { userIds?: number[]; families?: EngineFamily[] } = {},
+  { userIds = [], ref: known }: { userIds?: number[]; ref?: Reference } = {},
 ) {
   const ids = results.map((r) => r.id);
-  const [readings, stages, stations, gauges, families, photos, users] = await Promise.all([
-    ids.length ? Reading.findAll({ where: { stageResultId: { [Op.in]: ids } }, order: [['id', 'ASC']] }) : [],
-    Stage.findAll(),
-    Station.findAll(),
-    Gauge.findAll(),
-    known ?? EngineFamily.findAll(),
+  const [readings, ref, photos, users] = await Promise.all([
+    // plain rows, only the columns shown: a unit's trail has hundreds of readings
+    ids.length
+      ? (Reading.findAll({
+          where: { stageResultId: { [Op.in]: ids } },
+          attributes: [...READING_COLUMNS],
+          order: [['id', 'ASC']],
+          raw: true,
+        }) as unknown as Promise<ReadingRow[]>)
+      : [],
+    known ?? referenceData(Reading.sequelize as Sequelize),
     ids.length ? Attachment.findAll({ where: { entity: 'stage_result', entityId: { [Op.in]: ids.map(String) } } }) : [],
     User.findAll({
       where: { id: { [Op.in]: [...new Set([...results.map((r) => r.operatorId), ...userIds])] } },
@@ -63,23 +73,29 @@ export async function loadResultRecords(
   ]);
   const charIds = [...new Set(readings.map((r) => r.characteristicId))];
   const ruleIds = [...new Set(readings.map((r) => r.toleranceRuleId).filter((x): x is number => x !== null))];
-  const [chars, rules] = await Promise.all([
-    charIds.length ? Characteristic.findAll({ where: { id: { [Op.in]: charIds } } }) : [],
-    ruleIds.length ? ToleranceRule.findAll({ where: { id: { [Op.in]: ruleIds } } }) : [],
+  // a characteristic or rule the copy in memory lacks (withdrawn since, say) is read as it is stored
+  const missingChars = charIds.filter((id) => !ref.characteristic(id));
+  const missingRules = ruleIds.filter((id) => !ref.rule(id));
+  const [moreChars, moreRules] = await Promise.all([
+    missingChars.length ? Characteristic.findAll({ where: { id: { [Op.in]: missingChars } } }) : [],
+    missingRules.length ? ToleranceRule.findAll({ where: { id: { [Op.in]: missingRules } } }) : [],
   ]);
+  const chars = [...charIds.map((id) => ref.characteristic(id)).filter((c) => !!c), ...moreChars];
+  const rules = [...ruleIds.map((id) => ref.rule(id)).filter((r) => !!r), ...moreRules];
 
   const itemById = new Map(items.map((i) => [i.id, i]));
-  const familyById = new Map(families.map((f) => [f.id, f]));
+  const familyById = new Map(ref.families.map((f) => [f.id, f]));
   const charById = new Map(chars.map((c) => [c.id, c]));
   const limitsByRule = new Map(
     rules.map((r) => [r.id, r.limitType === 'attribute' ? { lower: null, upper: null } : limitsOf(toRuleInForce(r))]),
   );
-  const stageById = new Map(stages.map((s) => [s.id, s]));
-  const stationById = new Map(stations.map((s) => [s.id, s]));
-  const gaugeById = new Map(gauges.map((g) => [g.id, g.code]));
   const nameById = new Map(users.map((u) => [u.id, u.name]));
-  const readingsOf = new Map<number, Reading[]>();
-  for (const r of readings) readingsOf.set(r.stageResultId, [...(readingsOf.get(r.stageResultId) ?? []), r]);
+  const readingsOf = new Map<number, ReadingRow[]>();
+  for (const r of readings) {
+    const list = readingsOf.get(r.stageResultId);
+    if (list) list.push(r);
+    else readingsOf.set(r.stageResultId, [r]);
+  }
   const photosOf = new Map<string, AttachmentJson[]>();
   for (const p of photos) photosOf.set(p.entityId, [...(photosOf.get(p.entityId) ?? []), presentAttachment(p)]);
   const supersededBy = new Map(results.filter((r) => r.supersedesId).map((r) => [r.supersedesId!, r.id]));
@@ -98,9 +114,9 @@ export async function loadResultRecords(
   };
 
   return {
-    stage: (r: StageResult) => stageById.get(r.stageId)!,
-    station: (r: StageResult) => (r.stationId ? (stationById.get(r.stationId) ?? null) : null),
-    gauge: (r: StageResult) => (r.gaugeId ? (gaugeById.get(r.gaugeId) ?? null) : null),
+    stage: (r: StageResult) => ref.stage(r.stageId)!,
+    station: (r: StageResult) => (r.stationId ? (ref.stationById(r.stationId) ?? null) : null),
+    gauge: (r: StageResult) => (r.gaugeId ? (ref.gauge(r.gaugeId)?.code ?? null) : null),
     name: (userId: number) => nameById.get(userId) ?? '',
     photos: (r: StageResult) => photosOf.get(String(r.id)) ?? [],
     supersededBy: (r: StageResult) => supersededBy.get(r.id) ?? null,

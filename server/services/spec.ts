@@ -13,6 +13,7 @@ import { recordAudit, type Ctx } from '../audit.js';
 import { AppError, conflict, invalid, notFound } from '../errors.js';
 import { Characteristic, EngineFamily, Signature, Stage, ToleranceRule, User } from '../models/index.js';
 import { checkPassword } from './passwords.js';
+import type { Reference } from './reference-cache.js';
 
 /**
  * The spec book. A rule is drafted, then approved with the approver's signature (their password
@@ -448,36 +449,15 @@ export async function approveRule(
 }
 
 /** The stage's characteristics with the rules in force for a family at `at`, ready for a form. */
-export async function formCharacteristics(
+export function formCharacteristics(
+  ref: Reference,
   stageId: number,
   familyId: number,
   at: Date,
   expand: (c: Characteristic) => FormCharacteristic['positions'],
-  transaction?: Transaction,
-): Promise<(FormCharacteristic & { help: string; id: number; defectCode: string | null })[]> {
-  const characteristics = await Characteristic.findAll({
-    where: { stageId },
-    order: [
-      ['sortOrder', 'ASC'],
-      ['id', 'ASC'],
-    ],
-    transaction,
-  });
-  const rules = characteristics.length
-    ? await ToleranceRule.findAll({
-        where: {
-          engineFamilyId: familyId,
-          characteristicId: { [Op.in]: characteristics.map((c) => c.id) },
-          status: { [Op.in]: ['approved', 'superseded'] },
-        },
-        transaction,
-      })
-    : [];
-  return characteristics.map((c) => {
-    const rule = inForceAt(
-      rules.filter((r) => r.characteristicId === c.id),
-      at,
-    );
+): (FormCharacteristic & { help: string; id: number; defectCode: string | null })[] {
+  return ref.characteristics(stageId).map((c) => {
+    const rule = inForceAt(ref.rules(familyId, c.id), at);
     return {
       id: c.id,
       code: c.code,

@@ -16,22 +16,19 @@ import { recordAudit, type Ctx } from '../audit.js';
 import { AppError, conflict, invalid, notFound } from '../errors.js';
 import {
   Attachment,
-  EngineFamily,
   Gauge,
   IdempotencyKey,
   Item,
   Nonconformance,
-  Reading,
   Stage,
   StageReentry,
   StageResult,
-  Station,
   User,
 } from '../models/index.js';
 import { claimUploads, presentAttachment } from './attachments.js';
 import { loadResultRecords } from './result-records.js';
 import { lockUnitOf } from './build.js';
-import { findBySerial, presentItem, routeFor } from './items.js';
+import { checkedSerial, findBySerial, presentItem, routeFor } from './items.js';
 import {
   blockingNcrsOf,
   openNcrsOf,
@@ -39,6 +36,7 @@ import {
   settleRework,
   type FailingReading,
 } from './nonconformances.js';
+import { referenceData, VERSION_SQL, type Reference, type VersionRead } from './reference-cache.js';
 import { formCharacteristics } from './spec.js';
 
 type Route = NonNullable<Awaited<ReturnType<typeof routeFor>>>;
@@ -47,14 +45,10 @@ type FormChar = Awaited<ReturnType<typeof formCharacteristics>>[number];
 const today = () => new Date().toISOString().slice(0, 10);
 const lower = (s: string) => s.charAt(0).toLowerCase() + s.slice(1);
 
-async function stationByCode(code: string, transaction?: Transaction) {
-  const station = await Station.findOne({
-    where: { code: code.toUpperCase() },
-    include: [{ model: Stage, as: 'stage' }],
-    transaction,
-  });
+function stationByCode(ref: Reference, code: string) {
+  const station = ref.station(code.toUpperCase());
   if (!station || !station.active) throw notFound(`Station ${code}`);
-  const stage = (station as Station & { stage: Stage | null }).stage;
+  const stage = station.stageId ? ref.stage(station.stageId) : undefined;
   if (!stage) throw conflict(`Station ${station.code} records no stage: an admin can set its stage.`);
   return { station, stage };
 }
@@ -138,10 +132,9 @@ export function checkSequence(
   );
 }
 
-async function gaugeChoices(
-  transaction?: Transaction,
-): Promise<{ choices: GaugeChoice[]; byCode: Map<string, Gauge> }> {
-  const gauges = await Gauge.findAll({ order: [['code', 'ASC']], transaction });
+/** The gauges with their calibration state today. */
+function gaugeChoices(ref: Reference): { choices: GaugeChoice[]; byCode: Map<string, Gauge> } {
+  const gauges = ref.gauges;
   const now = today();
   const choices = gauges.map((g) => {
     const overdue = !!g.calibrationDueOn && g.calibrationDueOn < now;
@@ -171,17 +164,18 @@ async function openReentry(itemId: number, transaction?: Transaction) {
 
 /** Everything a station tablet needs to record one part: the check, the form and its rules. */
 export async function stationForm(stationCode: string, serial: string): Promise<StationFormJson> {
-  const { station, stage } = await stationByCode(stationCode);
+  const ref = await referenceData(Item.sequelize as Sequelize);
+  const { station, stage } = stationByCode(ref, stationCode);
   const item = await findBySerial(serial);
-  const family = (await EngineFamily.findByPk(item.engineFamilyId))!;
-  const [route, holds, reentry, gauges, current] = await Promise.all([
-    routeFor(item.engineFamilyId, item.kind),
+  const family = ref.family(item.engineFamilyId)!;
+  const route = ref.route(item.engineFamilyId, item.kind);
+  const gauges = gaugeChoices(ref);
+  const [holds, reentry, current] = await Promise.all([
     blockingNcrsOf(item.id, stage.id),
     openReentry(item.id),
-    gaugeChoices(),
     currentResultAt(item.id, stage.id),
   ]);
-  const characteristics = await formCharacteristics(stage.id, family.id, new Date(), (c) =>
+  const characteristics = formCharacteristics(ref, stage.id, family.id, new Date(), (c) =>
     expandPositions(c.positions, family, item),
   );
   const operator = current ? await User.findByPk(current.operatorId, { attributes: ['name'] }) : null;
@@ -197,7 +191,7 @@ export async function stationForm(stationCode: string, serial: string): Promise<
   return {
     station: { code: station.code, name: station.name, location: station.location },
     stage: { code: stage.code, name: stage.name, hazard: stage.hazard, description: stage.description },
-    item: await presentItem(item, { route }),
+    item: await presentItem(item, { route, ref }),
     sequence: checkSequence(item, stage, route, holds, reentry),
     holds,
     characteristics: characteristics.map(({ id: _id, defectCode: _d, ...c }) => c),
@@ -311,11 +305,12 @@ export async function submitResult(
 ): Promise<Outcome> {
   const requestHash = hashBody(body);
   return sequelize.transaction(async (transaction) => {
-    // two requests with one key take turns here; the second finds the first's stored reply
-    await sequelize.query('SELECT pg_advisory_xact_lock(hashtextextended(:key, 7241))', {
-      replacements: { key: body.idempotencyKey },
-      transaction,
-    });
+    // two requests with one key take turns here; the second finds the first's stored reply. The
+    // same statement reads the reference data's version (families, stations, routes, rules, gauges)
+    const [version] = await sequelize.query<VersionRead>(
+      `SELECT pg_advisory_xact_lock(hashtextextended(:key, 7241)) AS locked, v.* FROM (${VERSION_SQL}) v`,
+      { replacements: { key: body.idempotencyKey }, type: QueryTypes.SELECT, transaction },
+    );
     const seen = await IdempotencyKey.findByPk(body.idempotencyKey, { transaction });
     if (seen) {
       if (seen.userId !== ctx.actor!.id || seen.requestHash !== requestHash || seen.path !== path) {
@@ -328,14 +323,18 @@ export async function submitResult(
       return { status: seen.statusCode, body: seen.response as ResultJson, replay: true };
     }
 
-    const { station, stage } = await stationByCode(body.station, transaction);
-    const found = await findBySerial(body.serial, transaction);
+    const ref = await referenceData(sequelize, transaction, {
+      version: Number(version!.version),
+      mine: !!version!.mine,
+    });
+    const { station, stage } = stationByCode(ref, body.station);
+    const serial = checkedSerial(body.serial);
     // a part already in a unit: the unit's lock first, as the release gate takes it (no NCR slips past a release)
-    await lockUnitOf(found.id, transaction);
+    await lockUnitOf({ serial }, transaction);
     // the part's row lock: a second tablet submitting the same part waits here, then sees the first
-    const item = (await Item.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
-    const family = (await EngineFamily.findByPk(item.engineFamilyId, { transaction }))!;
-    const route = await routeFor(item.engineFamilyId, item.kind, transaction);
+    const item = await findBySerial(serial, transaction, { lock: true });
+    const family = ref.family(item.engineFamilyId)!;
+    const route = ref.route(item.engineFamilyId, item.kind);
     const holds = await blockingNcrsOf(item.id, stage.id, transaction);
     const reentry = await openReentry(item.id, transaction);
 
@@ -367,13 +366,7 @@ export async function submitResult(
     }
 
     const now = new Date();
-    const chars = await formCharacteristics(
-      stage.id,
-      family.id,
-      now,
-      (c) => expandPositions(c.positions, family, item),
-      transaction,
-    );
+    const chars = formCharacteristics(ref, stage.id, family.id, now, (c) => expandPositions(c.positions, family, item));
     if (!chars.length) throw conflict(`${stage.name} has no characteristics to record yet.`);
     const unruled = chars.filter((c) => c.kind !== 'attribute' && !c.rule);
     if (unruled.length) {
@@ -384,7 +377,7 @@ export async function submitResult(
     }
 
     // the result's gauge, and any measured characteristic taken with another one
-    const gauges = await gaugeChoices(transaction);
+    const gauges = gaugeChoices(ref);
     const usableGauge = (code: string, field: string) => {
       const g = gauges.byCode.get(code.toUpperCase()) ?? null;
       const choice = gauges.choices.find((x) => x.code === g?.code);
@@ -433,21 +426,24 @@ export async function submitResult(
       { transaction },
     );
     const charByCode = new Map(chars.map((c) => [c.code, c]));
-    await Reading.bulkCreate(
+    // one INSERT of plain rows: no model instances built, nothing returned
+    await sequelize.getQueryInterface().bulkInsert(
+      'readings',
       judged.readings.map((r) => {
         const c = charByCode.get(r.characteristic)!;
         return {
-          stageResultId: result.id,
-          characteristicId: c.id,
+          stage_result_id: result.id,
+          characteristic_id: c.id,
           position: r.position,
           value: r.value,
           passed: r.passed,
-          locationNote: locations.get(`${r.characteristic}@${r.position}`) ?? null,
+          location_note: locations.get(`${r.characteristic}@${r.position}`) ?? null,
           unit: c.kind === 'attribute' ? null : c.unit,
           verdict: r.verdict ?? 'fail',
-          toleranceRuleId: r.ruleId,
-          ruleVersion: r.ruleVersion,
-          gaugeId: c.kind === 'variable' ? (gaugeOf.get(c.code)?.id ?? gauge?.id ?? null) : null,
+          tolerance_rule_id: r.ruleId,
+          rule_version: r.ruleVersion,
+          gauge_id: c.kind === 'variable' ? (gaugeOf.get(c.code)?.id ?? gauge?.id ?? null) : null,
+          created_at: now,
         };
       }),
       { transaction },
@@ -550,8 +546,13 @@ export async function submitResult(
       });
     }
 
-    const nextStage = item.currentStageId ? await Stage.findByPk(item.currentStageId, { transaction }) : null;
-    const operator = await User.findByPk(ctx.actor!.id, { attributes: ['name'], transaction });
+    // the next stage is on the route already read; the operator's name came with the session
+    const nextStage = item.currentStageId
+      ? (route?.steps.find((s) => s.stageId === item.currentStageId)?.stage ??
+        (await Stage.findByPk(item.currentStageId, { transaction })))
+      : null;
+    const operatorName =
+      ctx.actor!.name ?? (await User.findByPk(ctx.actor!.id, { attributes: ['name'], transaction }))?.name ?? '';
     const photos = body.photoIds.length
       ? (await Attachment.findAll({ where: { entity: 'stage_result', entityId: String(result.id) }, transaction })).map(
           presentAttachment,
@@ -562,7 +563,7 @@ export async function submitResult(
       serial: item.serial,
       stage: { code: stage.code, name: stage.name },
       station: { code: station.code, name: station.name },
-      operator: operator?.name ?? '',
+      operator: operatorName,
       gauge: gauge?.code ?? null,
       verdict,
       finishedAt: now.toISOString(),
@@ -589,7 +590,7 @@ export async function submitResult(
         statusCode: 201,
         response: reply,
       },
-      { transaction },
+      { transaction, returning: false },
     );
     return { status: 201, body: reply, replay: false };
   });

@@ -2,8 +2,9 @@ import { Op, QueryTypes, type Sequelize } from 'sequelize';
 import type { LotLookupJson, TrailJson, TrailNcr, TrailNode, TrailResult } from '../../shared/schemas/build.js';
 import type { NcrState } from '../../shared/schemas/ncr.js';
 import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.js';
-import { EngineFamily, Item, NonconformanceTransition, Shipment, Signature, StageResult } from '../models/index.js';
-import { findBySerial, presentItem } from './items.js';
+import { Item, NonconformanceTransition, Shipment, Signature, StageResult } from '../models/index.js';
+import { findBySerial, presentItem, type KnownLink } from './items.js';
+import { referenceData } from './reference-cache.js';
 import { presentShipment } from './release.js';
 import { loadResultRecords } from './result-records.js';
 
@@ -14,31 +15,29 @@ import { loadResultRecords } from './result-records.js';
  * stage_results_item_stage_idx, readings' unique (stage_result_id, …), nonconformances_item_state_idx).
  */
 
-type Link = { parent_item_id: number; child_item_id: number; link_type: 'harvested_from' | 'installed_in' };
+type Link = KnownLink & { link_type: 'harvested_from' | 'installed_in' };
 
 export async function trailOf(sequelize: Sequelize, serial: string): Promise<TrailJson> {
-  const item = await findBySerial(serial);
-  // every item linked to this one, up to a core's parts' units and a unit's parts' cores
+  const [item, ref] = await Promise.all([findBySerial(serial), referenceData(sequelize)]);
+  // every item linked to this one, up to a core's parts' units and a unit's parts' cores: the links
+  // are gathered as the walk follows them (index scans only), never by scanning item_links for
+  // links among the items found, which grew with the plant's history
   const links = await sequelize.query<Link>(
-    `WITH RECURSIVE g(id, depth) AS (
-       SELECT :id::int, 0
+    `WITH RECURSIVE g(id, depth, link_id, parent_item_id, child_item_id, link_type) AS (
+       SELECT :id::int, 0, NULL::int, NULL::int, NULL::int, NULL::varchar
        UNION
-       SELECT CASE WHEN l.parent_item_id = g.id THEN l.child_item_id ELSE l.parent_item_id END, g.depth + 1
+       SELECT CASE WHEN l.parent_item_id = g.id THEN l.child_item_id ELSE l.parent_item_id END, g.depth + 1,
+              l.id, l.parent_item_id, l.child_item_id, l.link_type
          FROM item_links l JOIN g ON (l.parent_item_id = g.id OR l.child_item_id = g.id)
         WHERE l.removed_at IS NULL AND g.depth < 2
      )
-     SELECT DISTINCT l.parent_item_id, l.child_item_id, l.link_type
-       FROM item_links l
-      WHERE l.removed_at IS NULL AND (l.parent_item_id IN (SELECT id FROM g) AND l.child_item_id IN (SELECT id FROM g))`,
+     SELECT DISTINCT link_id AS id, parent_item_id, child_item_id, link_type FROM g WHERE link_type IS NOT NULL`,
     { type: QueryTypes.SELECT, replacements: { id: item.id } },
   );
   const ids = [...new Set([item.id, ...links.flatMap((l) => [l.parent_item_id, l.child_item_id])])];
-  const [items, families] = await Promise.all([
-    Item.findAll({ where: { id: { [Op.in]: ids } } }),
-    EngineFamily.findAll(),
-  ]);
+  const items = await Item.findAll({ where: { id: { [Op.in]: ids } } });
   const byId = new Map(items.map((i) => [i.id, i]));
-  const familyById = new Map(families.map((f) => [f.id, f]));
+  const familyById = new Map(ref.families.map((f) => [f.id, f]));
 
   const node = (i: Item, link: TrailNode['link'], children: TrailNode[]): TrailNode => ({
     serial: i.serial,
@@ -150,7 +149,7 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
   ]);
   const records = await loadResultRecords(results, items, {
     userIds: transitions.map((t) => t.actorId),
-    families,
+    ref,
   });
 
   const trailResults: TrailResult[] = results.map((r) => {
@@ -197,7 +196,7 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
   }));
   const shipped = shipment ? await presentShipment(shipment) : null;
   return {
-    item: await presentItem(item),
+    item: await presentItem(item, { ref, genealogy: { links, items } }),
     tree,
     lots: lots.map((l) => ({
       kind: l.kind,

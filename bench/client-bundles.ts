@@ -1,0 +1,136 @@
+import { existsSync } from 'node:fs';
+import { readFile } from 'node:fs/promises';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { gzipSync } from 'node:zlib';
+import { paths } from '../src/lib/paths.js';
+
+/** The JavaScript a browser fetches to show one route on a cold load. */
+export type BundleRow = {
+  route: string;
+  path: string;
+  files: number;
+  rawBytes: number;
+  gzipBytes: number;
+  /** Chunks the route can pull in later on a tap (the camera reader), not counted above. */
+  onDemand?: OnDemandChunks[];
+};
+
+export type OnDemandChunks = { module: string; files: number; rawBytes: number; gzipBytes: number };
+
+type ManifestChunk = {
+  file: string;
+  src?: string;
+  isEntry?: boolean;
+  isDynamicEntry?: boolean;
+  imports?: string[];
+  dynamicImports?: string[];
+};
+type Manifest = Record<string, ManifestChunk>;
+
+const ROOT = fileURLToPath(new URL('..', import.meta.url));
+
+/**
+ * The page module behind each main route, as src/router.tsx names it. A module with no chunk of its
+ * own in the manifest is rendered by the entry (router.tsx imports it statically), so the route
+ * costs the entry alone; that is how sign-in and home are built today.
+ */
+const ROUTES: { route: string; path: string; module: string }[] = [
+  { route: 'sign-in', path: paths.signIn, module: 'src/routes/sign-in/sign-in-page.tsx' },
+  { route: 'home', path: paths.home, module: 'src/routes/home/home-page.tsx' },
+  { route: 'station', path: paths.station, module: 'src/routes/station/station-page.tsx' },
+  { route: 'intake-log', path: paths.intake, module: 'src/routes/intake/intake-log-page.tsx' },
+  { route: 'receive-core', path: paths.receiveCore, module: 'src/routes/intake/receive-page.tsx' },
+  { route: 'teardown', path: paths.teardown, module: 'src/routes/teardown/teardown-page.tsx' },
+  { route: 'ncr-list', path: paths.ncrs, module: 'src/routes/ncrs/ncr-list-page.tsx' },
+  { route: 'build', path: paths.build, module: 'src/routes/build/build-page.tsx' },
+  { route: 'trail', path: paths.trail, module: 'src/routes/trail/trail-page.tsx' },
+  { route: 'release', path: paths.release, module: 'src/routes/release/release-page.tsx' },
+  { route: 'spec-book', path: paths.specBook, module: 'src/routes/spec/spec-book-page.tsx' },
+];
+
+// Level 9, as for files compressed once at build or deploy time. Compression middleware usually
+// runs at zlib's default 6, a few per cent larger; the demo server sends these files uncompressed.
+const GZIP_LEVEL = 9;
+
+/** Per route: entry chunk + the route's chunk + everything they import statically, each file once. */
+export async function measureBundles(distDir: string): Promise<BundleRow[]> {
+  const manifestPath = path.join(distDir, '.vite', 'manifest.json');
+  if (!existsSync(manifestPath)) {
+    throw new Error(`${manifestPath} is missing: build the client with build.manifest on (npx vite build)`);
+  }
+  const manifest = JSON.parse(await readFile(manifestPath, 'utf8')) as Manifest;
+  const entries = Object.keys(manifest).filter((k) => manifest[k]!.isEntry);
+  if (entries.length !== 1) throw new Error(`expected one entry chunk in ${manifestPath}, found ${entries.length}`);
+  const entry = entries[0]!;
+
+  const sizes = new Map<string, { raw: number; gzip: number }>();
+  const sizeOf = async (file: string) => {
+    let s = sizes.get(file);
+    if (!s) {
+      const bytes = await readFile(path.join(distDir, file));
+      s = { raw: bytes.length, gzip: gzipSync(bytes, { level: GZIP_LEVEL }).length };
+      sizes.set(file, s);
+    }
+    return s;
+  };
+  const sum = async (keys: Set<string>) => {
+    let raw = 0;
+    let gzip = 0;
+    for (const k of keys) {
+      const s = await sizeOf(manifest[k]!.file);
+      raw += s.raw;
+      gzip += s.gzip;
+    }
+    return { files: keys.size, rawBytes: raw, gzipBytes: gzip };
+  };
+
+  const rows: BundleRow[] = [];
+  for (const r of ROUTES) {
+    if (!existsSync(path.join(ROOT, r.module))) {
+      throw new Error(`${r.module} (route ${r.route}) no longer exists: update ROUTES in bench/client-bundles.ts`);
+    }
+    const own = manifest[r.module]?.isDynamicEntry ? [r.module] : [];
+    const loaded = chunksFrom(manifest, [entry, ...own]);
+    const onDemand: OnDemandChunks[] = [];
+    for (const d of onDemandOf(manifest, loaded)) {
+      onDemand.push({ module: d, ...(await sum(chunksFrom(manifest, [d], loaded))) });
+    }
+    rows.push({ route: r.route, path: r.path, ...(await sum(loaded)), onDemand });
+  }
+  return rows;
+}
+
+/**
+ * The chunks reached through static imports. Given the chunks a page already has, it is walking
+ * what a tap pulls in: lazy imports count too, and what is already loaded is neither counted nor
+ * walked (the entry's lazy imports are the other routes).
+ */
+function chunksFrom(manifest: Manifest, start: string[], loaded?: Set<string>): Set<string> {
+  const seen = new Set<string>();
+  const walk = (key: string) => {
+    if (seen.has(key) || loaded?.has(key)) return;
+    const chunk = manifest[key];
+    if (!chunk) throw new Error(`the manifest refers to ${key} but has no entry for it`);
+    if (!chunk.file.endsWith('.js')) return;
+    seen.add(key);
+    for (const i of chunk.imports ?? []) walk(i);
+    if (loaded) for (const i of chunk.dynamicImports ?? []) walk(i);
+  };
+  start.forEach(walk);
+  return seen;
+}
+
+/**
+ * Lazy imports the loaded chunks can trigger without leaving the page. Other routes' pages are
+ * lazy imports of the entry too, but they load on navigation, so they are left out.
+ */
+function onDemandOf(manifest: Manifest, loaded: Set<string>): string[] {
+  const found = new Set<string>();
+  for (const k of loaded) {
+    for (const d of manifest[k]!.dynamicImports ?? []) {
+      if (!loaded.has(d) && !d.startsWith('src/routes/')) found.add(d);
+    }
+  }
+  return [...found].sort();
+}

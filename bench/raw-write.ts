@@ -1,0 +1,96 @@
+import type pg from 'pg';
+import { sqlText } from './pgbench.js';
+
+/**
+ * The station-result transaction as PostgreSQL alone would run it: the statements the API sends for
+ * one passing submission (copied from the server's statement log, in the same order, with the same
+ * row locks, the same two audit events under the chain's advisory lock and the same stored reply;
+ * the benchmark prints both statement counts so a drift shows),
+ * with the values of one real submission (`sampleResultId`) as literals. What the raw side leaves
+ * out is exactly what the API adds: HTTP, zod, judging the readings, JSON and hashing in JavaScript.
+ * The audit hash is computed in SQL instead (sha256 over the previous hash and the event).
+ *
+ * Before the transaction, one statement picks the next part from `bench_raw_parts` — the API's
+ * load driver does that on its side.
+ */
+export async function rawWriteScript(db: pg.Pool, sampleResultId: number) {
+  const { rows: readings } = await db.query<Record<string, unknown>>(
+    `SELECT characteristic_id, position, value, passed, location_note, unit, verdict, tolerance_rule_id, rule_version,
+            gauge_id FROM readings WHERE stage_result_id = $1 ORDER BY id`,
+    [sampleResultId],
+  );
+  const {
+    rows: [result],
+  } = await db.query<{ idempotency_key: string; stage_id: number; station_id: number; gauge_id: number | null }>(
+    'SELECT idempotency_key, stage_id, station_id, gauge_id FROM stage_results WHERE id = $1',
+    [sampleResultId],
+  );
+  if (!result) throw new Error(`no sample result ${sampleResultId}`);
+  const { rows: events } = await db.query<{ action: string; entity: string; before: unknown; after: unknown }>(
+    `SELECT action, entity, before::text AS before, after::text AS after FROM audit_events
+      WHERE (entity = 'stage_result' AND entity_id = $1::text) OR (entity = 'item' AND after->>'byResult' = $1::text)
+      ORDER BY id`,
+    [sampleResultId],
+  );
+  const {
+    rows: [reply],
+  } = await db.query<{ request_hash: string; response: string }>(
+    'SELECT request_hash, response::text AS response FROM idempotency_keys WHERE key = $1',
+    [result.idempotency_key],
+  );
+  const {
+    rows: [ctx],
+  } = await db.query<{ station_code: string; char_ids: string; next_stage: number }>(
+    `SELECT st.code AS station_code,
+            (SELECT string_agg(id::text, ', ' ORDER BY sort_order, id) FROM characteristics WHERE stage_id = $1) AS char_ids,
+            (SELECT rs2.stage_id FROM route_stages rs JOIN route_stages rs2 ON rs2.route_id = rs.route_id
+              AND rs2.position = rs.position + 1
+              JOIN routes r ON r.id = rs.route_id AND r.part_kind = 'block' AND r.active
+              WHERE rs.stage_id = $1 LIMIT 1) AS next_stage
+       FROM stations st WHERE st.id = $2`,
+    [result.stage_id, result.station_id],
+  );
+  if (!reply || !ctx || events.length !== 2) throw new Error('the sample submission is incomplete');
+  const lit = (v: unknown) => (v === null || v === undefined ? 'NULL' : typeof v === 'string' ? sqlText(v) : String(v));
+  const values = readings
+    .map(
+      (r) =>
+        `(:r_id,${r.characteristic_id},${lit(r.position)},${lit(r.value)},${lit(r.passed)},${lit(r.location_note)},` +
+        `${lit(r.unit)},${lit(r.verdict)},${lit(r.tolerance_rule_id)},${lit(r.rule_version)},${lit(r.gauge_id)},now())`,
+    )
+    .join(',');
+  const audit = (e: (typeof events)[number], prev: string) =>
+    `INSERT INTO "audit_events" ("id","occurred_at","actor_id","actor_role","action","entity","entity_id","before","after","request_id","prev_hash","hash") VALUES (DEFAULT,now(),:uid,'operator',${lit(e.action)},${lit(e.entity)},${e.entity === 'item' ? "':serial'" : "':r_id'"},${lit(e.before)},${lit(e.after)},':key',${prev},encode(sha256(convert_to(${prev} || ${lit(e.after)}, 'UTF8')), 'hex')) RETURNING hash AS a_head \\gset`;
+  const script = `SELECT item_id, serial FROM bench_raw_parts WHERE slot = (SELECT nextval('bench_raw_seq') % :pool) \\gset
+SELECT gen_random_uuid() AS key \\gset
+SELECT s.id AS session_id, s.revoked_at, s.expires_at, s.token_version AS session_tv, u.id, u.email, u.name, u.role, u.active, u.token_version AS user_tv FROM sessions s JOIN users u ON u.id = s.user_id WHERE s.id = ':sid';
+START TRANSACTION;
+SELECT pg_advisory_xact_lock(hashtextextended(':key', 7241));
+SELECT "key", "user_id" AS "userId", "method", "path", "request_hash" AS "requestHash", "status_code" AS "statusCode", "response", "created_at" AS "createdAt" FROM "idempotency_keys" AS "IdempotencyKey" WHERE "IdempotencyKey"."key" = ':key';
+SELECT "Station"."id", "Station"."code", "Station"."name", "Station"."stage_id" AS "stageId", "Station"."location", "Station"."active", "Station"."created_at" AS "createdAt", "Station"."updated_at" AS "updatedAt", "stage"."id" AS "stage.id", "stage"."code" AS "stage.code", "stage"."name" AS "stage.name", "stage"."part_kind" AS "stage.partKind", "stage"."hazard" AS "stage.hazard", "stage"."description" AS "stage.description", "stage"."created_at" AS "stage.createdAt", "stage"."updated_at" AS "stage.updatedAt" FROM "stations" AS "Station" LEFT OUTER JOIN "stages" AS "stage" ON "Station"."stage_id" = "stage"."id" WHERE "Station"."code" = ${lit(ctx.station_code)};
+SELECT u.* FROM items u WHERE u.id = (SELECT l.parent_item_id FROM item_links l WHERE l.child_item_id = (SELECT id FROM items WHERE serial = ':serial') AND l.link_type = 'installed_in' AND l.removed_at IS NULL) FOR UPDATE OF u;
+SELECT "id", "serial", "kind", "engine_family_id" AS "engineFamilyId", "status", "route_id" AS "routeId", "current_stage_id" AS "currentStageId", "position_label" AS "positionLabel", "attributes", "created_by_id" AS "createdById", "created_at" AS "createdAt", "updated_at" AS "updatedAt" FROM "items" AS "Item" WHERE "Item"."serial" = ':serial' FOR UPDATE;
+SELECT "id", "code", "name", "description", "layout", "cylinders", "bore_mm" AS "boreMm", "stroke_mm" AS "strokeMm", "heads_per_engine" AS "headsPerEngine", "warranty_months" AS "warrantyMonths", "warranty_km" AS "warrantyKm", "active", "created_at" AS "createdAt", "updated_at" AS "updatedAt" FROM "engine_families" AS "EngineFamily" WHERE "EngineFamily"."id" = :family;
+SELECT "Route".*, "steps"."id" AS "steps.id", "steps"."route_id" AS "steps.routeId", "steps"."stage_id" AS "steps.stageId", "steps"."position" AS "steps.position", "steps"."required" AS "steps.required", "steps"."created_at" AS "steps.createdAt", "steps->stage"."id" AS "steps.stage.id", "steps->stage"."code" AS "steps.stage.code", "steps->stage"."name" AS "steps.stage.name", "steps->stage"."part_kind" AS "steps.stage.partKind", "steps->stage"."hazard" AS "steps.stage.hazard", "steps->stage"."description" AS "steps.stage.description", "steps->stage"."created_at" AS "steps.stage.createdAt", "steps->stage"."updated_at" AS "steps.stage.updatedAt" FROM (SELECT "Route"."id", "Route"."engine_family_id" AS "engineFamilyId", "Route"."part_kind" AS "partKind", "Route"."version", "Route"."active", "Route"."created_at" AS "createdAt", "Route"."updated_at" AS "updatedAt" FROM "routes" AS "Route" WHERE "Route"."active" = true AND "Route"."engine_family_id" = :family AND "Route"."part_kind" = 'block' ORDER BY "Route"."version" DESC LIMIT 1) AS "Route" LEFT OUTER JOIN "route_stages" AS "steps" ON "Route"."id" = "steps"."route_id" LEFT OUTER JOIN "stages" AS "steps->stage" ON "steps"."stage_id" = "steps->stage"."id" ORDER BY "Route"."version" DESC, "steps"."position" ASC;
+SELECT "id", "number", "item_id" AS "itemId", "part_lot_id" AS "partLotId", "stage_result_id" AS "stageResultId", "stage_id" AS "stageId", "defect_code_id" AS "defectCodeId", "severity", "state", "description", "failing", "containment", "disposition", "disposition_reason" AS "dispositionReason", "rework_stage_id" AS "reworkStageId", "raised_by_id" AS "raisedById", "assignee_id" AS "assigneeId", "closed_at" AS "closedAt", "item_status_before" AS "itemStatusBefore", "awaiting_second_signature" AS "awaitingSecondSignature", "decided_by_id" AS "decidedById", "decided_at" AS "decidedAt", "created_at" AS "createdAt", "updated_at" AS "updatedAt" FROM "nonconformances" AS "Nonconformance" WHERE "Nonconformance"."state" IN ('raised', 'in_review', 'decided') AND "Nonconformance"."item_id" = :item_id ORDER BY "Nonconformance"."id" ASC;
+SELECT "id", "item_id" AS "itemId", "stage_id" AS "stageId", "from_stage_id" AS "fromStageId", "from_status" AS "fromStatus", "reason", "allowed_by_id" AS "allowedById", "used_by_result_id" AS "usedByResultId", "created_at" AS "createdAt" FROM "stage_reentries" AS "StageReentry" WHERE "StageReentry"."item_id" = :item_id AND "StageReentry"."used_by_result_id" IS NULL LIMIT 1;
+SELECT "id", "stage_id" AS "stageId", "code", "name", "kind", "unit", "resolution", "positions", "derivation", "critical", "sort_order" AS "sortOrder", "physical_min" AS "physicalMin", "physical_max" AS "physicalMax", "defect_code" AS "defectCode", "help", "optional", "created_at" AS "createdAt", "updated_at" AS "updatedAt" FROM "characteristics" AS "Characteristic" WHERE "Characteristic"."stage_id" = ${result.stage_id} ORDER BY "sortOrder" ASC, "Characteristic"."id" ASC;
+SELECT "id", "engine_family_id" AS "engineFamilyId", "characteristic_id" AS "characteristicId", "version", "status", "limit_type" AS "limitType", "nominal", "minus_tol" AS "minusTol", "plus_tol" AS "plusTol", "lower_limit" AS "lowerLimit", "upper_limit" AS "upperLimit", "unit", "resolution", "source_note" AS "sourceNote", "effective_from" AS "effectiveFrom", "superseded_at" AS "supersededAt", "created_by_id" AS "createdById", "approved_by_id" AS "approvedById", "approved_at" AS "approvedAt", "approval_reason" AS "approvalReason", "created_at" AS "createdAt", "updated_at" AS "updatedAt" FROM "tolerance_rules" AS "ToleranceRule" WHERE "ToleranceRule"."status" IN ('approved', 'superseded') AND "ToleranceRule"."engine_family_id" = :family AND "ToleranceRule"."characteristic_id" IN (${ctx.char_ids});
+SELECT "id", "code", "description", "kind", "resolution", "unit", "calibration_due_on" AS "calibrationDueOn", "status", "created_at" AS "createdAt", "updated_at" AS "updatedAt" FROM "gauges" AS "Gauge" ORDER BY "Gauge"."code" ASC;
+INSERT INTO "stage_results" ("id","item_id","stage_id","station_id","operator_id","gauge_id","started_at","finished_at","verdict","idempotency_key","supersedes_id","correction_reason","reentry_reason","reentry_by_id","notes","created_at") VALUES (DEFAULT,:item_id,${result.stage_id},${result.station_id},:uid,${lit(result.gauge_id)},NULL,now(),'pass',':key',NULL,NULL,NULL,NULL,'',now()) RETURNING "id","item_id","stage_id","station_id","operator_id","gauge_id","started_at","finished_at","verdict","idempotency_key","supersedes_id","correction_reason","reentry_reason","reentry_by_id","notes","created_at" \\gset r_
+INSERT INTO "readings" ("stage_result_id","characteristic_id","position","value","passed","location_note","unit","verdict","tolerance_rule_id","rule_version","gauge_id","created_at") VALUES ${values};
+UPDATE "items" SET "current_stage_id"=${ctx.next_stage},"updated_at"=now() WHERE "id" = :item_id;
+SELECT "id", "number", "item_id" AS "itemId", "part_lot_id" AS "partLotId", "stage_result_id" AS "stageResultId", "stage_id" AS "stageId", "defect_code_id" AS "defectCodeId", "severity", "state", "description", "failing", "containment", "disposition", "disposition_reason" AS "dispositionReason", "rework_stage_id" AS "reworkStageId", "raised_by_id" AS "raisedById", "assignee_id" AS "assigneeId", "closed_at" AS "closedAt", "item_status_before" AS "itemStatusBefore", "awaiting_second_signature" AS "awaitingSecondSignature", "decided_by_id" AS "decidedById", "decided_at" AS "decidedAt", "created_at" AS "createdAt", "updated_at" AS "updatedAt" FROM "nonconformances" AS "Nonconformance" WHERE "Nonconformance"."state" = 'decided' AND "Nonconformance"."disposition" IN ('rework', 'repair') AND "Nonconformance"."item_id" = :item_id AND "Nonconformance"."rework_stage_id" = ${result.stage_id} FOR UPDATE;
+SELECT pg_advisory_xact_lock(72410002);
+SELECT hash AS a_prev FROM audit_events ORDER BY id DESC LIMIT 1 \\gset
+${audit(events[0]!, "':a_prev'")}
+${audit(events[1]!, "':a_head'")}
+INSERT INTO "idempotency_keys" ("key","user_id","method","path","request_hash","status_code","response","created_at") VALUES (':key',:uid,'POST','/api/results',${lit(reply.request_hash)},201,${lit(reply.response)},now());
+COMMIT;
+`;
+  // statements per transaction, for the report: every line but the part pick and the key
+  const statements = script
+    .split('\n')
+    .filter((l) => l.trim() && !l.startsWith('SELECT item_id') && !l.startsWith('SELECT gen_random_uuid')).length;
+  return { script, statements, readings: readings.length };
+}
