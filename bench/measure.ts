@@ -49,10 +49,44 @@ async function readBoth(
   return { api: a, raw: b };
 }
 
+/**
+ * The raw trail query and the API answer the same question: for one unit, both must count the
+ * same results, readings, NCRs and lots, or the comparison means nothing.
+ */
+async function sameTrail(c: Ctx, k: number, serial: string) {
+  const sql = trailScript(1).split('\n').slice(1).join('\n').replace(/:k\b/g, String(k));
+  const {
+    rows: [raw],
+  } = await c.db.query<{ json_build_object: Record<string, unknown[] | null> }>(sql);
+  const api = (await (
+    await fetch(`${c.api}/api/trail/${serial}`, { headers: { cookie: c.cookies.warranty } })
+  ).json()) as { results: { readings: unknown[] }[]; ncrs: unknown[]; lots: unknown[] };
+  const r = raw!.json_build_object;
+  const rawResults = (r.results ?? []) as { readings: unknown[] | null }[];
+  const counts = {
+    results: [api.results.length, rawResults.length],
+    readings: [
+      api.results.reduce((n, x) => n + x.readings.length, 0),
+      rawResults.reduce((n, x) => n + (x.readings?.length ?? 0), 0),
+    ],
+    ncrs: [api.ncrs.length, (r.ncrs ?? []).length],
+    lots: [api.lots.length, (r.lots ?? []).length],
+  };
+  const differ = Object.entries(counts).filter(([, [a, b]]) => a !== b);
+  if (differ.length) throw new Error(`the raw trail and the API differ for ${serial}: ${JSON.stringify(counts)}`);
+  return Object.fromEntries(Object.entries(counts).map(([key, [a]]) => [key, a!]));
+}
+
 export async function measureTrail(c: Ctx, rate: number) {
-  const { rows } = await c.db.query<{ serial: string }>('SELECT serial FROM bench_units ORDER BY k');
+  const { rows } = await c.db.query<{ k: number; serial: string }>('SELECT k, serial FROM bench_units ORDER BY k');
   const serials = rows.map((r) => r.serial);
-  c.log(`trail: ${serials.length} units, ${rate}/s`);
+  // a unit with an NCR in its history (every twentieth) and one without
+  const checked = await Promise.all(
+    [rows.find((r) => r.k % 20 === 7)!, rows[0]!].map((r) => sameTrail(c, r.k, r.serial)),
+  );
+  c.log(
+    `trail: ${serials.length} units, ${rate}/s; the raw query returns the same as the API: ${JSON.stringify(checked)}`,
+  );
   return readBoth(
     c,
     rate,

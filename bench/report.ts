@@ -35,6 +35,9 @@ export function verdicts(f: Figures) {
     )
     .at(-1);
   const rawMax = flat.raw.achieved;
+  const rawHeld = f.write.steps
+    .filter((s) => s.rate && !s.raw.errors && s.raw.ok >= s.raw.sent * 0.95 && s.raw.latency.p99 <= P99_TARGET_MS)
+    .at(-1);
   const station = f.client.bundles.find((b) => b.route === 'station');
   return {
     writeRawMax: rawMax,
@@ -42,6 +45,7 @@ export function verdicts(f: Figures) {
     writeHeldRate: held?.api?.achieved ?? 0,
     writeHeldP99: held?.api?.latency.p99 ?? null,
     writeRatio: (held?.api?.achieved ?? 0) / rawMax,
+    writeRawHeldRate: rawHeld?.raw.achieved ?? 0,
     writeFlatRatio: (flat.api?.achieved ?? 0) / rawMax,
     trailRatio10: f.trail.tenth.api.latency.p95 / f.trail.tenth.raw.latency.p95,
     trailRatio100: f.trail.full.api.latency.p95 / f.trail.full.raw.latency.p95,

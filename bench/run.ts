@@ -38,10 +38,13 @@ const machine = {
   settings: JSON.parse(process.env.BENCH_PG_SETTINGS ?? '{}') as Record<string, string>,
 };
 
-// BENCH_REUSE_DIST=1 keeps an existing dist/ (for trying the benchmark itself)
+// the client is built into a folder of the benchmark's own; BENCH_REUSE_DIST=1 keeps the last one
+const DIST = path.resolve('.bench', 'dist');
 const build = new Promise<void>((resolve, reject) => {
-  if (process.env.BENCH_REUSE_DIST === '1' && fs.existsSync('dist/index.html')) return resolve();
-  const child = spawn('npx', ['vite', 'build', '--logLevel', 'warn'], { stdio: ['ignore', 'ignore', 'inherit'] });
+  if (process.env.BENCH_REUSE_DIST === '1' && fs.existsSync(path.join(DIST, 'index.html'))) return resolve();
+  const child = spawn('npx', ['vite', 'build', '--logLevel', 'warn', '--outDir', DIST, '--emptyOutDir'], {
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
   child.on('exit', (code) => (code === 0 ? resolve() : reject(new Error(`vite build exited ${code}`))));
 });
 build.catch(() => undefined);
@@ -152,8 +155,17 @@ await db.query('INSERT INTO bench_raw_parts SELECT * FROM unnest($1::int[], $2::
   rawParts.map((p) => p.serial),
 ]);
 
+if (process.env.BENCH_SEED_ONLY === '1') {
+  // for looking into the seeded plant (with BENCH_KEEP=1): the whole history, nothing measured
+  await seedUnits(tenth + 1, UNITS);
+  await settle();
+  log(`seeded only: ${JSON.stringify(await counts())}`);
+  await db.end();
+  process.exit(0);
+}
+
 await build;
-const server = await startApi(url);
+const server = await startApi(url, DIST);
 try {
   const c: Ctx = {
     api: server.url,
@@ -200,7 +212,7 @@ try {
   });
 
   log('client: JavaScript per route, and scan-to-form in Chromium…');
-  const bundles = await measureBundles(path.resolve('dist'));
+  const bundles = await measureBundles(DIST);
   const scan = await measureScanToForm({
     baseUrl: server.url,
     email: 'operator@larkspur.example',

@@ -1,7 +1,6 @@
 import { spawn } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import net from 'node:net';
-import path from 'node:path';
 
 const freePort = () =>
   new Promise<number>((resolve, reject) => {
@@ -14,7 +13,7 @@ const freePort = () =>
   });
 
 /** The server as `npm start` runs it, in its own process, serving the built client; no mail worker. */
-export async function startApi(databaseUrl: string) {
+export async function startApi(databaseUrl: string, clientDir: string) {
   const port = await freePort();
   const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
     env: {
@@ -24,7 +23,7 @@ export async function startApi(databaseUrl: string) {
       PORT: String(port),
       SEED_DEMO: 'never',
       MAIL_WORKER: 'off',
-      CLIENT_DIR: path.resolve('dist'),
+      CLIENT_DIR: clientDir,
       JWT_SECRET: randomBytes(32).toString('hex'),
     },
     stdio: ['ignore', 'pipe', 'pipe'],

@@ -277,6 +277,8 @@ async function raiseLotConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNcrBod
 
 // ——— reading ———
 
+// only the serial can be empty (an NCR on a lot); the others keep a plain order, which lets the
+// (state, created_at) index hand the newest rows over without sorting every NCR first
 const SORT: Record<NcrListQuery['sort'], string> = {
   raised: 'n.created_at',
   number: 'n.number',
@@ -329,7 +331,7 @@ export async function listNcrs(sequelize: Sequelize, q: NcrListQuery, { all = fa
               n.disposition, ru.name AS "raisedBy", au.name AS assignee,
               to_char(n.created_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') AS "raisedAt",
               (extract(epoch FROM now() - n.created_at) / 86400)::int AS "ageDays"
-         ${from} ${filter} ORDER BY ${SORT[q.sort]} ${dir} NULLS LAST, n.id ${dir}
+         ${from} ${filter} ORDER BY ${SORT[q.sort]} ${dir}${q.sort === 'serial' ? ' NULLS LAST' : ''}, n.id ${dir}
          ${all ? '' : 'LIMIT :limit OFFSET :offset'}`,
       { type: QueryTypes.SELECT, replacements: { ...r, limit: q.pageSize, offset: (q.page - 1) * q.pageSize } },
     ),
