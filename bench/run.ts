@@ -19,8 +19,8 @@ import { startApi } from './server.js';
 const url = process.env.DATABASE_URL!;
 const pgBin = process.env.PG_BIN!;
 const UNITS = Number(process.env.BENCH_UNITS ?? 50_000);
-const SECONDS = Number(process.env.BENCH_SECONDS ?? 8);
-const WRITE_RATES = (process.env.BENCH_WRITE_RATES ?? '25,50,100,150,200,300').split(',').map(Number);
+const SECONDS = Number(process.env.BENCH_SECONDS ?? 6);
+const WRITE_RATES = (process.env.BENCH_WRITE_RATES ?? '10,20,30,40,50,60').split(',').map(Number);
 const READ_RATE = Number(process.env.BENCH_READ_RATE ?? 20);
 const STATION = 'BH-1';
 const POOL_BASE = 10_000_000; // copy numbers of parts waiting at the station, apart from shipped units
@@ -125,8 +125,9 @@ await db.query(`CREATE UNLOGGED TABLE bench_units (k int PRIMARY KEY, serial var
   CREATE UNLOGGED TABLE bench_raw_parts (slot int PRIMARY KEY, item_id int NOT NULL, serial varchar(24) NOT NULL);
   CREATE SEQUENCE bench_raw_seq;`);
 
-const apiPoolSize = Math.ceil(WRITE_RATES.reduce((a, b) => a + b, 0) * SECONDS * 1.15 + 600 * SECONDS + 500);
-const rawPoolSize = 4_000;
+// enough parts for every step, the flat-out run (well under 150/s here) and the probes
+const apiPoolSize = Math.ceil(WRITE_RATES.reduce((a, b) => a + b, 0) * SECONDS * 1.15 + 150 * SECONDS + 500);
+const rawPoolSize = 2_000;
 const seeding: { phase: string; seconds: number; counts: Record<string, string> }[] = [];
 let t = Date.now();
 const tenth = Math.round(UNITS / 10);

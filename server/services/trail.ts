@@ -2,7 +2,7 @@ import { Op, QueryTypes, type Sequelize } from 'sequelize';
 import type { LotLookupJson, TrailJson, TrailNcr, TrailNode, TrailResult } from '../../shared/schemas/build.js';
 import type { NcrState } from '../../shared/schemas/ncr.js';
 import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.js';
-import { Item, NonconformanceTransition, Shipment, Signature, StageResult } from '../models/index.js';
+import { Item, Shipment, Signature, StageResult } from '../models/index.js';
 import { findBySerial, presentItem, type KnownLink } from './items.js';
 import { referenceData } from './reference-cache.js';
 import { presentShipment } from './release.js';
@@ -22,20 +22,36 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
   // every item linked to this one, up to a core's parts' units and a unit's parts' cores: the links
   // are gathered as the walk follows them (index scans only), never by scanning item_links for
   // links among the items found, which grew with the plant's history
-  const links = await sequelize.query<Link>(
-    `WITH RECURSIVE g(id, depth, link_id, parent_item_id, child_item_id, link_type) AS (
-       SELECT :id::int, 0, NULL::int, NULL::int, NULL::int, NULL::varchar
-       UNION
-       SELECT CASE WHEN l.parent_item_id = g.id THEN l.child_item_id ELSE l.parent_item_id END, g.depth + 1,
-              l.id, l.parent_item_id, l.child_item_id, l.link_type
-         FROM item_links l JOIN g ON (l.parent_item_id = g.id OR l.child_item_id = g.id)
-        WHERE l.removed_at IS NULL AND g.depth < 2
-     )
-     SELECT DISTINCT link_id AS id, parent_item_id, child_item_id, link_type FROM g WHERE link_type IS NOT NULL`,
-    { type: QueryTypes.SELECT, replacements: { id: item.id } },
-  );
+  const walkFrom = (id: number) =>
+    sequelize.query<Link>(
+      `WITH RECURSIVE g(id, depth, link_id, parent_item_id, child_item_id, link_type) AS (
+         SELECT :id::int, 0, NULL::int, NULL::int, NULL::int, NULL::varchar
+         UNION
+         SELECT CASE WHEN l.parent_item_id = g.id THEN l.child_item_id ELSE l.parent_item_id END, g.depth + 1,
+                l.id, l.parent_item_id, l.child_item_id, l.link_type
+           FROM item_links l JOIN g ON (l.parent_item_id = g.id OR l.child_item_id = g.id)
+          WHERE l.removed_at IS NULL AND g.depth < 2
+       )
+       SELECT DISTINCT link_id AS id, parent_item_id, child_item_id, link_type FROM g WHERE link_type IS NOT NULL`,
+      { type: QueryTypes.SELECT, replacements: { id } },
+    );
+  let links = await walkFrom(item.id);
+  // a part in a unit: the tree is the unit's, whose other parts may come from other cores — three
+  // links away from this part, so the walk starts again from the unit
+  const fitted = links.find((l) => l.link_type === 'installed_in' && l.child_item_id === item.id);
+  if (item.kind !== 'long_block' && fitted) links = await walkFrom(fitted.parent_item_id);
   const ids = [...new Set([item.id, ...links.flatMap((l) => [l.parent_item_id, l.child_item_id])])];
-  const items = await Item.findAll({ where: { id: { [Op.in]: ids } } });
+  // the items and every result among them at once; results outside the tree are dropped below
+  const [items, allResults] = await Promise.all([
+    Item.findAll({ where: { id: { [Op.in]: ids } } }),
+    StageResult.findAll({
+      where: { itemId: { [Op.in]: ids } },
+      order: [
+        ['finishedAt', 'ASC'],
+        ['id', 'ASC'],
+      ],
+    }),
+  ]);
   const byId = new Map(items.map((i) => [i.id, i]));
   const familyById = new Map(ref.families.map((f) => [f.id, f]));
 
@@ -91,16 +107,12 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
   };
   walk(tree);
   const scope = [...treeIds];
-  const results = await StageResult.findAll({
-    where: { itemId: { [Op.in]: scope } },
-    order: [
-      ['finishedAt', 'ASC'],
-      ['id', 'ASC'],
-    ],
-  });
+  const results = allResults.filter((r) => treeIds.has(r.itemId));
   const top = byId.get(unitId ?? item.id)!;
-  const [ncrs, lots, shipment] = await Promise.all([
-    sequelize.query<{
+  // everything else at once: the records around the results, NCRs (then their timelines), lots,
+  // the shipment, and the item's own card
+  const ncrsWithSteps = sequelize
+    .query<{
       id: number;
       number: string;
       item_id: number | null;
@@ -119,7 +131,34 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
            OR n.part_lot_id IN (SELECT part_lot_id FROM unit_lots WHERE unit_item_id = :top)
         ORDER BY n.created_at, n.id`,
       { type: QueryTypes.SELECT, replacements: { scope, top: top.id } },
-    ),
+    )
+    .then(async (ncrs) => {
+      const ncrIds = ncrs.map((n) => n.id);
+      if (!ncrIds.length) return { ncrs, transitions: [], signatures: [] };
+      const [transitions, signatures] = await Promise.all([
+        sequelize.query<{
+          nonconformance_id: number;
+          created_at: Date;
+          from_state: NcrState | null;
+          to_state: NcrState;
+          actor: string;
+          reason: string;
+        }>(
+          `SELECT t.nonconformance_id, t.created_at, t.from_state, t.to_state, u.name AS actor, t.reason
+             FROM nonconformance_transitions t JOIN users u ON u.id = t.actor_id
+            WHERE t.nonconformance_id IN (:ncrIds) ORDER BY t.id`,
+          { type: QueryTypes.SELECT, replacements: { ncrIds } },
+        ),
+        Signature.findAll({
+          where: { entity: 'nonconformance', entityId: { [Op.in]: ncrs.map((n) => n.number) } },
+          order: [['id', 'ASC']],
+        }),
+      ]);
+      return { ncrs, transitions, signatures };
+    });
+  const [records, { ncrs, transitions, signatures }, lots, shipped, card] = await Promise.all([
+    loadResultRecords(results, items, { ref }),
+    ncrsWithSteps,
     sequelize.query<{
       kind: string;
       supplier: string;
@@ -133,24 +172,11 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
         WHERE ul.unit_item_id = :top ORDER BY ul.id`,
       { type: QueryTypes.SELECT, replacements: { top: top.id } },
     ),
-    Shipment.findOne({ where: { unitItemId: top.id }, order: [['id', 'DESC']] }),
+    Shipment.findOne({ where: { unitItemId: top.id }, order: [['id', 'DESC']] }).then((s) =>
+      s ? presentShipment(s) : null,
+    ),
+    presentItem(item, { ref, genealogy: { links, items } }),
   ]);
-  const ncrIds = ncrs.map((n) => n.id);
-  const [transitions, signatures] = await Promise.all([
-    ncrIds.length
-      ? NonconformanceTransition.findAll({ where: { nonconformanceId: { [Op.in]: ncrIds } }, order: [['id', 'ASC']] })
-      : [],
-    ncrIds.length
-      ? Signature.findAll({
-          where: { entity: 'nonconformance', entityId: { [Op.in]: ncrs.map((n) => n.number) } },
-          order: [['id', 'ASC']],
-        })
-      : [],
-  ]);
-  const records = await loadResultRecords(results, items, {
-    userIds: transitions.map((t) => t.actorId),
-    ref,
-  });
 
   const trailResults: TrailResult[] = results.map((r) => {
     const stage = records.stage(r);
@@ -182,21 +208,20 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
     dispositionReason: n.disposition_reason,
     raisedAt: new Date(n.created_at).toISOString(),
     timeline: transitions
-      .filter((t) => t.nonconformanceId === n.id)
+      .filter((t) => t.nonconformance_id === n.id)
       .map((t) => ({
-        at: t.createdAt.toISOString(),
-        from: t.fromState,
-        to: t.toState,
-        actor: records.name(t.actorId),
+        at: new Date(t.created_at).toISOString(),
+        from: t.from_state,
+        to: t.to_state,
+        actor: t.actor,
         reason: t.reason,
       })),
     signatures: signatures
       .filter((s) => s.entityId === n.number)
       .map((s) => ({ printedName: s.printedName, meaning: s.meaning, signedAt: s.signedAt.toISOString() })),
   }));
-  const shipped = shipment ? await presentShipment(shipment) : null;
   return {
-    item: await presentItem(item, { ref, genealogy: { links, items } }),
+    item: card,
     tree,
     lots: lots.map((l) => ({
       kind: l.kind,

@@ -311,6 +311,30 @@ describe('release, trail and lots', () => {
     expect(refused.status).toBe(403);
   });
 
+  it('when a unit is built from the parts of two cores, then the trail of any of its parts shows both cores', async () => {
+    const a = await finishedParts(t, cookies, 'TARN-6');
+    const b = await finishedParts(t, cookies, 'TARN-6');
+    const built = await build({
+      family: 'TARN-6',
+      block: a.block,
+      crankshaft: b.crankshaft,
+      heads: b.heads,
+      lots: await lotsFor(0.0197, unique('MIX')),
+    });
+    expect(built.status).toBe(201);
+    for (const serial of [b.crankshaft, a.block, built.body.serial as string]) {
+      const trail = await request(t.app).get(`/api/trail/${serial}`).set('Cookie', warranty);
+      expect(trail.status).toBe(200);
+      expect(trail.body.tree.serial).toBe(built.body.serial);
+      const coreOf = (part: string) =>
+        trail.body.tree.children.find((c: { serial: string }) => c.serial === part)?.children[0]?.serial;
+      expect(coreOf(a.block)).toBe(a.core);
+      expect(coreOf(b.crankshaft)).toBe(b.core);
+      const recorded = new Set(trail.body.results.map((r: { serial: string }) => r.serial));
+      expect([a.block, b.crankshaft, ...b.heads].every((p) => recorded.has(p))).toBe(true);
+    }
+  });
+
   it('says in words what blocks a unit, with links', async () => {
     const parts = await finishedParts(t, cookies, 'TARN-6');
     const built = await build({
