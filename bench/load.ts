@@ -1,16 +1,7 @@
 import autocannon from 'autocannon';
-import { summarize, type Latency } from './stats.js';
+import { summarize, type Run } from './stats.js';
 
-export type HttpRun = {
-  target: number | null;
-  /** Requests sent (at a fixed rate: as many as fell due). */
-  sent: number;
-  achieved: number;
-  ok: number;
-  errors: number;
-  latency: Latency;
-  statuses: Record<string, number>;
-};
+export type HttpRun = Run & { statuses: Record<string, number> };
 
 export type Req = { method: 'GET' | 'POST'; path: string; body?: string; headers?: Record<string, string> };
 

@@ -113,7 +113,7 @@ export async function measureNcrList(c: Ctx, rate: number) {
   return readBoth(
     c,
     rate,
-    { cookie: c.cookies.quality, path: () => `/api/ncrs?${NCR_FILTERS[i++ % NCR_FILTERS.length]!.query}` },
+    { cookie: c.cookies.quality, path: () => `/api/ncrs?${NCR_FILTERS[i++ % NCR_FILTERS.length]!}` },
     { scripts: ncrScripts() },
   );
 }

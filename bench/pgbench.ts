@@ -2,17 +2,9 @@ import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { summarize, type Latency } from './stats.js';
+import { summarize, type Run } from './stats.js';
 
-export type SqlRun = {
-  target: number | null;
-  /** Transactions due in the counted seconds (done + skipped for lagging too far). */
-  sent: number;
-  achieved: number;
-  ok: number;
-  errors: number;
-  latency: Latency;
-};
+export type SqlRun = Run;
 
 /**
  * Runs pgbench — PostgreSQL's own load driver — with our scripts against the same database: the

@@ -1,3 +1,7 @@
+import { ncrListQuery } from '../shared/schemas/ncr.js';
+import { ncrListSql } from '../server/services/nonconformances.js';
+import { LOT_LOOKUP_SQL } from '../server/services/trail.js';
+
 /**
  * The reads the warranty desk and quality make, as PostgreSQL alone answers them. The trail is one
  * statement that returns the same data as `GET /api/trail/:serial` — genealogy, items, every result
@@ -70,60 +74,32 @@ SELECT json_build_object(
              WHERE sh.unit_item_id IN (SELECT id FROM unit) ORDER BY sh.id DESC LIMIT 1));
 `;
 
-/** The lot lookup's own statement (server/services/trail.ts). */
+/** The lot lookup's own statement (server/services/trail.ts), the lot code drawn at random. */
 export const lotScript = (lots: number) => `\\set k random(1, ${lots})
-SELECT pl.id AS lot_id, pl.part_kind AS kind, s.name AS supplier, pl.part_number, pl.lot_code, pl.status,
-       i.serial, f.code AS family, i.status AS unit_status, ul.created_at AS installed_at,
-       to_char(sh.ship_date, 'YYYY-MM-DD') AS ship_date, c.name AS customer
-  FROM part_lots pl
-  JOIN suppliers s ON s.id = pl.supplier_id
-  LEFT JOIN unit_lots ul ON ul.part_lot_id = pl.id
-  LEFT JOIN items i ON i.id = ul.unit_item_id
-  LEFT JOIN engine_families f ON f.id = i.engine_family_id
-  LEFT JOIN shipments sh ON sh.unit_item_id = i.id AND sh.returned_at IS NULL
-  LEFT JOIN customers c ON c.id = sh.customer_id
- WHERE upper(pl.lot_code) = upper((SELECT lot_code FROM bench_lot_codes WHERE k = :k))
- ORDER BY pl.id, ul.created_at;
+${LOT_LOOKUP_SQL.replace(':lotCode', '(SELECT lot_code FROM bench_lot_codes WHERE k = :k)')};
 `;
 
-/** The NCR list's filters the benchmark exercises, as query strings for the API. */
-export const NCR_FILTERS: { name: string; query: string; where: string }[] = [
-  { name: 'open', query: 'state=open', where: "n.state IN ('raised','in_review','decided')" },
-  { name: 'closed-major', query: 'state=closed&severity=major', where: "n.state = 'closed' AND n.severity = 'major'" },
-  {
-    name: 'stage-old',
-    query: 'stage=bore-hone&olderThanDays=365',
-    where: "s.code = 'bore-hone' AND n.created_at <= now() - make_interval(days => 365)",
-  },
-  { name: 'family', query: 'family=2&sort=number&dir=asc', where: 'i.engine_family_id = 2' },
+/** The NCR list's filters the benchmark exercises, as the API's query strings. */
+export const NCR_FILTERS = [
+  'state=open',
+  'state=closed&severity=major',
+  'stage=bore-hone&olderThanDays=365',
+  'family=2&sort=number&dir=asc',
 ];
 
-const NCR_FROM = `FROM nonconformances n
-    LEFT JOIN items i ON i.id = n.item_id
-    LEFT JOIN engine_families f ON f.id = i.engine_family_id
-    LEFT JOIN stages s ON s.id = n.stage_id
-    LEFT JOIN defect_codes d ON d.id = n.defect_code_id
-    LEFT JOIN part_lots pl ON pl.id = n.part_lot_id
-    JOIN users ru ON ru.id = n.raised_by_id
-    LEFT JOIN users au ON au.id = n.assignee_id`;
+/** A replacement as a SQL literal (the filters above use numbers and plain words only). */
+const literal = (v: unknown) => (typeof v === 'number' ? String(v) : `'${String(v).replace(/'/g, "''")}'`);
 
-/** The NCR list's two statements (server/services/nonconformances.ts listNcrs), one script per filter. */
+/** The NCR list's two statements (server/services/nonconformances.ts ncrListSql), one script per filter. */
 export function ncrScripts(): Record<string, string> {
   const out: Record<string, string> = {};
-  for (const f of NCR_FILTERS) {
-    const order = f.query.includes('sort=number')
-      ? 'n.number ASC NULLS LAST, n.id ASC'
-      : 'n.created_at DESC NULLS LAST, n.id DESC';
-    out[`ncr-${f.name}.sql@1`] = `SELECT n.number, n.state, n.severity, pl.lot_code AS "lotCode",
-       n.awaiting_second_signature AS "awaitingSecondSignature", n.assignee_id AS "assigneeId",
-       i.serial, i.kind AS "itemKind", f.code AS "familyCode",
-       s.code AS "stageCode", s.name AS "stageName", d.code AS "defectCode", n.description,
-       n.disposition, ru.name AS "raisedBy", au.name AS assignee,
-       to_char(n.created_at AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') AS "raisedAt",
-       (extract(epoch FROM now() - n.created_at) / 86400)::int AS "ageDays"
-  ${NCR_FROM} WHERE ${f.where} ORDER BY ${order} LIMIT 50 OFFSET 0;
-SELECT count(*)::int AS n ${NCR_FROM} WHERE ${f.where};
-`;
-  }
+  NCR_FILTERS.forEach((query, i) => {
+    const sql = ncrListSql(ncrListQuery.parse(Object.fromEntries(new URLSearchParams(query))));
+    const inline = (text: string) =>
+      text.replace(/:([a-z]+)\b/g, (m, name: string) =>
+        name in sql.replacements ? literal(sql.replacements[name as keyof typeof sql.replacements]) : m,
+      );
+    out[`ncr-${i + 1}.sql@1`] = `${inline(sql.rows)};\n${inline(sql.count)};\n`;
+  });
   return out;
 }

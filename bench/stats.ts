@@ -21,4 +21,15 @@ export function summarize(samples: number[]): Latency {
   };
 }
 
+/** One measured run at a fixed rate (`target`) or flat out (`target` null). */
+export type Run = {
+  target: number | null;
+  /** Requests or transactions that fell due (at a fixed rate) or were sent (flat out). */
+  sent: number;
+  achieved: number;
+  ok: number;
+  errors: number;
+  latency: Latency;
+};
+
 export const round = (x: number, digits = 1) => (Number.isFinite(x) ? Number(x.toFixed(digits)) : null);

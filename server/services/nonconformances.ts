@@ -287,8 +287,8 @@ const SORT: Record<NcrListQuery['sort'], string> = {
   serial: 'i.serial',
 };
 
-/** The NCR list: filtered, sorted and paged in SQL. */
-export async function listNcrs(sequelize: Sequelize, q: NcrListQuery, { all = false } = {}) {
+/** The NCR list's two statements for a query, with their replacements; the benchmark runs them too. */
+export function ncrListSql(q: NcrListQuery, { all = false } = {}) {
   const where: string[] = [];
   const r: Record<string, unknown> = {};
   const add = (sql: string, key?: string, value?: unknown) => {
@@ -322,9 +322,8 @@ export async function listNcrs(sequelize: Sequelize, q: NcrListQuery, { all = fa
     JOIN users ru ON ru.id = n.raised_by_id
     LEFT JOIN users au ON au.id = n.assignee_id`;
   const dir = q.dir === 'asc' ? 'ASC' : 'DESC';
-  const [rows, [count]] = await Promise.all([
-    sequelize.query<NcrRow>(
-      `SELECT n.number, n.state, n.severity, pl.lot_code AS "lotCode",
+  return {
+    rows: `SELECT n.number, n.state, n.severity, pl.lot_code AS "lotCode",
               n.awaiting_second_signature AS "awaitingSecondSignature", n.assignee_id AS "assigneeId",
               i.serial, i.kind AS "itemKind", f.code AS "familyCode",
               s.code AS "stageCode", s.name AS "stageName", d.code AS "defectCode", n.description,
@@ -333,12 +332,17 @@ export async function listNcrs(sequelize: Sequelize, q: NcrListQuery, { all = fa
               (extract(epoch FROM now() - n.created_at) / 86400)::int AS "ageDays"
          ${from} ${filter} ORDER BY ${SORT[q.sort]} ${dir}${q.sort === 'serial' ? ' NULLS LAST' : ''}, n.id ${dir}
          ${all ? '' : 'LIMIT :limit OFFSET :offset'}`,
-      { type: QueryTypes.SELECT, replacements: { ...r, limit: q.pageSize, offset: (q.page - 1) * q.pageSize } },
-    ),
-    sequelize.query<{ n: number }>(`SELECT count(*)::int AS n ${from} ${filter}`, {
-      type: QueryTypes.SELECT,
-      replacements: r,
-    }),
+    count: `SELECT count(*)::int AS n ${from} ${filter}`,
+    replacements: { ...r, limit: q.pageSize, offset: (q.page - 1) * q.pageSize },
+  };
+}
+
+/** The NCR list: filtered, sorted and paged in SQL. */
+export async function listNcrs(sequelize: Sequelize, q: NcrListQuery, { all = false } = {}) {
+  const sql = ncrListSql(q, { all });
+  const [rows, [count]] = await Promise.all([
+    sequelize.query<NcrRow>(sql.rows, { type: QueryTypes.SELECT, replacements: sql.replacements }),
+    sequelize.query<{ n: number }>(sql.count, { type: QueryTypes.SELECT, replacements: sql.replacements }),
   ]);
   return { rows, total: count?.n ?? 0, page: q.page, pageSize: q.pageSize };
 }
