@@ -12,7 +12,10 @@ export type BundleRow = {
   files: number;
   rawBytes: number;
   gzipBytes: number;
-  /** Chunks the route can pull in later on a tap (the camera reader), not counted above. */
+  /**
+   * Chunks the route pulls in after its first screen (the camera reader on a tap, the station's
+   * part form once a station is chosen), not counted above.
+   */
   onDemand?: OnDemandChunks[];
 };
 
@@ -32,8 +35,8 @@ const ROOT = fileURLToPath(new URL('..', import.meta.url));
 
 /**
  * The page module behind each main route, as src/router.tsx names it. A module with no chunk of its
- * own in the manifest is rendered by the entry (router.tsx imports it statically), so the route
- * costs the entry alone; that is how sign-in and home are built today.
+ * own in the manifest would be rendered by the entry (router.tsx importing it statically), so the
+ * route would cost the entry alone.
  */
 const ROUTES: { route: string; path: string; module: string }[] = [
   { route: 'sign-in', path: paths.signIn, module: 'src/routes/sign-in/sign-in-page.tsx' },
@@ -49,8 +52,8 @@ const ROUTES: { route: string; path: string; module: string }[] = [
   { route: 'spec-book', path: paths.specBook, module: 'src/routes/spec/spec-book-page.tsx' },
 ];
 
-// Level 9, as for files compressed once at build or deploy time. Compression middleware usually
-// runs at zlib's default 6, a few per cent larger; the demo server sends these files uncompressed.
+// Level 9, as for files compressed once at build or deploy time. The server's compression
+// middleware runs at zlib's default 6, a few per cent larger.
 const GZIP_LEVEL = 9;
 
 /** Per route: entry chunk + the route's chunk + everything they import statically, each file once. */
@@ -93,18 +96,15 @@ export async function measureBundles(distDir: string): Promise<BundleRow[]> {
     const own = manifest[r.module]?.isDynamicEntry ? [r.module] : [];
     const loaded = chunksFrom(manifest, [entry, ...own]);
     const onDemand: OnDemandChunks[] = [];
-    for (const d of onDemandOf(manifest, loaded)) {
-      onDemand.push({ module: d, ...(await sum(chunksFrom(manifest, [d], loaded))) });
-    }
+    for (const d of onDemandOf(manifest, entry, loaded)) onDemand.push({ module: d.module, ...(await sum(d.chunks)) });
     rows.push({ route: r.route, path: r.path, ...(await sum(loaded)), onDemand });
   }
   return rows;
 }
 
 /**
- * The chunks reached through static imports. Given the chunks a page already has, it is walking
- * what a tap pulls in: lazy imports count too, and what is already loaded is neither counted nor
- * walked (the entry's lazy imports are the other routes).
+ * The chunks reached through static imports, leaving out (and not walking) those a page already
+ * has. Lazy imports are chunks of their own, measured one by one.
  */
 function chunksFrom(manifest: Manifest, start: string[], loaded?: Set<string>): Set<string> {
   const seen = new Set<string>();
@@ -115,22 +115,29 @@ function chunksFrom(manifest: Manifest, start: string[], loaded?: Set<string>): 
     if (!chunk.file.endsWith('.js')) return;
     seen.add(key);
     for (const i of chunk.imports ?? []) walk(i);
-    if (loaded) for (const i of chunk.dynamicImports ?? []) walk(i);
   };
   start.forEach(walk);
   return seen;
 }
 
 /**
- * Lazy imports the loaded chunks can trigger without leaving the page. Other routes' pages are
- * lazy imports of the entry too, but they load on navigation, so they are left out.
+ * Lazy imports the page can trigger without leaving it, and theirs in turn (the camera reader's own
+ * library, the station form's re-entry dialog), each with the chunks it adds to what is loaded by
+ * then. The entry's lazy imports are the router's pages, which load on navigation: left out.
  */
-function onDemandOf(manifest: Manifest, loaded: Set<string>): string[] {
-  const found = new Set<string>();
-  for (const k of loaded) {
-    for (const d of manifest[k]!.dynamicImports ?? []) {
-      if (!loaded.has(d) && !d.startsWith('src/routes/')) found.add(d);
+function onDemandOf(manifest: Manifest, entry: string, loaded: Set<string>): { module: string; chunks: Set<string> }[] {
+  const routes = new Set(manifest[entry]!.dynamicImports ?? []);
+  const found: { module: string; chunks: Set<string> }[] = [];
+  const look = (from: Set<string>, have: Set<string>) => {
+    for (const k of from) {
+      for (const d of manifest[k]!.dynamicImports ?? []) {
+        if (have.has(d) || routes.has(d) || found.some((f) => f.module === d)) continue;
+        const chunks = chunksFrom(manifest, [d], have);
+        found.push({ module: d, chunks });
+        look(chunks, new Set([...have, ...chunks]));
+      }
     }
-  }
-  return [...found].sort();
+  };
+  look(loaded, loaded);
+  return found;
 }

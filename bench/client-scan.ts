@@ -9,7 +9,7 @@ export type ScanOptions = {
   station: string;
   /**
    * Parts waiting at that station, in the printed form (BK-CDEH-6VCP); one sample each. The first
-   * is also the warm-up scan, so it is measured last, at least 31 s after the warm-up.
+   * is also the warm-up scan, so it is measured last.
    */
   serials: string[];
   chromiumPath?: string;
@@ -35,10 +35,6 @@ const CHROMIUM_ARGS = [
 ];
 
 const SCAN_TIMEOUT_MS = 15_000;
-// The client keeps an item lookup fresh for 30 s (query-client.ts staleTime) and a station form
-// for 5 s: the same serial scanned again sooner is answered from memory, which no real next part
-// is. A repeated serial therefore waits this long after its previous scan.
-const CLIENT_CACHE_MS = 31_000;
 
 /**
  * Scan-to-form on the station screen, timed inside the page: from the Enter keydown a hand
@@ -64,13 +60,12 @@ export async function measureScanToForm(opts: ScanOptions): Promise<ScanStats> {
     try {
       await signIn(page, base, opts.email, opts.password);
       await openStation(page, base, opts.station);
-      const lastScan = new Map<string, number>();
-      await scanOnce(page, first, lastScan); // warm-up: first fetch of the form code paths, not counted
-      // the warm-up serial goes last, so it is least likely to have to wait out the client cache
+      await scanOnce(page, first); // warm-up: first fetch of the form code paths, not counted
+      // a scan asks the server afresh (station-page.tsx), so the warm-up serial can be measured again, last
       const order = [...opts.serials.slice(1), first];
       const samples: number[] = [];
       for (const serial of order) {
-        const r = await scanOnce(page, serial, lastScan);
+        const r = await scanOnce(page, serial);
         if (samples.length === 0 && opts.screenshot) await page.screenshot({ path: opts.screenshot, fullPage: true });
         samples.push(r.paintMs);
         opts.onSample?.({ serial, ...r });
@@ -110,10 +105,8 @@ async function openStation(page: Page, base: string, station: string) {
   await page.getByRole('textbox', { name: 'Serial' }).waitFor();
 }
 
-async function scanOnce(page: Page, serial: string, lastScan: Map<string, number>): Promise<ProbeResult> {
+async function scanOnce(page: Page, serial: string): Promise<ProbeResult> {
   await emptyScanBox(page);
-  const wait = (lastScan.get(serial) ?? -Infinity) + CLIENT_CACHE_MS - Date.now();
-  if (wait > 0) await new Promise((r) => setTimeout(r, wait));
   await settle(page);
   await page.evaluate(armProbe, { serial, timeoutMs: SCAN_TIMEOUT_MS });
   // a keyboard-wedge scanner types the characters, then presses Enter
@@ -124,7 +117,6 @@ async function scanOnce(page: Page, serial: string, lastScan: Map<string, number
     const said = err instanceof Error ? (err.message.split('\n')[0] ?? '') : String(err);
     throw new Error(said.replace(/^page\.evaluate: Error: /, ''), { cause: err });
   });
-  lastScan.set(serial, Date.now());
   return result;
 }
 

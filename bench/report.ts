@@ -25,6 +25,16 @@ export type Figures = {
 
 const P99_TARGET_MS = 50;
 
+const STATION_FORM = 'src/routes/station/part-at-station.tsx';
+const formChunk = (b: BundleRow) => b.onDemand?.find((d) => d.module === STATION_FORM)?.gzipBytes ?? 0;
+const short = (module: string) =>
+  module.startsWith('node_modules/')
+    ? module.split('/')[1]!
+    : module
+        .split('/')
+        .at(-1)!
+        .replace(/\.tsx?$/, '');
+
 /** The figures the targets are stated in, worked out once for the table and the JSON alike. */
 export function verdicts(f: Figures) {
   const flat = f.write.steps.find((s) => s.rate === null)!;
@@ -54,6 +64,8 @@ export function verdicts(f: Figures) {
     lotRatio: f.lots.api.latency.p95 / f.lots.raw.latency.p95,
     ncrRatio: f.ncrs.api.latency.p95 / f.ncrs.raw.latency.p95,
     stationKb: station ? station.gzipBytes / 1024 : NaN,
+    // the part's form is fetched as soon as a station is chosen, before any scan: the route loads it
+    stationFormKb: station ? (station.gzipBytes + formChunk(station)) / 1024 : NaN,
     scanP95: f.client.scan.p95,
   };
 }
@@ -121,12 +133,13 @@ export function printReport(f: Figures) {
   out.push('\nClient: JavaScript a cold load fetches per route (gzip)');
   out.push(
     table(
-      ['route', 'files', 'raw', 'gzip'],
+      ['route', 'files', 'raw', 'gzip', 'later, gzip'],
       f.client.bundles.map((b) => [
         b.route,
         `${b.files}`,
         `${round(b.rawBytes / 1024, 1)} KB`,
         `${round(b.gzipBytes / 1024, 1)} KB`,
+        (b.onDemand ?? []).map((d) => `${short(d.module)} ${round(d.gzipBytes / 1024, 1)}`).join(', '),
       ]),
     ),
   );
@@ -154,7 +167,12 @@ export function printReport(f: Figures) {
           '≤ 1.5 ×',
           ok(v.trailGrowth <= 1.5),
         ],
-        ['station route JavaScript', `${round(v.stationKb, 1)} KB gzip`, '≤ 150 KB', ok(v.stationKb <= 150)],
+        [
+          'station route JavaScript, with the part form',
+          `${round(v.stationFormKb, 1)} KB gzip (first screen ${round(v.stationKb, 1)} KB)`,
+          '≤ 150 KB',
+          ok(v.stationFormKb <= 150),
+        ],
         [
           'scan to form ready (p95)',
           `${ms(v.scanP95)} (p50 ${ms(f.client.scan.p50)})`,

@@ -1,5 +1,6 @@
 import fs from 'node:fs';
 import path from 'node:path';
+import compression from 'compression';
 import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
@@ -118,6 +119,8 @@ export function createApp({
 
   const clientDir = config.CLIENT_DIR;
   if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
+    // the client's files only: /api replies end in the router above, so none is compressed here
+    app.use(compression());
     app.use(express.static(clientDir, { index: false, maxAge: '1h', immutable: false }));
     const indexHtml = path.join(clientDir, 'index.html');
     app.get(/^\/(?!api\/).*/, (_req, res) => {

@@ -1,24 +1,24 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { createBrowserRouter, type RouteObject } from 'react-router';
 import { paths } from './lib/paths';
-import { AccountPage } from './routes/account/account-page';
 import { AppLayout, layoutLoader } from './routes/app/layout';
 import { NotFoundPage, RootError, RouteError } from './routes/errors/error-page';
-import { HomePage } from './routes/home/home-page';
 import { LoadingScreen } from './routes/app/loading-screen';
-import { SignInPage, signInLoader } from './routes/sign-in/sign-in-page';
 
 /**
  * Loaders fill the query cache with the same queryOptions the pages read, so nothing waterfalls.
- * Each area loads its code on first visit: a floor tablet never downloads the admin screens, and
- * the office never downloads the camera reader.
+ * Each page, sign-in and home included, loads its code on first visit: a floor tablet opening the
+ * station screen never downloads the admin screens or the form library the sign-in form is built
+ * on, and the office never downloads the camera reader.
  */
 export function appRoutes(queryClient: QueryClient): RouteObject[] {
   return [
     {
       path: paths.signIn,
-      element: <SignInPage />,
-      loader: signInLoader(queryClient),
+      lazy: async () => {
+        const m = await import('./routes/sign-in/sign-in-page');
+        return { Component: m.SignInPage, loader: m.signInLoader(queryClient) };
+      },
       errorElement: <RootError />,
       hydrateFallbackElement: <LoadingScreen />,
     },
@@ -32,8 +32,14 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
         {
           errorElement: <RouteError />,
           children: [
-            { index: true, element: <HomePage /> },
-            { path: paths.account, element: <AccountPage /> },
+            {
+              index: true,
+              lazy: async () => ({ Component: (await import('./routes/home/home-page')).HomePage }),
+            },
+            {
+              path: paths.account,
+              lazy: async () => ({ Component: (await import('./routes/account/account-page')).AccountPage }),
+            },
             {
               path: paths.people,
               lazy: async () => {

@@ -22,6 +22,11 @@ const FULL_LENGTH = 10;
 type ScanBoxProps = {
   /** Called with the item once a well-formed serial has been found on the server. */
   onItem: (item: ItemJson) => void;
+  /**
+   * How the server is asked about a checked serial; the item lookup unless a page has one request
+   * that answers for the item as well (the station's form), so a scan costs one round trip.
+   */
+  lookup?: (serial: string) => Promise<ItemJson>;
   /** Show what was found under the box (pages that move on at once can leave it off). */
   preview?: boolean;
   autoFocus?: boolean;
@@ -35,7 +40,7 @@ type ScanBoxProps = {
  * presses Enter) or read by the camera. The check character is verified as the serial is typed, so
  * a slip is caught at the dock, and a serial that cannot exist is never sent to the server.
  */
-export function ScanBox({ onItem, preview = true, autoFocus = false, hint, initial = '' }: ScanBoxProps) {
+export function ScanBox({ onItem, lookup, preview = true, autoFocus = false, hint, initial = '' }: ScanBoxProps) {
   const id = useId();
   const input = useRef<HTMLInputElement>(null);
   const queryClient = useQueryClient();
@@ -63,7 +68,7 @@ export function ScanBox({ onItem, preview = true, autoFocus = false, hint, initi
     setLooking(parsed.serial);
     setFailure(null);
     try {
-      const item = await queryClient.fetchQuery(itemQueryOptions(parsed.serial));
+      const item = await (lookup ? lookup(parsed.serial) : queryClient.fetchQuery(itemQueryOptions(parsed.serial)));
       setFound(item.serial);
       onItem(item);
     } catch (err) {

@@ -1,3 +1,4 @@
+import { randomInt } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import AxeBuilder from '@axe-core/playwright';
@@ -5,6 +6,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_USERS } from '../../db/seeders/plant.js';
 import { Item, Nonconformance } from '../../server/models/index.js';
+import { makeSerial } from '../../shared/domain/serial.js';
 import { cookieFor, makeUser } from '../support/app.js';
 import { launch, serveApp, signIn, type Served } from '../support/browser.js';
 import { formFor, passThrough, tornDownCore } from '../support/parts.js';
@@ -73,6 +75,12 @@ describe('the station screen on a tablet', () => {
     await page.getByRole('heading', { level: 1, name: 'Bore and hone cell' }).waitFor();
 
     await scan(page, bad);
+    // the form opens on its first reading, focused and in view at 1024×768: the next touch is a reading
+    const first = page.getByRole('textbox', { name: 'Cylinder bore diameter, Cylinder 1, top, thrust' });
+    await expect(first.evaluate((el) => el === document.activeElement)).resolves.toBe(true);
+    const at = (await first.boundingBox())!;
+    expect(at.y).toBeGreaterThanOrEqual(0);
+    expect(at.y + at.height).toBeLessThanOrEqual(768);
     // the hazard caution defers to the plant's own procedures
     await expect(page.getByText(/Rotating cutters and hones/).isVisible()).resolves.toBe(true);
     await typeBores(page, { position: 'Cylinder 6, middle, thrust', value: '4.0309' });
@@ -101,7 +109,17 @@ describe('the station screen on a tablet', () => {
     await expect(verdict.getByText(ncr.number).first().isVisible()).resolves.toBe(true);
 
     await page.getByRole('button', { name: 'Next part' }).click();
+    await page.getByRole('textbox', { name: 'Serial' }).waitFor();
+    // one request answers a scan: the part's form, which names the item too (no item lookup first)
+    const asked: string[] = [];
+    const onRequest = (r: { url: () => string }) => {
+      const u = new URL(r.url());
+      if (u.pathname.startsWith('/api/')) asked.push(u.pathname);
+    };
+    page.on('request', onRequest);
     await scan(page, good);
+    page.off('request', onRequest);
+    expect(asked).toEqual(['/api/stations/BH-1/form']);
     await typeBores(page);
     await page.getByRole('button', { name: 'Record result' }).click();
     const passed = page.getByRole('status').filter({ has: page.getByRole('heading', { level: 2, name: 'Passed' }) });
@@ -121,6 +139,17 @@ describe('the station screen on a tablet', () => {
     await page.getByLabel('Station', { exact: true }).selectOption('BH-1');
     await page.getByRole('button', { name: 'Use this station' }).click();
     const box = page.getByRole('textbox', { name: 'Serial' });
+    // a well-formed serial that no item has is said under the box, and selected for the next scan
+    const nobody = makeSerial('block', randomInt);
+    await box.fill(nobody);
+    await box.press('Enter');
+    await page
+      .getByRole('alert')
+      .filter({ hasText: `No item has the serial ${nobody}` })
+      .waitFor();
+    await expect(box.evaluate((el: HTMLInputElement) => el.selectionEnd! - el.selectionStart!)).resolves.toBe(
+      nobody.length,
+    );
     await box.fill(parts.block);
     await box.press('Enter');
     const alert = page.getByRole('alert').filter({ hasText: 'its next stage is Block clean' });

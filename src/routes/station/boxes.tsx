@@ -4,7 +4,6 @@ import { Icon, type IconName } from '../../components/ui/icon';
 import { useFormState } from './form-state';
 import type { DerivedCell } from './layout';
 import {
-  formatValue,
   readingName,
   slotKey,
   standingOf,
@@ -13,6 +12,7 @@ import {
   type SlotValue,
   type Standing,
 } from './readings';
+import { formatValue } from './numbers';
 import { whereKey } from './submit';
 
 type Values = { slots: SlotValue[] };

@@ -25,6 +25,7 @@ import { sectionsOf } from './layout';
 import { ReadingSection } from './reading-section';
 import { judge, slotsOf } from './readings';
 import { RunTestImport } from './run-test-import';
+import { useFirstReading } from './use-first-reading';
 import type { RecordedResult } from './verdict-panel';
 import { ProblemSummary, Tally } from './form-summary';
 import {
@@ -80,6 +81,7 @@ export function ReadingForm({ form, idempotencyKey, startedAt, canRecord, onReco
   const topRef = useRef<HTMLDivElement>(null);
   const submitRef = useRef<HTMLButtonElement>(null);
   const rootRef = useRef<HTMLFormElement>(null);
+  const barRef = useRef<HTMLDivElement>(null);
 
   const problemMap = useMemo(
     () => Object.fromEntries(problems.filter((p) => !p.missing).map((p) => [p.key, p.message])),
@@ -95,6 +97,8 @@ export function ReadingForm({ form, idempotencyKey, startedAt, canRecord, onReco
   const unruled = form.characteristics.filter((c) => c.kind !== 'attribute' && !c.rule);
 
   const showTop = () => requestAnimationFrame(() => topRef.current?.focus());
+
+  useFirstReading(rootRef, barRef);
 
   const goTo = (key: string) => {
     const el = rootRef.current?.querySelector<HTMLElement>(`[data-key="${CSS.escape(key)}"]`);
@@ -270,7 +274,10 @@ export function ReadingForm({ form, idempotencyKey, startedAt, canRecord, onReco
               </div>
             </CardBody>
           </Card>
-          <div className="sticky bottom-0 z-10 flex flex-wrap items-center justify-between gap-x-6 gap-y-3 rounded-t-card border-2 border-b-0 border-ink bg-card px-5 py-3 shadow-[0_-4px_12px_rgba(29,33,36,0.12)]">
+          <div
+            ref={barRef}
+            className="sticky bottom-0 z-10 flex flex-wrap items-center justify-between gap-x-6 gap-y-3 rounded-t-card border-2 border-b-0 border-ink bg-card px-5 py-3 shadow-[0_-4px_12px_rgba(29,33,36,0.12)]"
+          >
             <Tally judged={judged} />
             <div className="flex flex-wrap items-center gap-3">
               {!canRecord && <p className="text-base text-ink-soft">Your role can see this form but not record it.</p>}

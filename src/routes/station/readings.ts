@@ -1,6 +1,7 @@
 import { evaluateForm, physicallyPossible, type Entries } from '../../../shared/domain/evaluate';
 import { limitsOf } from '../../../shared/domain/tolerance';
 import type { EvaluatedReading, FormCharacteristic, Position } from '../../api/station/types';
+import { formatValue } from './numbers';
 
 /**
  * The station form's own arithmetic, apart from its screens: which boxes the operator fills, what
@@ -48,20 +49,6 @@ export function readTyped(char: FormCharacteristic, text: string): Typed {
   const value = Number(t.replace(',', '.'));
   if (!Number.isFinite(value)) return { state: 'not-a-number' };
   return physicallyPossible(char, value) ? { state: 'number', value } : { state: 'impossible', value };
-}
-
-/** Decimals a unit of the resolution needs: 0.0001 → 4, 0.5 → 1, 1 → 0. */
-export function decimalsOf(resolution: number | null | undefined): number | null {
-  if (!resolution || resolution <= 0) return null;
-  const s = String(resolution);
-  if (s.includes('e-')) return Number(s.split('e-')[1]);
-  return s.includes('.') ? s.split('.')[1]!.length : 0;
-}
-
-export function formatValue(value: number, resolution: number | null | undefined): string {
-  const d = decimalsOf(resolution);
-  const s = d === null ? String(value) : value.toFixed(d);
-  return s.replace('-', '−');
 }
 
 const withUnit = (s: string, unit: string | null) => (unit ? `${s} ${unit}` : s);

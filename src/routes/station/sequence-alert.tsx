@@ -1,15 +1,12 @@
-import { useEffect, useId, useRef, useState } from 'react';
-import { useFormContext } from 'react-hook-form';
-import { reentryBody } from '../../../shared/schemas/results';
-import { useAllowReentry } from '../../api/station/allow-reentry';
+import { lazy, Suspense, useEffect, useRef, useState } from 'react';
 import type { StationFormJson } from '../../api/station/types';
-import { Form, SubmitButton } from '../../components/form';
-import { describedBy, Field } from '../../components/ui/field';
 import { Button } from '../../components/ui/button';
-import { Dialog, DialogActions } from '../../components/ui/dialog';
 import { Icon } from '../../components/ui/icon';
-import { bigControl } from './controls';
 import { NcrNumber } from './ncr-number';
+
+// the dialog validates with the shared zod schema: loaded once a supervisor is offered the button
+const loadReentryDialog = () => import('./reentry-dialog');
+const ReentryDialog = lazy(() => loadReentryDialog().then((m) => ({ default: m.ReentryDialog })));
 
 type Blocked = Extract<StationFormJson['sequence'], { ok: false }>;
 
@@ -32,57 +29,6 @@ function reentryFits(form: StationFormJson, sequence: Blocked) {
   return form.item.route.find((s) => s.code === form.stage.code)?.state === 'done';
 }
 
-const REASON_HINT = 'Why the part goes through this stage again, e.g. a reading taken with the wrong gauge.';
-
-function ReasonField() {
-  const id = useId();
-  const { register, formState } = useFormContext<{ reason: string }>();
-  const error = formState.errors.reason?.message;
-  return (
-    <Field id={id} label="Reason" hint={REASON_HINT} error={error}>
-      <textarea
-        id={id}
-        autoFocus
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(id, REASON_HINT, error)}
-        className={`${bigControl} min-h-28 py-2`}
-        {...register('reason')}
-      />
-    </Field>
-  );
-}
-
-function ReentryDialog({ form, onClose, onDone }: { form: StationFormJson; onClose: () => void; onDone: () => void }) {
-  const allow = useAllowReentry();
-  return (
-    <Dialog
-      open
-      onClose={onClose}
-      title="Allow re-entry"
-      description={`${form.item.serial} goes back to ${form.stage.name}. The next result there carries your reason.`}
-    >
-      <div data-density="floor">
-        <Form
-          schema={reentryBody}
-          defaultValues={{ stage: form.stage.code, reason: '' }}
-          onSubmit={async (body) => {
-            await allow.mutateAsync({ serial: form.item.serial, body });
-            onDone();
-          }}
-        >
-          <ReasonField />
-          <DialogActions>
-            <Button size="lg" onClick={onClose}>
-              Cancel
-            </Button>
-            <SubmitButton size="lg">Allow re-entry</SubmitButton>
-          </DialogActions>
-        </Form>
-      </div>
-    </Dialog>
-  );
-}
-
 type SequenceAlertProps = {
   form: StationFormJson;
   canAllowReentry: boolean;
@@ -99,8 +45,12 @@ export function SequenceAlert({ form, canAllowReentry, canReadNcr, onReentry }: 
   useEffect(() => {
     if (!form.sequence.ok) ref.current?.scrollIntoView({ block: 'center' });
   }, [form.sequence.ok, form.item.serial]);
+  const fits = !sequence.ok && reentryFits(form, sequence);
+  // fetched while the supervisor reads the alert, so the dialog opens at once on a tap
+  useEffect(() => {
+    if (fits && canAllowReentry) void loadReentryDialog();
+  }, [fits, canAllowReentry]);
   if (sequence.ok) return null;
-  const fits = reentryFits(form, sequence);
   const held = sequence.code === 'on_hold';
   return (
     <>
@@ -150,14 +100,16 @@ export function SequenceAlert({ form, canAllowReentry, canReadNcr, onReentry }: 
         </div>
       </div>
       {open && (
-        <ReentryDialog
-          form={form}
-          onClose={() => setOpen(false)}
-          onDone={() => {
-            setOpen(false);
-            onReentry();
-          }}
-        />
+        <Suspense fallback={null}>
+          <ReentryDialog
+            form={form}
+            onClose={() => setOpen(false)}
+            onDone={() => {
+              setOpen(false);
+              onReentry();
+            }}
+          />
+        </Suspense>
       )}
     </>
   );

@@ -1,6 +1,6 @@
-import type { QueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
-import type { LoaderFunctionArgs } from 'react-router';
+import { useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { lazy, Suspense, useEffect, useState } from 'react';
+import { useLocation, type LoaderFunctionArgs } from 'react-router';
 import { parseSerial } from '../../../shared/domain/serial';
 import { useSignedIn } from '../../api/auth/me';
 import { stationsQueryOptions, useStations } from '../../api/reference/stations';
@@ -10,12 +10,18 @@ import { ScanBox } from '../../components/scan-box';
 import { Button } from '../../components/ui/button';
 import { Card, CardBody } from '../../components/ui/card';
 import { Notice } from '../../components/ui/notice';
+import { ApiError } from '../../lib/http';
 import { requirePermission } from '../../lib/session';
 import { useUrlFilter } from '../../lib/use-url-filter';
-import { PartAtStation } from './part-at-station';
 import { StationChoice } from './station-choice';
 import { readTabletStation, recordingStations, useTabletStation } from './tablet-station';
 import { VerdictPanel, type RecordedResult } from './verdict-panel';
+
+// The part's form (react-hook-form, decimal.js, the evaluator) is not needed to show the screen and
+// wait for a scan, so it is not part of the first load; a scan (or a loader) waits for it only if it
+// has not arrived yet.
+const loadPartAtStation = () => import('./part-at-station');
+const PartAtStation = lazy(() => loadPartAtStation().then((m) => ({ default: m.PartAtStation })));
 
 export const stationLoader =
   (queryClient: QueryClient) =>
@@ -26,13 +32,14 @@ export const stationLoader =
     const parsed = parseSerial(new URL(request.url).searchParams.get('serial') ?? '');
     // a part that cannot be recorded here is said on the page, beside the scan box, not as an error page
     if (code && parsed.ok && recordingStations(stations).some((s) => s.code === code)) {
-      await queryClient.prefetchQuery(stationFormQueryOptions(code, parsed.serial));
+      await Promise.all([queryClient.prefetchQuery(stationFormQueryOptions(code, parsed.serial)), loadPartAtStation()]);
     }
     return null;
   };
 
 export function StationPage() {
   const me = useSignedIn();
+  const queryClient = useQueryClient();
   const stations = useStations();
   const [stored, store] = useTabletStation();
   const [changing, setChanging] = useState(false);
@@ -40,7 +47,12 @@ export function StationPage() {
   // after "Next part" the old serial is ignored at once, before the address has caught up
   const [cleared, setCleared] = useState<string | null>(null);
   const inAddress = params.get('serial') ?? '';
-  const raw = cleared !== null && cleared === inAddress ? '' : inAddress;
+  // A part just scanned shows at once, from the form its scan fetched, while the address catches
+  // up; only until the next navigation lands, whether that is the serial's or another the operator made.
+  const location = useLocation();
+  const [scanned, setScanned] = useState<{ serial: string; at: string } | null>(null);
+  const quick = scanned && scanned.at === location.key ? scanned.serial : null;
+  const raw = quick ?? (cleared !== null && cleared === inAddress ? '' : inAddress);
   const parsed = parseSerial(raw);
   const serial = parsed.ok ? parsed.serial : null;
   const recording = recordingStations(stations.data ?? []);
@@ -51,6 +63,11 @@ export function StationPage() {
   // each opening of a part's form is a new round, with a new idempotency key; a retry is not
   const [round, setRound] = useState(0);
   const [scanRound, setScanRound] = useState(0);
+  // asked for once the screen is up (never before its first paint), so no scan waits for it either
+  const code = station?.code;
+  useEffect(() => {
+    if (code) void loadPartAtStation();
+  }, [code]);
   if (!me) return null;
 
   const shown = result && result.serial === serial ? result : null;
@@ -60,6 +77,24 @@ export function StationPage() {
     setResult(null);
     setRound((r) => r + 1);
   };
+  // A scan asks for the part's form straight away: it names the item too (and is a 404 for an
+  // unknown serial), so the scan box needs no item lookup of its own first. Always afresh: whether
+  // the part is due here may have changed since the form was last asked for.
+  const lookForm = async (code: string, printed: string) => {
+    try {
+      const [found] = await Promise.all([
+        queryClient.fetchQuery({ ...stationFormQueryOptions(code, printed), staleTime: 0 }),
+        loadPartAtStation(),
+      ]);
+      return found.item;
+    } catch (err) {
+      // the form's 404 is the serial's, unless this station has gone meanwhile: then the screen offers the choice again
+      if (err instanceof ApiError && err.status === 404)
+        void queryClient.invalidateQueries({ queryKey: stationsQueryOptions().queryKey });
+      throw err;
+    }
+  };
+
   const nextPart = () => {
     openAgain();
     setCleared(inAddress);
@@ -119,14 +154,16 @@ export function StationPage() {
               </h2>
               <ScanBox
                 key={scanRound}
+                lookup={(printed) => lookForm(station.code, printed)}
                 onItem={(item) => {
                   setCleared(null);
                   setResult(null);
-                  if (item.serial === serial) {
-                    // the same part scanned again: ask the server afresh and start a new form
-                    setRound((r) => r + 1);
-                    void form.refetch();
-                  } else set('serial', item.serial);
+                  // the same part scanned again: its form was just asked afresh; start a new round of it
+                  if (item.serial === serial) setRound((r) => r + 1);
+                  else {
+                    setScanned({ serial: item.serial, at: location.key });
+                    set('serial', item.serial);
+                  }
                 }}
                 preview={false}
                 autoFocus={!serial}
@@ -135,33 +172,39 @@ export function StationPage() {
               />
             </CardBody>
           </Card>
-          {serial && form.isPending && (
-            <p role="status" className="text-lg text-ink-soft">
-              Loading what {station.name} records for {serial}…
-            </p>
-          )}
+          {serial && form.isPending && <LoadingPart station={station.name} serial={serial} />}
           {form.error && !form.data && (
             <Notice tone="bad" live="alert" title="This part's form could not be opened">
               {form.error.message}
             </Notice>
           )}
           {form.data && form.data.item.serial === serial && (
-            <PartAtStation
-              key={`${station.code}|${serial}|${round}`}
-              form={form.data}
-              canRecord={me.can('results.record')}
-              canAllowReentry={me.can('stage.reentry')}
-              canReadNcr={me.can('ncr.read')}
-              canRaiseConcern={me.can('ncr.raise')}
-              onRecorded={setResult}
-              onReload={() => {
-                openAgain();
-                void form.refetch();
-              }}
-            />
+            <Suspense fallback={<LoadingPart station={station.name} serial={serial} />}>
+              <PartAtStation
+                key={`${station.code}|${serial}|${round}`}
+                form={form.data}
+                canRecord={me.can('results.record')}
+                canAllowReentry={me.can('stage.reentry')}
+                canReadNcr={me.can('ncr.read')}
+                canRaiseConcern={me.can('ncr.raise')}
+                onRecorded={setResult}
+                onReload={() => {
+                  openAgain();
+                  void form.refetch();
+                }}
+              />
+            </Suspense>
           )}
         </>
       )}
     </div>
+  );
+}
+
+function LoadingPart({ station, serial }: { station: string; serial: string }) {
+  return (
+    <p role="status" className="text-lg text-ink-soft">
+      Loading what {station} records for {serial}…
+    </p>
   );
 }

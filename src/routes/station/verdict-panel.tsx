@@ -3,7 +3,7 @@ import type { ReadingJson, ResultJson } from '../../api/station/types';
 import { Icon } from '../../components/ui/icon';
 import { formatWhen } from '../../lib/format';
 import { NcrNumber } from './ncr-number';
-import { formatValue } from './readings';
+import { formatValue } from './numbers';
 
 /** A reading's value as it was judged: the rounded figure, or the check's outcome. */
 function valueOf(r: ReadingJson, resolution: number | null) {
