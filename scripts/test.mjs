@@ -26,6 +26,10 @@ function runCheck(name, cmd, args, env = process.env) {
 let cluster;
 let exitCode = 0;
 const dir = throwawayClusterDir();
+// The suites' own temporary files (uploads, mail sinks, photos, drill clusters, browser profiles)
+// go here and go with it. Traversable by others, as a drill's cluster runs as another user.
+const scratch = fs.mkdtempSync(path.join(os.tmpdir(), 'coretrail-run-'));
+fs.chmodSync(scratch, 0o711);
 try {
   const bin = ensurePostgres();
   const chromium = ensureChromium();
@@ -45,6 +49,7 @@ try {
     ADMIN_DATABASE_URL: cluster.url('postgres'),
     CHROMIUM_PATH: chromium,
     CLIENT_DIR: path.join(projectDir, 'dist'),
+    TMPDIR: scratch,
   };
   const r = spawnSync(
     'npx',
@@ -69,6 +74,7 @@ try {
 } finally {
   cluster?.stop();
   fs.rmSync(dir, { recursive: true, force: true });
+  fs.rmSync(scratch, { recursive: true, force: true });
 }
 
 const passed = results.reduce((n, x) => n + x.passed, 0);

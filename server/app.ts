@@ -117,16 +117,17 @@ export function createApp({
   router.use(errorHandler);
   app.use('/api', router);
 
-  const clientDir = config.CLIENT_DIR;
+  // resolved here, so a relative CLIENT_DIR in the environment serves as well as an absolute one
+  const clientDir = config.CLIENT_DIR && path.resolve(config.CLIENT_DIR);
   if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
     // the client's files only: /api replies end in the router above, so none is compressed here
     app.use(compression());
     app.use(express.static(clientDir, { index: false, maxAge: '1h', immutable: false }));
-    const indexHtml = path.join(clientDir, 'index.html');
     app.get(/^\/(?!api\/).*/, (_req, res) => {
       // no-store also keeps the browser's back button from showing a page from before sign-out
       res.setHeader('Cache-Control', 'no-store');
-      res.sendFile(indexHtml);
+      // relative to its root: send refuses any path with a dot-folder in it (a build under .bench/)
+      res.sendFile('index.html', { root: clientDir });
     });
   }
   app.use(errorHandler);
