@@ -1,7 +1,7 @@
 // `npm run bench` (through scripts/bench.mjs, which starts a throwaway cluster): seeds a plant's
 // history, then measures the API beside PostgreSQL alone, and the client. Prints one table and
 // writes the figures as JSON under .bench/.
-import { spawn } from 'node:child_process';
+import { execFileSync, spawn } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -19,7 +19,7 @@ import { startApi } from './server.js';
 const url = process.env.DATABASE_URL!;
 const pgBin = process.env.PG_BIN!;
 const UNITS = Number(process.env.BENCH_UNITS ?? 50_000);
-const SECONDS = Number(process.env.BENCH_SECONDS ?? 6);
+const SECONDS = Number(process.env.BENCH_SECONDS ?? 10);
 const WRITE_RATES = (process.env.BENCH_WRITE_RATES ?? '10,20,30,40,50,60').split(',').map(Number);
 const READ_RATE = Number(process.env.BENCH_READ_RATE ?? 20);
 const STATION = 'BH-1';
@@ -104,10 +104,13 @@ async function seedPool(count: number) {
 /**
  * After a bulk load, what a plant's database looks like after autovacuum has caught up: visibility
  * map and statistics current, dirty buffers written — so no vacuum or checkpoint runs mid-measure.
+ * The operating system's own dirty pages are flushed too, so their write-back does not compete with
+ * the first reads measured after the load.
  */
 async function settle() {
   await db.query('VACUUM (ANALYZE)');
   await db.query('CHECKPOINT');
+  execFileSync('sync');
 }
 
 const counts = async () =>
