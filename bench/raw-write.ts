@@ -72,11 +72,11 @@ INSERT INTO "stage_results" ("id","item_id","stage_id","station_id","operator_id
 INSERT INTO "readings" ("stage_result_id","characteristic_id","position","value","passed","location_note","unit","verdict","tolerance_rule_id","rule_version","gauge_id") VALUES ${values};
 UPDATE "items" SET "current_stage_id"=${ctx.next_stage},"updated_at"=now() WHERE "id" = :item_id;
 SELECT "id", "number", "item_id" AS "itemId", "part_lot_id" AS "partLotId", "stage_result_id" AS "stageResultId", "stage_id" AS "stageId", "defect_code_id" AS "defectCodeId", "severity", "state", "description", "failing", "containment", "disposition", "disposition_reason" AS "dispositionReason", "rework_stage_id" AS "reworkStageId", "raised_by_id" AS "raisedById", "assignee_id" AS "assigneeId", "closed_at" AS "closedAt", "item_status_before" AS "itemStatusBefore", "awaiting_second_signature" AS "awaitingSecondSignature", "decided_by_id" AS "decidedById", "decided_at" AS "decidedAt", "created_at" AS "createdAt", "updated_at" AS "updatedAt" FROM "nonconformances" AS "Nonconformance" WHERE "Nonconformance"."state" = 'decided' AND "Nonconformance"."disposition" IN ('rework', 'repair') AND "Nonconformance"."item_id" = :item_id AND "Nonconformance"."rework_stage_id" = ${result.stage_id} FOR UPDATE;
+INSERT INTO "idempotency_keys" ("key","user_id","method","path","request_hash","status_code","response","created_at") VALUES (':key',:uid,'POST','/api/results',${lit(reply.request_hash)},201,${lit(reply.response)},now());
 SELECT pg_advisory_xact_lock(72410002);
 SELECT hash AS a_prev FROM audit_events ORDER BY id DESC LIMIT 1 \\gset
 ${audit(events[0]!, "':a_prev'")}
 ${audit(events[1]!, "':a_head'")}
-INSERT INTO "idempotency_keys" ("key","user_id","method","path","request_hash","status_code","response","created_at") VALUES (':key',:uid,'POST','/api/results',${lit(reply.request_hash)},201,${lit(reply.response)},now());
 COMMIT;
 `;
   // statements per transaction, for the report: every line but the part pick and the key

@@ -511,41 +511,6 @@ export async function submitResult(
 
     if (!supersedes) await settleRework(ctx, transaction, item, stage.id, result, ncr);
 
-    await recordAudit(ctx, transaction, {
-      action: supersedes ? 'result.corrected' : 'result.recorded',
-      entity: 'stage_result',
-      entityId: result.id,
-      before: supersedes ? { resultId: supersedes.id, verdict: supersedes.verdict } : undefined,
-      after: {
-        item: item.serial,
-        stage: stage.code,
-        station: station.code,
-        gauge: gauge?.code ?? null,
-        gauges: Object.fromEntries([...gaugeOf].map(([c, g]) => [c, g.code])),
-        verdict,
-        idempotencyKey: body.idempotencyKey,
-        correctionReason: correction?.reason ?? null,
-        reentryReason: result.reentryReason,
-        readings: judged.readings.map((r) => [
-          r.characteristic,
-          r.position,
-          r.value ?? r.passed,
-          r.verdict,
-          r.ruleVersion,
-        ]),
-        nonconformance: ncr?.number ?? null,
-      },
-    });
-    if (before.status !== item.status || before.currentStage !== item.currentStageId) {
-      await recordAudit(ctx, transaction, {
-        action: verdict === 'fail' ? 'item.held' : 'item.moved',
-        entity: 'item',
-        entityId: item.serial,
-        before,
-        after: { status: item.status, currentStage: item.currentStageId, byResult: result.id },
-      });
-    }
-
     // the next stage is on the route already read; the operator's name came with the session
     const nextStage = item.currentStageId
       ? (route?.steps.find((s) => s.stageId === item.currentStageId)?.stage ??
@@ -592,6 +557,42 @@ export async function submitResult(
       },
       { transaction, returning: false },
     );
+    // Last: the first event takes the audit chain's lock, which every writer waits for until this
+    // transaction commits, so a pass holds it for these inserts alone (a failure's NCR took it earlier).
+    await recordAudit(ctx, transaction, {
+      action: supersedes ? 'result.corrected' : 'result.recorded',
+      entity: 'stage_result',
+      entityId: result.id,
+      before: supersedes ? { resultId: supersedes.id, verdict: supersedes.verdict } : undefined,
+      after: {
+        item: item.serial,
+        stage: stage.code,
+        station: station.code,
+        gauge: gauge?.code ?? null,
+        gauges: Object.fromEntries([...gaugeOf].map(([c, g]) => [c, g.code])),
+        verdict,
+        idempotencyKey: body.idempotencyKey,
+        correctionReason: correction?.reason ?? null,
+        reentryReason: result.reentryReason,
+        readings: judged.readings.map((r) => [
+          r.characteristic,
+          r.position,
+          r.value ?? r.passed,
+          r.verdict,
+          r.ruleVersion,
+        ]),
+        nonconformance: ncr?.number ?? null,
+      },
+    });
+    if (before.status !== item.status || before.currentStage !== item.currentStageId) {
+      await recordAudit(ctx, transaction, {
+        action: verdict === 'fail' ? 'item.held' : 'item.moved',
+        entity: 'item',
+        entityId: item.serial,
+        before,
+        after: { status: item.status, currentStage: item.currentStageId, byResult: result.id },
+      });
+    }
     return { status: 201, body: reply, replay: false };
   });
 }
