@@ -1,13 +1,24 @@
-import type { ReactNode } from 'react';
+import type { ReactNode, Ref } from 'react';
 import { Icon, type IconName } from './ui/icon';
 
 /**
  * A safety caution where the hazardous step is: a thick outline, a mark and few words. It always
  * points back to the plant's own procedure, which it does not replace.
  */
-export function Caution({ title, icon = 'alert', children }: { title: string; icon?: IconName; children: ReactNode }) {
+export function Caution({
+  title,
+  icon = 'alert',
+  children,
+  ref,
+}: {
+  title: string;
+  icon?: IconName;
+  children: ReactNode;
+  ref?: Ref<HTMLElement>;
+}) {
   return (
     <aside
+      ref={ref}
       aria-label={`Safety: ${title}`}
       className="flex items-start gap-3 rounded-control border-2 border-hold bg-hold-tint px-4 py-3 text-ink"
     >

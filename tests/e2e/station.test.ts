@@ -82,7 +82,16 @@ describe('the station screen on a tablet', () => {
     expect(at.y).toBeGreaterThanOrEqual(0);
     expect(at.y + at.height).toBeLessThanOrEqual(768);
     // the hazard caution defers to the plant's own procedures
-    await expect(page.getByText(/Rotating cutters and hones/).isVisible()).resolves.toBe(true);
+    const caution = page.getByRole('complementary', { name: 'Safety: Bore and hone' });
+    await expect(caution.getByText(/Rotating cutters and hones/).isVisible()).resolves.toBe(true);
+    // the form opened scrolled past it: the sticky bar repeats it in short until it is back in view
+    const reminder = page.getByText(
+      "Safety · Bore and hone: Rotating cutters and hones. Follow the plant's procedure.",
+    );
+    await reminder.waitFor();
+    await caution.scrollIntoViewIfNeeded();
+    await reminder.waitFor({ state: 'detached' });
+    await first.scrollIntoViewIfNeeded();
     await typeBores(page, { position: 'Cylinder 6, middle, thrust', value: '4.0309' });
     const odd = page.getByRole('textbox', { name: 'Cylinder bore diameter, Cylinder 6, middle, thrust', exact: true });
     await expect(odd.getAttribute('aria-invalid')).resolves.toBe('true');

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import type { StationFormJson } from '../../api/station/types';
 import type { RecordedResult } from './verdict-panel';
 import { Caution } from '../../components/caution';
@@ -34,6 +34,7 @@ export function PartAtStation({
 }: PartAtStationProps) {
   // made once per opening of the form: every retry of this form sends the same key
   const [opening] = useState(() => ({ key: crypto.randomUUID(), startedAt: new Date().toISOString() }));
+  const cautionRef = useRef<HTMLElement>(null);
   const { sequence, stage } = form;
   return (
     <div className="flex flex-col gap-5">
@@ -80,7 +81,7 @@ export function PartAtStation({
             </Notice>
           )}
           {stage.hazard && (
-            <Caution title={stage.name}>
+            <Caution title={stage.name} ref={cautionRef}>
               <p className="text-lg">{stage.hazard}</p>
               <p className="mt-1 text-base">
                 Follow the plant&apos;s own procedures, local codes and licensed practice: this screen does not replace
@@ -101,6 +102,7 @@ export function PartAtStation({
               canRecord={canRecord}
               onRecorded={onRecorded}
               onReload={onReload}
+              cautionRef={stage.hazard ? cautionRef : undefined}
             />
           )}
         </>

@@ -1,4 +1,4 @@
-import { useId, useMemo, useRef, useState, type KeyboardEvent } from 'react';
+import { useId, useMemo, useRef, useState, type KeyboardEvent, type RefObject } from 'react';
 import { FormProvider, useForm, useWatch } from 'react-hook-form';
 import { useRecordResult } from '../../api/station/record-result';
 import type { StationFormJson } from '../../api/station/types';
@@ -26,6 +26,7 @@ import { ReadingSection } from './reading-section';
 import { judge, slotsOf } from './readings';
 import { RunTestImport } from './run-test-import';
 import { useFirstReading } from './use-first-reading';
+import { useInView } from './use-in-view';
 import type { RecordedResult } from './verdict-panel';
 import { ProblemSummary, Tally } from './form-summary';
 import {
@@ -40,6 +41,12 @@ import {
   type Refusal,
 } from './submit';
 
+// what the sticky bar covers of the window, about: a caution under it is as good as scrolled away
+const BAR_HEIGHT = 96;
+
+/** "Rotating cutters and hones. Guards closed, …" → "Rotating cutters and hones." */
+const firstSentence = (text: string) => /^.*?[.!?](?=\s|$)/.exec(text)?.[0] ?? text;
+
 /** The stage whose readings can come from the test stand's CSV export as well as by hand. */
 const RUN_TEST = 'run-test';
 
@@ -51,10 +58,20 @@ type ReadingFormProps = {
   canRecord: boolean;
   onRecorded: (result: RecordedResult) => void;
   onReload: () => void;
+  /** The stage's safety caution above the form: while it is scrolled away, the bar repeats it in short. */
+  cautionRef?: RefObject<HTMLElement | null>;
 };
 
 /** The whole form for one part at one station: readings laid out like the part, gauge, notes, photos. */
-export function ReadingForm({ form, idempotencyKey, startedAt, canRecord, onRecorded, onReload }: ReadingFormProps) {
+export function ReadingForm({
+  form,
+  idempotencyKey,
+  startedAt,
+  canRecord,
+  onRecorded,
+  onReload,
+  cautionRef,
+}: ReadingFormProps) {
   const notesId = useId();
   const slots = useMemo(() => slotsOf(form.characteristics), [form.characteristics]);
   const sections = useMemo(() => sectionsOf(form.characteristics, slots), [form.characteristics, slots]);
@@ -99,6 +116,7 @@ export function ReadingForm({ form, idempotencyKey, startedAt, canRecord, onReco
   const showTop = () => requestAnimationFrame(() => topRef.current?.focus());
 
   useFirstReading(rootRef, barRef);
+  const cautionInView = useInView(cautionRef, BAR_HEIGHT);
 
   const goTo = (key: string) => {
     const el = rootRef.current?.querySelector<HTMLElement>(`[data-key="${CSS.escape(key)}"]`);
@@ -278,6 +296,14 @@ export function ReadingForm({ form, idempotencyKey, startedAt, canRecord, onReco
             ref={barRef}
             className="sticky bottom-0 z-10 flex flex-wrap items-center justify-between gap-x-6 gap-y-3 rounded-t-card border-2 border-b-0 border-ink bg-card px-5 py-3 shadow-[0_-4px_12px_rgba(29,33,36,0.12)]"
           >
+            {cautionRef && !cautionInView && form.stage.hazard && (
+              <p className="flex w-full items-center gap-2 text-base font-semibold text-hold">
+                <Icon name="alert" size={20} />
+                <span>
+                  Safety · {form.stage.name}: {firstSentence(form.stage.hazard)} Follow the plant&apos;s procedure.
+                </span>
+              </p>
+            )}
             <Tally judged={judged} />
             <div className="flex flex-wrap items-center gap-3">
               {!canRecord && <p className="text-base text-ink-soft">Your role can see this form but not record it.</p>}
