@@ -1,5 +1,6 @@
 import { chromium, type Page } from 'playwright-core';
 import { armProbe, awaitProbe, type ProbeResult } from './client-probe.js';
+import { summarize } from './stats.js';
 
 export type ScanOptions = {
   baseUrl: string;
@@ -146,9 +147,7 @@ async function settle(page: Page) {
   );
 }
 
-/** Nearest-rank percentiles: every figure reported is a sample that was measured. */
 function summarise(samples: number[]): Omit<ScanStats, 'samples'> {
-  const sorted = [...samples].sort((a, b) => a - b);
-  const rank = (p: number) => sorted[Math.max(0, Math.ceil((p / 100) * sorted.length) - 1)]!;
-  return { p50: rank(50), p95: rank(95), min: sorted[0]!, max: sorted[sorted.length - 1]! };
+  const { p50, p95, max } = summarize(samples);
+  return { p50, p95, max, min: Math.min(...samples) };
 }

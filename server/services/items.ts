@@ -17,15 +17,14 @@ export async function newSerial(kind: PartKind, transaction: Transaction): Promi
 
 /**
  * The ordered stages of a family's route for a part kind, or null where the kind has none. From the
- * reference data in memory (`ref` when the caller has it, else one version read).
+ * reference data in memory (one version read); a caller holding the reference data asks it directly.
  */
 export async function routeFor(
   familyId: number,
   kind: PartKind,
   transaction?: Transaction,
-  ref?: Reference,
 ): Promise<RouteWithSteps | null> {
-  return (ref ?? (await referenceData(Item.sequelize as Sequelize, transaction))).route(familyId, kind);
+  return (await referenceData(Item.sequelize as Sequelize, transaction)).route(familyId, kind);
 }
 
 /** Finds an item by what someone typed or scanned; a malformed serial is a 400 with the reason. */

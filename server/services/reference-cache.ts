@@ -10,6 +10,7 @@ import {
   Station,
   ToleranceRule,
 } from '../models/index.js';
+import { groupBy } from './group-by.js';
 
 /**
  * The plant's reference data in memory: engine families, stages, routes with their steps, stations,
@@ -54,12 +55,16 @@ export type VersionRead = { version: number; mine: boolean };
 export const VERSION_SQL = `SELECT version, xmin::text = (txid_current_if_assigned() % 4294967296)::text AS mine
   FROM reference_version`;
 
+/** A row of VERSION_SQL (the version comes as text: it is a bigint). */
+export type VersionRow = { version: string; mine: boolean | null };
+export const versionRead = (row: VersionRow | undefined): VersionRead => ({
+  version: Number(row?.version ?? 0),
+  mine: !!row?.mine,
+});
+
 export async function referenceVersion(sequelize: Sequelize, transaction?: Transaction): Promise<VersionRead> {
-  const [row] = await sequelize.query<{ version: string; mine: boolean | null }>(VERSION_SQL, {
-    type: QueryTypes.SELECT,
-    transaction,
-  });
-  return { version: Number(row?.version ?? 0), mine: !!row?.mine };
+  const [row] = await sequelize.query<VersionRow>(VERSION_SQL, { type: QueryTypes.SELECT, transaction });
+  return versionRead(row);
 }
 
 /**
@@ -100,13 +105,8 @@ export async function referenceData(
       steps: steps.filter((s) => s.routeId === r.id).map((s) => ({ ...s.get(), stage: stageById.get(s.stageId)! })),
     });
   }
-  const charsOf = new Map<number, Characteristic[]>();
-  for (const c of characteristics) charsOf.set(c.stageId, [...(charsOf.get(c.stageId) ?? []), c]);
-  const rulesOf = new Map<string, ToleranceRule[]>();
-  for (const r of rules) {
-    const key = `${r.engineFamilyId}:${r.characteristicId}`;
-    rulesOf.set(key, [...(rulesOf.get(key) ?? []), r]);
-  }
+  const charsOf = groupBy(characteristics, (c) => c.stageId);
+  const rulesOf = groupBy(rules, (r) => `${r.engineFamilyId}:${r.characteristicId}`);
   const familyById = new Map(families.map((f) => [f.id, f]));
   const stationByCode = new Map(stations.map((s) => [s.code, s]));
   const stationById = new Map(stations.map((s) => [s.id, s]));

@@ -4,6 +4,7 @@ import { describePosition, expandPositions } from '../../shared/domain/positions
 import { limitsOf } from '../../shared/domain/tolerance.js';
 import { Attachment, Characteristic, Item, Reading, StageResult, ToleranceRule, User } from '../models/index.js';
 import { presentAttachment } from './attachments.js';
+import { groupBy } from './group-by.js';
 import { referenceData, type Reference } from './reference-cache.js';
 import { toRuleInForce } from './spec.js';
 
@@ -45,13 +46,12 @@ export type RecordedReading = {
  * the rule versions used, stages, stations, gauges, operators, photos — in a fixed number of queries
  * however many results there are. An item's history and the trail both read through this.
  * Stages, stations, gauges, characteristics and rules come from the reference data in memory.
- * `userIds`: more people whose names the caller needs (an NCR timeline's actors), read in the same query;
  * `ref`: the reference data, when the caller has it already.
  */
 export async function loadResultRecords(
   results: StageResult[],
   items: Item[],
-  { userIds = [], ref: known }: { userIds?: number[]; ref?: Reference } = {},
+  { ref: known }: { ref?: Reference } = {},
 ) {
   const ids = results.map((r) => r.id);
   const [readings, ref, photos, users] = await Promise.all([
@@ -67,7 +67,7 @@ export async function loadResultRecords(
     known ?? referenceData(Reading.sequelize as Sequelize),
     ids.length ? Attachment.findAll({ where: { entity: 'stage_result', entityId: { [Op.in]: ids.map(String) } } }) : [],
     User.findAll({
-      where: { id: { [Op.in]: [...new Set([...results.map((r) => r.operatorId), ...userIds])] } },
+      where: { id: { [Op.in]: [...new Set(results.map((r) => r.operatorId))] } },
       attributes: ['id', 'name'],
     }),
   ]);
@@ -84,20 +84,13 @@ export async function loadResultRecords(
   const rules = [...ruleIds.map((id) => ref.rule(id)).filter((r) => !!r), ...moreRules];
 
   const itemById = new Map(items.map((i) => [i.id, i]));
-  const familyById = new Map(ref.families.map((f) => [f.id, f]));
   const charById = new Map(chars.map((c) => [c.id, c]));
   const limitsByRule = new Map(
     rules.map((r) => [r.id, r.limitType === 'attribute' ? { lower: null, upper: null } : limitsOf(toRuleInForce(r))]),
   );
   const nameById = new Map(users.map((u) => [u.id, u.name]));
-  const readingsOf = new Map<number, ReadingRow[]>();
-  for (const r of readings) {
-    const list = readingsOf.get(r.stageResultId);
-    if (list) list.push(r);
-    else readingsOf.set(r.stageResultId, [r]);
-  }
-  const photosOf = new Map<string, AttachmentJson[]>();
-  for (const p of photos) photosOf.set(p.entityId, [...(photosOf.get(p.entityId) ?? []), presentAttachment(p)]);
+  const readingsOf = groupBy(readings, (r) => r.stageResultId);
+  const photosOf = groupBy(photos, (p) => p.entityId);
   const supersededBy = new Map(results.filter((r) => r.supersedesId).map((r) => [r.supersedesId!, r.id]));
 
   // position labels depend on the part (a V head covers its own bank): one expansion per item and characteristic
@@ -107,7 +100,7 @@ export async function loadResultRecords(
     let m = labelCache.get(key);
     if (!m) {
       const i = itemById.get(itemId)!;
-      m = new Map(expandPositions(c.positions, familyById.get(i.engineFamilyId)!, i).map((p) => [p.code, p.label]));
+      m = new Map(expandPositions(c.positions, ref.family(i.engineFamilyId)!, i).map((p) => [p.code, p.label]));
       labelCache.set(key, m);
     }
     return m.get(pos) ?? describePosition(pos);
@@ -118,7 +111,7 @@ export async function loadResultRecords(
     station: (r: StageResult) => (r.stationId ? (ref.stationById(r.stationId) ?? null) : null),
     gauge: (r: StageResult) => (r.gaugeId ? (ref.gauge(r.gaugeId)?.code ?? null) : null),
     name: (userId: number) => nameById.get(userId) ?? '',
-    photos: (r: StageResult) => photosOf.get(String(r.id)) ?? [],
+    photos: (r: StageResult): AttachmentJson[] => (photosOf.get(String(r.id)) ?? []).map(presentAttachment),
     supersededBy: (r: StageResult) => supersededBy.get(r.id) ?? null,
     readings: (r: StageResult): RecordedReading[] =>
       (readingsOf.get(r.id) ?? []).map((x) => {

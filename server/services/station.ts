@@ -36,11 +36,11 @@ import {
   settleRework,
   type FailingReading,
 } from './nonconformances.js';
-import { referenceData, VERSION_SQL, type Reference, type VersionRead } from './reference-cache.js';
+import { referenceData, VERSION_SQL, versionRead, type Reference, type VersionRow } from './reference-cache.js';
 import { formCharacteristics } from './spec.js';
 
 type Route = NonNullable<Awaited<ReturnType<typeof routeFor>>>;
-type FormChar = Awaited<ReturnType<typeof formCharacteristics>>[number];
+type FormChar = ReturnType<typeof formCharacteristics>[number];
 
 const today = () => new Date().toISOString().slice(0, 10);
 const lower = (s: string) => s.charAt(0).toLowerCase() + s.slice(1);
@@ -307,7 +307,7 @@ export async function submitResult(
   return sequelize.transaction(async (transaction) => {
     // two requests with one key take turns here; the second finds the first's stored reply. The
     // same statement reads the reference data's version (families, stations, routes, rules, gauges)
-    const [version] = await sequelize.query<VersionRead>(
+    const [version] = await sequelize.query<VersionRow>(
       `SELECT pg_advisory_xact_lock(hashtextextended(:key, 7241)) AS locked, v.* FROM (${VERSION_SQL}) v`,
       { replacements: { key: body.idempotencyKey }, type: QueryTypes.SELECT, transaction },
     );
@@ -323,10 +323,7 @@ export async function submitResult(
       return { status: seen.statusCode, body: seen.response as ResultJson, replay: true };
     }
 
-    const ref = await referenceData(sequelize, transaction, {
-      version: Number(version!.version),
-      mine: !!version!.mine,
-    });
+    const ref = await referenceData(sequelize, transaction, versionRead(version));
     const { station, stage } = stationByCode(ref, body.station);
     const serial = checkedSerial(body.serial);
     // a part already in a unit: the unit's lock first, as the release gate takes it (no NCR slips past a release)

@@ -21,25 +21,23 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
   const [item, ref] = await Promise.all([findBySerial(serial), referenceData(sequelize)]);
   // every item linked to this one, up to a core's parts' units and a unit's parts' cores: the links
   // are gathered as the walk follows them (index scans only), never by scanning item_links for
-  // links among the items found, which grew with the plant's history
-  const walkFrom = (id: number) =>
-    sequelize.query<Link>(
-      `WITH RECURSIVE g(id, depth, link_id, parent_item_id, child_item_id, link_type) AS (
-         SELECT :id::int, 0, NULL::int, NULL::int, NULL::int, NULL::varchar
-         UNION
-         SELECT CASE WHEN l.parent_item_id = g.id THEN l.child_item_id ELSE l.parent_item_id END, g.depth + 1,
-                l.id, l.parent_item_id, l.child_item_id, l.link_type
-           FROM item_links l JOIN g ON (l.parent_item_id = g.id OR l.child_item_id = g.id)
-          WHERE l.removed_at IS NULL AND g.depth < 2
-       )
-       SELECT DISTINCT link_id AS id, parent_item_id, child_item_id, link_type FROM g WHERE link_type IS NOT NULL`,
-      { type: QueryTypes.SELECT, replacements: { id } },
-    );
-  let links = await walkFrom(item.id);
-  // a part in a unit: the tree is the unit's, whose other parts may come from other cores — three
-  // links away from this part, so the walk starts again from the unit
-  const fitted = links.find((l) => l.link_type === 'installed_in' && l.child_item_id === item.id);
-  if (item.kind !== 'long_block' && fitted) links = await walkFrom(fitted.parent_item_id);
+  // links among the items found, which grew with the plant's history. A part in a unit starts the
+  // walk at its unit: the tree is the unit's, whose other parts may come from other cores, three
+  // links away from this part.
+  const links = await sequelize.query<Link>(
+    `WITH RECURSIVE g(id, depth, link_id, parent_item_id, child_item_id, link_type) AS (
+       SELECT COALESCE((SELECT parent_item_id FROM item_links
+                         WHERE child_item_id = :id AND link_type = 'installed_in' AND removed_at IS NULL), :id::int),
+              0, NULL::int, NULL::int, NULL::int, NULL::varchar
+       UNION
+       SELECT CASE WHEN l.parent_item_id = g.id THEN l.child_item_id ELSE l.parent_item_id END, g.depth + 1,
+              l.id, l.parent_item_id, l.child_item_id, l.link_type
+         FROM item_links l JOIN g ON (l.parent_item_id = g.id OR l.child_item_id = g.id)
+        WHERE l.removed_at IS NULL AND g.depth < 2
+     )
+     SELECT DISTINCT link_id AS id, parent_item_id, child_item_id, link_type FROM g WHERE link_type IS NOT NULL`,
+    { type: QueryTypes.SELECT, replacements: { id: item.id } },
+  );
   const ids = [...new Set([item.id, ...links.flatMap((l) => [l.parent_item_id, l.child_item_id])])];
   // the items and every result among them at once; results outside the tree are dropped below
   const [items, allResults] = await Promise.all([
@@ -53,7 +51,6 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
     }),
   ]);
   const byId = new Map(items.map((i) => [i.id, i]));
-  const familyById = new Map(ref.families.map((f) => [f.id, f]));
 
   const node = (i: Item, link: TrailNode['link'], children: TrailNode[]): TrailNode => ({
     serial: i.serial,
@@ -61,7 +58,7 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
     kindLabel: PART_KIND_LABELS[i.kind as PartKind],
     status: i.status,
     positionLabel: i.positionLabel,
-    familyCode: familyById.get(i.engineFamilyId)?.code ?? '',
+    familyCode: ref.family(i.engineFamilyId)?.code ?? '',
     link,
     children,
   });
