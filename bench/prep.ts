@@ -1,5 +1,7 @@
 import { recordPassingResult } from '../db/seeders/demo-parts.js';
 import { seedDemoIfEmpty } from '../db/seeders/demo.js';
+import { DEMO_USERS, PLANT } from '../db/seeders/plant.js';
+import { todayIn } from '../shared/domain/warranty.js';
 import type { Ctx } from '../server/audit.js';
 import { createSequelize } from '../server/db.js';
 import { migrate } from '../server/migrate.js';
@@ -28,8 +30,9 @@ export async function prepareDatabase(url: string) {
       await releaseUnit(sequelize, await as('shipping'), unit.serial, {
         customerId: customer.id,
         reference: 'SO-PATTERN',
-        shipDate: new Date().toISOString().slice(0, 10),
+        shipDate: todayIn(PLANT.timeZone),
         carrier: 'Valley Freight',
+        password: DEMO_USERS.find((u) => u.role === 'shipping')!.password,
       });
     }
   } finally {

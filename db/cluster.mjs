@@ -230,7 +230,7 @@ export async function startCluster({ dir, port, bin = ensurePostgres(), settings
     const extra = Object.entries(settings)
       .map(([k, v]) => ` -c ${k}=${v}`)
       .join('');
-    const opts = `-c listen_addresses=127.0.0.1 -p ${port} -k ${runDir} -c max_connections=100 -c fsync=${process.env.CORETRAIL_PG_FSYNC ?? 'on'}${extra}`;
+    const opts = `-c listen_addresses=127.0.0.1 -p ${port} -k ${runDir} -c max_connections=100 -c track_commit_timestamp=on -c fsync=${process.env.CORETRAIL_PG_FSYNC ?? 'on'}${extra}`;
     const r = runPg(bin, 'pg_ctl', ['-D', pgdata, '-l', logFile, '-w', '-t', '60', '-o', opts, 'start'], {
       detached: true,
       allowFail: true,

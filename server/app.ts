@@ -14,6 +14,8 @@ import { attachmentRoutes } from './routes/attachments.js';
 import { setAppUrl } from './mail/links.js';
 import { ncrRoutes } from './routes/ncrs.js';
 import { unitRoutes } from './routes/units.js';
+import { fieldActionRoutes } from './routes/field-actions.js';
+import { plantRoutes } from './routes/plant.js';
 import { mailRoutes } from './routes/mail.js';
 import { specRoutes } from './routes/spec.js';
 import { stationRoutes } from './routes/station.js';
@@ -104,6 +106,8 @@ export function createApp({
   specRoutes(api, sequelize);
   ncrRoutes(api, sequelize);
   unitRoutes(api, sequelize);
+  fieldActionRoutes(api, sequelize);
+  plantRoutes(api, sequelize);
   mailRoutes(api, config);
   router.use((req, res) => {
     res.status(404).json({

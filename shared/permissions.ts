@@ -14,6 +14,7 @@ export const PERMISSIONS = {
   'people.manage': ['admin'],
   'stations.manage': ['admin'],
   'families.manage': ['admin'],
+  'plant.manage': ['admin'],
   'audit.read': ['admin', 'quality'],
   'audit.verify': ['admin'],
 
@@ -43,6 +44,9 @@ export const PERMISSIONS = {
   'release.ship': ['shipping'],
   'trail.read': ['warranty', 'quality', 'supervisor', 'shipping', 'admin'],
   'warranty.record': ['warranty'],
+  // problems found after a unit shipped: the warranty desk follows them, quality decides them
+  'field-actions.read': ['warranty', 'quality', 'supervisor', 'shipping', 'admin'],
+  'field-actions.decide': ['quality'],
   'mail.read': ['admin'],
 } as const satisfies Record<string, readonly Role[]>;
 

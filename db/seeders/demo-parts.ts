@@ -10,6 +10,8 @@ import { buildBody, LOT_KINDS } from '../../shared/schemas/build.js';
 import { receiveCoreBody, teardownBody } from '../../shared/schemas/intake.js';
 import { buildUnit } from '../../server/services/build.js';
 import { releaseUnit } from '../../server/services/release.js';
+import { todayIn } from '../../shared/domain/warranty.js';
+import { DEMO_USERS, PLANT } from './plant.js';
 import { passingReadings } from './sample-readings.js';
 
 /**
@@ -206,8 +208,10 @@ export async function seedDemoPartsIfEmpty(sequelize: Sequelize): Promise<number
         await releaseUnit(sequelize, await as('shipping'), unit.serial, {
           customerId: customers[2]!.id,
           reference: `SO-${faker.string.numeric(5)}`,
-          shipDate: new Date().toISOString().slice(0, 10),
+          shipDate: todayIn(PLANT.timeZone),
           carrier: 'Valley Freight',
+          // signed as the demo's shipper would sign it
+          password: DEMO_USERS.find((u) => u.role === 'shipping')!.password,
         });
       }
     }

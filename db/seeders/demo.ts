@@ -6,6 +6,7 @@ import { personSnapshot } from '../../server/services/people.js';
 import {
   Characteristic,
   EngineFamily,
+  PlantSettings,
   Route,
   RouteStage,
   Signature,
@@ -160,8 +161,13 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
     GAUGES.map(({ dueInDays, ...g }) => ({ ...g, calibration_due_on: dueOn(dueInDays), ...stamp })),
   );
 
-  const quality = await User.findOne({ where: { role: 'quality' }, transaction });
-  const specCounts = await seedSpecBook(ctx, transaction, stageByCode, families, quality!, now);
+  await PlantSettings.update(
+    { name: PLANT.name, address: PLANT.address, timeZone: PLANT.timeZone },
+    { where: { id: 1 }, transaction },
+  );
+  // drafted by one quality engineer, approved by the other
+  const [author, approver] = await User.findAll({ where: { role: 'quality' }, order: [['id', 'ASC']], transaction });
+  const specCounts = await seedSpecBook(ctx, transaction, stageByCode, families, author!, approver!, now);
 
   await recordAudit(ctx, transaction, {
     action: 'demo.seeded',
@@ -189,7 +195,8 @@ async function seedSpecBook(
   transaction: Transaction,
   stageByCode: Map<string, Stage>,
   families: EngineFamily[],
-  quality: User,
+  author: User,
+  approver: User,
   now: Date,
 ) {
   const byKey = new Map<string, Characteristic>();
@@ -234,8 +241,8 @@ async function seedSpecBook(
           unit: c.unit,
           effectiveFrom: now,
           supersededAt: null,
-          createdById: quality.id,
-          approvedById: quality.id,
+          createdById: author.id,
+          approvedById: approver.id,
           approvedAt: now,
           approvalReason: 'Demo spec book (illustrative values) loaded with the demo plant',
         },
@@ -243,9 +250,10 @@ async function seedSpecBook(
       );
       await Signature.create(
         {
-          userId: quality.id,
-          printedName: quality.name,
+          userId: approver.id,
+          printedName: approver.name,
           meaning: `Approved ${family.code} ${c.name}, version 1 (demo seed)`,
+          reason: 'Demo spec book (illustrative values) loaded with the demo plant',
           entity: 'tolerance_rule',
           entityId: String(rule.id),
           signedAt: now,
@@ -259,7 +267,7 @@ async function seedSpecBook(
     action: 'spec.seeded',
     entity: 'spec_book',
     entityId: 'demo',
-    after: { characteristics: CHARACTERISTICS.length, rules, approvedBy: quality.name },
+    after: { characteristics: CHARACTERISTICS.length, rules, draftedBy: author.name, approvedBy: approver.name },
   });
   return { characteristics: CHARACTERISTICS.length, rules };
 }

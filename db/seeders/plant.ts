@@ -5,7 +5,13 @@ import type { Role } from '../../shared/roles.js';
  * The demo plant. Everything here is invented: the plant, its engine families, people, customers
  * and suppliers. Dimensions are plausible round numbers, not any maker's specification.
  */
-export const PLANT = { name: 'Larkspur Valley Engine Works', town: 'Larkspur Valley' };
+export const PLANT = {
+  name: 'Larkspur Valley Engine Works',
+  town: 'Larkspur Valley',
+  address: '1400 Foundry Road, Larkspur Valley',
+  // the plant's calendar: ship dates, due dates and warranty days are its days
+  timeZone: 'America/Chicago',
+};
 
 export const DEMO_USERS: { role: Role; email: string; name: string; password: string }[] = [
   { role: 'admin', email: 'admin@larkspur.example', name: 'Ada Whitcombe', password: 'admin-coretrail-demo' },
@@ -17,6 +23,13 @@ export const DEMO_USERS: { role: Role; email: string; name: string; password: st
   },
   { role: 'operator', email: 'operator@larkspur.example', name: 'Otto Brannigan', password: 'operator-coretrail-demo' },
   { role: 'quality', email: 'quality@larkspur.example', name: 'Quinn Ashdown', password: 'quality-coretrail-demo' },
+  // a second quality engineer: a rule is approved, and a critical use-as-is countersigned, by someone else
+  {
+    role: 'quality',
+    email: 'quality2@larkspur.example',
+    name: 'Petra Lindqvist',
+    password: 'quality2-coretrail-demo',
+  },
   {
     role: 'supervisor',
     email: 'supervisor@larkspur.example',
@@ -285,6 +298,7 @@ export const DEFECT_CODES = [
   { code: 'WRONG', description: 'Wrong part or wrong family' },
   { code: 'LOT', description: 'Purchased lot suspect' },
   { code: 'RUN', description: 'Run test out of limits' },
+  { code: 'TEST', description: 'Test not run as the procedure says (pressure, time or speed)' },
   { code: 'OTHER', description: 'Other (describe)' },
 ];
 

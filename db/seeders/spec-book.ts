@@ -60,7 +60,7 @@ const pressureChecks = (stage: string): SeedCharacteristic[] => [
     resolution: 1,
     positions: once,
     physical: [0, 150],
-    defectCode: 'LEAK',
+    defectCode: 'TEST',
   },
   {
     stage,
@@ -71,7 +71,7 @@ const pressureChecks = (stage: string): SeedCharacteristic[] => [
     resolution: 1,
     positions: once,
     physical: [0, 120],
-    defectCode: 'LEAK',
+    defectCode: 'TEST',
   },
   {
     stage,

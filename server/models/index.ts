@@ -7,6 +7,7 @@ import { CoreReceipt, Item, ItemLink } from './items.js';
 import { PartLot, UnitLot } from './lots.js';
 import { DefectCode, Nonconformance, NonconformanceTransition, Signature } from './nonconformances.js';
 import { Customer, Supplier } from './parties.js';
+import { FieldAction, PlantSettings } from './plant.js';
 import { Attachment, LabelPrint, Shipment, WarrantyClaim } from './records.js';
 import { Reading, StageReentry, StageResult } from './results.js';
 import { Session } from './session.js';
@@ -23,6 +24,7 @@ export {
   Customer,
   DefectCode,
   EngineFamily,
+  FieldAction,
   Gauge,
   GaugeCalibration,
   IdempotencyKey,
@@ -33,6 +35,7 @@ export {
   Nonconformance,
   NonconformanceTransition,
   PartLot,
+  PlantSettings,
   Reading,
   Route,
   RouteStage,
@@ -83,6 +86,8 @@ const MODELS = [
   IdempotencyKey,
   MailOutbox,
   AuditEvent,
+  PlantSettings,
+  FieldAction,
 ] as const;
 
 export function initModels(sequelize: Sequelize) {
@@ -178,6 +183,11 @@ export function initModels(sequelize: Sequelize) {
   WarrantyClaim.belongsTo(Item, { foreignKey: 'unitItemId', as: 'unit' });
   WarrantyClaim.belongsTo(User, { foreignKey: 'openedById', as: 'openedBy' });
   Item.hasMany(WarrantyClaim, { foreignKey: 'unitItemId', as: 'warrantyClaims' });
+
+  FieldAction.belongsTo(Shipment, { foreignKey: 'shipmentId', as: 'shipment' });
+  FieldAction.belongsTo(Item, { foreignKey: 'unitItemId', as: 'unit' });
+  FieldAction.belongsTo(Nonconformance, { foreignKey: 'nonconformanceId', as: 'nonconformance' });
+  FieldAction.belongsTo(User, { foreignKey: 'decidedById', as: 'decidedBy' });
 
   IdempotencyKey.belongsTo(User, { foreignKey: 'userId', as: 'user' });
 }

@@ -137,6 +137,8 @@ export class Signature extends Model<InferAttributes<Signature>, InferCreationAt
   declare userId: number;
   declare printedName: string;
   declare meaning: string;
+  /** Why the signer signed, in their words (a disposition's reason, an approval's, a release's order). */
+  declare reason: CreationOptional<string>;
   declare entity: string;
   declare entityId: string;
   declare signedAt: Date;
@@ -149,6 +151,7 @@ export class Signature extends Model<InferAttributes<Signature>, InferCreationAt
         userId: { type: DataTypes.INTEGER, allowNull: false },
         printedName: { type: DataTypes.STRING(120), allowNull: false },
         meaning: { type: DataTypes.STRING(120), allowNull: false },
+        reason: { type: DataTypes.STRING(500), allowNull: false, defaultValue: '' },
         entity: { type: DataTypes.STRING(40), allowNull: false },
         entityId: { type: DataTypes.STRING(40), allowNull: false },
         signedAt: { type: DataTypes.DATE, allowNull: false },

@@ -81,7 +81,7 @@ export function ncrRoutes(api: Api, sequelize: Sequelize) {
     access: 'ncr.read',
     summary: 'The NCR list: filter by state, severity, defect code, family, stage, age, assignee or text; sort; page.',
     query: ncrListQuery,
-    handler: ({ query }) => listNcrs(sequelize, query),
+    handler: ({ ctx, query }) => listNcrs(sequelize, query, { me: ctx.actor!.id }),
   });
   api.define({
     method: 'get',
@@ -89,8 +89,8 @@ export function ncrRoutes(api: Api, sequelize: Sequelize) {
     access: 'ncr.read',
     summary: 'The NCR list with the same filters, every row, as CSV.',
     query: ncrListQuery,
-    handler: async ({ query, res }) => {
-      const { rows } = await listNcrs(sequelize, query, { all: true });
+    handler: async ({ ctx, query, res }) => {
+      const { rows } = await listNcrs(sequelize, query, { all: true, me: ctx.actor!.id });
       const body = csvDocument(
         CSV_COLUMNS.map(([, h]) => h),
         rows.map((r) => CSV_COLUMNS.map(([k]) => r[k])),

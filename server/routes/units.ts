@@ -1,12 +1,12 @@
 import type { Sequelize } from 'sequelize';
 import { z } from 'zod';
 import { parseRunCsv } from '../../shared/domain/run-csv.js';
-import { buildBody, lotCodeParam, releaseBody, runCsvBody } from '../../shared/schemas/build.js';
+import { buildBody, lotCodeParam, releaseBody, replacePartBody, runCsvBody } from '../../shared/schemas/build.js';
 import { serialParam } from '../../shared/schemas/intake.js';
 import { AppError } from '../errors.js';
 import type { Api } from '../http/api.js';
 import { EngineFamily } from '../models/index.js';
-import { buildUnit } from '../services/build.js';
+import { buildUnit, replacePart } from '../services/build.js';
 import { buildRecordPdf } from '../services/build-record.js';
 import { findBySerial } from '../services/items.js';
 import { checkUnit, releaseUnit } from '../services/release.js';
@@ -24,6 +24,16 @@ export function unitRoutes(api: Api, sequelize: Sequelize) {
     handler: ({ ctx, body }) => buildUnit(sequelize, ctx, body),
   });
   api.define({
+    method: 'post',
+    path: '/units/:serial/replace',
+    access: 'assembly.record',
+    summary:
+      'Take a part out of a built unit and fit another (who, when, why kept); the unit goes back to assembly. Refusals listed (409).',
+    params: serialParam,
+    body: replacePartBody,
+    handler: ({ ctx, params, body }) => replacePart(sequelize, ctx, params.serial, body),
+  });
+  api.define({
     method: 'get',
     path: '/units/:serial/release-check',
     access: 'release.check',
@@ -36,7 +46,8 @@ export function unitRoutes(api: Api, sequelize: Sequelize) {
     method: 'post',
     path: '/units/:serial/release',
     access: 'release.ship',
-    summary: 'Release a unit that passes the gate (checked again under its lock): the shipment and warranty start.',
+    summary:
+      'Release a unit that passes the gate (checked again under its lock), signed with the password: the shipment and warranty start.',
     params: serialParam,
     body: releaseBody,
     status: 201,

@@ -1,13 +1,19 @@
 import { Op, QueryTypes, type Sequelize, type Transaction } from 'sequelize';
-import { LOT_KIND_LABELS, OVERSIZE_MATCH_IN, type BuildBody } from '../../shared/schemas/build.js';
+import {
+  LOT_KIND_LABELS,
+  OVERSIZE_MATCH_IN,
+  type BuildBody,
+  type ReplacePartBody,
+} from '../../shared/schemas/build.js';
 import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.js';
 import { mmToIn } from '../../shared/domain/units.js';
 import { recordAudit, type Ctx } from '../audit.js';
-import { AppError } from '../errors.js';
-import { Item, ItemLink, Nonconformance, PartLot, Stage, Supplier, UnitLot } from '../models/index.js';
+import { AppError, conflict, invalid } from '../errors.js';
+import { EngineFamily, Item, ItemLink, Nonconformance, PartLot, Stage, Supplier, UnitLot } from '../models/index.js';
 import { findBySerial, newSerial, presentItem, routeFor } from './items.js';
 import { blockingNcrsOf, OPEN_NCR_STATES } from './nonconformances.js';
 import { familyByCode } from './spec.js';
+import { lockUnitsReachedBy } from './unit-locks.js';
 
 /**
  * Building a long block: a finished block, crankshaft and the family's heads, plus purchased lots.
@@ -16,23 +22,53 @@ import { familyByCode } from './spec.js';
  * finished bores. The unit gets its serial and its route; each part an "installed in" link.
  */
 
-/** The unit a part is installed in, locked: every path that raises an NCR or releases takes it first. */
-export async function lockUnitOf(part: number | { serial: string }, transaction: Transaction): Promise<Item | null> {
-  // one statement: the live install link and the unit's row lock together
-  const child = typeof part === 'number' ? ':part' : '(SELECT id FROM items WHERE serial = :part)';
-  const [unit] = await Item.sequelize!.query(
-    `SELECT u.* FROM items u
-      WHERE u.id = (SELECT l.parent_item_id FROM item_links l
-                     WHERE l.child_item_id = ${child} AND l.link_type = 'installed_in' AND l.removed_at IS NULL)
-      FOR UPDATE OF u`,
-    {
-      replacements: { part: typeof part === 'number' ? part : part.serial },
-      model: Item,
-      mapToModel: true,
-      transaction,
-    },
-  );
-  return unit ?? null;
+const LOT_STATUS_WORDS: Record<string, string> = {
+  returned: 'returned to its supplier',
+  scrapped: 'scrapped',
+  on_hold: 'on hold',
+};
+
+/** Why a part cannot go into a unit of this family in this slot, in words; null when it can. */
+async function fitProblem(item: Item, kind: PartKind, family: EngineFamily, transaction: Transaction) {
+  const name = `${item.serial} (${PART_KIND_LABELS[item.kind].toLowerCase()})`;
+  if (item.kind !== kind) {
+    return `${item.serial} is a ${PART_KIND_LABELS[item.kind].toLowerCase()}, not a ${PART_KIND_LABELS[kind].toLowerCase()}.`;
+  }
+  if (item.engineFamilyId !== family.id) return `${name} belongs to another engine family, not ${family.code}.`;
+  if (item.status === 'scrapped') return `${name} has been scrapped.`;
+  const unit = await ItemLink.findOne({
+    where: { childItemId: item.id, linkType: 'installed_in', removedAt: null },
+    include: [{ model: Item, as: 'parent', attributes: ['serial'] }],
+    transaction,
+  });
+  if (unit || item.status === 'installed') {
+    const into = (unit as (ItemLink & { parent?: Item }) | null)?.parent?.serial;
+    return `${name} is already installed${into ? ` in ${into}` : ''}.`;
+  }
+  const holds = await blockingNcrsOf(item.id, undefined, transaction);
+  if (holds.length) return `${name} is on hold: ${holds.map((h) => h.number).join(', ')} open.`;
+  if (item.status === 'on_hold') return `${name} is on hold.`;
+  if (!(await finishedRoute(item, transaction))) {
+    const stage = item.currentStageId ? await Stage.findByPk(item.currentStageId, { transaction }) : null;
+    return `${name} has not finished its route${stage ? `: it is due at ${stage.name}` : ''}.`;
+  }
+  return null;
+}
+
+/** Why pistons of an oversize do not fit a block's finished bores; null when they do. */
+async function pistonMismatch(
+  sequelize: Sequelize,
+  block: Item,
+  family: EngineFamily,
+  oversizeIn: number,
+  transaction: Transaction,
+) {
+  const mean = await finishedBore(sequelize, block.id, transaction);
+  const standard = mmToIn(family.boreMm);
+  if (mean === null) return `${block.serial} has no bore-and-hone result to match pistons against.`;
+  const over = mean - standard;
+  if (Math.abs(over - oversizeIn) <= OVERSIZE_MATCH_IN) return null;
+  return `The pistons are +${oversizeIn.toFixed(3)} in, but ${block.serial} was finished +${over.toFixed(3)} in over its ${standard.toFixed(4)} in standard bore (mean ${mean.toFixed(4)} in).`;
 }
 
 async function finishedRoute(item: Item, transaction: Transaction) {
@@ -87,40 +123,8 @@ export async function buildUnit(sequelize: Sequelize, ctx: Ctx, body: BuildBody)
       problems.heads = `A ${family.code} takes ${family.headsPerEngine} cylinder head${family.headsPerEngine > 1 ? 's' : ''}, not ${body.heads.length}.`;
     }
     for (const f of found) {
-      const item = locked.get(f.item.id)!;
-      const name = `${item.serial} (${PART_KIND_LABELS[item.kind].toLowerCase()})`;
-      if (item.kind !== f.kind) {
-        problems[f.field] =
-          `${item.serial} is a ${PART_KIND_LABELS[item.kind].toLowerCase()}, not a ${PART_KIND_LABELS[f.kind].toLowerCase()}.`;
-        continue;
-      }
-      if (item.engineFamilyId !== family.id) {
-        problems[f.field] = `${name} belongs to another engine family, not ${family.code}.`;
-        continue;
-      }
-      if (item.status === 'scrapped') {
-        problems[f.field] = `${name} has been scrapped.`;
-        continue;
-      }
-      const unit = await ItemLink.findOne({
-        where: { childItemId: item.id, linkType: 'installed_in', removedAt: null },
-        include: [{ model: Item, as: 'parent', attributes: ['serial'] }],
-        transaction,
-      });
-      if (unit || item.status === 'installed') {
-        const into = (unit as (ItemLink & { parent?: Item }) | null)?.parent?.serial;
-        problems[f.field] = `${name} is already installed${into ? ` in ${into}` : ''}.`;
-        continue;
-      }
-      const holds = await blockingNcrsOf(item.id, undefined, transaction);
-      if (holds.length) {
-        problems[f.field] = `${name} is on hold: ${holds.map((h) => h.number).join(', ')} open.`;
-        continue;
-      }
-      if (!(await finishedRoute(item, transaction))) {
-        const stage = item.currentStageId ? await Stage.findByPk(item.currentStageId, { transaction }) : null;
-        problems[f.field] = `${name} has not finished its route${stage ? `: it is due at ${stage.name}` : ''}.`;
-      }
+      const problem = await fitProblem(locked.get(f.item.id)!, f.kind, family, transaction);
+      if (problem) problems[f.field] = problem;
     }
     if (family.headsPerEngine === 2) {
       const sides = found.filter((f) => f.kind === 'cylinder_head').map((f) => locked.get(f.item.id)!.positionLabel);
@@ -133,17 +137,8 @@ export async function buildUnit(sequelize: Sequelize, ctx: Ctx, body: BuildBody)
     const pistons = body.lots.find((l) => l.kind === 'pistons');
     const block = found.find((f) => f.kind === 'block');
     if (pistons && block && !problems.block) {
-      const mean = await finishedBore(sequelize, block.item.id, transaction);
-      const standard = mmToIn(family.boreMm);
-      if (mean === null) {
-        problems['lots.pistons'] = `${block.item.serial} has no bore-and-hone result to match pistons against.`;
-      } else {
-        const over = mean - standard;
-        if (Math.abs(over - (pistons.oversizeIn ?? 0)) > OVERSIZE_MATCH_IN) {
-          problems['lots.pistons'] =
-            `The pistons are +${(pistons.oversizeIn ?? 0).toFixed(3)} in, but ${block.item.serial} was finished +${over.toFixed(3)} in over its ${standard.toFixed(4)} in standard bore (mean ${mean.toFixed(4)} in).`;
-        }
-      }
+      const mismatch = await pistonMismatch(sequelize, block.item, family, pistons.oversizeIn ?? 0, transaction);
+      if (mismatch) problems['lots.pistons'] = mismatch;
     }
 
     // purchased lots: reused across units; one that is held or returned cannot go in
@@ -176,8 +171,8 @@ export async function buildUnit(sequelize: Sequelize, ctx: Ctx, body: BuildBody)
         transaction,
       });
       if (lot.status !== 'usable' || held) {
-        problems[`lots.${i}.lotCode`] =
-          `Lot ${lot.lotCode} is ${held ? `held by ${held.number}` : lot.status}: use another lot.`;
+        const why = held ? `held by ${held.number}` : (LOT_STATUS_WORDS[lot.status] ?? lot.status);
+        problems[`lots.${i}.lotCode`] = `Lot ${lot.lotCode} is ${why}: use another lot.`;
         continue;
       }
       lots.push({ lot, quantity: l.quantity });
@@ -253,6 +248,131 @@ export async function buildUnit(sequelize: Sequelize, ctx: Ctx, body: BuildBody)
       },
     });
     return unit.serial;
+  });
+  return presentItem(await findBySerial(serial));
+}
+
+/**
+ * Takes a part out of a built unit and fits another in its place (a head found cracked after
+ * assembly, say). The ended link keeps the history of what was in the unit and when; the unit goes
+ * back to its first stage, so its assembly and run test are recorded again with the new part in.
+ */
+export async function replacePart(sequelize: Sequelize, ctx: Ctx, serial: string, body: ReplacePartBody) {
+  await sequelize.transaction(async (transaction) => {
+    const found = await findBySerial(serial, transaction);
+    // the lock protocol: the unit first, as the release gate takes it
+    await lockUnitsReachedBy(sequelize, { itemId: found.id }, transaction);
+    const unit = (await Item.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
+    if (unit.kind !== 'long_block') {
+      throw invalid(
+        `${unit.serial} is a ${PART_KIND_LABELS[unit.kind].toLowerCase()}: parts are replaced in a long block.`,
+      );
+    }
+    if (unit.status === 'shipped') {
+      throw conflict(`${unit.serial} has shipped: its parts are replaced when it comes back.`, { reason: 'shipped' });
+    }
+    const problems: Record<string, string> = {};
+    const look = (input: string, field: 'remove' | 'fit') =>
+      findBySerial(input, transaction).catch((e: Error) => {
+        problems[field] = e.message;
+        return null;
+      });
+    const out = await look(body.remove, 'remove');
+    const fit = await look(body.fit, 'fit');
+    if (!out || !fit) {
+      throw new AppError(409, 'replace_refused', `Nothing was changed: ${Object.values(problems).join(' ')}`, problems);
+    }
+    const link = await ItemLink.findOne({
+      where: { parentItemId: unit.id, childItemId: out.id, linkType: 'installed_in', removedAt: null },
+      transaction,
+    });
+    if (!link) problems.remove = `${out.serial} is not in ${unit.serial}.`;
+    // both parts locked in id order, as a build locks its parts
+    for (const id of [...new Set([out.id, fit.id])].sort((x, y) => x - y)) {
+      await Item.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
+    }
+    await out.reload({ transaction });
+    await fit.reload({ transaction });
+    const family = (await EngineFamily.findByPk(unit.engineFamilyId, { transaction }))!;
+    const problem = await fitProblem(fit, out.kind, family, transaction);
+    if (problem) problems.fit = problem;
+    if (
+      !problem &&
+      out.kind === 'cylinder_head' &&
+      family.headsPerEngine === 2 &&
+      fit.positionLabel !== out.positionLabel
+    ) {
+      problems.fit = `${out.serial} is the ${out.positionLabel} head: fit a ${out.positionLabel} head in its place.`;
+    }
+    if (!problem && out.kind === 'block') {
+      const [pistons] = await sequelize.query<{ attributes: { oversizeIn?: number } }>(
+        `SELECT pl.attributes FROM unit_lots ul JOIN part_lots pl ON pl.id = ul.part_lot_id
+          WHERE ul.unit_item_id = :unit AND pl.part_kind = 'pistons'`,
+        { type: QueryTypes.SELECT, replacements: { unit: unit.id }, transaction },
+      );
+      const mismatch = pistons
+        ? await pistonMismatch(sequelize, fit, family, pistons.attributes.oversizeIn ?? 0, transaction)
+        : null;
+      if (mismatch) problems.fit = mismatch;
+    }
+    if (Object.keys(problems).length) {
+      throw new AppError(409, 'replace_refused', `Nothing was changed: ${Object.values(problems).join(' ')}`, problems);
+    }
+
+    const now = new Date();
+    await link!.update({ removedAt: now, removedReason: body.reason }, { transaction });
+    await ItemLink.create(
+      {
+        parentItemId: unit.id,
+        childItemId: fit.id,
+        linkType: 'installed_in',
+        createdById: ctx.actor!.id,
+        removedAt: null,
+        removedReason: null,
+      },
+      { transaction },
+    );
+    const outBefore = { status: out.status };
+    // a part taken out is a finished part again, unless it is scrapped or held
+    if (out.status === 'installed') await out.update({ status: 'finished' }, { transaction });
+    await recordAudit(ctx, transaction, {
+      action: 'item.removed',
+      entity: 'item',
+      entityId: out.serial,
+      before: { ...outBefore, installedIn: unit.serial },
+      after: { status: out.status, installedIn: null, reason: body.reason },
+    });
+    const fitBefore = { status: fit.status, currentStage: fit.currentStageId };
+    await fit.update({ status: 'installed', currentStageId: null }, { transaction });
+    await recordAudit(ctx, transaction, {
+      action: 'item.installed',
+      entity: 'item',
+      entityId: fit.serial,
+      before: fitBefore,
+      after: { status: 'installed', installedIn: unit.serial },
+    });
+    const route = await routeFor(unit.engineFamilyId, 'long_block', transaction);
+    const unitBefore = { status: unit.status, currentStage: unit.currentStageId };
+    await unit.update(
+      {
+        status: unit.status === 'on_hold' ? 'on_hold' : 'in_process',
+        currentStageId: route?.steps[0]?.stageId ?? null,
+      },
+      { transaction },
+    );
+    await recordAudit(ctx, transaction, {
+      action: 'unit.part_replaced',
+      entity: 'item',
+      entityId: unit.serial,
+      before: unitBefore,
+      after: {
+        status: unit.status,
+        currentStage: unit.currentStageId,
+        removed: out.serial,
+        fitted: fit.serial,
+        reason: body.reason,
+      },
+    });
   });
   return presentItem(await findBySerial(serial));
 }

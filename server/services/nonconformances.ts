@@ -16,26 +16,30 @@ import {
 } from '../../shared/schemas/ncr.js';
 import type { HoldJson } from '../../shared/schemas/results.js';
 import { recordAudit, type Ctx } from '../audit.js';
-import { AppError, conflict, invalid, notFound } from '../errors.js';
+import { conflict, invalid, notFound } from '../errors.js';
 import { appLink } from '../mail/links.js';
 import { enqueueMail, quoted, type Mail } from '../mail/messages.js';
 import {
   DefectCode,
   Item,
+  ItemLink,
   Nonconformance,
   NonconformanceTransition,
   PartLot,
   Signature,
   Stage,
   StageResult,
+  Station,
   Supplier,
   User,
 } from '../models/index.js';
 import { attachmentsOf, claimUploads } from './attachments.js';
+import { openFieldActions } from './field-actions.js';
 import { findBySerial, presentItem, routeFor } from './items.js';
-import { lockUnitOf } from './build.js';
-import { checkPassword } from './passwords.js';
+import { ncrTimeline } from './ncr-timeline.js';
 import { notifyIfReleasable } from './release.js';
+import { presentSignature, signWithPassword } from './signatures.js';
+import { lockUnitsReachedBy, type LockSubject } from './unit-locks.js';
 
 export { NCR_STATE_LABELS, OPEN_NCR_STATES };
 
@@ -81,6 +85,14 @@ async function nextNumber(sequelize: Sequelize, transaction: Transaction) {
 }
 
 export type FailingReading = NcrDetail['failing'][number];
+
+async function installedIn(itemId: number, transaction: Transaction) {
+  const link = await ItemLink.findOne({
+    where: { childItemId: itemId, linkType: 'installed_in', removedAt: null },
+    transaction,
+  });
+  return link?.parentItemId ?? null;
+}
 
 async function recipients(roles: Role[], transaction: Transaction) {
   return User.findAll({
@@ -134,6 +146,8 @@ export async function raiseNonconformance(
     description: string;
     failing: FailingReading[];
     containment?: string;
+    /** How it came to be raised, in words for the timeline (never a row number). */
+    origin: string;
   },
 ): Promise<Nonconformance> {
   const defect = input.defectCode ? await DefectCode.findOne({ where: { code: input.defectCode }, transaction }) : null;
@@ -168,7 +182,7 @@ export async function raiseNonconformance(
       fromState: null,
       toState: 'raised',
       actorId: ctx.actor!.id,
-      reason: input.stageResultId ? `Raised by failing result ${input.stageResultId}` : 'Raised by hand',
+      reason: input.origin,
     },
     { transaction },
   );
@@ -186,7 +200,18 @@ export async function raiseNonconformance(
     },
   });
   await enqueueMail(transaction, await raisedMails(ncr, input.itemSerial, transaction));
+  // the units it reaches (already locked by the caller, so this takes nothing new): any that has
+  // shipped gets a field action
+  const units = await lockUnitsReachedBy(sequelize, subjectOf(ncr), transaction);
+  await openFieldActions(sequelize, ctx, transaction, ncr, input.itemSerial, units);
   return ncr;
+}
+
+/** What an NCR is about, for the lock protocol: its part (or core, or unit), or its lot. */
+export function subjectOf(ncr: Pick<Nonconformance, 'itemId' | 'partLotId'>): LockSubject {
+  if (ncr.itemId) return { itemId: ncr.itemId };
+  if (ncr.partLotId) return { lotId: ncr.partLotId };
+  throw new Error('An NCR is about an item or a lot.');
 }
 
 async function activeDefect(code: string, transaction: Transaction) {
@@ -201,8 +226,8 @@ export async function raiseConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNc
   const serial = body.serial;
   const number = await sequelize.transaction(async (transaction) => {
     const found = await findBySerial(serial, transaction);
-    // the unit the part is in first, as the release gate locks it: an NCR cannot slip past a release
-    await lockUnitOf(found.id, transaction);
+    // the units it reaches first, as the release gate locks them: an NCR cannot slip past a release
+    await lockUnitsReachedBy(sequelize, { itemId: found.id }, transaction);
     const item = (await Item.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
     if (item.status === 'scrapped') throw conflict(`${item.serial} has been scrapped: there is nothing left to hold.`);
     const defect = await activeDefect(body.defectCode, transaction);
@@ -218,6 +243,7 @@ export async function raiseConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNc
       description: body.description,
       failing: [],
       containment: body.containment,
+      origin: 'Raised as a concern',
     });
     await claimUploads(ctx, transaction, body.photoIds, 'nonconformance', ncr.number);
     if (holds && item.status !== 'on_hold') {
@@ -253,6 +279,9 @@ async function raiseLotConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNcrBod
         supplierId: 'Choose the supplier.',
       });
     }
+    // every unit the lot went into, then the lot itself
+    await lockUnitsReachedBy(sequelize, { lotId: lots[0]!.id }, transaction);
+    await PartLot.findByPk(lots[0]!.id, { transaction, lock: transaction.LOCK.UPDATE });
     const lot = lots[0]!;
     const defect = await activeDefect(body.defectCode, transaction);
     const supplier = (lot as PartLot & { supplier?: Supplier }).supplier;
@@ -268,6 +297,7 @@ async function raiseLotConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNcrBod
       description: body.description,
       failing: [],
       containment: body.containment,
+      origin: 'Raised as a concern about the lot',
     });
     await claimUploads(ctx, transaction, body.photoIds, 'nonconformance', ncr.number);
     return ncr.number;
@@ -288,7 +318,7 @@ const SORT: Record<NcrListQuery['sort'], string> = {
 };
 
 /** The NCR list's two statements for a query, with their replacements; the benchmark runs them too. */
-export function ncrListSql(q: NcrListQuery, { all = false } = {}) {
+export function ncrListSql(q: NcrListQuery, { all = false, me = 0 }: { all?: boolean; me?: number } = {}) {
   const where: string[] = [];
   const r: Record<string, unknown> = {};
   const add = (sql: string, key?: string, value?: unknown) => {
@@ -302,6 +332,10 @@ export function ncrListSql(q: NcrListQuery, { all = false } = {}) {
   if (q.family) add('i.engine_family_id = :family', 'family', q.family);
   if (q.stage) add('s.code = :stage', 'stage', q.stage);
   if (q.olderThanDays !== undefined) add('n.created_at <= now() - make_interval(days => :age)', 'age', q.olderThanDays);
+  if (q.awaiting === 'me') {
+    // signed once by someone else, waiting for a second quality engineer
+    add(`n.state = 'in_review' AND n.awaiting_second_signature AND n.decided_by_id <> :me`, 'me', me);
+  }
   if (q.assignee === 'none') add('n.assignee_id IS NULL');
   else if (q.assignee) add('n.assignee_id = :assignee', 'assignee', q.assignee);
   if (q.q) {
@@ -338,8 +372,8 @@ export function ncrListSql(q: NcrListQuery, { all = false } = {}) {
 }
 
 /** The NCR list: filtered, sorted and paged in SQL. */
-export async function listNcrs(sequelize: Sequelize, q: NcrListQuery, { all = false } = {}) {
-  const sql = ncrListSql(q, { all });
+export async function listNcrs(sequelize: Sequelize, q: NcrListQuery, { all = false, me = 0 } = {}) {
+  const sql = ncrListSql(q, { all, me });
   const [rows, [count]] = await Promise.all([
     sequelize.query<NcrRow>(sql.rows, { type: QueryTypes.SELECT, replacements: sql.replacements }),
     sequelize.query<{ n: number }>(sql.count, { type: QueryTypes.SELECT, replacements: sql.replacements }),
@@ -378,15 +412,27 @@ export async function ncrDetail(number: string, ctx: Ctx): Promise<NcrDetail> {
   const lot = ncr.partLotId
     ? await PartLot.findByPk(ncr.partLotId, { include: [{ model: Supplier, as: 'supplier' }] })
     : null;
-  const [transitions, signatures, photos, item, stage, reworkStage, defect] = await Promise.all([
-    NonconformanceTransition.findAll({ where: { nonconformanceId: ncr.id }, order: [['id', 'ASC']] }),
-    Signature.findAll({ where: { entity: 'nonconformance', entityId: ncr.number }, order: [['id', 'ASC']] }),
-    attachmentsOf('nonconformance', ncr.number),
-    ncr.itemId ? Item.findByPk(ncr.itemId) : null,
-    ncr.stageId ? Stage.findByPk(ncr.stageId) : null,
-    ncr.reworkStageId ? Stage.findByPk(ncr.reworkStageId) : null,
-    ncr.defectCodeId ? DefectCode.findByPk(ncr.defectCodeId) : null,
-  ]);
+  const [transitions, signatures, ownPhotos, resultPhotos, item, stage, reworkStage, defect, origin] =
+    await Promise.all([
+      NonconformanceTransition.findAll({ where: { nonconformanceId: ncr.id }, order: [['id', 'ASC']] }),
+      Signature.findAll({ where: { entity: 'nonconformance', entityId: ncr.number }, order: [['id', 'ASC']] }),
+      attachmentsOf('nonconformance', ncr.number),
+      // the evidence taken with the failing result belongs to the NCR too
+      ncr.stageResultId ? attachmentsOf('stage_result', ncr.stageResultId) : [],
+      ncr.itemId ? Item.findByPk(ncr.itemId) : null,
+      ncr.stageId ? Stage.findByPk(ncr.stageId) : null,
+      ncr.reworkStageId ? Stage.findByPk(ncr.reworkStageId) : null,
+      ncr.defectCodeId ? DefectCode.findByPk(ncr.defectCodeId) : null,
+      ncr.stageResultId
+        ? StageResult.findByPk(ncr.stageResultId, {
+            include: [
+              { model: Stage, as: 'stage', attributes: ['name'] },
+              { model: Station, as: 'station', attributes: ['name'] },
+              { model: User, as: 'operator', attributes: ['name'] },
+            ],
+          })
+        : null,
+    ]);
   const userIds = [
     ...new Set([ncr.raisedById, ncr.assigneeId, ncr.decidedById, ...transitions.map((t) => t.actorId)]),
   ].filter((x): x is number => x !== null);
@@ -397,6 +443,17 @@ export async function ncrDetail(number: string, ctx: Ctx): Promise<NcrDetail> {
     ]),
   );
   const presented = item ? await presentItem(item) : null;
+  const o = origin as (StageResult & { stage?: Stage; station?: Station | null; operator?: User }) | null;
+  const timeline = ncrTimeline(
+    transitions.map((t) => ({
+      at: t.createdAt,
+      from: t.fromState as NcrState | null,
+      to: t.toState as NcrState,
+      actor: users.get(t.actorId) ?? '',
+      reason: t.reason,
+    })),
+    signatures,
+  );
   return {
     number: ncr.number,
     state: ncr.state as NcrState,
@@ -434,20 +491,18 @@ export async function ncrDetail(number: string, ctx: Ctx): Promise<NcrDetail> {
     decidedAt: ncr.decidedAt?.toISOString() ?? null,
     closedAt: ncr.closedAt?.toISOString() ?? null,
     stageResultId: ncr.stageResultId,
+    origin: o
+      ? {
+          stageName: o.stage?.name ?? '',
+          stationName: o.station?.name ?? null,
+          operator: o.operator?.name ?? '',
+          finishedAt: o.finishedAt.toISOString(),
+        }
+      : null,
     item: presented,
-    timeline: transitions.map((t) => ({
-      at: t.createdAt.toISOString(),
-      from: t.fromState as NcrState | null,
-      to: t.toState as NcrState,
-      actor: users.get(t.actorId) ?? '',
-      reason: t.reason,
-    })),
-    signatures: signatures.map((s) => ({
-      printedName: s.printedName,
-      meaning: s.meaning,
-      signedAt: s.signedAt.toISOString(),
-    })),
-    photos,
+    timeline,
+    signatures: signatures.map(presentSignature),
+    photos: [...resultPhotos, ...ownPhotos],
     allowed: allowedActions(ncr, ctx.actor?.role as Role | undefined, ctx.actor?.id),
   };
 }
@@ -502,25 +557,18 @@ async function transition(
   });
 }
 
-async function sign(ctx: Ctx, transaction: Transaction, ncr: Nonconformance, password: string, meaning: string) {
-  const user = (await User.findByPk(ctx.actor!.id, { transaction }))!;
-  if (!(await checkPassword(password, user.passwordHash))) {
-    throw new AppError(400, 'signature_refused', 'The password does not match: nothing was signed or changed.', {
-      password: 'That is not your password.',
-    });
-  }
-  const s = await Signature.create(
-    {
-      userId: user.id,
-      printedName: user.name,
-      meaning,
-      entity: 'nonconformance',
-      entityId: ncr.number,
-      signedAt: new Date(),
-    },
-    { transaction },
-  );
-  return { user, signature: s };
+function sign(
+  ctx: Ctx,
+  transaction: Transaction,
+  ncr: Nonconformance,
+  input: { password: string; meaning: string; reason: string },
+) {
+  return signWithPassword(ctx, transaction, {
+    entity: 'nonconformance',
+    entityId: ncr.number,
+    ...input,
+    refused: 'nothing was signed or changed.',
+  });
 }
 
 /**
@@ -569,7 +617,9 @@ async function releaseIfClear(ctx: Ctx, transaction: Transaction, item: Item, nc
       ? { status: 'in_process', currentStageId: following.stageId }
       : { status: 'finished', currentStageId: null };
   } else {
-    const back = ncr.itemStatusBefore && ncr.itemStatusBefore !== 'on_hold' ? ncr.itemStatusBefore : 'in_process';
+    let back = ncr.itemStatusBefore && ncr.itemStatusBefore !== 'on_hold' ? ncr.itemStatusBefore : 'in_process';
+    // held while it was in a unit, taken out since: it is a finished part again, not installed
+    if (back === 'installed' && !(await installedIn(item.id, transaction))) back = 'finished';
     next = { status: back };
   }
   if (next.status === item.status && (next.currentStageId ?? item.currentStageId) === item.currentStageId) return;
@@ -584,13 +634,11 @@ async function releaseIfClear(ctx: Ctx, transaction: Transaction, item: Item, nc
   });
 }
 
-async function lockedItem(ncr: Nonconformance, transaction: Transaction) {
-  if (!ncr.itemId) return null;
-  await lockUnitOf(ncr.itemId, transaction);
-  return Item.findByPk(ncr.itemId, { transaction, lock: transaction.LOCK.UPDATE });
-}
-
-/** Locks the item before the NCR (the order every writer uses), then runs the step. */
+/**
+ * Every step follows the lock protocol (unit-locks.ts): the units the NCR's subject reaches, then
+ * its item, then the NCR itself. A step can scrap a part or return a lot, which the release gate
+ * must see, so it takes the same unit locks a release does.
+ */
 async function step<T>(
   sequelize: Sequelize,
   number: string,
@@ -598,7 +646,8 @@ async function step<T>(
 ): Promise<T> {
   return sequelize.transaction(async (transaction) => {
     const peek = await findNcr(number, transaction);
-    const item = await lockedItem(peek, transaction);
+    await lockUnitsReachedBy(sequelize, subjectOf(peek), transaction);
+    const item = peek.itemId ? await Item.findByPk(peek.itemId, { transaction, lock: transaction.LOCK.UPDATE }) : null;
     const ncr = await findNcr(number, transaction, true);
     return fn(transaction, ncr, item);
   });
@@ -676,9 +725,19 @@ async function decidedMail(t: Transaction, ncr: Nonconformance, serial: string, 
   ];
 }
 
-/** Carries out a decision once it is fully signed: rework sends the part back, scrap ends it. */
-async function carryOut(ctx: Ctx, t: Transaction, ncr: Nonconformance, item: Item | null, signer: string) {
-  await transition(ctx, t, ncr, 'decided', `${DISPOSITION_LABELS[ncr.disposition!]}: ${ncr.dispositionReason ?? ''}`, {
+/**
+ * Carries out a decision once it is fully signed: rework sends the part back, scrap ends it. The
+ * step is recorded under the person who completed the decision, with their own words.
+ */
+async function carryOut(
+  ctx: Ctx,
+  t: Transaction,
+  ncr: Nonconformance,
+  item: Item | null,
+  signer: string,
+  words: string,
+) {
+  await transition(ctx, t, ncr, 'decided', words, {
     awaitingSecondSignature: false,
     decidedAt: new Date(),
   });
@@ -777,13 +836,11 @@ export async function disposition(sequelize: Sequelize, ctx: Ctx, number: string
       reworkStageId = stage.id;
     }
     const critical = ncr.severity === 'critical' && body.disposition === 'use_as_is';
-    const { user } = await sign(
-      ctx,
-      t,
-      ncr,
-      body.password,
-      `${critical ? 'First signature: ' : ''}${DISPOSITION_LABELS[body.disposition]} on ${ncr.number}`,
-    );
+    const { user } = await sign(ctx, t, ncr, {
+      password: body.password,
+      meaning: `${critical ? 'First signature: ' : ''}${DISPOSITION_LABELS[body.disposition]} on ${ncr.number}`,
+      reason: body.reason,
+    });
     await ncr.update(
       {
         disposition: body.disposition,
@@ -801,11 +858,32 @@ export async function disposition(sequelize: Sequelize, ctx: Ctx, number: string
         entityId: ncr.number,
         after: { disposition: body.disposition, reason: body.reason, signedBy: user.name },
       });
+      await enqueueMail(t, await countersignMails(t, ncr, item?.serial ?? '', user));
       return;
     }
-    await carryOut(ctx, t, ncr, item, user.name);
+    await carryOut(ctx, t, ncr, item, user.name, `${DISPOSITION_LABELS[body.disposition]}: ${body.reason}`);
   });
   return ncrDetail(number, ctx);
+}
+
+/** A critical use-as-is signed once: every other quality engineer is asked for the second signature. */
+async function countersignMails(t: Transaction, ncr: Nonconformance, serial: string, first: User): Promise<Mail[]> {
+  const others = (await recipients(['quality'], t)).filter((u) => u.email !== first.email);
+  return others.map((u) => ({
+    to: u.email,
+    subject: `Your signature is needed: use as is on critical NCR ${ncr.number} (${serial})`,
+    text: [
+      `${first.name} signed a use-as-is decision on ${ncr.number} (${serial}, critical). A critical use-as-is needs a second quality engineer before it takes effect.`,
+      '',
+      'Their reason:',
+      quoted(ncr.dispositionReason ?? ''),
+      '',
+      `Read it and countersign, or void it: ${ncrLink(ncr.number)}`,
+      '',
+      '— Coretrail',
+    ].join('\n'),
+    reason: 'ncr.countersign_requested',
+  }));
 }
 
 export async function countersign(
@@ -821,14 +899,18 @@ export async function countersign(
         reason: 'same_signer',
       });
     }
-    const { user } = await sign(ctx, t, ncr, body.password, `Second signature: use as is on ${ncr.number}`);
+    const { user } = await sign(ctx, t, ncr, {
+      password: body.password,
+      meaning: `Second signature: use as is on ${ncr.number}`,
+      reason: body.reason,
+    });
     await recordAudit(ctx, t, {
       action: 'ncr.second_signature',
       entity: 'nonconformance',
       entityId: ncr.number,
       after: { signedBy: user.name, reason: body.reason },
     });
-    await carryOut(ctx, t, ncr, item, user.name);
+    await carryOut(ctx, t, ncr, item, user.name, `Use as is, countersigned: ${body.reason}`);
   });
   return ncrDetail(number, ctx);
 }
@@ -847,7 +929,8 @@ export async function closeNcr(sequelize: Sequelize, ctx: Ctx, number: string, n
         },
       );
     }
-    await transition(ctx, t, ncr, 'closed', note || `Rework passed: result ${proof.id}`);
+    const at = (await Stage.findByPk(proof.stageId, { transaction: t }))?.name ?? 'the rework stage';
+    await transition(ctx, t, ncr, 'closed', note || `Rework passed at ${at}`);
     if (item) await releaseIfClear(ctx, t, item, ncr);
   });
   return ncrDetail(number, ctx);
@@ -874,6 +957,7 @@ export async function settleRework(
   stageId: number,
   result: StageResult,
   newNcr: Nonconformance | null,
+  stageName: string,
 ) {
   const waiting = await Nonconformance.findAll({
     where: {
@@ -892,8 +976,8 @@ export async function settleRework(
       ncr,
       'closed',
       result.verdict === 'pass'
-        ? `Rework passed: result ${result.id}`
-        : `Rework failed: result ${result.id}; carried on as ${newNcr?.number ?? 'a new NCR'}`,
+        ? `Rework passed at ${stageName}`
+        : `Rework failed again at ${stageName}; carried on as ${newNcr?.number ?? 'a new NCR'}`,
     );
   }
   return waiting.map((n) => n.number);

@@ -1,10 +1,12 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
-import type {
-  BlockingReason,
-  ReleaseBody,
-  ReleaseCheckJson,
-  ShipmentJson,
-  WarrantyJson,
+import { dateIn, warrantyCover, warrantyEndsOn } from '../../shared/domain/warranty.js';
+import {
+  RELEASE_MEANING,
+  type BlockingReason,
+  type ReleaseBody,
+  type ReleaseCheckJson,
+  type ShipmentJson,
+  type WarrantyJson,
 } from '../../shared/schemas/build.js';
 import { PART_KIND_LABELS } from '../../shared/schemas/reference.js';
 import { recordAudit, type Ctx } from '../audit.js';
@@ -13,13 +15,19 @@ import { appLink } from '../mail/links.js';
 import { enqueueMail } from '../mail/messages.js';
 import { Customer, EngineFamily, Item, Shipment, User } from '../models/index.js';
 import { findBySerial } from './items.js';
+import { plantSettings } from './plant.js';
+import { signWithPassword } from './signatures.js';
 
 /**
  * The release gate. A long block may ship only when it and every part in its genealogy has a
  * current passing result at every required stage of its route (a failure accepted by a closed
- * use-as-is NCR counts as passed), no NCR on any of them or on a lot that went in is open, and the
- * run test passed. Release locks the unit's row and checks again inside the lock; every path that
- * raises an NCR on a part takes the same lock first, so no NCR can slip in between.
+ * use-as-is NCR counts as passed), no NCR on any of them or on a lot that went in is open, nothing
+ * in it is scrapped or on hold, no lot in it is returned, scrapped or on hold, and the run test
+ * passed after the last part was fitted. It looks at the state of what is in the unit, not only at
+ * open NCRs: a closed NCR can leave a scrapped head or a returned lot behind.
+ *
+ * Release locks the unit's row and checks again inside the lock. Every path that can make a unit
+ * unreleasable locks the units it reaches first (unit-locks.ts), so nothing slips in between.
  */
 
 type Row = { id: number; serial: string; kind: string; status: string; family_id: number };
@@ -43,6 +51,12 @@ export async function genealogyOf(sequelize: Sequelize, unitId: number, transact
 }
 
 const itemLink = (serial: string) => `/items/${serial}`;
+
+const LOT_STATUS_WORDS: Record<string, string> = {
+  returned: 'was returned to the supplier',
+  scrapped: 'was scrapped',
+  on_hold: 'is on hold',
+};
 
 export async function releaseCheck(
   sequelize: Sequelize,
@@ -78,10 +92,13 @@ export async function releaseCheck(
          SELECT r.id, r.verdict FROM stage_results r
           WHERE r.item_id = i.id AND r.stage_id = s.id
             AND NOT EXISTS (SELECT 1 FROM stage_results x WHERE x.supersedes_id = r.id)
+            -- the unit's own stages count only when recorded after its last part went in
+            AND (i.id <> :unit OR r.finished_at >= (SELECT max(l.created_at) FROM item_links l
+                   WHERE l.parent_item_id = :unit AND l.link_type = 'installed_in' AND l.removed_at IS NULL))
           ORDER BY r.finished_at DESC, r.id DESC LIMIT 1) cur ON true
       WHERE i.id IN (:ids) AND (cur.verdict IS DISTINCT FROM 'pass')
       ORDER BY i.id, rs.position`,
-    { type: QueryTypes.SELECT, replacements: { ids: manufactured.map((i) => i.id) }, transaction },
+    { type: QueryTypes.SELECT, replacements: { ids: manufactured.map((i) => i.id), unit: unit.id }, transaction },
   );
   for (const g of gaps) {
     if (g.verdict === 'fail' && g.accepted) continue;
@@ -127,6 +144,39 @@ export async function releaseCheck(
     link: null,
   });
 
+  // the state of what is in it: a closed NCR can leave a scrapped part or a returned lot behind
+  const held = new Set(openNcrs.map((n) => n.item_id));
+  const badParts = items.filter(
+    (i) => (i.depth <= 1 && i.status === 'scrapped') || (i.status === 'on_hold' && !held.has(i.id)),
+  );
+  for (const p of badParts) {
+    const what = PART_KIND_LABELS[p.kind as keyof typeof PART_KIND_LABELS].toLowerCase();
+    reasons.push({
+      code: p.status === 'scrapped' ? 'part_scrapped' : 'part_on_hold',
+      message:
+        p.status === 'scrapped'
+          ? `${p.serial} (${what}) has been scrapped: replace it before the unit ships.`
+          : `${p.serial} (${what}) is on hold.`,
+      serial: p.serial,
+      link: itemLink(p.serial),
+    });
+  }
+  checks.push({ label: 'Nothing in the unit is scrapped or on hold', ok: !badParts.length, link: null });
+  const lots = await sequelize.query<{ lot_code: string; status: string; kind: string }>(
+    `SELECT pl.lot_code, pl.status, pl.part_kind AS kind FROM unit_lots ul JOIN part_lots pl ON pl.id = ul.part_lot_id
+      WHERE ul.unit_item_id = :unit AND pl.status <> 'usable' ORDER BY ul.id`,
+    { type: QueryTypes.SELECT, replacements: { unit: unit.id }, transaction },
+  );
+  for (const l of lots) {
+    reasons.push({
+      code: 'lot_unusable',
+      message: `Lot ${l.lot_code} (${l.kind.replace(/_/g, ' ')}) in this unit ${LOT_STATUS_WORDS[l.status] ?? `is ${l.status}`}: replace those parts before it ships.`,
+      serial: null,
+      link: `/lots/${encodeURIComponent(l.lot_code)}`,
+    });
+  }
+  checks.push({ label: 'Every lot in the unit is usable', ok: !lots.length, link: null });
+
   const runTestOk = !gaps.some(
     (g) => g.item_id === unit.id && g.stage_code === 'run-test' && !(g.verdict === 'fail' && g.accepted),
   );
@@ -145,28 +195,26 @@ export async function releaseCheck(
   return { serial: unit.serial, releasable: reasons.length === 0, reasons, checks };
 }
 
-export function warrantyOf(shipDate: string, months: number, km: number | null, today = new Date()): WarrantyJson {
-  const start = new Date(`${shipDate}T00:00:00Z`);
-  const end = new Date(start);
-  end.setUTCMonth(end.getUTCMonth() + months);
-  const day = new Date(`${today.toISOString().slice(0, 10)}T00:00:00Z`);
-  const daysLeft = Math.round((end.getTime() - day.getTime()) / 86_400_000);
+export function warrantyOf(shipDate: string, months: number, km: number | null, today: string): WarrantyJson {
+  const cover = warrantyCover({ startsOn: shipDate, months, km }, today);
   return {
     months,
     km,
     startsOn: shipDate,
-    endsOn: end.toISOString().slice(0, 10),
-    inWarranty: daysLeft > 0 && day >= start,
-    daysLeft: Math.max(0, daysLeft),
+    endsOn: cover.endsOn,
+    inWarranty: cover.covered,
+    daysLeft: cover.daysLeft,
+    reason: cover.reason,
   };
 }
 
 export async function presentShipment(s: Shipment, transaction?: Transaction): Promise<ShipmentJson> {
-  const [customer, by] = await Promise.all([
+  const [customer, by, plant] = await Promise.all([
     s.customerId ? Customer.findByPk(s.customerId, { transaction }) : null,
     User.findByPk(s.releasedById, { attributes: ['name'], transaction }),
+    plantSettings(transaction),
   ]);
-  const shipDate = s.shipDate ?? s.shippedAt.toISOString().slice(0, 10);
+  const shipDate = s.shipDate ?? dateIn(plant.timeZone, s.shippedAt);
   return {
     customer: customer ? { code: customer.code, name: customer.name } : null,
     reference: s.reference,
@@ -174,7 +222,7 @@ export async function presentShipment(s: Shipment, transaction?: Transaction): P
     shipDate,
     releasedBy: by?.name ?? '',
     releasedAt: s.shippedAt.toISOString(),
-    warranty: warrantyOf(shipDate, s.warrantyMonths ?? 0, s.warrantyKm),
+    warranty: warrantyOf(shipDate, s.warrantyMonths ?? 0, s.warrantyKm, dateIn(plant.timeZone, new Date())),
   };
 }
 
@@ -200,11 +248,34 @@ export async function releaseUnit(sequelize: Sequelize, ctx: Ctx, serial: string
     }
     const customer = await Customer.findByPk(body.customerId, { transaction });
     if (!customer) throw invalid('Choose a customer on file.', { customerId: 'Unknown customer.' });
-    const latest = new Date(Date.now() + 14 * 3600_000).toISOString().slice(0, 10);
-    if (body.shipDate > latest)
-      throw invalid('The ship date cannot be in the future.', { shipDate: 'Not in the future.' });
+    // the plant's calendar: not after today there, nor before the unit's last result
+    const plant = await plantSettings(transaction);
+    const today = dateIn(plant.timeZone, new Date());
+    if (body.shipDate > today) {
+      throw invalid(`The ship date cannot be after today (${today} at the plant).`, {
+        shipDate: `Not after ${today}.`,
+      });
+    }
+    const [last] = await sequelize.query<{ at: Date | null }>(
+      'SELECT max(finished_at) AS at FROM stage_results WHERE item_id = :id',
+      { type: QueryTypes.SELECT, replacements: { id: unit.id }, transaction },
+    );
+    const earliest = last?.at ? dateIn(plant.timeZone, new Date(last.at)) : null;
+    if (earliest && body.shipDate < earliest) {
+      throw invalid(`The ship date cannot be before the unit's last result, on ${earliest}.`, {
+        shipDate: `Not before ${earliest}, the day of its last result.`,
+      });
+    }
     const family = (await EngineFamily.findByPk(unit.engineFamilyId, { transaction }))!;
-    const warranty = warrantyOf(body.shipDate, family.warrantyMonths, family.warrantyKm);
+    const { user, signature } = await signWithPassword(ctx, transaction, {
+      entity: 'item',
+      entityId: unit.serial,
+      meaning: RELEASE_MEANING,
+      reason: `Order ${body.reference} for ${customer.name}`,
+      password: body.password,
+      refused: 'the unit was not released.',
+    });
+    const warrantyEnd = warrantyEndsOn(body.shipDate, family.warrantyMonths);
     const shipment = await Shipment.create(
       {
         unitItemId: unit.id,
@@ -213,7 +284,7 @@ export async function releaseUnit(sequelize: Sequelize, ctx: Ctx, serial: string
         carrier: body.carrier || null,
         shippedAt: new Date(),
         releasedById: ctx.actor!.id,
-        warrantyEndsOn: warranty.endsOn,
+        warrantyEndsOn: warrantyEnd,
         warrantyKm: family.warrantyKm,
         shipDate: body.shipDate,
         warrantyMonths: family.warrantyMonths,
@@ -233,8 +304,9 @@ export async function releaseUnit(sequelize: Sequelize, ctx: Ctx, serial: string
         customer: customer.code,
         reference: body.reference,
         shipDate: body.shipDate,
-        warrantyEndsOn: warranty.endsOn,
+        warrantyEndsOn: warrantyEnd,
         checks: check.checks,
+        signature: { printedName: user.name, meaning: signature.meaning, signedAt: signature.signedAt.toISOString() },
       },
     });
     return { check, shipment: await presentShipment(shipment, transaction) };

@@ -10,10 +10,10 @@ import type {
   SpecCharacteristicJson,
 } from '../../shared/schemas/spec.js';
 import { recordAudit, type Ctx } from '../audit.js';
-import { AppError, conflict, invalid, notFound } from '../errors.js';
+import { conflict, forbidden, invalid, notFound } from '../errors.js';
 import { Characteristic, EngineFamily, Signature, Stage, ToleranceRule, User } from '../models/index.js';
-import { checkPassword } from './passwords.js';
 import type { Reference } from './reference-cache.js';
+import { signWithPassword } from './signatures.js';
 
 /**
  * The spec book. A rule is drafted, then approved with the approver's signature (their password
@@ -365,11 +365,9 @@ export async function approveRule(
   return sequelize.transaction(async (transaction) => {
     const rule = await lockedRule(id, transaction);
     mustBeDraft(rule);
-    const approver = (await User.findByPk(ctx.actor!.id, { transaction }))!;
-    if (!(await checkPassword(input.password, approver.passwordHash))) {
-      throw new AppError(400, 'signature_refused', 'The password does not match: the rule was not approved.', {
-        password: 'That is not your password.',
-      });
+    // separation of duties: the person who wrote the limits is not the one who signs them off
+    if (rule.createdById === ctx.actor!.id) {
+      throw forbidden('You drafted this version: another quality engineer must approve it.');
     }
     const now = new Date();
     const effectiveFrom = input.effectiveFrom ? new Date(input.effectiveFrom) : now;
@@ -397,6 +395,15 @@ export async function approveRule(
     }
     const family = (await EngineFamily.findByPk(rule.engineFamilyId, { transaction }))!;
     const c = (await Characteristic.findByPk(rule.characteristicId, { transaction }))!;
+    const meaning = `Approved ${family.code} ${c.name}, version ${rule.version}`;
+    const { user: approver } = await signWithPassword(ctx, transaction, {
+      entity: 'tolerance_rule',
+      entityId: String(rule.id),
+      meaning,
+      reason: input.reason,
+      password: input.password,
+      refused: 'the rule was not approved.',
+    });
     for (const old of others) {
       const before = { status: old.status, supersededAt: old.supersededAt };
       await old.update({ status: 'superseded', supersededAt: effective }, { transaction });
@@ -416,18 +423,6 @@ export async function approveRule(
         approvedById: approver.id,
         approvedAt: now,
         approvalReason: input.reason,
-      },
-      { transaction },
-    );
-    const meaning = `Approved ${family.code} ${c.name}, version ${rule.version}`;
-    await Signature.create(
-      {
-        userId: approver.id,
-        printedName: approver.name,
-        meaning,
-        entity: 'tolerance_rule',
-        entityId: String(rule.id),
-        signedAt: now,
       },
       { transaction },
     );

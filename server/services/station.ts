@@ -27,7 +27,6 @@ import {
 } from '../models/index.js';
 import { claimUploads, presentAttachment } from './attachments.js';
 import { loadResultRecords } from './result-records.js';
-import { lockUnitOf } from './build.js';
 import { checkedSerial, findBySerial, presentItem, routeFor } from './items.js';
 import {
   blockingNcrsOf,
@@ -38,6 +37,7 @@ import {
 } from './nonconformances.js';
 import { referenceData, VERSION_SQL, versionRead, type Reference, type VersionRow } from './reference-cache.js';
 import { formCharacteristics } from './spec.js';
+import { lockUnitsReachedBy } from './unit-locks.js';
 
 type Route = NonNullable<Awaited<ReturnType<typeof routeFor>>>;
 type FormChar = ReturnType<typeof formCharacteristics>[number];
@@ -326,8 +326,8 @@ export async function submitResult(
     const ref = await referenceData(sequelize, transaction, versionRead(version));
     const { station, stage } = stationByCode(ref, body.station);
     const serial = checkedSerial(body.serial);
-    // a part already in a unit: the unit's lock first, as the release gate takes it (no NCR slips past a release)
-    await lockUnitOf({ serial }, transaction);
+    // the units the part reaches first, as the release gate takes them (no NCR slips past a release)
+    await lockUnitsReachedBy(sequelize, { serial }, transaction);
     // the part's row lock: a second tablet submitting the same part waits here, then sees the first
     const item = await findBySerial(serial, transaction, { lock: true });
     const family = ref.family(item.engineFamilyId)!;
@@ -393,6 +393,15 @@ export async function submitResult(
         });
       }
       gaugeOf.set(code, usableGauge(g, `gauges.${code}`));
+    }
+    // a gauge names the instrument a reading was taken with: none for a reading nobody took
+    for (const code of gaugeOf.keys()) {
+      if (!body.readings.some((r) => r.characteristic === code)) {
+        const c = chars.find((x) => x.code === code)!;
+        throw invalid(`No ${lower(c.name)} was entered: leave its gauge out.`, {
+          [`gauges.${code}`]: `No ${lower(c.name)} reading was entered, so no gauge was used for it.`,
+        });
+      }
     }
     const unmeasured = chars.filter((c) => c.kind === 'variable' && !c.optional && !gaugeOf.has(c.code));
     if (!gauge && unmeasured.length) {
@@ -468,7 +477,10 @@ export async function submitResult(
     let ncr = null;
     if (verdict === 'fail') {
       const critical = failing.some((r) => charByCode.get(r.characteristic)!.critical);
-      const first = charByCode.get(failing[0]!.characteristic)!;
+      // each characteristic carries its own defect code: a critical failure's comes first
+      const first =
+        failing.map((r) => charByCode.get(r.characteristic)!).find((c) => c.critical) ??
+        charByCode.get(failing[0]!.characteristic)!;
       const shown = failing.slice(0, 4).map((r) => `${r.name} at ${lower(r.positionLabel)}: ${r.reason}`);
       const snapshot: FailingReading[] = failing.map((r) => ({
         characteristic: r.characteristic,
@@ -494,6 +506,7 @@ export async function submitResult(
         defectCode: first.defectCode,
         description: `${stage.name} failed on ${item.serial}: ${shown.join('; ')}${failing.length > 4 ? `; and ${failing.length - 4} more` : ''}.`,
         failing: snapshot,
+        origin: `Raised by the failing ${stage.name} result recorded at ${station.name}`,
       });
       await item.update({ status: 'on_hold', currentStageId: stage.id }, { transaction });
     } else if (!supersedes) {
@@ -506,7 +519,7 @@ export async function submitResult(
       );
     }
 
-    if (!supersedes) await settleRework(ctx, transaction, item, stage.id, result, ncr);
+    if (!supersedes) await settleRework(ctx, transaction, item, stage.id, result, ncr, stage.name);
 
     // the next stage is on the route already read; the operator's name came with the session
     const nextStage = item.currentStageId

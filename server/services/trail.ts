@@ -5,7 +5,10 @@ import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.
 import { Item, Shipment, Signature, StageResult } from '../models/index.js';
 import { findBySerial, presentItem, type KnownLink } from './items.js';
 import { referenceData } from './reference-cache.js';
+import { listFieldActions } from './field-actions.js';
+import { ncrTimeline } from './ncr-timeline.js';
 import { presentShipment } from './release.js';
+import { presentSignature } from './signatures.js';
 import { loadResultRecords } from './result-records.js';
 
 /**
@@ -15,7 +18,12 @@ import { loadResultRecords } from './result-records.js';
  * stage_results_item_stage_idx, readings' unique (stage_result_id, …), nonconformances_item_state_idx).
  */
 
-type Link = KnownLink & { link_type: 'harvested_from' | 'installed_in' };
+type Link = KnownLink & {
+  link_type: 'harvested_from' | 'installed_in';
+  created_at: Date;
+  removed_at: Date | null;
+  removed_reason: string | null;
+};
 
 export async function trailOf(sequelize: Sequelize, serial: string): Promise<TrailJson> {
   const [item, ref] = await Promise.all([findBySerial(serial), referenceData(sequelize)]);
@@ -23,21 +31,23 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
   // are gathered as the walk follows them (index scans only), never by scanning item_links for
   // links among the items found, which grew with the plant's history. A part in a unit starts the
   // walk at its unit: the tree is the unit's, whose other parts may come from other cores, three
-  // links away from this part.
+  // links away from this part. A part taken out of a unit keeps its ended link: the history of
+  // what was in the unit, and when, stays in the tree.
   const links = await sequelize.query<Link>(
-    `WITH RECURSIVE g(id, depth, link_id, parent_item_id, child_item_id, link_type) AS (
+    `WITH RECURSIVE g(id, depth, link_id) AS (
        SELECT COALESCE((SELECT parent_item_id FROM item_links
                          WHERE child_item_id = :id AND link_type = 'installed_in' AND removed_at IS NULL), :id::int),
-              0, NULL::int, NULL::int, NULL::int, NULL::varchar
+              0, NULL::int
        UNION
-       SELECT CASE WHEN l.parent_item_id = g.id THEN l.child_item_id ELSE l.parent_item_id END, g.depth + 1,
-              l.id, l.parent_item_id, l.child_item_id, l.link_type
+       SELECT CASE WHEN l.parent_item_id = g.id THEN l.child_item_id ELSE l.parent_item_id END, g.depth + 1, l.id
          FROM item_links l JOIN g ON (l.parent_item_id = g.id OR l.child_item_id = g.id)
-        WHERE l.removed_at IS NULL AND g.depth < 2
+        WHERE (l.removed_at IS NULL OR l.link_type = 'installed_in') AND g.depth < 2
      )
-     SELECT DISTINCT link_id AS id, parent_item_id, child_item_id, link_type FROM g WHERE link_type IS NOT NULL`,
+     SELECT l.id, l.parent_item_id, l.child_item_id, l.link_type, l.created_at, l.removed_at, l.removed_reason
+       FROM item_links l WHERE l.id IN (SELECT link_id FROM g)`,
     { type: QueryTypes.SELECT, replacements: { id: item.id } },
   );
+  const live = links.filter((l) => !l.removed_at);
   const ids = [...new Set([item.id, ...links.flatMap((l) => [l.parent_item_id, l.child_item_id])])];
   // the items and every result among them at once; results outside the tree are dropped below
   const [items, allResults] = await Promise.all([
@@ -52,7 +62,7 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
   ]);
   const byId = new Map(items.map((i) => [i.id, i]));
 
-  const node = (i: Item, link: TrailNode['link'], children: TrailNode[]): TrailNode => ({
+  const node = (i: Item, link: TrailNode['link'], children: TrailNode[], fit?: Link): TrailNode => ({
     serial: i.serial,
     kind: i.kind,
     kindLabel: PART_KIND_LABELS[i.kind as PartKind],
@@ -60,10 +70,13 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
     positionLabel: i.positionLabel,
     familyCode: ref.family(i.engineFamilyId)?.code ?? '',
     link,
+    fittedAt: fit ? new Date(fit.created_at).toISOString() : null,
+    removedAt: fit?.removed_at ? new Date(fit.removed_at).toISOString() : null,
+    removedReason: fit?.removed_reason ?? null,
     children,
   });
-  const installedIn = (id: number) => links.find((l) => l.link_type === 'installed_in' && l.child_item_id === id);
-  const harvestedFrom = (id: number) => links.find((l) => l.link_type === 'harvested_from' && l.child_item_id === id);
+  const installedIn = (id: number) => live.find((l) => l.link_type === 'installed_in' && l.child_item_id === id);
+  const harvestedFrom = (id: number) => live.find((l) => l.link_type === 'harvested_from' && l.child_item_id === id);
   const coreOf = (id: number) => {
     const l = harvestedFrom(id);
     return l ? [node(byId.get(l.parent_item_id)!, 'harvested_from', [])] : [];
@@ -71,11 +84,14 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
   let tree: TrailNode;
   const unitId = item.kind === 'long_block' ? item.id : installedIn(item.id)?.parent_item_id;
   if (unitId) {
-    const parts = links.filter((l) => l.link_type === 'installed_in' && l.parent_item_id === unitId);
+    // every part that was ever fitted, in the order it went in; one taken out says when and why
+    const parts = links
+      .filter((l) => l.link_type === 'installed_in' && l.parent_item_id === unitId)
+      .sort((a, b) => new Date(a.created_at).getTime() - new Date(b.created_at).getTime() || a.id - b.id);
     tree = node(
       byId.get(unitId)!,
       null,
-      parts.map((l) => node(byId.get(l.child_item_id)!, 'installed_in', coreOf(l.child_item_id))),
+      parts.map((l) => node(byId.get(l.child_item_id)!, 'installed_in', coreOf(l.child_item_id), l)),
     );
   } else if (item.kind === 'core') {
     const parts = links.filter((l) => l.link_type === 'harvested_from' && l.parent_item_id === item.id);
@@ -92,12 +108,19 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
       }),
     );
   } else {
-    tree = node(item, null, coreOf(item.id));
+    // a part in no unit now: its core, and any unit it was taken out of
+    const former = links.filter((l) => l.link_type === 'installed_in' && l.child_item_id === item.id);
+    tree = node(item, null, [
+      ...coreOf(item.id),
+      ...former.map((l) => node(byId.get(l.parent_item_id)!, 'installed_in', [], l)),
+    ]);
   }
 
   // the records of every item in the tree
   const treeIds = new Set<number>();
   const walk = (n: TrailNode) => {
+    // a unit this part was taken out of is named, but its records are that unit's own trail
+    if (n.kind === 'long_block' && n.removedAt) return;
     const i = items.find((x) => x.serial === n.serial);
     if (i) treeIds.add(i.id);
     n.children.forEach(walk);
@@ -153,7 +176,7 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
       ]);
       return { ncrs, transitions, signatures };
     });
-  const [records, { ncrs, transitions, signatures }, lots, shipped, card] = await Promise.all([
+  const [records, { ncrs, transitions, signatures }, lots, shipped, card, fieldActions] = await Promise.all([
     loadResultRecords(results, items, { ref }),
     ncrsWithSteps,
     sequelize.query<{
@@ -172,7 +195,10 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
     Shipment.findOne({ where: { unitItemId: top.id }, order: [['id', 'DESC']] }).then((s) =>
       s ? presentShipment(s) : null,
     ),
-    presentItem(item, { ref, genealogy: { links, items } }),
+    presentItem(item, { ref, genealogy: { links: live, items } }),
+    top.kind === 'long_block'
+      ? listFieldActions(sequelize, { unitId: top.id, page: 1, pageSize: 200 }).then((p) => p.rows)
+      : [],
   ]);
 
   const trailResults: TrailResult[] = results.map((r) => {
@@ -204,18 +230,19 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
     disposition: n.disposition,
     dispositionReason: n.disposition_reason,
     raisedAt: new Date(n.created_at).toISOString(),
-    timeline: transitions
-      .filter((t) => t.nonconformance_id === n.id)
-      .map((t) => ({
-        at: new Date(t.created_at).toISOString(),
-        from: t.from_state,
-        to: t.to_state,
-        actor: t.actor,
-        reason: t.reason,
-      })),
-    signatures: signatures
-      .filter((s) => s.entityId === n.number)
-      .map((s) => ({ printedName: s.printedName, meaning: s.meaning, signedAt: s.signedAt.toISOString() })),
+    timeline: ncrTimeline(
+      transitions
+        .filter((t) => t.nonconformance_id === n.id)
+        .map((t) => ({
+          at: new Date(t.created_at),
+          from: t.from_state,
+          to: t.to_state,
+          actor: t.actor,
+          reason: t.reason,
+        })),
+      signatures.filter((s) => s.entityId === n.number),
+    ),
+    signatures: signatures.filter((s) => s.entityId === n.number).map(presentSignature),
   }));
   return {
     item: card,
@@ -232,6 +259,7 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
     ncrs: trailNcrs,
     shipment: shipped,
     warranty: shipped?.warranty ?? null,
+    fieldActions,
   };
 }
 

@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import type { NcrState } from './ncr.js';
+import type { FieldActionJson } from './field-actions.js';
+import type { NcrSignature, NcrState, NcrTimelineEntry } from './ncr.js';
 import type { ItemJson } from './items.js';
 import type { AttachmentJson } from './attachments.js';
 
@@ -84,12 +85,30 @@ export const buildBody = z
   });
 export type BuildBody = z.output<typeof buildBody>;
 
+/** Release is a signed act: the shipper's password, checked again, with the meaning "released for shipment". */
 export const releaseBody = z.strictObject({
   customerId: z.number('Choose the customer.').int().positive(),
   reference: z.string('Enter the order reference.').trim().min(1, 'Enter the order reference.').max(60),
   shipDate: z.iso.date('Use a date like 2026-12-02.'),
   carrier: z.string().trim().max(80).default(''),
+  password: z
+    .string('Enter your password to sign the release.')
+    .min(1, 'Enter your password to sign the release.')
+    .max(200),
 });
+export const RELEASE_MEANING = 'Released for shipment';
+
+/** Take a part out of a built unit and fit another in its place. */
+export const replacePartBody = z.strictObject({
+  remove: serial('part to take out'),
+  fit: serial('part to fit'),
+  reason: z
+    .string('Say why the part is replaced.')
+    .trim()
+    .min(5, 'Say why the part is replaced, in at least 5 characters.')
+    .max(300, 'At most 300 characters.'),
+});
+export type ReplacePartBody = z.output<typeof replacePartBody>;
 export type ReleaseBody = z.output<typeof releaseBody>;
 
 export const lotCodeParam = z.strictObject({ lotCode: z.string().trim().min(1).max(60) });
@@ -99,7 +118,18 @@ export const runCsvBody = z.strictObject({
 });
 
 export type BlockingReason = {
-  code: 'stage_missing' | 'stage_failed' | 'ncr_open' | 'lot_ncr_open' | 'run_test' | 'not_finished' | 'shipped';
+  code:
+    | 'stage_missing'
+    | 'stage_failed'
+    | 'ncr_open'
+    | 'lot_ncr_open'
+    | 'run_test'
+    | 'not_finished'
+    | 'shipped'
+    | 'part_scrapped'
+    | 'part_on_hold'
+    | 'lot_unusable'
+    | 'refit_not_tested';
   message: string;
   serial: string | null;
   link: string;
@@ -120,6 +150,8 @@ export type WarrantyJson = {
   endsOn: string;
   inWarranty: boolean;
   daysLeft: number;
+  /** The cover in words: until when, and up to what distance. */
+  reason: string;
 };
 
 export type ShipmentJson = {
@@ -141,6 +173,10 @@ export type TrailNode = {
   familyCode: string;
   /** How it is joined to its parent in the tree: harvested from a core, installed in a unit. */
   link: 'harvested_from' | 'installed_in' | null;
+  /** For a part in a unit: when it was fitted, and when and why it was taken out again (if it was). */
+  fittedAt: string | null;
+  removedAt: string | null;
+  removedReason: string | null;
   children: TrailNode[];
 };
 
@@ -186,8 +222,8 @@ export type TrailNcr = {
   disposition: string | null;
   dispositionReason: string | null;
   raisedAt: string;
-  timeline: { at: string; from: string | null; to: string; actor: string; reason: string }[];
-  signatures: { printedName: string; meaning: string; signedAt: string }[];
+  timeline: NcrTimelineEntry[];
+  signatures: NcrSignature[];
 };
 
 export type TrailLot = {
@@ -208,6 +244,8 @@ export type TrailJson = {
   ncrs: TrailNcr[];
   shipment: ShipmentJson | null;
   warranty: WarrantyJson | null;
+  /** Problems found after the unit shipped, open or decided. */
+  fieldActions: FieldActionJson[];
 };
 
 export type LotLookupJson = {

@@ -138,6 +138,8 @@ export const ncrListQuery = z.strictObject({
   olderThanDays: z.coerce.number().int().min(0).max(3650).optional(),
   assignee: z.union([z.coerce.number().int().positive(), z.literal('none')]).optional(),
   q: z.string().trim().max(60).optional(),
+  /** `me`: critical use-as-is decisions signed once, waiting for the signed-in engineer's countersignature. */
+  awaiting: z.literal('me').optional(),
   sort: z.enum(NCR_SORTS).default('raised'),
   dir: z.enum(['asc', 'desc']).default('desc'),
 });
@@ -165,15 +167,23 @@ export type NcrRow = {
   ageDays: number;
 };
 
+/** A step (a change of state) or a signature, each with its own person, time and words. */
 export type NcrTimelineEntry = {
   at: string;
+  kind: 'step' | 'signature';
+  /** For a step: the states before and after; null for a signature. */
   from: NcrState | null;
-  to: NcrState;
+  to: NcrState | null;
   actor: string;
   reason: string;
+  /** For a signature: what the signer declared by signing. */
+  meaning: string | null;
 };
 
-export type NcrSignature = { printedName: string; meaning: string; signedAt: string };
+export type NcrSignature = { printedName: string; meaning: string; reason: string; signedAt: string };
+
+/** The result an NCR was raised by, in words a person reads (no row numbers). */
+export type NcrOrigin = { stageName: string; stationName: string | null; operator: string; finishedAt: string };
 
 export type NcrDetail = NcrRow & {
   failing: {
@@ -200,6 +210,7 @@ export type NcrDetail = NcrRow & {
   lot: { lotCode: string; partNumber: string; kind: string; supplier: string; status: string } | null;
   closedAt: string | null;
   stageResultId: number | null;
+  origin: NcrOrigin | null;
   item: ItemJson | null;
   timeline: NcrTimelineEntry[];
   signatures: NcrSignature[];

@@ -105,8 +105,15 @@ describe('an NCR from a failing result', () => {
     expect(reworked.item.currentStage.code).toBe('block-deck');
     const closed = await get(quality, `/api/ncrs/${number}`);
     expect(closed.body.state).toBe('closed');
-    expect(closed.body.timeline.map((e: { to: string }) => e.to)).toEqual(['raised', 'in_review', 'decided', 'closed']);
-    expect(closed.body.timeline[3].reason).toBe(`Rework passed: result ${reworked.id}`);
+    const steps = closed.body.timeline.filter((e: { kind: string }) => e.kind === 'step');
+    expect(steps.map((e: { to: string }) => e.to)).toEqual(['raised', 'in_review', 'decided', 'closed']);
+    // in words, never a row number: the stage where the rework passed
+    expect(steps[3].reason).toBe('Rework passed at Bore and hone');
+    expect(steps[3].reason).not.toContain(String(reworked.id));
+    // the signature sits in the timeline under its own signer and reason
+    expect(closed.body.timeline).toContainEqual(
+      expect.objectContaining({ kind: 'signature', actor: 'First Quality', reason: 'Re-hone cylinder 2 to size' }),
+    );
     const told = await MailOutbox.findOne({
       where: { reason: 'ncr.decided', toAddress: operatorEmail, subject: `NCR ${number} on ${serial}: Rework` },
     });
@@ -135,7 +142,7 @@ describe('an NCR from a failing result', () => {
     const first = await get(quality, `/api/ncrs/${number}`);
     expect(first.body.state).toBe('closed');
     expect(first.body.timeline.at(-1).reason).toBe(
-      `Rework failed: result ${again.body.id}; carried on as ${again.body.nonconformance.number}`,
+      `Rework failed again at Bore and hone; carried on as ${again.body.nonconformance.number}`,
     );
     expect((await Item.findOne({ where: { serial } }))!.status).toBe('on_hold');
   });

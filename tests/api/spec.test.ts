@@ -9,15 +9,19 @@ import { formFor, gaugeFor, passThrough, tornDownCore } from '../support/parts.j
 
 let t: TestApp;
 let quality: string;
-let qualityName: string;
+// the drafts are approved by another quality engineer: an author never approves their own
+let approver: string;
+let approverName: string;
 let receiving: string;
 let operator: string;
 
 beforeAll(async () => {
   t = makeTestApp();
   const q = await makeUser('quality', { name: 'Test Quality Engineer' });
-  qualityName = q.name;
   quality = await cookieFor(q, t.config);
+  const a = await makeUser('quality', { name: 'Test Approving Engineer' });
+  approverName = a.name;
+  approver = await cookieFor(a, t.config);
   receiving = await cookieFor(await makeUser('receiving'), t.config);
   operator = await cookieFor(await makeUser('operator'), t.config);
 });
@@ -128,7 +132,7 @@ describe('drafting and approving a new version', () => {
     // a wrong password signs nothing and changes nothing
     const refused = await request(t.app)
       .post(`/api/spec/rules/${draft.body.id}/approve`)
-      .set('Cookie', quality)
+      .set('Cookie', approver)
       .send({ reason: 'Plateau finish for the new ring pack', password: 'not my password' });
     expect(refused.status).toBe(400);
     expect(refused.body.error).toMatchObject({
@@ -140,16 +144,16 @@ describe('drafting and approving a new version', () => {
 
     const approved = await request(t.app)
       .post(`/api/spec/rules/${draft.body.id}/approve`)
-      .set('Cookie', quality)
+      .set('Cookie', approver)
       .send({ reason: 'Plateau finish for the new ring pack', password: TEST_PASSWORD });
     expect(approved.status).toBe(200);
     expect(approved.body).toMatchObject({
       status: 'approved',
-      approvedBy: qualityName,
+      approvedBy: approverName,
       approvalReason: 'Plateau finish for the new ring pack',
     });
     expect(approved.body.signature).toMatchObject({
-      printedName: qualityName,
+      printedName: approverName,
       meaning: `Approved TARN-6 Bore surface finish Ra, version ${v1.version + 1}`,
     });
     await v1.reload();
@@ -221,14 +225,14 @@ describe('drafting and approving a new version', () => {
       .send({ family: 'TARN-6', characteristicId: c.id, limits: { limitType: 'max', upperLimit: 12, resolution: 1 } });
     const past = await request(t.app)
       .post(`/api/spec/rules/${draft.body.id}/approve`)
-      .set('Cookie', quality)
+      .set('Cookie', approver)
       .send({ reason: 'Backdated', password: TEST_PASSWORD, effectiveFrom: '2020-01-01T00:00:00Z' });
     expect(past.status).toBe(400);
     expect(past.body.error.fields.effectiveFrom).toBe('Choose now or a later time.');
     const later = new Date(Date.now() + 7 * 86_400_000).toISOString();
     const ok = await request(t.app)
       .post(`/api/spec/rules/${draft.body.id}/approve`)
-      .set('Cookie', quality)
+      .set('Cookie', approver)
       .send({ reason: 'From next week’s grinding wheels', password: TEST_PASSWORD, effectiveFrom: later });
     expect(ok.status).toBe(200);
     const book = (await request(t.app).get('/api/spec/book?family=TARN-6').set('Cookie', quality)).body as SpecBookJson;
@@ -243,7 +247,7 @@ describe('drafting and approving a new version', () => {
       .send({ family: 'TARN-6', characteristicId: c.id, limits: { limitType: 'max', upperLimit: 10, resolution: 1 } });
     const queued = await request(t.app)
       .post(`/api/spec/rules/${third.body.id}/approve`)
-      .set('Cookie', quality)
+      .set('Cookie', approver)
       .send({ reason: 'Even finer', password: TEST_PASSWORD });
     expect(queued.status).toBe(409);
     expect(queued.body.error.message).toMatch(/already approved to take effect/);

@@ -1,6 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import request from 'supertest';
+import { PLANT } from '../../db/seeders/plant.js';
 import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { todayIn } from '../../shared/domain/warranty.js';
 import { Customer, EngineFamily } from '../../server/models/index.js';
 import { LOT_KINDS } from '../../shared/schemas/build.js';
 import type { StationFormJson } from '../../shared/schemas/results.js';
@@ -133,3 +135,6 @@ export async function releasableUnit(
   await passThrough(t, cookies.operator, ['AS-1', 'RT-1', 'FI-1'], unit);
   return { unit, parts };
 }
+
+/** Today in the demo plant's calendar: the ship date a release takes (not the UTC date). */
+export const plantToday = () => todayIn(PLANT.timeZone);

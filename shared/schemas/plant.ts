@@ -1,0 +1,20 @@
+import { z } from 'zod';
+import { isTimeZone } from '../domain/warranty.js';
+
+/** The plant's identity and calendar. */
+export const plantBody = z
+  .strictObject({
+    name: z.string('Enter the plant’s name.').trim().min(2, 'Enter the plant’s name.').max(120),
+    address: z.string().trim().max(300, 'At most 300 characters.'),
+    timeZone: z
+      .string('Choose the plant’s time zone.')
+      .trim()
+      .min(1, 'Choose the plant’s time zone.')
+      .max(60)
+      .refine(isTimeZone, 'Not a time zone this server knows; use a name like America/Chicago.'),
+  })
+  .partial()
+  .refine((b) => Object.keys(b).length > 0, 'Change at least one field.');
+export type PlantBody = z.output<typeof plantBody>;
+
+export type PlantJson = { name: string; address: string; timeZone: string; today: string };
