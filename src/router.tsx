@@ -194,6 +194,27 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
                 return { Component: m.LotPage, loader: m.lotLoader(queryClient) };
               },
             },
+            {
+              path: paths.fieldActions,
+              lazy: async () => {
+                const m = await import('./routes/field-actions/field-actions-page');
+                return { Component: m.FieldActionsPage, loader: m.fieldActionsLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.fieldAction,
+              lazy: async () => {
+                const m = await import('./routes/field-actions/field-action-page');
+                return { Component: m.FieldActionPage, loader: m.fieldActionLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.plant,
+              lazy: async () => {
+                const m = await import('./routes/admin/plant/plant-page');
+                return { Component: m.PlantPage, loader: m.plantLoader(queryClient) };
+              },
+            },
             { path: '*', element: <NotFoundPage /> },
           ],
         },

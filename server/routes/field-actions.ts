@@ -16,7 +16,8 @@ export function fieldActionRoutes(api: Api, sequelize: Sequelize) {
     method: 'get',
     path: '/field-actions/:number',
     access: 'field-actions.read',
-    summary: 'One field action: the shipped unit, its customer and order, the NCR behind it, the decision and signature.',
+    summary:
+      'One field action: the shipped unit, its customer and order, the NCR behind it, the decision and signature.',
     params: fieldActionParam,
     handler: ({ params }) => fieldActionDetail(sequelize, params.number),
   });

@@ -7,8 +7,8 @@ export function plantRoutes(api: Api, sequelize: Sequelize) {
   api.define({
     method: 'get',
     path: '/plant',
-    access: 'signed-in',
-    summary: "The plant's name, address and time zone, and today's date in its calendar.",
+    access: 'public',
+    summary: "The plant's name, address and time zone, and today's date in its calendar (the sign-in page shows the name).",
     handler: async () => presentPlant(await plantSettings()),
   });
   api.define({

@@ -106,6 +106,7 @@ export function presentRule(r: ToleranceRule, names: Names, signatures: Map<stri
     effectiveFrom: r.effectiveFrom?.toISOString() ?? null,
     supersededAt: r.supersededAt?.toISOString() ?? null,
     createdBy: names.get(r.createdById) ?? '',
+    createdById: r.createdById,
     createdAt: r.createdAt.toISOString(),
     approvedBy: r.approvedById ? (names.get(r.approvedById) ?? '') : null,
     approvedAt: r.approvedAt?.toISOString() ?? null,

@@ -128,8 +128,7 @@ export type BlockingReason = {
     | 'shipped'
     | 'part_scrapped'
     | 'part_on_hold'
-    | 'lot_unusable'
-    | 'refit_not_tested';
+    | 'lot_unusable';
   message: string;
   serial: string | null;
   link: string;

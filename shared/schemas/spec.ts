@@ -108,6 +108,8 @@ export type RuleJson = {
   effectiveFrom: string | null;
   supersededAt: string | null;
   createdBy: string;
+  /** The author: a draft is approved by another quality engineer. */
+  createdById: number;
   createdAt: string;
   approvedBy: string | null;
   approvedAt: string | null;

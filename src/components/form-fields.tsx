@@ -22,6 +22,9 @@ type TextFieldProps = Common & {
   autoComplete?: string;
   mono?: boolean;
   placeholder?: string;
+  /** Bounds for a date or number field, as the browser's own picker honours them. */
+  min?: string;
+  max?: string;
   /** Left empty, the field is absent (undefined) rather than "", so an optional schema key accepts it. */
   optional?: boolean;
 };
@@ -38,6 +41,8 @@ export function TextField({
   disabled,
   autoFocus,
   placeholder,
+  min,
+  max,
   optional = false,
 }: TextFieldProps) {
   const { id, register, error } = useBound(name);
@@ -51,6 +56,8 @@ export function TextField({
         disabled={disabled}
         autoFocus={autoFocus}
         placeholder={placeholder}
+        min={min}
+        max={max}
         aria-invalid={error ? true : undefined}
         aria-describedby={describedBy(id, hint, error)}
         {...register(name, optional ? { setValueAs: blankToUndefined } : {})}

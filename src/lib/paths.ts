@@ -28,6 +28,9 @@ export const paths = {
   release: '/release',
   trail: '/trail',
   lot: '/lots/:lotCode',
+  fieldActions: '/field-actions',
+  fieldAction: '/field-actions/:number',
+  plant: '/admin/plant',
 } as const;
 
 /** Why the sign-in page was shown, so it can say so in plain words. */
@@ -119,3 +122,4 @@ export const trailHref = (serial?: string) =>
   serial ? `${paths.trail}?serial=${encodeURIComponent(serial)}` : paths.trail;
 export const lotHref = (lotCode: string) => `/lots/${encodeURIComponent(lotCode)}`;
 export const buildRecordHref = (serial: string) => `/api/units/${encodeURIComponent(serial)}/build-record.pdf`;
+export const fieldActionHref = (number: string) => `/field-actions/${encodeURIComponent(number)}`;

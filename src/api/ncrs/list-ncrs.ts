@@ -18,6 +18,8 @@ export type NcrFilter = {
   olderThanDays?: number;
   assignee?: number | 'none';
   q?: string;
+  /** Critical use-as-is decisions waiting for the signed-in engineer's countersignature. */
+  awaiting?: 'me';
 };
 
 export const fetchNcrs = (filter: NcrFilter, signal?: AbortSignal) =>

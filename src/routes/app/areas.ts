@@ -61,6 +61,12 @@ export const AREAS: Area[] = [
     summary: 'The stations on the floor, the stage each one records, and which are in service.',
   },
   {
+    label: 'Plant',
+    to: paths.plant,
+    permission: 'plant.manage',
+    summary: 'The plant’s name and address for documents, and its time zone: the calendar dates are kept in.',
+  },
+  {
     label: 'Engine families',
     to: paths.families,
     permission: 'families.manage',
@@ -83,6 +89,12 @@ export const AREAS: Area[] = [
     to: paths.trail,
     permission: 'trail.read',
     summary: 'Look up any serial or lot code: genealogy, every reading and decision, shipment and warranty.',
+  },
+  {
+    label: 'Field actions',
+    to: paths.fieldActions,
+    permission: 'field-actions.read',
+    summary: 'Problems found after a unit shipped: which customer has it, and what quality decided to do.',
   },
   {
     label: 'Raise a concern',

@@ -7,7 +7,7 @@ import { useSignOut } from '../../api/auth/sign-out';
 import { Wordmark } from '../../components/wordmark';
 import { Button } from '../../components/ui/button';
 import { paths, signInHref } from '../../lib/paths';
-import { PLANT_NAME } from '../../lib/plant';
+import { usePlant } from '../../api/plant/plant';
 import { FLOOR_ROLES, requireSignedIn } from '../../lib/session';
 import { navAreasFor } from './areas';
 
@@ -31,6 +31,7 @@ export function AppLayout() {
   const signOut = useSignOut();
   const navigate = useNavigate();
   const navigation = useNavigation();
+  const plantName = usePlant().data?.name ?? '';
   // between a sign-out and the sign-in page there is nobody to show
   if (!me) return null;
   const { user } = me;
@@ -52,7 +53,7 @@ export function AppLayout() {
           <Link to={paths.home} className="rounded-control">
             <Wordmark />
           </Link>
-          <span className="hidden border-l border-rule pl-4 text-sm text-ink-soft lg:inline">{PLANT_NAME}</span>
+          <span className="hidden border-l border-rule pl-4 text-sm text-ink-soft lg:inline">{plantName}</span>
           <div className="ml-auto flex items-center gap-3">
             <p className="text-right leading-tight">
               <span className="block font-medium">{user.name}</span>

@@ -14,6 +14,7 @@ import { partName } from '../../lib/item-status';
 import { itemHref, labelsHref, stationHref } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
 import { BuildForm } from './build-form';
+import { ReplacePart } from './replace-part';
 import { slotsFor } from './slots';
 
 export const buildLoader =
@@ -97,6 +98,7 @@ export function BuildPage() {
   const me = useSignedIn();
   const [built, setBuilt] = useState<Built | null>(null);
   const [sheet, setSheet] = useState(0);
+  const [mode, setMode] = useState<'build' | 'replace'>('build');
   if (!me) return null;
   return (
     // the build bench is worked standing at a tablet, whoever signs in: large targets throughout
@@ -105,7 +107,26 @@ export function BuildPage() {
         title="Build"
         description="Start a long block from a finished block, crankshaft and heads, and the purchased lots that go in."
       />
-      {built ? (
+      <div role="group" aria-label="What to do" className="mb-5 flex flex-wrap gap-2">
+        {(
+          [
+            ['build', 'Start a long block'],
+            ['replace', 'Replace a part in a built unit'],
+          ] as const
+        ).map(([m, label]) => (
+          <Button
+            key={m}
+            variant={mode === m ? 'primary' : 'secondary'}
+            aria-pressed={mode === m}
+            onClick={() => setMode(m)}
+          >
+            {label}
+          </Button>
+        ))}
+      </div>
+      {mode === 'replace' ? (
+        <ReplacePart />
+      ) : built ? (
         <BuildDone
           built={built}
           canPrint={me.can('labels.print')}

@@ -7,6 +7,7 @@ import { Card, CardBody } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
 import { paths } from '../../lib/paths';
 import { areasFor, comingFor } from '../app/areas';
+import { WaitingForYou } from './waiting-for-you';
 
 type Tile = { label: string; to: string; summary: string };
 
@@ -56,6 +57,7 @@ export function HomePage() {
           </Card>
         </section>
       )}
+      <WaitingForYou me={me} />
       <section aria-labelledby="now-heading" className="mb-8">
         <h2 id="now-heading" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-soft">
           What you can do now

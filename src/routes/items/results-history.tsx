@@ -45,7 +45,7 @@ function ReadingsTable({ result }: { result: ItemResult }) {
   const decimals = decimalsByCharacteristic(result.readings);
   return (
     <div className="overflow-x-auto rounded-control border border-rule">
-      <Table caption={`Readings of result ${result.id}, ${result.stage.name}`}>
+      <Table caption={`Readings of the ${result.stage.name} result of ${formatWhen(result.finishedAt)}`}>
         <THead>
           <tr>
             <TH>Characteristic</TH>
@@ -109,7 +109,11 @@ function Facts({ result }: { result: ItemResult }) {
   );
 }
 
-function ResultEntry({ result }: { result: ItemResult }) {
+/** Another result named by when it was recorded, never by its row number. */
+const recordedWhen = (r: ItemResult | undefined) =>
+  r ? `${r.stage.name} result of ${formatWhen(r.finishedAt)}` : 'an earlier result';
+
+function ResultEntry({ result, byId }: { result: ItemResult; byId: Map<number, ItemResult> }) {
   const passed = result.verdict === 'pass';
   const headingId = `result-${result.id}`;
   const replaced = result.supersededBy !== null;
@@ -126,17 +130,18 @@ function ResultEntry({ result }: { result: ItemResult }) {
         <div className="flex flex-wrap items-center gap-2">
           {replaced && (
             <Badge tone="off">
-              Superseded by result <span className="font-mono">{result.supersededBy}</span>
+              Superseded by the correction of {formatWhen(byId.get(result.supersededBy!)?.finishedAt)}
             </Badge>
           )}
-          <span className="font-mono text-sm text-ink-soft">Result {result.id}</span>
+          <time className="font-mono text-sm text-ink-soft" dateTime={result.finishedAt}>
+            {formatWhen(result.finishedAt)}
+          </time>
         </div>
       </header>
       <Facts result={result} />
       {result.supersedes !== null && (
         <p>
-          <span className="font-medium">Correction of result </span>
-          <span className="font-mono">{result.supersedes}</span>
+          <span className="font-medium">Correction of the {recordedWhen(byId.get(result.supersedes))}</span>
           {result.correctionReason && <>: {result.correctionReason}</>}
         </p>
       )}
@@ -168,13 +173,13 @@ function ResultEntry({ result }: { result: ItemResult }) {
         </div>
       )}
       {result.photos.length > 0 && (
-        <ul className="flex flex-wrap gap-2" aria-label={`Photos of result ${result.id}`}>
+        <ul className="flex flex-wrap gap-2" aria-label={`Photos of the ${recordedWhen(result)}`}>
           {result.photos.map((p, i) => (
             <li key={p.id}>
               <a href={p.url} target="_blank" rel="noopener" className="block rounded-control">
                 <img
                   src={p.url}
-                  alt={`Photo ${i + 1} of result ${result.id}: ${p.fileName}`}
+                  alt={`Photo ${i + 1} of the ${recordedWhen(result)}: ${p.fileName}`}
                   className="aspect-[4/3] w-28 rounded-control border border-rule-strong bg-sunk object-cover"
                 />
               </a>
@@ -201,6 +206,7 @@ function ResultEntry({ result }: { result: ItemResult }) {
 export function ResultsHistory({ serial }: { serial: string }) {
   const results = useItemResults(serial);
   const list = results.data ?? [];
+  const byId = new Map(list.map((r) => [r.id, r]));
   return (
     <Card labelledBy="results-heading">
       <CardHeader
@@ -224,7 +230,7 @@ export function ResultsHistory({ serial }: { serial: string }) {
         ) : (
           <div className="flex flex-col gap-3">
             {list.map((r) => (
-              <ResultEntry key={r.id} result={r} />
+              <ResultEntry key={r.id} result={r} byId={byId} />
             ))}
           </div>
         )}

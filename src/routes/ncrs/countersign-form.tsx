@@ -3,7 +3,8 @@ import { useCountersignNcr } from '../../api/ncrs/countersign-ncr';
 import type { NcrDetail } from '../../api/ncrs/types';
 import { Form, SubmitButton } from '../../components/form';
 import { TextAreaField, TextField } from '../../components/form-fields';
-import { PASSWORD_HINT, SigningStatement, type RunStep } from './signing';
+import { PASSWORD_HINT, SigningStatement } from '../../components/signing-statement';
+import type { RunStep } from './signing';
 
 /** The second signature on a critical use-as-is, by a quality engineer other than the first signer. */
 export function CountersignForm({ ncr, signer, run }: { ncr: NcrDetail; signer: string; run: RunStep }) {
@@ -23,7 +24,7 @@ export function CountersignForm({ ncr, signer, run }: { ncr: NcrDetail; signer: 
         label="Reason"
         hint={`Why you agree the ${ncr.lot ? 'lot' : 'part'} can be used as it is.`}
       />
-      <SigningStatement signer={signer} meaning="Use as is (second signature)" number={ncr.number} />
+      <SigningStatement signer={signer} meaning="Use as is (second signature)" subject={ncr.number} />
       <TextField
         name="password"
         label="Password"

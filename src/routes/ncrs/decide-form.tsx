@@ -8,7 +8,8 @@ import { Form, SubmitButton } from '../../components/form';
 import { SelectField, TextAreaField, TextField } from '../../components/form-fields';
 import { Notice } from '../../components/ui/notice';
 import { heldWords } from './ncr-words';
-import { PASSWORD_HINT, SigningStatement, type RunStep } from './signing';
+import { PASSWORD_HINT, SigningStatement } from '../../components/signing-statement';
+import type { RunStep } from './signing';
 
 const sendsBack = (d: Disposition | undefined) => d === 'rework' || d === 'repair';
 
@@ -72,7 +73,7 @@ function DecideFields({ ncr, signer }: { ncr: NcrDetail; signer: string }) {
         label="Reason"
         hint="Why this disposition: the evidence, the reference, the limit."
       />
-      <SigningStatement signer={signer} meaning={meaning} number={ncr.number} />
+      <SigningStatement signer={signer} meaning={meaning} subject={ncr.number} />
       <TextField
         name="password"
         label="Password"

@@ -1,3 +1,4 @@
+import { formatWhen } from '../../lib/format';
 import type { NcrDetail } from '../../api/ncrs/types';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
@@ -75,9 +76,9 @@ export function NcrFindings({ ncr }: { ncr: NcrDetail }) {
         id="ncr-found-heading"
         title="What was found"
         description={
-          ncr.stageResultId
-            ? `Raised by a failing result at ${ncr.stageName ?? 'a station'}.`
-            : `Raised by hand${ncr.stageName ? ` while the part was at ${ncr.stageName}` : ''}.`
+          ncr.origin
+            ? `Raised by a failing ${ncr.origin.stageName} result${ncr.origin.stationName ? ` at ${ncr.origin.stationName}` : ''}, recorded by ${ncr.origin.operator} on ${formatWhen(ncr.origin.finishedAt)}.`
+            : `Raised as a concern${ncr.stageName ? ` while the part was at ${ncr.stageName}` : ''}.`
         }
       />
       <CardBody>

@@ -4,7 +4,10 @@ import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
 import { formatWhen } from '../../lib/format';
 
-/** Every step the NCR took, newest first: when, who, from which state to which, and why. */
+/**
+ * Every step the NCR took and every signature on it, newest first: when, who, from which state to
+ * which (or what the signature means), and why, each in that person's own words.
+ */
 export function NcrTimeline({ ncr }: { ncr: NcrDetail }) {
   const entries = [...ncr.timeline].reverse();
   return (
@@ -14,23 +17,31 @@ export function NcrTimeline({ ncr }: { ncr: NcrDetail }) {
         <ol className="flex flex-col">
           {entries.map((t, i) => (
             <li
-              key={`${t.at}-${t.to}`}
+              key={`${t.at}-${t.kind}-${t.to ?? t.actor}`}
               className={`grid grid-cols-1 gap-x-5 gap-y-0.5 py-3 sm:grid-cols-[10rem_minmax(0,1fr)] ${i > 0 ? 'border-t border-rule' : 'pt-0'}`}
             >
               <p className="font-mono text-[0.9rem]">
                 <time dateTime={t.at}>{formatWhen(t.at)}</time>
               </p>
               <div className="min-w-0">
-                <p className="flex flex-wrap items-center gap-x-1.5 font-semibold">
-                  {t.from ? (
-                    <>
-                      <span>{NCR_STATE_LABELS[t.from]}</span>
-                      <Icon name="arrowRight" size={16} label="to" />
-                    </>
-                  ) : null}
-                  <span>{NCR_STATE_LABELS[t.to]}</span>
-                  <span className="font-normal text-ink-soft">· {t.actor || 'System'}</span>
-                </p>
+                {t.kind === 'signature' ? (
+                  <p className="flex flex-wrap items-center gap-x-1.5 font-semibold">
+                    <Icon name="key" size={16} className="text-accent" />
+                    <span>Signed: {t.meaning}</span>
+                    <span className="font-normal text-ink-soft">· {t.actor}</span>
+                  </p>
+                ) : (
+                  <p className="flex flex-wrap items-center gap-x-1.5 font-semibold">
+                    {t.from ? (
+                      <>
+                        <span>{NCR_STATE_LABELS[t.from]}</span>
+                        <Icon name="arrowRight" size={16} label="to" />
+                      </>
+                    ) : null}
+                    {t.to && <span>{NCR_STATE_LABELS[t.to]}</span>}
+                    <span className="font-normal text-ink-soft">· {t.actor || 'System'}</span>
+                  </p>
+                )}
                 {t.reason && <p className="mt-0.5 whitespace-pre-line text-ink">{t.reason}</p>}
               </div>
             </li>
@@ -61,6 +72,7 @@ export function NcrSignatures({ ncr }: { ncr: NcrDetail }) {
                 <div>
                   <p className="font-semibold">{s.printedName}</p>
                   <p>{s.meaning}</p>
+                  {s.reason && <p className="whitespace-pre-line text-ink-soft">Reason: {s.reason}</p>}
                   <p className="font-mono text-sm text-ink-soft">
                     <time dateTime={s.signedAt}>{formatWhen(s.signedAt, { seconds: true })}</time>
                   </p>

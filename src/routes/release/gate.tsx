@@ -17,6 +17,9 @@ const REASON_MARK: Record<BlockingReason['code'], IconName> = {
   lot_ncr_open: 'hold',
   not_finished: 'wait',
   shipped: 'info',
+  part_scrapped: 'bad',
+  part_on_hold: 'hold',
+  lot_unusable: 'bad',
 };
 
 /** The gate's answer across the width, in words first. */

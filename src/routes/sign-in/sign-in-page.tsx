@@ -8,7 +8,7 @@ import { TextField } from '../../components/form-fields';
 import { Notice } from '../../components/ui/notice';
 import { Wordmark } from '../../components/wordmark';
 import { safeNext, SIGN_IN_NOTES, type SignInNote } from '../../lib/paths';
-import { PLANT_NAME } from '../../lib/plant';
+import { usePlant } from '../../api/plant/plant';
 import { forgetEverything } from '../../lib/session';
 
 export const signInLoader =
@@ -29,6 +29,7 @@ export function SignInPage() {
   const signIn = useSignIn();
   const next = safeNext(params.get('next'));
   const note = params.get('note');
+  const plantName = usePlant().data?.name ?? '';
 
   return (
     // anyone may be signing in on a dock or station tablet, so the form gets the large targets
@@ -36,7 +37,7 @@ export function SignInPage() {
       <div className="w-full max-w-[26rem]">
         <div className="mb-5 flex flex-col items-center gap-1 text-center">
           <Wordmark large />
-          <p className="text-ink-soft">{PLANT_NAME}</p>
+          <p className="text-ink-soft">{plantName}</p>
         </div>
         <section
           aria-labelledby="sign-in-heading"

@@ -53,8 +53,10 @@ export function DraftSection({ history, me, onMessage }: DraftSectionProps) {
   const [approving, setApproving] = useState(false);
   const c = history.characteristic;
   const canEdit = me.can('spec.edit');
-  const canApprove = me.can('spec.approve');
   const draft = c.draft;
+  // separation of duties: the author of a draft never approves it
+  const ownDraft = !!draft && draft.createdById === me.user.id;
+  const canApprove = me.can('spec.approve') && !ownDraft;
   if (c.kind === 'attribute') return null;
   if (!draft && !canEdit) return null;
 
@@ -109,6 +111,11 @@ export function DraftSection({ history, me, onMessage }: DraftSectionProps) {
           {failure && (
             <Notice tone="bad" live="alert">
               {errorText(failure)}
+            </Notice>
+          )}
+          {ownDraft && me.can('spec.approve') && (
+            <Notice tone="info">
+              You drafted this version: another quality engineer reads it and approves it with their signature.
             </Notice>
           )}
           {!editing && (

@@ -28,6 +28,7 @@ import { RunTestImport } from './run-test-import';
 import { useFirstReading } from './use-first-reading';
 import { useInView } from './use-in-view';
 import type { RecordedResult } from './verdict-panel';
+import { ConfirmFailure } from './confirm-failure';
 import { ProblemSummary, Tally } from './form-summary';
 import {
   problemsBeforeSending,
@@ -94,6 +95,8 @@ export function ReadingForm({
   const [attempted, setAttempted] = useState(false);
   const [summaryTitle, setSummaryTitle] = useState('');
   const [refusal, setRefusal] = useState<Refusal | null>(null);
+  // a failing result is asked about once before it is sent: the draft waiting for the answer
+  const [toConfirm, setToConfirm] = useState<Draft | null>(null);
   const record = useRecordResult();
   const topRef = useRef<HTMLDivElement>(null);
   const submitRef = useRef<HTMLButtonElement>(null);
@@ -124,7 +127,7 @@ export function ReadingForm({
     el?.scrollIntoView({ block: 'center' });
   };
 
-  const send = async (draft: Draft) => {
+  const send = async (draft: Draft, confirmed = false) => {
     setAttempted(true);
     setRefusal(null);
     const now = judge(form.characteristics, slots, draft.slots);
@@ -142,6 +145,11 @@ export function ReadingForm({
       showTop();
       return;
     }
+    if (now.failing.length && !confirmed) {
+      setToConfirm(draft);
+      return;
+    }
+    setToConfirm(null);
     const own = needsGauge ? gaugesToSend(measured, form.gauges, draft.gauge, draft.gauges) : {};
     try {
       const result = await record.mutateAsync({
@@ -201,7 +209,7 @@ export function ReadingForm({
         <form
           ref={rootRef}
           noValidate
-          onSubmit={(e) => void methods.handleSubmit(send)(e)}
+          onSubmit={(e) => void methods.handleSubmit((d) => send(d))(e)}
           onKeyDown={onKeyDown}
           aria-label={`${form.stage.name} readings for ${form.item.serial}`}
           className="flex flex-col gap-5"
@@ -323,6 +331,17 @@ export function ReadingForm({
             </div>
           </div>
         </form>
+        <ConfirmFailure
+          open={toConfirm !== null}
+          failing={judged.failing}
+          characteristics={form.characteristics}
+          onCorrect={() => {
+            setToConfirm(null);
+            const first = judged.failing[0];
+            if (first) requestAnimationFrame(() => goTo(`${first.characteristic}@${first.position}`));
+          }}
+          onRecord={() => toConfirm && void send(toConfirm, true)}
+        />
       </FormStateContext.Provider>
     </FormProvider>
   );

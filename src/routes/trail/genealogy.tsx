@@ -1,11 +1,13 @@
 import { Link } from 'react-router';
 import type { TrailNode } from '../../../shared/schemas/build';
 import { StatusBadge } from '../../components/item-status';
+import { formatWhen } from '../../lib/format';
 import { partName } from '../../lib/item-status';
 import { trailHref } from '../../lib/paths';
 
 /** How a node hangs from the one above it, read from the top: a unit's parts were installed, each came from a core. */
 function joinWord(node: TrailNode): string | null {
+  if (node.link === 'installed_in' && node.removedAt) return node.kind === 'long_block' ? 'was in' : 'taken out';
   if (node.link === 'installed_in') return node.kind === 'long_block' ? 'installed in' : 'installed';
   if (node.link === 'harvested_from') return node.kind === 'core' ? 'from core' : 'harvested';
   return null;
@@ -39,11 +41,23 @@ function Node({ node, current }: { node: TrailNode; current: string }) {
           <span className="font-mono text-ink-soft">{node.familyCode}</span>
           <StatusBadge status={node.status} />
         </div>
+        {node.fittedAt && (
+          <p className="text-sm text-ink-soft">
+            Fitted <time dateTime={node.fittedAt}>{formatWhen(node.fittedAt)}</time>
+            {node.removedAt && (
+              <>
+                {' '}
+                · taken out <time dateTime={node.removedAt}>{formatWhen(node.removedAt)}</time>
+                {node.removedReason ? `: ${node.removedReason}` : ''}
+              </>
+            )}
+          </p>
+        )}
       </div>
       {node.children.length > 0 && (
         <ul className="ml-4 mt-1 flex flex-col gap-1 border-l-2 border-rule-strong pl-3">
           {node.children.map((c) => (
-            <Node key={c.serial} node={c} current={current} />
+            <Node key={`${c.serial}-${c.fittedAt ?? ''}`} node={c} current={current} />
           ))}
         </ul>
       )}

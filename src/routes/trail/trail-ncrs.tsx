@@ -57,8 +57,9 @@ function NcrEntry({ ncr }: { ncr: TrailNcr }) {
                 <li key={`${t.at}/${i}`} className="border-l-2 border-rule-strong pl-3">
                   <p>
                     <span className="font-medium">
-                      {t.from ? `${NCR_STATE_LABELS[t.from as keyof typeof NCR_STATE_LABELS] ?? t.from} → ` : ''}
-                      {NCR_STATE_LABELS[t.to as keyof typeof NCR_STATE_LABELS] ?? t.to}
+                      {t.kind === 'signature'
+                        ? `Signed: ${t.meaning}`
+                        : `${t.from ? `${NCR_STATE_LABELS[t.from]} → ` : ''}${t.to ? NCR_STATE_LABELS[t.to] : ''}`}
                     </span>{' '}
                     <span className="text-ink-soft">
                       · {t.actor || '—'} · <span className="font-mono">{formatWhen(t.at)}</span>
@@ -82,6 +83,7 @@ function NcrEntry({ ncr }: { ncr: TrailNcr }) {
                   <p className="text-sm">
                     {s.meaning} · <span className="font-mono">{formatWhen(s.signedAt)}</span>
                   </p>
+                  {s.reason && <p className="text-sm text-ink-soft">Reason: {s.reason}</p>}
                 </li>
               ))}
             </ul>

@@ -19,8 +19,7 @@ function Details({ r }: { r: TrailResult }) {
     <div className="flex flex-col gap-3">
       {r.supersedes !== null && (
         <p>
-          <span className="font-medium">Correction of result </span>
-          <span className="font-mono">{r.supersedes}</span>
+          <span className="font-medium">Corrects the earlier {r.stage.name} result of this part</span>
           {r.correctionReason && <>: {r.correctionReason}</>}
         </p>
       )}
@@ -31,14 +30,17 @@ function Details({ r }: { r: TrailResult }) {
         </p>
       )}
       {r.photos.length > 0 && (
-        <ul className="flex flex-wrap gap-2" aria-label={`Photos of result ${r.id}`}>
+        <ul
+          className="flex flex-wrap gap-2"
+          aria-label={`Photos of the ${r.stage.name} result of ${formatWhen(r.finishedAt)}`}
+        >
           {r.photos.map((p, i) => (
             <li key={p.id}>
               <a href={p.url} target="_blank" rel="noopener" className="block rounded-control">
                 <img
                   src={p.url}
                   loading="lazy"
-                  alt={`Photo ${i + 1} of result ${r.id}: ${p.fileName}`}
+                  alt={`Photo ${i + 1} of the ${r.stage.name} result: ${p.fileName}`}
                   className="aspect-[4/3] w-28 rounded-control border border-rule-strong bg-sunk object-cover"
                 />
               </a>
@@ -78,12 +80,8 @@ const ResultRow = memo(function ResultRow({ r, kind, open, onToggle }: RowProps)
         <TD>
           <span className="flex flex-col items-start gap-1">
             <Badge tone={passed ? 'ok' : 'bad'}>{passed ? 'Passed' : 'Failed'}</Badge>
-            {replaced && (
-              <Badge tone="off">
-                Superseded by <span className="font-mono">{r.supersededBy}</span>
-              </Badge>
-            )}
-            {r.supersedes !== null && <span className="text-sm">Corrects {r.supersedes}</span>}
+            {replaced && <Badge tone="off">Superseded by a correction</Badge>}
+            {r.supersedes !== null && <span className="text-sm">A correction</span>}
           </span>
         </TD>
         <TD>
