@@ -29,15 +29,32 @@ function niceWidth(raw: number): number {
 
 /**
  * Bin width: a whole fraction of the tolerance when both limits are set, so both fall on edges;
- * otherwise a round width. `target` bins would cover the data and the limits together.
+ * otherwise a round width. About `target` bins cover the core (see coreSpan), at most `most`.
  */
-function binWidth(span: number, spec: SpecLimits, target: number, maxBins: number): number {
+function binWidth(span: number, spec: SpecLimits, target: number, most: number): number {
   if (spec.lower !== null && spec.upper !== null) {
     const tol = spec.upper - spec.lower;
-    return tol / Math.min(maxBins - 2, Math.max(1, Math.round((tol * target) / span)));
+    return tol / Math.min(most, Math.max(1, Math.round((tol * target) / span)));
   }
   if (span === 0) return 1;
-  return niceWidth(Math.max(span / target, span / (maxBins - 1)));
+  return niceWidth(Math.max(span / target, span / most));
+}
+
+/**
+ * The span the bins are sized for: the limits and the readings inside Tukey's far-out fences
+ * (quartiles ∓ 3 × IQR, common practice), so one wild reading does not squeeze the rest into a
+ * bin or two; readings beyond the fences fall in stretched end bins.
+ */
+function coreSpan(sorted: readonly number[], spec: SpecLimits): { lo: number; hi: number } {
+  const q = (p: number) => sorted[Math.round(p * (sorted.length - 1))]!;
+  const iqr = q(0.75) - q(0.25);
+  const inside = sorted.filter((v) => v >= q(0.25) - 3 * iqr && v <= q(0.75) + 3 * iqr);
+  const lo = inside[0]!;
+  const hi = inside.at(-1)!;
+  return {
+    lo: Math.min(lo, spec.lower ?? Infinity, spec.upper ?? Infinity),
+    hi: Math.max(hi, spec.lower ?? -Infinity, spec.upper ?? -Infinity),
+  };
 }
 
 /** Position of x in bin widths from the anchor, snapped to a whole number when on an edge. */
@@ -47,21 +64,8 @@ function position(x: number, anchor: number, width: number): number {
   return Math.abs(t - r) < EDGE_EPS ? r : t;
 }
 
-/**
- * The run of bins drawn. Readings far outside the tolerance would need more than maxBins bins of
- * the tolerance's width; then the first and last bins are widened to reach them (their edges say
- * so), keeping the bins at and between the limits as they are.
- */
-function binWindow(
-  first: number,
-  last: number,
-  edges: { lower: number | null; upper: number | null },
-  maxBins: number,
-) {
-  if (last - first <= maxBins || edges.lower === null || edges.upper === null) return { from: first, to: last };
-  const side = Math.floor((maxBins - (edges.upper - edges.lower)) / 2);
-  return { from: Math.max(first, edges.lower - side), to: Math.min(last, edges.upper + side) };
-}
+/** Edges rounded to 12 significant digits, so 4.029999999999999 shows as the 4.03 it is. */
+const tidy = (x: number) => Number(x.toPrecision(12));
 
 export function histogram(values: readonly number[], spec: SpecLimits, opts: HistogramOptions = {}): Histogram {
   requireFinite(values);
@@ -71,39 +75,45 @@ export function histogram(values: readonly number[], spec: SpecLimits, opts: His
   }
   const maxBins = opts.maxBins ?? 60;
   const target = Math.min(maxBins, opts.bins ?? Math.ceil(Math.log2(values.length)) + 1);
-  if (!Number.isInteger(maxBins) || maxBins < 3 || !Number.isInteger(target) || target < 1) {
-    throw new RangeError('bins must be a positive whole number, and maxBins at least 3');
+  if (!Number.isInteger(maxBins) || maxBins < 4 || !Number.isInteger(target) || target < 1) {
+    throw new RangeError('bins must be a positive whole number, and maxBins at least 4');
   }
-  const lo = Math.min(...values, spec.lower ?? Infinity, spec.upper ?? Infinity);
-  const hi = Math.max(...values, spec.lower ?? -Infinity, spec.upper ?? -Infinity);
-  const width = binWidth(hi - lo, spec, target, maxBins);
-  const anchor = spec.lower ?? spec.upper ?? Math.floor(lo / width) * width;
-  const edges = {
-    lower: spec.lower === null ? null : 0,
-    upper: spec.upper === null ? null : Math.round(position(spec.upper, anchor, width)),
-  };
-  const first = Math.floor(position(lo, anchor, width));
-  const last = Math.max(first + 1, Math.ceil(position(hi, anchor, width)));
-  const { from, to } = binWindow(first, last, edges, maxBins);
+  const sorted = [...values].sort((a, b) => a - b);
+  const core = coreSpan(sorted, spec);
+  // room for the anchor's rounding and a stretched bin at each end
+  const width = binWidth(core.hi - core.lo, spec, target, maxBins - 3);
+  const anchor = spec.lower ?? spec.upper ?? Math.floor(core.lo / width) * width;
+  const pos = (x: number) => position(x, anchor, width);
+  const upperEdge = spec.upper === null ? null : Math.round(pos(spec.upper));
+  const lowerEdge = spec.lower === null ? null : 0;
+
+  const lo = Math.min(sorted[0]!, core.lo);
+  const hi = Math.max(sorted.at(-1)!, core.hi);
+  const first = Math.floor(pos(lo));
+  const last = Math.max(first + 1, Math.ceil(pos(hi)));
+  const wide = last - first > maxBins;
+  // beyond the core, one stretched bin each side; it stays wholly outside the tolerance
+  const from = wide ? Math.max(first, Math.floor(pos(core.lo)) - 1) : first;
+  const to = wide ? Math.min(last, Math.max(from + 1, Math.ceil(pos(core.hi))) + 1) : last;
 
   const counts = new Array<number>(to - from).fill(0);
   for (const v of values) {
-    const t = position(v, anchor, width);
+    const t = pos(v);
     let j = Math.floor(t);
     // on an edge a reading belongs to the bin above it, except on the upper limit and the last edge
-    if (Number.isInteger(t) && (t === edges.upper || t === last)) j -= 1;
+    if (Number.isInteger(t) && (t === upperEdge || t === last)) j -= 1;
     counts[Math.min(to - 1, Math.max(from, j)) - from]! += 1;
   }
   const zone = (j: number): BinZone =>
-    edges.lower !== null && j < edges.lower ? 'below' : edges.upper !== null && j >= edges.upper ? 'above' : 'within';
+    lowerEdge !== null && j < lowerEdge ? 'below' : upperEdge !== null && j >= upperEdge ? 'above' : 'within';
   const bins = counts.map((count, i) => {
     const j = from + i;
     return {
-      lower: j === from && from > first ? lo : anchor + j * width,
-      upper: j === to - 1 && to < last ? hi : anchor + (j + 1) * width,
+      lower: j === from && from > first ? lo : tidy(anchor + j * width),
+      upper: j === to - 1 && to < last ? hi : tidy(anchor + (j + 1) * width),
       count,
       zone: zone(j),
     };
   });
-  return { n: values.length, width, spec, bins };
+  return { n: values.length, width: tidy(width), spec, bins };
 }
