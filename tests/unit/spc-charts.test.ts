@@ -138,6 +138,7 @@ describe('baseline and frozen limits', () => {
     ).toThrow(/subgroups of 3/);
     expect(() => individualsChart(batches(FLOW), { limits: frozen as never })).toThrow(/xbar-r chart/);
     expect(() => xbarRChart(HAND, { baseline: { from: 2, to: 9 } })).toThrow(/baseline/);
+    expect(() => xbarRChart(HAND, { limits: { ...frozen, rBar: undefined as never } })).toThrow(/not a number/);
     expect(() => xbarRChart(HAND, { baseline: { from: 1, to: 1 } })).toThrow(/at least two/);
     expect(() => individualsChart(batches([1, Number.NaN, 2]))).toThrow(/finite/);
     expect(() =>
@@ -181,4 +182,18 @@ describe('part means and within-part range (many positions on one part)', () => 
     expect(c.within.kind).toBe('within-s');
     expect(c.limits.within).toBe('s');
   });
+});
+
+describe('a year of readings', () => {
+  it('when 300 000 readings are charted and summarised, then nothing overflows the call stack', () => {
+    const values = normalDraws(seeded(365), 300_000, 4.03, 0.0002);
+    const c = individualsChart(values.map((value, i) => ({ key: `${i}`, value })));
+    expect(c.individuals.points).toHaveLength(300_000);
+    expect(c.sigmaWithin).toBeCloseTo(0.0002, 5);
+    const parts = Array.from({ length: 1000 }, (_, i) => ({
+      key: `${i}`,
+      values: values.slice(i * 300, i * 300 + 300),
+    }));
+    expect(partMeansChart(parts).within.kind).toBe('within-s');
+  }, 60_000);
 });

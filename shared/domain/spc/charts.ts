@@ -74,12 +74,22 @@ type Lines = { centre: number; lower: number; upper: number; sigma: number };
 type Stat = { index: number; key: string; value: number; inBaseline: boolean };
 
 function chart(kind: ChartKind, lines: Lines, stats: Stat[], rules: readonly RunRule[]): ControlChart {
+  // frozen limits come back from storage: a missing or broken figure must not draw a chart of NaNs
+  if (!Object.values(lines).every(Number.isFinite))
+    throw new RangeError('the limits hold a figure that is not a number');
   const flags = runRuleFlags(
     stats.map((s) => s.value),
     lines,
     rules,
   );
-  const points = stats.map((s, i) => ({ ...s, flags: flags[i]! }));
+  // an explicit literal: spreading 300 000 objects here cost seconds
+  const points = stats.map((s, i) => ({
+    index: s.index,
+    key: s.key,
+    value: s.value,
+    inBaseline: s.inBaseline,
+    flags: flags[i]!,
+  }));
   const signals = points.flatMap((p) => p.flags.map((rule) => ({ index: p.index, key: p.key, rule })));
   return { kind, ...lines, rules: [...rules], points, signals };
 }

@@ -24,10 +24,8 @@ export const RUN_RULE_TEXT: Record<RunRule, string> = {
 /** Where the zones lie: σ is the standard deviation of the plotted statistic, not of a reading. */
 export type Zones = { centre: number; sigma: number; lower: number | null; upper: number | null };
 
-type Side = 1 | -1;
-
 /** Whether value lies beyond k σ from the centre on the given side (k = 0: on that side at all). */
-function beyond(value: number, z: Zones, k: number, side: Side): boolean {
+function beyond(value: number, z: Zones, k: number, side: number): boolean {
   const d = (value - z.centre) * side;
   return d > 0 && d > k * z.sigma;
 }
@@ -35,13 +33,12 @@ function beyond(value: number, z: Zones, k: number, side: Side): boolean {
 /** Does the window of `size` points ending at i hold `need` points beyond kσ on one side, i among them? */
 function windowSignal(values: readonly number[], i: number, z: Zones, size: number, need: number, k: number) {
   if (i + 1 < size) return false;
-  for (const side of [1, -1] as const) {
-    if (!beyond(values[i]!, z, k, side)) continue;
-    let count = 0;
-    for (let j = i - size + 1; j <= i; j++) if (beyond(values[j]!, z, k, side)) count++;
-    if (count >= need) return true;
-  }
-  return false;
+  // the point that completes the pattern decides the side
+  const side = Math.sign(values[i]! - z.centre);
+  if (side === 0 || !beyond(values[i]!, z, k, side)) return false;
+  let count = 0;
+  for (let j = i - size + 1; j <= i; j++) if (beyond(values[j]!, z, k, side)) count++;
+  return count >= need;
 }
 
 function breaks(rule: RunRule, values: readonly number[], i: number, z: Zones): boolean {
@@ -67,5 +64,9 @@ export function runRuleFlags(
 ): RunRule[][] {
   if (!(zones.sigma >= 0)) throw new RangeError('a chart needs a non-negative σ');
   const wanted = RUN_RULES.filter((r) => rules.includes(r));
-  return values.map((_, i) => wanted.filter((r) => breaks(r, values, i, zones)));
+  return values.map((_, i) => {
+    const broken: RunRule[] = [];
+    for (const r of wanted) if (breaks(r, values, i, zones)) broken.push(r);
+    return broken;
+  });
 }

@@ -22,7 +22,14 @@ export function sampleSd(values: readonly number[]): number {
 
 export function range(values: readonly number[]): number {
   if (values.length === 0) throw new RangeError('a range needs at least one reading');
-  return Math.max(...values) - Math.min(...values);
+  // a loop, not Math.max(...values): spreading a year of readings overflows the call stack
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const v of values) {
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
+  }
+  return hi - lo;
 }
 
 /** |x(i) − x(i−1)| for i = 1…n−1 (the moving range of two, e-Handbook §6.3.2.2). */
