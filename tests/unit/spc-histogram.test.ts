@@ -68,10 +68,11 @@ describe('histogram bins against the tolerance', () => {
     expect(total(outOfRound)).toBe(6);
   });
 
-  it('when 300 000 readings are binned, then every one is counted (no spread of the whole array into a call)', () => {
-    const year = normalDraws(seeded(365), 300_000, 4.03, 0.0002);
-    expect(total(histogram(year, spec))).toBe(300_000);
-  }, 60_000);
+  it('when 200 000 readings are binned, then every one is counted (no spread of the whole array into a call)', () => {
+    const random = seeded(365);
+    const year = Array.from({ length: 200_000 }, () => 4.0294 + random() / 1000);
+    expect(total(histogram(year, spec))).toBe(200_000);
+  });
 
   it('when there is no tolerance or the input is unusable, then bins are all "within" or the call is refused', () => {
     const none = histogram([1, 2, 3, 4, 5], { lower: null, upper: null });
