@@ -1,0 +1,119 @@
+import type { SpecLimits } from './capability.js';
+import { requireFinite } from './summary.js';
+
+/**
+ * Histogram bins laid against the tolerance: every specification limit falls on a bin edge, so no
+ * bin straddles a limit and each bin is wholly below, within or above the tolerance. A reading
+ * exactly on a limit conforms (limits are inclusive, as in tolerance.ts), so it is counted in the
+ * bin inside the tolerance. This is for showing readings; the verdict on a reading is judgeValue's.
+ */
+
+export type BinZone = 'below' | 'within' | 'above';
+export type HistogramBin = { lower: number; upper: number; count: number; zone: BinZone };
+export type Histogram = { n: number; width: number; spec: SpecLimits; bins: HistogramBin[] };
+
+export type HistogramOptions = {
+  /** Roughly how many bins across the data and limits; Sturges' rule (⌈log₂ n⌉ + 1) by default. */
+  bins?: number;
+  /** Never more bins than this, however far readings lie from the tolerance. */
+  maxBins?: number;
+};
+
+const EDGE_EPS = 1e-9;
+
+/** The smallest of 1, 2, 5 × 10ᵏ at least `raw`: widths a reader can add up in their head. */
+function niceWidth(raw: number): number {
+  const p = 10 ** Math.floor(Math.log10(raw));
+  return [1, 2, 5, 10].map((m) => m * p).find((w) => w >= raw * (1 - EDGE_EPS))!;
+}
+
+/**
+ * Bin width: a whole fraction of the tolerance when both limits are set, so both fall on edges;
+ * otherwise a round width. About `target` bins cover the core (see coreSpan), at most `most`.
+ */
+function binWidth(span: number, spec: SpecLimits, target: number, most: number): number {
+  if (spec.lower !== null && spec.upper !== null) {
+    const tol = spec.upper - spec.lower;
+    return tol / Math.min(most, Math.max(1, Math.round((tol * target) / span)));
+  }
+  if (span === 0) return 1;
+  return niceWidth(Math.max(span / target, span / most));
+}
+
+/**
+ * The span the bins are sized for: the limits and the readings inside Tukey's far-out fences
+ * (quartiles ∓ 3 × IQR, common practice), so one wild reading does not squeeze the rest into a
+ * bin or two; readings beyond the fences fall in stretched end bins.
+ */
+function coreSpan(sorted: readonly number[], spec: SpecLimits): { lo: number; hi: number } {
+  const q = (p: number) => sorted[Math.round(p * (sorted.length - 1))]!;
+  const iqr = q(0.75) - q(0.25);
+  const inside = sorted.filter((v) => v >= q(0.25) - 3 * iqr && v <= q(0.75) + 3 * iqr);
+  const lo = inside[0]!;
+  const hi = inside.at(-1)!;
+  return {
+    lo: Math.min(lo, spec.lower ?? Infinity, spec.upper ?? Infinity),
+    hi: Math.max(hi, spec.lower ?? -Infinity, spec.upper ?? -Infinity),
+  };
+}
+
+/** Position of x in bin widths from the anchor, snapped to a whole number when on an edge. */
+function position(x: number, anchor: number, width: number): number {
+  const t = (x - anchor) / width;
+  const r = Math.round(t);
+  return Math.abs(t - r) < EDGE_EPS ? r : t;
+}
+
+/** Edges rounded to 12 significant digits, so 4.029999999999999 shows as the 4.03 it is. */
+const tidy = (x: number) => Number(x.toPrecision(12));
+
+export function histogram(values: readonly number[], spec: SpecLimits, opts: HistogramOptions = {}): Histogram {
+  requireFinite(values);
+  if (values.length === 0) throw new RangeError('a histogram needs at least one reading');
+  if (spec.lower !== null && spec.upper !== null && !(spec.lower < spec.upper)) {
+    throw new RangeError('the lower specification limit must lie below the upper one');
+  }
+  const maxBins = opts.maxBins ?? 60;
+  const target = Math.min(maxBins, opts.bins ?? Math.ceil(Math.log2(values.length)) + 1);
+  if (!Number.isInteger(maxBins) || maxBins < 4 || !Number.isInteger(target) || target < 1) {
+    throw new RangeError('bins must be a positive whole number, and maxBins at least 4');
+  }
+  const sorted = [...values].sort((a, b) => a - b);
+  const core = coreSpan(sorted, spec);
+  // room for the anchor's rounding and a stretched bin at each end
+  const width = binWidth(core.hi - core.lo, spec, target, maxBins - 3);
+  const anchor = spec.lower ?? spec.upper ?? Math.floor(core.lo / width) * width;
+  const pos = (x: number) => position(x, anchor, width);
+  const upperEdge = spec.upper === null ? null : Math.round(pos(spec.upper));
+  const lowerEdge = spec.lower === null ? null : 0;
+
+  const lo = Math.min(sorted[0]!, core.lo);
+  const hi = Math.max(sorted.at(-1)!, core.hi);
+  const first = Math.floor(pos(lo));
+  const last = Math.max(first + 1, Math.ceil(pos(hi)));
+  const wide = last - first > maxBins;
+  // beyond the core, one stretched bin each side; it stays wholly outside the tolerance
+  const from = wide ? Math.max(first, Math.floor(pos(core.lo)) - 1) : first;
+  const to = wide ? Math.min(last, Math.max(from + 1, Math.ceil(pos(core.hi))) + 1) : last;
+
+  const counts = new Array<number>(to - from).fill(0);
+  for (const v of values) {
+    const t = pos(v);
+    let j = Math.floor(t);
+    // on an edge a reading belongs to the bin above it, except on the upper limit and the last edge
+    if (Number.isInteger(t) && (t === upperEdge || t === last)) j -= 1;
+    counts[Math.min(to - 1, Math.max(from, j)) - from]! += 1;
+  }
+  const zone = (j: number): BinZone =>
+    lowerEdge !== null && j < lowerEdge ? 'below' : upperEdge !== null && j >= upperEdge ? 'above' : 'within';
+  const bins = counts.map((count, i) => {
+    const j = from + i;
+    return {
+      lower: j === from && from > first ? lo : tidy(anchor + j * width),
+      upper: j === to - 1 && to < last ? hi : tidy(anchor + (j + 1) * width),
+      count,
+      zone: zone(j),
+    };
+  });
+  return { n: values.length, width: tidy(width), spec, bins };
+}

@@ -1,0 +1,166 @@
+import { judgeValue, limitsOf, type ToleranceRule, type Verdict } from '../tolerance.js';
+import { capability, type Capability } from './capability.js';
+import { individualsLimits, partMeansLimits, sigmaWithin } from './limits.js';
+
+/**
+ * Rehearsing a rule before it is signed: the stored readings of a characteristic judged again
+ * against a draft rule, by the same judge the station uses (judgeValue: ASTM E29 rounding to the
+ * resolution, inclusive limits), to show which readings and parts would change verdict and what
+ * the capability would become. Nothing is changed; stored verdicts keep the rule they were judged by.
+ */
+
+/** A stored reading of one characteristic, in the order it was taken, with the verdict it got. */
+export type StoredReading = { partId: string; position: string; value: number | null; verdict: Verdict };
+
+export type Flip = 'pass-to-fail' | 'fail-to-pass';
+
+export type ReadingFlip = {
+  partId: string;
+  position: string;
+  value: number;
+  rounded: number;
+  was: Verdict;
+  now: Verdict;
+  flip: Flip;
+  reason: string;
+};
+
+export type PartFlip = { partId: string; was: Verdict; now: Verdict; flip: Flip; failingPositions: string[] };
+
+export type RehearsalInput = {
+  readings: readonly StoredReading[];
+  /** The draft rule. */
+  rule: ToleranceRule;
+  /** The rule in force, for the capability before the change. */
+  current?: ToleranceRule | null;
+  /** The characteristic's resolution and unit, used where the rule sets none (as the station form does). */
+  resolution?: number | null;
+  unit?: string | null;
+  /** Short-term σ from the characteristic's control chart; estimated from the readings when absent. */
+  sigmaWithin?: number | null;
+  confidence?: number;
+};
+
+export type Rehearsal = {
+  /** Only the readings and parts whose verdict would change. */
+  readings: ReadingFlip[];
+  parts: PartFlip[];
+  counts: {
+    readings: number;
+    /** Readings without a value (not recorded, or pass/fail results): not rejudged. */
+    skipped: number;
+    readingsPassToFail: number;
+    readingsFailToPass: number;
+    parts: number;
+    partsPassToFail: number;
+    partsFailToPass: number;
+    partsFailingBefore: number;
+    partsFailingAfter: number;
+  };
+  capability: { before: Capability | null; after: Capability | null; sigmaWithin: number | null };
+};
+
+const flipOf = (was: Verdict, now: Verdict): Flip | null =>
+  was === now ? null : was === 'pass' ? 'pass-to-fail' : 'fail-to-pass';
+
+/**
+ * The short-term σ the readings imply when the caller has none: part means and within-part
+ * spread when every part has the same number of readings (two or more), the moving range when
+ * each part has one; otherwise none, and the rehearsal shows Ppk alone.
+ */
+function estimateSigma(byPart: Map<string, number[]>): number | null {
+  const parts = [...byPart.entries()].map(([key, values]) => ({ key, values }));
+  const sizes = new Set(parts.map((p) => p.values.length));
+  if (parts.length < 2 || sizes.size !== 1) return null;
+  const n = parts[0]!.values.length;
+  const limits =
+    n === 1 ? individualsLimits(parts.map((p) => ({ key: p.key, value: p.values[0]! }))) : partMeansLimits(parts);
+  const sigma = sigmaWithin(limits);
+  return sigma > 0 ? sigma : null;
+}
+
+function capabilityOf(
+  values: number[],
+  rule: ToleranceRule | null | undefined,
+  sigma: number | null,
+  confidence?: number,
+) {
+  if (!rule || values.length < 2) return null;
+  const spec = limitsOf(rule);
+  if (spec.lower === null && spec.upper === null) return null;
+  return capability(values, spec, { sigmaWithin: sigma, confidence });
+}
+
+export function rehearseRule(input: RehearsalInput): Rehearsal {
+  const draft = {
+    ...input.rule,
+    resolution: input.rule.resolution ?? input.resolution,
+    unit: input.rule.unit ?? input.unit,
+  };
+  const readings: ReadingFlip[] = [];
+  const parts = new Map<string, { was: Verdict; now: Verdict; failing: string[] }>();
+  const byPart = new Map<string, number[]>();
+  const values: number[] = [];
+  let skipped = 0;
+
+  for (const r of input.readings) {
+    if (r.value === null) {
+      skipped++;
+      continue;
+    }
+    const j = judgeValue(r.value, draft);
+    const part = parts.get(r.partId) ?? { was: 'pass', now: 'pass', failing: [] };
+    if (r.verdict === 'fail') part.was = 'fail';
+    if (j.verdict === 'fail') {
+      part.now = 'fail';
+      part.failing.push(r.position);
+    }
+    parts.set(r.partId, part);
+    const partValues = byPart.get(r.partId) ?? [];
+    partValues.push(r.value);
+    byPart.set(r.partId, partValues);
+    values.push(r.value);
+    const flip = flipOf(r.verdict, j.verdict);
+    if (flip) {
+      const { partId, position, value } = r;
+      readings.push({
+        partId,
+        position,
+        value,
+        rounded: j.rounded!,
+        was: r.verdict,
+        now: j.verdict,
+        flip,
+        reason: j.reason,
+      });
+    }
+  }
+
+  const partFlips: PartFlip[] = [];
+  for (const [partId, p] of parts) {
+    const flip = flipOf(p.was, p.now);
+    if (flip) partFlips.push({ partId, was: p.was, now: p.now, flip, failingPositions: p.failing });
+  }
+  const all = [...parts.values()];
+  const sigma = input.sigmaWithin ?? estimateSigma(byPart);
+  return {
+    readings,
+    parts: partFlips,
+    counts: {
+      readings: input.readings.length,
+      skipped,
+      readingsPassToFail: readings.filter((r) => r.flip === 'pass-to-fail').length,
+      readingsFailToPass: readings.filter((r) => r.flip === 'fail-to-pass').length,
+      parts: parts.size,
+      partsPassToFail: partFlips.filter((p) => p.flip === 'pass-to-fail').length,
+      partsFailToPass: partFlips.filter((p) => p.flip === 'fail-to-pass').length,
+      partsFailingBefore: all.filter((p) => p.was === 'fail').length,
+      partsFailingAfter: all.filter((p) => p.now === 'fail').length,
+    },
+    capability: {
+      before: capabilityOf(values, input.current, sigma, input.confidence),
+      after: capabilityOf(values, draft, sigma, input.confidence),
+      sigmaWithin: sigma,
+    },
+  };
+}
