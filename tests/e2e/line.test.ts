@@ -25,6 +25,7 @@ import {
   lotsFor,
   pass,
   passThrough,
+  plantToday,
   tornDownCore,
 } from '../support/parts.js';
 
@@ -155,7 +156,10 @@ describe('the line, end to end', () => {
     await s.reload();
     await s.getByLabel('Customer').selectOption({ index: 1 });
     await s.getByLabel('Order reference').fill('SO-E2E-77');
-    await s.getByRole('button', { name: 'Release and ship' }).click();
+    // release is a signed act: the shipper's own password, under the meaning it carries
+    await s.getByText('released for shipment').first().waitFor();
+    await s.getByLabel('Password').fill(demo('shipping').password);
+    await s.getByRole('button', { name: 'Sign, release and ship' }).click();
     await s.getByText('SO-E2E-77').first().waitFor();
     await s.screenshot({ path: path.join(shots, 'released-1440.png'), fullPage: true });
     expect((await Shipment.findOne({ where: { reference: 'SO-E2E-77' } }))!.unitItemId).toBe(
@@ -255,7 +259,8 @@ describe('the line, end to end', () => {
       .send({
         customerId: (await customer.findOne())!.id,
         reference: 'SO-WD-1',
-        shipDate: new Date().toISOString().slice(0, 10),
+        shipDate: plantToday(),
+        password: demo('shipping').password,
       });
     expect(rel.status).toBe(201);
 

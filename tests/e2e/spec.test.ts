@@ -72,6 +72,15 @@ describe('the spec book in the browser', () => {
     await upper.fill('90');
     await page.getByRole('textbox', { name: 'Source note' }).fill('MLS gasket trial: tighter finish');
     await page.getByRole('button', { name: 'Save draft' }).click();
+    // the author does not approve their own draft: the second quality engineer does
+    await page.getByText('You drafted this version').waitFor();
+    await expect(page.getByRole('button', { name: 'Approve…' }).count()).resolves.toBe(0);
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL(/sign-in/);
+    const q2 = DEMO_USERS.filter((u) => u.role === 'quality')[1]!;
+    await signIn(page, served.base, q2.email, q2.password);
+    await page.goto(`${served.base}/spec?family=CORRIE-8&stage=block-deck`);
+    await page.getByRole('link', { name: 'Versions of Deck surface finish Ra' }).click();
     await page.getByRole('button', { name: 'Approve…' }).first().click();
     const dialog = page.getByRole('dialog');
     await dialog
@@ -79,7 +88,7 @@ describe('the spec book in the browser', () => {
       .first()
       .waitFor();
     await dialog.getByRole('textbox', { name: 'Reason' }).fill('Multi-layer steel gaskets from next week');
-    await dialog.getByLabel('Password').fill(q.password);
+    await dialog.getByLabel('Password').fill(q2.password);
     await dialog.getByRole('button', { name: 'Sign and approve' }).click();
     await page
       .getByText(`Version ${oldVersion + 1} in force`)
@@ -87,7 +96,7 @@ describe('the spec book in the browser', () => {
       .waitFor();
     await page.screenshot({ path: path.join(shots, 'spec-approved-1440.png'), fullPage: true });
     // the signature shows name, time and meaning
-    await expect(page.getByText('Quinn Ashdown').first().isVisible()).resolves.toBe(true);
+    await expect(page.getByText(q2.name).first().isVisible()).resolves.toBe(true);
 
     // a block recorded now is judged by the new version: 95 µin is over 90
     const after = await deckResult();
