@@ -8,7 +8,8 @@ export function plantRoutes(api: Api, sequelize: Sequelize) {
     method: 'get',
     path: '/plant',
     access: 'public',
-    summary: "The plant's name, address and time zone, and today's date in its calendar (the sign-in page shows the name).",
+    summary:
+      "The plant's name, address and time zone, and today's date in its calendar (the sign-in page shows the name).",
     handler: async () => presentPlant(await plantSettings()),
   });
   api.define({

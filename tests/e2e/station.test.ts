@@ -104,6 +104,16 @@ describe('the station screen on a tablet', () => {
     expect(serious.map((v) => `${v.id}: ${v.nodes.length}`)).toEqual([]);
 
     await page.getByRole('button', { name: 'Record result' }).click();
+    // a failing result is asked about once, in large type, before it opens an NCR
+    const ask = page.getByRole('dialog', { name: '1 reading out of tolerance' });
+    await ask.getByText(/Cylinder bore diameter · Cylinder 6, middle, thrust: 4\.0309 in/).waitFor();
+    await page.screenshot({ path: path.join(shots, 'station-confirm-failure-1024.png') });
+    // "Correct a reading" goes back to the box; nothing was recorded
+    await ask.getByRole('button', { name: 'Correct a reading' }).click();
+    await expect(page.getByRole('dialog').count()).resolves.toBe(0);
+    expect((await Item.findOne({ where: { serial: bad } }))!.status).toBe('in_process');
+    await page.getByRole('button', { name: 'Record result' }).click();
+    await ask.getByRole('button', { name: 'Record the failure' }).click();
     const verdict = page.getByRole('status').filter({ has: page.getByRole('heading', { level: 2, name: 'Failed' }) });
     await verdict.waitFor();
     await expect(verdict.getByText('On hold').first().isVisible()).resolves.toBe(true);

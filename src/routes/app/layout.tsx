@@ -7,7 +7,7 @@ import { useSignOut } from '../../api/auth/sign-out';
 import { Wordmark } from '../../components/wordmark';
 import { Button } from '../../components/ui/button';
 import { paths, signInHref } from '../../lib/paths';
-import { usePlant } from '../../api/plant/plant';
+import { plantQueryOptions, usePlant } from '../../api/plant/plant';
 import { FLOOR_ROLES, requireSignedIn } from '../../lib/session';
 import { navAreasFor } from './areas';
 
@@ -15,6 +15,8 @@ export const layoutLoader =
   (queryClient: QueryClient) =>
   async ({ request }: LoaderFunctionArgs) => {
     await requireSignedIn(queryClient, request);
+    // after the session check: a sign-out clears the cache, which would cancel it mid-flight
+    await queryClient.ensureQueryData(plantQueryOptions());
     return null;
   };
 

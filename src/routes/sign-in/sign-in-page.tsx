@@ -8,7 +8,7 @@ import { TextField } from '../../components/form-fields';
 import { Notice } from '../../components/ui/notice';
 import { Wordmark } from '../../components/wordmark';
 import { safeNext, SIGN_IN_NOTES, type SignInNote } from '../../lib/paths';
-import { usePlant } from '../../api/plant/plant';
+import { plantQueryOptions, usePlant } from '../../api/plant/plant';
 import { forgetEverything } from '../../lib/session';
 
 export const signInLoader =
@@ -18,6 +18,7 @@ export const signInLoader =
     const me = await queryClient.fetchQuery({ ...meQueryOptions(), staleTime: 0 });
     if (me) throw redirect(safeNext(new URL(request.url).searchParams.get('next')));
     forgetEverything(queryClient);
+    await queryClient.ensureQueryData(plantQueryOptions());
     return null;
   };
 

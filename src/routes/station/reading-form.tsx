@@ -150,7 +150,14 @@ export function ReadingForm({
       return;
     }
     setToConfirm(null);
-    const own = needsGauge ? gaugesToSend(measured, form.gauges, draft.gauge, draft.gauges) : {};
+    const readings = readingsOf(slots, now, draft.slots);
+    // a gauge is named only for what was measured with it: none for an optional reading left empty
+    const entered = new Set(readings.map((r) => r.characteristic));
+    const own = Object.fromEntries(
+      Object.entries(needsGauge ? gaugesToSend(measured, form.gauges, draft.gauge, draft.gauges) : {}).filter(([c]) =>
+        entered.has(c),
+      ),
+    );
     try {
       const result = await record.mutateAsync({
         idempotencyKey,
@@ -160,7 +167,7 @@ export function ReadingForm({
         ...(Object.keys(own).length ? { gauges: own } : {}),
         startedAt,
         notes: draft.notes.trim(),
-        readings: readingsOf(slots, now, draft.slots),
+        readings,
         photoIds: draft.photoIds,
       });
       setProblems([]);
