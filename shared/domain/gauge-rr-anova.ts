@@ -18,8 +18,10 @@ import { StudyDataError } from './study-error.js';
  *
  * F statistics in the full table are taken against the repeatability mean square, as the
  * manual's ANOVA table prints them (from memory; R's aov gives the same). When the interaction's
- * p-value is above the pooling threshold (0.25 by default) the interaction is pooled into
- * repeatability, a second table without it is given, and the components come from that.
+ * p-value is above the pooling threshold the interaction is pooled into repeatability, a second
+ * table without it is given, and the components come from that. The threshold is 0.25 unless
+ * set: the default of R's qualityTools::gageRR (its documentation: "alpha value for discarding
+ * the interaction … By default alpha is set to 0.25"); Minitab's documentation drops it at 0.05.
  */
 
 export type AnovaSource = 'appraiser' | 'part' | 'interaction' | 'repeatability' | 'total';

@@ -146,7 +146,7 @@ export function grrFigures(
   const percentContribution = mapComponents(v, (x) => (100 * x) / v.tv);
   const percentOfTolerance =
     tolerance === null ? null : omitTv(mapComponents(sigma, (s) => (100 * studySpread * s) / tolerance));
-  // AIAG: ndc = 1.41 × (PV / GRR), truncated to the integer (from memory; Minitab documents the same).
+  // AIAG: ndc = 1.41 × (PV / GRR), truncated to the integer (from memory).
   const ndcRaw = sigma.grr > 0 ? (1.41 * sigma.pv) / sigma.grr : null;
   const ndc = ndcRaw === null ? null : Math.floor(ndcRaw);
   const bands = {

@@ -7,7 +7,7 @@ import { type LifeRecord, type WeibullParameters, countOf, sortedRecords } from 
  * With r failures among n units, the log-likelihood is
  *   ℓ(β, η) = r ln β − r β ln η + (β − 1) Σ_failures ln t − Σ_all (t/η)^β.
  * Setting ∂ℓ/∂η = 0 gives η in closed form for any β, η^β = Σ_all t^β / r, and what is left is one
- * equation in β (e.g. Nelson, Applied Life Data Analysis, 1982, ch. 8):
+ * equation in β (as in Nelson, Applied Life Data Analysis, 1982; from memory):
  *   g(β) = Σ t^β ln t / Σ t^β − 1/β − (1/r) Σ_failures ln t = 0.
  * g rises strictly with β (its slope is a weighted variance of ln t plus 1/β²), so it has at most
  * one root; it is found by Newton's method kept inside a bracket that bisection narrows.

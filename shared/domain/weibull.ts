@@ -61,7 +61,7 @@ export function sortedRecords(records: readonly LifeRecord[]): Required<LifeReco
     return { time: r.time, failed: r.failed, count };
   });
   // At a tie the failure is taken as first: a unit suspended at t is known to have lasted to t
-  // (common practice; Abernethy and Nelson order them so).
+  // (common practice; the order Abernethy's handbook uses, from memory).
   return out.sort((a, b) => a.time - b.time || Number(b.failed) - Number(a.failed));
 }
 

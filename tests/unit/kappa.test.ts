@@ -66,6 +66,8 @@ describe("Cohen's kappa", () => {
 
 describe("Fleiss' kappa", () => {
   it('when 14 raters sort 10 subjects into 5 categories (Wikipedia, "Fleiss\' kappa", worked example), then P̄ 0.378, P̄e 0.213, κ 0.210', () => {
+    // The table and κ 0.210 as statsmodels' tests quote the page; P̄, P̄e and the p_j as the page
+    // prints them, from memory.
     const k = fleissKappaFromCounts([
       [0, 0, 0, 0, 14],
       [0, 2, 6, 4, 2],

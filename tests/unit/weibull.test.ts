@@ -30,8 +30,10 @@ describe("Bernard's median ranks", () => {
 describe("Johnson's adjusted ranks with suspensions", () => {
   // weibull.com Reliability HotWire issue 104 (October 2009), "Median Rank Based on Mean Order
   // Number", Table 1: S 2,500, F 2,730, F 3,900, S 4,100, F 5,000 hours. The article finds each
-  // failure's mean order number by counting the orders the suspended units could have failed in;
-  // Johnson's formula gives the same numbers: 6/5 = 1.2; (3 × 1.2 + 6)/4 = 2.4; (1 × 2.4 + 6)/2 = 4.2.
+  // failure's mean order number by counting the orders the suspended units could have failed in
+  // (S1 could have failed in any of 5 places, one of them before F1: F1 is 1st or 2nd, mean 1.2).
+  // The figures below are recomputed by hand with Johnson's formula, not copied from the article:
+  // 6/5 = 1.2; (3 × 1.2 + 6)/4 = 2.4; (1 × 2.4 + 6)/2 = 4.2.
   const data = [
     { time: 2500, failed: false },
     { time: 2730, failed: true },
