@@ -91,7 +91,10 @@ export function plotCoordinates(time: number, fractionFailed: number): { x: numb
  * rank + 1), so a suspension only shifts the ranks of the failures after it.
  */
 export function probabilityPlot(records: readonly LifeRecord[]): PlotPoint[] {
-  const sorted = sortedRecords(records);
+  return plotSorted(sortedRecords(records));
+}
+
+function plotSorted(sorted: readonly Required<LifeRecord>[]): PlotPoint[] {
   const n = countOf(sorted).total;
   const points: PlotPoint[] = [];
   let position = 0;
@@ -115,8 +118,9 @@ export function medianRankRegression(
   options: { regression?: Regression } = {},
 ): RegressionFit {
   const regression = options.regression ?? 'x-on-y';
-  const counts = countOf(sortedRecords(records));
-  const points = probabilityPlot(records);
+  const sorted = sortedRecords(records);
+  const counts = countOf(sorted);
+  const points = plotSorted(sorted);
   if (points.length < 2) throw new StudyDataError('a Weibull fit needs at least 2 failures', 'records');
   const m = points.length;
   const xBar = points.reduce((s, p) => s + p.x, 0) / m;
