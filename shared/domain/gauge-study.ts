@@ -109,9 +109,6 @@ export function bandOf(percentGrr: number): Band {
   return 'unacceptable';
 }
 
-const WORST: Band[] = ['acceptable', 'conditional', 'unacceptable'];
-const worse = (a: Band, b: Band): Band => (WORST.indexOf(a) >= WORST.indexOf(b) ? a : b);
-
 /**
  * The study's one-word reading, which the product flags a gauge by. A gauge that judges parts
  * against limits is read by %GRR of the tolerance; without a tolerance it is read as a process
@@ -120,7 +117,7 @@ const worse = (a: Band, b: Band): Band => (WORST.indexOf(a) >= WORST.indexOf(b) 
  */
 export function verdictOf(bands: GrrFigures['bands']): Band {
   if (bands.tolerance) return bands.tolerance;
-  return bands.ndcAdequate ? bands.total : worse(bands.total, 'unacceptable');
+  return bands.ndcAdequate ? bands.total : 'unacceptable';
 }
 
 /** The figures both methods report, from the variances of each source. */
