@@ -49,6 +49,7 @@ export class LabelPrint extends Model<InferAttributes<LabelPrint>, InferCreation
   declare printedById: number;
   declare stock: string;
   declare reprint: CreationOptional<boolean>;
+  declare reprintReason: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize) {
@@ -59,6 +60,7 @@ export class LabelPrint extends Model<InferAttributes<LabelPrint>, InferCreation
         printedById: { type: DataTypes.INTEGER, allowNull: false },
         stock: { type: DataTypes.STRING(20), allowNull: false },
         reprint: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+        reprintReason: { type: DataTypes.STRING(300), allowNull: true },
         createdAt: DataTypes.DATE,
       },
       { sequelize, tableName: 'label_prints', underscored: true, updatedAt: false },

@@ -47,6 +47,6 @@ export function itemRoutes(api: Api, sequelize: Sequelize) {
     access: 'labels.print',
     summary: 'Log that labels were printed on a stock; a second print of a label is logged as a reprint.',
     body: labelsPrintedBody,
-    handler: ({ ctx, body }) => recordLabelPrints(sequelize, ctx, body.serials, body.stock),
+    handler: ({ ctx, body }) => recordLabelPrints(sequelize, ctx, body),
   });
 }

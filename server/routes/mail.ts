@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { paging } from '../../shared/schemas/common.js';
 import type { Config } from '../config.js';
+import { notFound } from '../errors.js';
 import type { Api } from '../http/api.js';
 import { readMailSink } from '../mail/sink.js';
 import { MailOutbox } from '../models/index.js';
@@ -36,6 +37,36 @@ export function mailRoutes(api: Api, config: Config) {
         total: count,
         page: query.page,
         pageSize: query.pageSize,
+      };
+    },
+  });
+  api.define({
+    method: 'get',
+    path: '/mail/outbox/:id',
+    access: 'mail.read',
+    summary: 'One queued message as it was (or will be) sent: recipient, subject, body, Message-ID, delivery state.',
+    params: z.strictObject({
+      id: z.coerce
+        .number()
+        .int()
+        .positive()
+        .max(2 ** 53 - 1),
+    }),
+    handler: async ({ params }) => {
+      const m = await MailOutbox.findByPk(params.id);
+      if (!m) throw notFound('That message');
+      return {
+        id: Number(m.id),
+        to: m.toAddress,
+        subject: m.subject,
+        text: m.bodyText,
+        messageId: m.messageId,
+        reason: m.reason,
+        status: m.status,
+        attempts: m.attempts,
+        lastError: m.lastError,
+        createdAt: m.createdAt.toISOString(),
+        sentAt: m.sentAt?.toISOString() ?? null,
       };
     },
   });

@@ -1,12 +1,13 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { z } from 'zod';
-import type {
-  CoreDetail,
-  CoreReceipt as CoreReceiptJson,
-  CoreSummary,
-  intakeLogQuery,
-  receiveCoreBody,
-  TeardownRecord,
+import {
+  intakeMismatches,
+  type CoreDetail,
+  type CoreReceipt as CoreReceiptJson,
+  type CoreSummary,
+  type intakeLogQuery,
+  type receiveCoreBody,
+  type TeardownRecord,
 } from '../../shared/schemas/intake.js';
 import { csvDocument } from '../http/csv.js';
 import { recordAudit, type Ctx } from '../audit.js';
@@ -49,6 +50,20 @@ export async function findDuplicates(sequelize: Sequelize, castingNumber: string
  * Logs a core at the dock, accepted or rejected, and gives it a serial. A rejected core keeps its
  * record, reason and photos like any other: nothing received is ever deleted.
  */
+/** A casting number received before only as other families' cores: likely the wrong family chosen. */
+async function castingElsewhere(sequelize: Sequelize, castingNumber: string, family: EngineFamily) {
+  const rows = await sequelize.query<{ code: string; n: number }>(
+    `SELECT f.code, count(*)::int AS n FROM core_receipts r JOIN items i ON i.id = r.item_id
+       JOIN engine_families f ON f.id = i.engine_family_id
+      WHERE upper(r.casting_number) = upper(:castingNumber)
+      GROUP BY f.code ORDER BY n DESC`,
+    { type: QueryTypes.SELECT, replacements: { castingNumber } },
+  );
+  if (!rows.length || rows.some((r) => r.code === family.code)) return [];
+  const seen = rows.map((r) => `${r.code} (${r.n} core${r.n > 1 ? 's' : ''})`).join(', ');
+  return [`Casting number ${castingNumber} has been received before only as ${seen}, not ${family.code}.`];
+}
+
 export async function receiveCore(sequelize: Sequelize, ctx: Ctx, body: ReceiveCore) {
   const family = await EngineFamily.findByPk(body.familyId);
   if (!family || !family.active)
@@ -67,6 +82,13 @@ export async function receiveCore(sequelize: Sequelize, ctx: Ctx, body: ReceiveC
         duplicates,
       });
     }
+  }
+  const mismatches = [...intakeMismatches(body), ...(await castingElsewhere(sequelize, body.castingNumber, family))];
+  if (mismatches.length && !body.mismatchReason) {
+    throw conflict(`Check before logging: ${mismatches.join(' ')} Say why it is right to go on.`, {
+      reason: 'needs_reason',
+      mismatches,
+    });
   }
   const route = await routeFor(family.id, 'core');
   const teardown = route?.steps.find((s) => s.stage.code === 'teardown');
@@ -96,7 +118,12 @@ export async function receiveCore(sequelize: Sequelize, ctx: Ctx, body: ReceiveC
         sourceReference: body.sourceReference,
         receivedOn: body.receivedOn,
         receivedById: ctx.actor!.id,
-        condition: { complete: body.complete, missing: body.missing, damage: body.damage },
+        condition: {
+          complete: body.complete,
+          missing: body.missing,
+          damage: body.damage,
+          ...(mismatches.length ? { mismatches, mismatchReason: body.mismatchReason } : {}),
+        },
         grade: body.grade,
         accepted: body.accepted,
         rejectReason: body.rejectReason ?? null,

@@ -13,7 +13,11 @@ export const labelSvg = (serial: string) => QRCode.toString(serial, { ...QR_OPTI
 export const labelPng = (serial: string) => QRCode.toBuffer(serial, { ...QR_OPTIONS, type: 'png', width: 480 });
 
 /** Logs that labels were printed; a label printed before counts as a reprint. */
-export async function recordLabelPrints(sequelize: Sequelize, ctx: Ctx, serials: string[], stock: string) {
+export async function recordLabelPrints(
+  sequelize: Sequelize,
+  ctx: Ctx,
+  { serials, stock, reprintReason }: { serials: string[]; stock: string; reprintReason?: string },
+) {
   const wanted = serials.map((s) => {
     const p = parseSerial(s);
     if (!p.ok) throw invalid(p.reason, { serials: `${s}: ${p.reason}` });
@@ -31,15 +35,25 @@ export async function recordLabelPrints(sequelize: Sequelize, ctx: Ctx, serials:
       transaction,
     });
     const before = new Set(printed.map((p) => p.itemId));
+    // a second tag for a part is a question someone will ask later: the reason is kept with it
+    const again = items.filter((i) => before.has(i.id)).map((i) => i.serial);
+    if (again.length && !reprintReason) {
+      throw invalid(`${again.join(', ')} ${again.length > 1 ? 'were' : 'was'} printed before: say why again.`, {
+        reprintReason: 'Say why these labels are printed again.',
+      });
+    }
     const result = [];
     for (const item of items) {
       const reprint = before.has(item.id);
-      await LabelPrint.create({ itemId: item.id, printedById: ctx.actor!.id, stock, reprint }, { transaction });
+      await LabelPrint.create(
+        { itemId: item.id, printedById: ctx.actor!.id, stock, reprint, reprintReason: reprint ? reprintReason : null },
+        { transaction },
+      );
       await recordAudit(ctx, transaction, {
         action: reprint ? 'label.reprinted' : 'label.printed',
         entity: 'item',
         entityId: item.serial,
-        after: { stock },
+        after: reprint ? { stock, reason: reprintReason } : { stock },
       });
       result.push({ serial: item.serial, reprint });
     }

@@ -77,6 +77,8 @@ export const receiveCoreBody = z
     photoIds: z.array(z.number().int().positive()).max(12).default([]),
     // a matching recent core was shown and the person says this one is different
     confirmNotDuplicate: z.boolean().default(false),
+    /** Why the receipt goes on although its condition, grade, credit or casting number disagree (intakeMismatches). */
+    mismatchReason: text(500).optional(),
   })
   .superRefine(
     (b, ctx) => {
@@ -114,6 +116,41 @@ export const receiveCoreBody = z
     } as never,
   );
 export type ReceiveCoreBody = z.input<typeof receiveCoreBody>;
+
+/**
+ * What the dock recorded that does not hang together: damage against the grade and the credit,
+ * major parts missing against full credit. Each is a warning in words; the receipt goes on only
+ * with a reason. (The server adds one more: a casting number seen before on another family.)
+ */
+export function intakeMismatches(b: {
+  damage?: readonly string[];
+  missing?: readonly string[];
+  grade?: string;
+  creditDecision?: string;
+  accepted?: boolean;
+}): string[] {
+  const out: string[] = [];
+  const damage = (b.damage ?? []).map((d) => DAMAGE_LABELS[d as (typeof DAMAGE)[number]]?.toLowerCase() ?? d);
+  const structural = (b.damage ?? []).filter((d) => d === 'cracked' || d === 'broken');
+  if (structural.length && b.grade === 'sound') {
+    out.push(
+      `The core is recorded as ${structural.join(' and ')}, but graded sound (every major part expected to be reused).`,
+    );
+  }
+  if (damage.length && b.creditDecision === 'full') {
+    out.push(`Full core credit for a core recorded as ${damage.join(', ')}.`);
+  }
+  const major = (b.missing ?? []).filter((m) => m === 'block' || m === 'crankshaft' || m === 'cylinder_heads');
+  if (major.length && b.creditDecision === 'full') {
+    out.push(
+      `Full core credit though ${major.map((m) => CORE_PART_LABELS[m as (typeof CORE_PARTS)[number]].toLowerCase()).join(', ')} ${major.length > 1 ? 'are' : 'is'} missing.`,
+    );
+  }
+  if (b.grade === 'unusable' && b.accepted && b.creditDecision === 'full') {
+    out.push('Full core credit for a core graded unusable.');
+  }
+  return out;
+}
 
 export const duplicateQuery = z.strictObject({
   castingNumber: partNumber,
@@ -191,6 +228,8 @@ export const labelStocks = ['2x1in', '50x25mm'] as const;
 export const labelsPrintedBody = z.strictObject({
   serials: z.array(z.string().trim().min(1).max(30)).min(1).max(100),
   stock: z.enum(labelStocks),
+  /** Needed when any of the labels was printed before. */
+  reprintReason: z.string().trim().min(3, 'Say why, in at least 3 characters.').max(300).optional(),
 });
 
 /** The teardown as recorded on the core (server/services/teardown.ts). */

@@ -212,7 +212,14 @@ describe('intake rules found by trying it', () => {
     const res = await request(t.app)
       .post('/api/cores')
       .set('Cookie', receiving)
-      .send(customerReturn({ complete: false, missing: ['crankshaft'] }));
+      .send(
+        customerReturn({
+          complete: false,
+          missing: ['crankshaft'],
+          creditDecision: 'partial',
+          creditReason: 'Came without its crankshaft',
+        }),
+      );
     expect(res.status).toBe(201);
     const bad = await request(t.app)
       .post(`/api/cores/${res.body.serial}/teardown`)
@@ -382,12 +389,22 @@ describe('labels', () => {
       .set('Cookie', receiving)
       .send({ serials: [serial], stock: '2x1in' });
     expect(first.body.printed).toEqual([{ serial, reprint: false }]);
-    const second = await request(t.app)
+    // a reprint says why; without a reason nothing is logged
+    const unexplained = await request(t.app)
       .post('/api/labels/printed')
       .set('Cookie', receiving)
       .send({ serials: [serial], stock: '50x25mm' });
+    expect(unexplained.status).toBe(400);
+    expect(unexplained.body.error.fields.reprintReason).toMatch(/printed again/);
+    const second = await request(t.app)
+      .post('/api/labels/printed')
+      .set('Cookie', receiving)
+      .send({ serials: [serial], stock: '50x25mm', reprintReason: 'Tag lost in the parts washer' });
     expect(second.body.printed).toEqual([{ serial, reprint: true }]);
     const item = await Item.findOne({ where: { serial } });
+    expect((await LabelPrint.findOne({ where: { itemId: item!.id, reprint: true } }))!.reprintReason).toBe(
+      'Tag lost in the parts washer',
+    );
     expect(await LabelPrint.count({ where: { itemId: item!.id } })).toBe(2);
     expect(await AuditEvent.count({ where: { entityId: serial, action: 'label.reprinted' } })).toBe(1);
     expect(

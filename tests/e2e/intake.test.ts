@@ -33,6 +33,8 @@ async function stubPrint(page: Page) {
     (window as unknown as { printed: number }).printed = 0;
     window.print = () => {
       (window as unknown as { printed: number }).printed += 1;
+      // the browser reports the print dialog closed, as Chromium does after a print or a cancel
+      window.dispatchEvent(new Event('afterprint'));
     };
   });
 }
@@ -88,6 +90,14 @@ describe('the receiving desk in a tablet browser', () => {
     await page.screenshot({ path: path.join(shots, 'intake-label-page.png') });
     await page.getByRole('button', { name: 'Print', exact: true }).click();
     await expect.poll(() => page.evaluate(() => (window as unknown as { printed: number }).printed)).toBe(1);
+    // nothing is logged until the person says the labels came out
+    await page.getByText('Did the labels come out of the printer?').waitFor();
+    expect(await labelPrints([coreSerial])).toBe(0);
+    await page.getByRole('button', { name: 'No, nothing printed' }).click();
+    expect(await labelPrints([coreSerial])).toBe(0);
+    await page.getByRole('button', { name: 'Print', exact: true }).click();
+    await page.getByRole('button', { name: 'Yes, log the print' }).click();
+    await page.getByText('Print logged').waitFor();
     expect(await labelPrints([coreSerial])).toBe(1);
 
     // 3. tear it down into a block, a crankshaft and two heads
@@ -129,6 +139,8 @@ describe('the receiving desk in a tablet browser', () => {
     for (const s of parts) await page.locator(`img[src="/api/items/${s}/label.svg"]`).waitFor();
     await page.getByRole('button', { name: 'Print', exact: true }).click();
     await expect.poll(() => page.evaluate(() => (window as unknown as { printed: number }).printed)).toBe(1);
+    await page.getByRole('button', { name: 'Yes, log the print' }).click();
+    await page.getByText('Print logged').waitFor();
     expect(await labelPrints(parts)).toBe(4);
     await page.screenshot({ path: path.join(shots, 'teardown-labels.png') });
     await context.close();

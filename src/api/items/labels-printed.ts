@@ -5,7 +5,7 @@ import { auditKeys } from '../audit/keys';
 
 export type LabelsPrinted = { printed: { serial: string; reprint: boolean }[] };
 
-export const recordLabelsPrinted = (body: { serials: string[]; stock: LabelStock }) =>
+export const recordLabelsPrinted = (body: { serials: string[]; stock: LabelStock; reprintReason?: string }) =>
   http<LabelsPrinted>('/api/labels/printed', { method: 'POST', body });
 
 /** Each print is an audit event (a second print of a label is logged as a reprint). */

@@ -18,6 +18,7 @@ import { ApiError } from '../../lib/http';
 import { coreHref, paths } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
 import { DuplicateConfirm, useDuplicateWarning } from './duplicates';
+import { MismatchCheck } from './mismatches';
 import { ConditionFields, DecisionFields } from './receive-condition';
 import { SourceFields } from './receive-source';
 
@@ -87,6 +88,7 @@ export function ReceivePage() {
   const receive = useReceiveCore();
   const navigate = useNavigate();
   const [lookAlikes, setLookAlikes] = useState<Duplicate[] | null>(null);
+  const [mismatches, setMismatches] = useState<string[]>([]);
   if (!me) return null;
 
   const onSubmit = async (body: ReceiveCoreBody) => {
@@ -96,6 +98,9 @@ export function ReceivePage() {
     } catch (err) {
       if (err instanceof ApiError && err.status === 409 && err.details.reason === 'possible_duplicate') {
         setLookAlikes((err.details.duplicates as Duplicate[] | undefined) ?? []);
+      }
+      if (err instanceof ApiError && err.status === 409 && err.details.reason === 'needs_reason') {
+        setMismatches((err.details.mismatches as string[] | undefined) ?? []);
       }
       throw err;
     }
@@ -138,6 +143,7 @@ export function ReceivePage() {
             <TextAreaField name="notes" label="Notes" hint="Anything the next person should know." />
           </div>
         </Section>
+        <MismatchCheck fromServer={mismatches} />
         {lookAlikes && lookAlikes.length > 0 && <DuplicateConfirm rows={lookAlikes} />}
         <div className="flex justify-end">
           <SubmitButton size="lg">Receive core</SubmitButton>

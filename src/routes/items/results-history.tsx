@@ -1,3 +1,5 @@
+import type { ReactNode } from 'react';
+import { Link } from 'react-router';
 import type { ReadingJson } from '../../../shared/schemas/results';
 import { useItemResults, type ItemResult } from '../../api/items/results';
 import { Badge } from '../../components/ui/badge';
@@ -6,6 +8,7 @@ import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
 import { Table, TBody, TD, TH, THead } from '../../components/ui/table';
 import { formatWhen, plural } from '../../lib/format';
+import { ncrHref } from '../../lib/paths';
 
 const decimalsOf = (v: number) => {
   const s = v.toLocaleString('en-US', { maximumFractionDigits: 10, useGrouping: false });
@@ -90,13 +93,21 @@ function ReadingsTable({ result }: { result: ItemResult }) {
 
 function Facts({ result }: { result: ItemResult }) {
   const ncr = result.nonconformance;
-  const rows: [string, string, boolean][] = [
+  const rows: [string, ReactNode, boolean][] = [
     ['Finished', formatWhen(result.finishedAt), true],
     ['Operator', result.operator || '—', false],
     ['Station', result.station ? `${result.station.name} (${result.station.code})` : '—', false],
     ['Gauge', result.gauge ?? 'None recorded', result.gauge !== null],
   ];
-  if (ncr) rows.push(['NCR', `${ncr.number} (${ncr.severity})`, true]);
+  if (ncr) {
+    rows.push([
+      'NCR',
+      <Link key="ncr" to={ncrHref(ncr.number)} className="text-accent underline underline-offset-4">
+        {ncr.number} ({ncr.severity})
+      </Link>,
+      true,
+    ]);
+  }
   return (
     <dl className={`grid grid-cols-2 gap-x-5 gap-y-2 ${ncr ? 'sm:grid-cols-5' : 'sm:grid-cols-4'}`}>
       {rows.map(([k, v, mono]) => (

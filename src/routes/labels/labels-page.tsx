@@ -1,11 +1,12 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useQueries } from '@tanstack/react-query';
-import { useId } from 'react';
+import { useId, useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
 import { parseSerial } from '../../../shared/domain/serial';
 import { labelStocks } from '../../../shared/schemas/intake';
 import { itemQueryOptions } from '../../api/items/item';
 import { useRecordLabelsPrinted } from '../../api/items/labels-printed';
+import { ApiError } from '../../lib/http';
 import { PageHeader } from '../../components/page-header';
 import { ScanBox } from '../../components/scan-box';
 import { Button } from '../../components/ui/button';
@@ -55,9 +56,26 @@ export function LabelsPage() {
   const printable = serials.filter((_, i) => items[i]?.data);
 
   const setSerials = (list: string[]) => setMany({ serials: list.join(',') });
-  const onPrint = async () => {
-    await printed.mutateAsync({ serials: printable, stock });
+  // the print is logged once the browser reports its print dialog closed and the person says the
+  // labels came out: a cancelled dialog logs nothing
+  const [asking, setAsking] = useState(false);
+  const [needsReason, setNeedsReason] = useState(false);
+  const [reason, setReason] = useState('');
+  const onPrint = () => {
+    printed.reset();
+    setNeedsReason(false);
+    window.addEventListener('afterprint', () => setAsking(true), { once: true });
     window.print();
+  };
+  const logPrint = async () => {
+    try {
+      await printed.mutateAsync({ serials: printable, stock, ...(needsReason ? { reprintReason: reason } : {}) });
+      setAsking(false);
+      setReason('');
+      setNeedsReason(false);
+    } catch (err) {
+      if (err instanceof ApiError && err.fields?.reprintReason) setNeedsReason(true);
+    }
   };
   const reprints = printed.data?.printed.filter((p) => p.reprint).length ?? 0;
 
@@ -72,7 +90,7 @@ export function LabelsPage() {
               variant="primary"
               size="lg"
               icon="print"
-              onClick={() => void onPrint().catch(() => undefined)}
+              onClick={onPrint}
               disabled={printable.length === 0 || printed.isPending}
               aria-busy={printed.isPending}
             >
@@ -119,8 +137,30 @@ export function LabelsPage() {
           </Card>
         </div>
         <div className="mb-4 flex flex-col gap-3">
-          {printed.error && (
-            <Notice tone="bad" live="alert" title="Nothing was printed">
+          {asking && (
+            <Notice tone="info" live="status" title="Did the labels come out of the printer?">
+              <p>The print is logged only when they did; a cancelled print logs nothing.</p>
+              {needsReason && (
+                <label className="mt-3 flex flex-col gap-1">
+                  <span className="font-semibold">Printed before: why again?</span>
+                  <textarea
+                    value={reason}
+                    onChange={(e) => setReason(e.target.value)}
+                    maxLength={300}
+                    className="min-h-20 rounded-control border border-rule-strong bg-card px-3 py-2"
+                  />
+                </label>
+              )}
+              <div className="mt-3 flex flex-wrap gap-2">
+                <Button variant="primary" onClick={() => void logPrint()} disabled={printed.isPending}>
+                  {needsReason ? 'Log the reprint' : 'Yes, log the print'}
+                </Button>
+                <Button onClick={() => setAsking(false)}>No, nothing printed</Button>
+              </div>
+            </Notice>
+          )}
+          {printed.error && !(printed.error instanceof ApiError && printed.error.fields?.reprintReason) && (
+            <Notice tone="bad" live="alert" title="The print was not logged">
               {printed.error.message}
             </Notice>
           )}

@@ -3,12 +3,16 @@ import type { Disposition, NcrState, Severity } from '../../api/ncrs/types';
 import { Badge, type Tone } from '../../components/ui/badge';
 import type { IconName } from '../../components/ui/icon';
 
-/** Open states hold the part (the hold mark); a decided NCR waits on the shop; closed and voided are done. */
+/**
+ * Open states hold the part (the hold mark); a decided NCR waits on the shop; closed and voided are
+ * done. Closed is plain grey, never the green check of a pass: a closed NCR may have accepted a
+ * crack or scrapped the part.
+ */
 const STATE_LOOK: Record<NcrState, { tone: Tone; icon?: IconName }> = {
   raised: { tone: 'hold' },
   in_review: { tone: 'wait' },
   decided: { tone: 'accent', icon: 'arrowRight' },
-  closed: { tone: 'ok' },
+  closed: { tone: 'neutral', icon: 'neutral' },
   voided: { tone: 'off' },
 };
 
@@ -28,7 +32,7 @@ export function SeverityMark({ severity }: { severity: Severity }) {
   if (severity === 'critical') {
     return (
       <Badge tone="bad" icon="alert">
-        <span className="font-semibold uppercase tracking-wide">Critical</span>
+        <span className="font-semibold">Critical</span>
       </Badge>
     );
   }

@@ -3,7 +3,11 @@ import { Badge } from '../../components/ui/badge';
 import { formatWhen } from '../../lib/format';
 import { decimalsOf, formatFixed, ruleLimitsText, shownState } from './limits';
 
-type Line = { label: string; value: (r: RuleJson) => string; mono?: boolean };
+/**
+ * `spec`: what the rule says (compared, a difference marked); `record`: the facts of each version's
+ * own life (status, dates, people), which are naturally different and so never marked.
+ */
+type Line = { label: string; value: (r: RuleJson) => string; mono?: boolean; record?: boolean };
 
 function lines(history: RuleHistoryJson): Line[] {
   const c = history.characteristic;
@@ -16,7 +20,6 @@ function lines(history: RuleHistoryJson): Line[] {
   };
   const person = (name: string | null, at: string | null) => (name ? `${name}, ${formatWhen(at)}` : '—');
   return [
-    { label: 'Status', value: (r) => shownState(r).label },
     { label: 'Limits', value: (r) => ruleLimitsText(r, c), mono: true },
     { label: 'Limit type', value: (r) => LIMIT_TYPE_LABELS[r.limitType] },
     { label: 'Nominal', value: (r) => withUnit(r.nominal, r), mono: true },
@@ -26,15 +29,17 @@ function lines(history: RuleHistoryJson): Line[] {
     { label: 'Upper limit', value: (r) => withUnit(r.upperLimit, r), mono: true },
     { label: 'Resolution', value: (r) => withUnit(r.resolution, r), mono: true },
     { label: 'Source note', value: (r) => r.sourceNote || '—' },
-    { label: 'Effective from', value: (r) => formatWhen(r.effectiveFrom), mono: true },
-    { label: 'Superseded at', value: (r) => formatWhen(r.supersededAt), mono: true },
-    { label: 'Drafted by', value: (r) => person(r.createdBy, r.createdAt) },
-    { label: 'Approved by', value: (r) => person(r.approvedBy, r.approvedAt) },
-    { label: 'Reason', value: (r) => r.approvalReason ?? '—' },
+    { label: 'Status', value: (r) => shownState(r).label, record: true },
+    { label: 'Effective from', value: (r) => formatWhen(r.effectiveFrom), mono: true, record: true },
+    { label: 'Superseded at', value: (r) => formatWhen(r.supersededAt), mono: true, record: true },
+    { label: 'Drafted by', value: (r) => person(r.createdBy, r.createdAt), record: true },
+    { label: 'Approved by', value: (r) => person(r.approvedBy, r.approvedAt), record: true },
+    { label: 'Reason', value: (r) => r.approvalReason ?? '—', record: true },
     {
       label: 'Signature',
       value: (r) =>
         r.signature ? `${r.signature.printedName}, ${formatWhen(r.signature.signedAt)}: ${r.signature.meaning}` : '—',
+      record: true,
     },
   ];
 }
@@ -57,7 +62,7 @@ type CompareProps = { history: RuleHistoryJson; older: RuleJson; newer: RuleJson
  */
 export function CompareVersions({ history, older, newer }: CompareProps) {
   const all = lines(history);
-  const differs = all.map((l) => l.value(older) !== l.value(newer));
+  const differs = all.map((l) => !l.record && l.value(older) !== l.value(newer));
   const changed = all.filter((_, i) => differs[i]).map((l) => l.label);
   const span = { gridRow: `span ${all.length + 1} / span ${all.length + 1}` };
   const cell = (i: number) =>
@@ -70,8 +75,8 @@ export function CompareVersions({ history, older, newer }: CompareProps) {
       </h3>
       <p className="mb-3 text-sm text-ink-soft">
         {changed.length
-          ? `They differ in ${changed.length === 1 ? '1 field' : `${changed.length} fields`}: ${changed.join(', ')}.`
-          : 'They do not differ in any field.'}
+          ? `What the rule says differs in ${changed.length === 1 ? '1 field' : `${changed.length} fields`}: ${changed.join(', ')}. The rows below them are each version's own record.`
+          : 'What the rule says is the same in both; only each version’s own record differs.'}
       </p>
       <div className="grid grid-cols-[minmax(8rem,12rem)_minmax(0,1fr)_minmax(0,1fr)] rounded-control border border-rule bg-card text-[0.925rem]">
         <div aria-hidden="true" className="grid grid-rows-subgrid bg-sunk" style={span}>

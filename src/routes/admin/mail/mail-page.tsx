@@ -1,4 +1,5 @@
 import type { QueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
 import { OUTBOX_STATUSES, outboxQueryOptions, useOutbox, type OutboxFilter } from '../../../api/mail/outbox';
 import { mailSinkQueryOptions, useMailSink } from '../../../api/mail/sink';
@@ -12,6 +13,7 @@ import { plural } from '../../../lib/format';
 import { requirePermission } from '../../../lib/session';
 import { useUrlFilter } from '../../../lib/use-url-filter';
 import { OUTBOX_STATUS_LABELS, OutboxTable } from './outbox-table';
+import { MessageDialog } from './message-dialog';
 import { SinkList } from './sink-list';
 
 const OUTBOX_PAGE_SIZE = 25;
@@ -45,6 +47,7 @@ export function MailPage() {
   const outbox = useOutbox(filter);
   const sink = useMailSink();
   const data = outbox.data;
+  const [open, setOpen] = useState<number | null>(null);
 
   return (
     <>
@@ -101,6 +104,7 @@ export function MailPage() {
                     ? 'No messages with this status.'
                     : 'Nothing has been queued yet.'
               }
+              onOpen={setOpen}
             />
           )}
           {data && (
@@ -141,6 +145,7 @@ export function MailPage() {
           {sink.data && <SinkList messages={sink.data} />}
         </Card>
       </div>
+      <MessageDialog id={open} onClose={() => setOpen(null)} />
     </>
   );
 }

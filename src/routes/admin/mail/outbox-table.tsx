@@ -9,7 +9,11 @@ import { formatWhen } from '../../../lib/format';
 const REASON_WORDS: Record<string, string> = {
   'ncr.raised': 'NCR raised',
   'ncr.decided': 'NCR decided',
+  'ncr.countersign_requested': 'Second signature asked for',
   'unit.releasable': 'Unit can ship',
+  'field_action.opened': 'Field action opened',
+  'field_action.notify_customer': 'Notice to a customer',
+  'field_action.recall': 'Recall notice to a customer',
 };
 
 export const OUTBOX_STATUS_LABELS: Record<OutboxStatus, string> = {
@@ -23,7 +27,18 @@ const STATUS_TONES: Record<OutboxStatus, Tone> = { pending: 'wait', sending: 'wa
 const col = createColumnHelper<OutboxMessage>();
 const none = <span className="text-ink-soft">—</span>;
 
-export function OutboxTable({ rows, busy, empty }: { rows: OutboxMessage[]; busy: boolean; empty: string }) {
+export function OutboxTable({
+  rows,
+  busy,
+  empty,
+  onOpen,
+}: {
+  rows: OutboxMessage[];
+  busy: boolean;
+  empty: string;
+  /** Opens the message as it was sent. */
+  onOpen: (id: number) => void;
+}) {
   const columns = useMemo(
     () => [
       col.accessor('createdAt', {
@@ -34,7 +49,15 @@ export function OutboxTable({ rows, busy, empty }: { rows: OutboxMessage[]; busy
       col.accessor('to', { header: 'To', meta: { nowrap: true } }),
       col.accessor('subject', {
         header: 'Subject',
-        cell: (c) => <span className="block min-w-48">{c.getValue()}</span>,
+        cell: (c) => (
+          <button
+            type="button"
+            onClick={() => onOpen(c.row.original.id)}
+            className="block min-h-11 min-w-48 text-left text-accent underline underline-offset-4"
+          >
+            {c.getValue()}
+          </button>
+        ),
       }),
       col.accessor('reason', {
         header: 'Why it was sent',
@@ -59,7 +82,7 @@ export function OutboxTable({ rows, busy, empty }: { rows: OutboxMessage[]; busy
         cell: (c) => (c.getValue() ? formatWhen(c.getValue()) : none),
       }),
     ],
-    [],
+    [onOpen],
   );
   // eslint-disable-next-line react-hooks/incompatible-library -- the table instance is rebuilt each render by design
   const table = useReactTable({
