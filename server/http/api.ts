@@ -31,7 +31,14 @@ export type RouteSpec<P extends Schema | undefined, Q extends Schema | undefined
   ) => Promise<unknown>;
 };
 
-export type RouteInfo = { method: Method; path: string; access: Access; summary: string };
+export type RouteInfo = {
+  method: Method;
+  path: string;
+  access: Access;
+  summary: string;
+  /** The route's input schemas, for the fuzz suite to generate near-valid input from. */
+  input: { params?: Schema; query?: Schema; body?: Schema; multipart?: boolean };
+};
 
 /** Runs an Express middleware (a multipart parser, a rate limiter) inside an async handler. */
 export function runMiddleware(mw: RequestHandler, req: Request, res: Response): Promise<void> {
@@ -50,7 +57,13 @@ export class Api {
   define<P extends Schema | undefined, Q extends Schema | undefined, B extends Schema | undefined>(
     spec: RouteSpec<P, Q, B>,
   ): void {
-    this.routes.push({ method: spec.method, path: `/api${spec.path}`, access: spec.access, summary: spec.summary });
+    this.routes.push({
+      method: spec.method,
+      path: `/api${spec.path}`,
+      access: spec.access,
+      summary: spec.summary,
+      input: { params: spec.params, query: spec.query, body: spec.body, multipart: spec.before !== undefined },
+    });
     const handler: RequestHandler = async (req: Request, res: Response) => {
       const user = req.user ?? null;
       if (spec.access !== 'public') {

@@ -4,6 +4,7 @@ import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Attachment } from '../../server/models/index.js';
+import { LocalDiskStore } from '../../server/storage/blob-store.js';
 import { cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
 import { elfBytes, htmlBytes, pngImage } from '../support/images.js';
 
@@ -98,5 +99,45 @@ describe('photo uploads are checked by their bytes', () => {
     expect(back.status).toBe(200);
     expect(back.headers['x-content-type-options']).toBe('nosniff');
     expect(Buffer.compare(back.body as Buffer, pngImage())).toBe(0);
+  });
+});
+
+describe('unclaimed uploads and the daily quota', () => {
+  it('when a photo has waited unclaimed for over a day, then the sweep removes its file and row; a claimed or fresh one stays', async () => {
+    const { sweepUnclaimedUploads } = await import('../../server/jobs/upload-sweeper.js');
+    const user = await makeUser('receiving');
+    const cookie = await cookieFor(user, t.config);
+    const up = async () =>
+      (await request(t.app).post('/api/attachments').set('Cookie', cookie).attach('file', pngImage(), 'p.png')).body as {
+        id: number;
+      };
+    const old = await up();
+    const fresh = await up();
+    const claimed = await up();
+    const dayAndAMinute = new Date(Date.now() - 24 * 3600_000 - 60_000);
+    await Attachment.update({ createdAt: dayAndAMinute }, { where: { id: [old.id, claimed.id] }, silent: true });
+    await Attachment.update({ entity: 'core', entityId: '1' }, { where: { id: claimed.id } });
+    const oldKey = (await Attachment.findByPk(old.id))!.storageKey;
+    expect(filesIn(dir)).toContain(oldKey);
+    const removed = await sweepUnclaimedUploads(t.sequelize, new LocalDiskStore(dir));
+    expect(removed).toBeGreaterThanOrEqual(1);
+    expect(await Attachment.findByPk(old.id)).toBeNull();
+    expect(filesIn(dir)).not.toContain(oldKey);
+    expect(await Attachment.findByPk(fresh.id)).not.toBeNull();
+    expect(await Attachment.findByPk(claimed.id)).not.toBeNull();
+  });
+
+  it('when a person reaches the daily upload quota, then 429 with a plain message and nothing stored', async () => {
+    const quota = makeTestApp({ UPLOAD_DIR: dir, UPLOAD_QUOTA_PER_DAY: 2 }, t.sequelize);
+    const user = await makeUser('receiving');
+    const cookie = await cookieFor(user, quota.config);
+    const up = () => request(quota.app).post('/api/attachments').set('Cookie', cookie).attach('file', pngImage(), 'p.png');
+    expect((await up()).status).toBe(201);
+    expect((await up()).status).toBe(201);
+    const third = await up();
+    expect(third.status).toBe(429);
+    expect(third.body.error.code).toBe('upload_quota');
+    expect(third.body.error.message).toMatch(/2 photos/);
+    expect(await Attachment.count({ where: { uploadedById: user.id } })).toBe(2);
   });
 });
