@@ -9,6 +9,7 @@ import { DefectCode, Nonconformance, NonconformanceTransition, Signature } from 
 import { Customer, Supplier } from './parties.js';
 import { Attachment, LabelPrint, Shipment, WarrantyClaim } from './records.js';
 import { Reading, StageReentry, StageResult } from './results.js';
+import { RecoveryCode } from './recovery-code.js';
 import { Session } from './session.js';
 import { Characteristic, ToleranceRule } from './spec.js';
 import { Route, RouteStage, Stage } from './stage.js';
@@ -34,6 +35,7 @@ export {
   NonconformanceTransition,
   PartLot,
   Reading,
+  RecoveryCode,
   Route,
   RouteStage,
   Session,
@@ -53,6 +55,7 @@ export {
 const MODELS = [
   User,
   Session,
+  RecoveryCode,
   EngineFamily,
   Stage,
   Route,

@@ -103,8 +103,7 @@ function requests(route: (typeof t.app.apiRoutes)[number]): fc.Arbitrary<Req> {
       .chain(([value, leaf]) =>
         hostile(leaf.node, q).map((bad) => {
           const copy = structuredClone(value) as Record<string, unknown>;
-          setAt(copy, leaf.path, bad);
-          return { value: copy, at: leaf.path.join('.') };
+          return { value: setAt(copy, leaf.path, bad) as Record<string, unknown>, at: leaf.path.join('.') || '(all)' };
         }),
       );
 

@@ -43,6 +43,12 @@ export function describeSchema(schema: z.ZodType): Node {
     }
     case 'array':
       return { kind: 'array', element: describeSchema(def.element as z.ZodType) };
+    case 'union': {
+      const options = def.options as z.ZodType[];
+      // an object among the options is the shape a body takes; otherwise treat it as a leaf
+      const object = options.find((o) => defOf(o).type === 'object');
+      return object ? describeSchema(object) : { kind: 'leaf', type: 'other', schema };
+    }
     case 'record':
       return { kind: 'record', value: describeSchema(def.valueType as z.ZodType) };
     case 'string':
@@ -170,7 +176,8 @@ export function leafPaths(node: Node, prefix: (string | number)[] = []): { path:
   }
 }
 
-export function setAt(target: Record<string | number, unknown>, path: (string | number)[], value: unknown) {
+export function setAt(target: Record<string | number, unknown>, path: (string | number)[], value: unknown): unknown {
+  if (!path.length) return value;
   let cur: Record<string | number, unknown> = target;
   for (let i = 0; i < path.length - 1; i++) {
     const k = path[i]!;
@@ -179,6 +186,7 @@ export function setAt(target: Record<string | number, unknown>, path: (string | 
     cur = cur[k] as Record<string | number, unknown>;
   }
   cur[path[path.length - 1]!] = value;
+  return target;
 }
 
 /** Path parameter values that must be refused or found missing; a stray % must never be a 500. */
