@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { decimal, text } from './common.js';
+import { text } from './common.js';
 
 export const PART_KINDS = [
   'core',
@@ -59,10 +59,10 @@ export const familyBody = z
       .int('Use a whole number.')
       .min(1, 'At least 1.')
       .max(16, 'At most 16.'),
-    boreMm: decimal(7, 3, 'Enter the bore in mm.')
-      .positive('The bore must be more than 0 mm.')
-      .max(300, 'At most 300 mm.'),
-    strokeMm: decimal(7, 3, 'Enter the stroke in mm.')
+    boreMm: z.number('Enter the bore in mm.').positive('The bore must be more than 0 mm.').max(300, 'At most 300 mm.'),
+    // numeric(7, 3): a bore or stroke converted from inches keeps 0.001 mm, which is all a family's description needs
+    strokeMm: z
+      .number('Enter the stroke in mm.')
       .positive('The stroke must be more than 0 mm.')
       .max(300, 'At most 300 mm.'),
     headsPerEngine: z
