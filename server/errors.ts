@@ -27,7 +27,11 @@ export const malformedPath = () =>
   });
 export const unsupportedMediaType = (message: string) => new AppError(415, 'unsupported_media_type', message);
 export const crossSite = () =>
-  new AppError(403, 'cross_site', 'Changes are accepted only from Coretrail’s own pages. Open Coretrail and try again.');
+  new AppError(
+    403,
+    'cross_site',
+    'Changes are accepted only from Coretrail’s own pages. Open Coretrail and try again.',
+  );
 export const secondFactorRequired = () =>
   new AppError(
     403,

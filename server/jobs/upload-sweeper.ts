@@ -19,7 +19,12 @@ export async function sweepUnclaimedUploads(
   let total = 0;
   for (;;) {
     const removed = await sequelize.transaction(async (transaction) => {
-      const rows = await sequelize.query<{ id: number; storage_key: string; file_name: string; uploaded_by_id: number }>(
+      const rows = await sequelize.query<{
+        id: number;
+        storage_key: string;
+        file_name: string;
+        uploaded_by_id: number;
+      }>(
         `DELETE FROM attachments WHERE id IN (
            SELECT id FROM attachments
             WHERE entity = 'pending' AND created_at < now() - make_interval(secs => :seconds)

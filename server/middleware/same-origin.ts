@@ -20,7 +20,10 @@ function ownOrigins(req: Request, appUrl: string | undefined): Set<string> {
  * The browser says where a request comes from in Origin and Sec-Fetch-Site; a request with neither
  * is not from a browser page (a script, a test stand's uploader) and stays allowed.
  */
-export function sameOriginJson(opts: { appUrl?: string; takesFile: (method: string, path: string) => boolean }): RequestHandler {
+export function sameOriginJson(opts: {
+  appUrl?: string;
+  takesFile: (method: string, path: string) => boolean;
+}): RequestHandler {
   return (req, _res, next) => {
     if (SAFE.has(req.method)) return next();
     const site = req.get('sec-fetch-site');
@@ -32,7 +35,8 @@ export function sameOriginJson(opts: { appUrl?: string; takesFile: (method: stri
     const chunked = req.get('transfer-encoding') !== undefined;
     const type = req.get('content-type');
     if (!type) {
-      if (hasBody || chunked) return next(unsupportedMediaType('Send the body as JSON (Content-Type: application/json).'));
+      if (hasBody || chunked)
+        return next(unsupportedMediaType('Send the body as JSON (Content-Type: application/json).'));
       return next();
     }
     if (req.is('application/json')) return next();

@@ -93,9 +93,14 @@ export async function confirmEnrolment(
     if (!user.totpPendingSecret) throw conflict('Start the set-up again: no code is waiting to be confirmed.');
     const step = checkTotp(openSecret(user.totpPendingSecret, serverSecret), code, { lastStep: null });
     if (step === null) {
-      throw new AppError(400, 'code_refused', 'That code is not right. Scan the QR code again and enter the code shown now.', {
-        code: 'Not right.',
-      });
+      throw new AppError(
+        400,
+        'code_refused',
+        'That code is not right. Scan the QR code again and enter the code shown now.',
+        {
+          code: 'Not right.',
+        },
+      );
     }
     await user.update(
       { totpSecret: user.totpPendingSecret, totpPendingSecret: null, totpEnrolledAt: new Date(), totpLastStep: step },
@@ -146,7 +151,10 @@ export async function resetSecondFactor(sequelize: Sequelize, ctx: Ctx, userId: 
 }
 
 async function clearFactor(user: User, transaction: Transaction) {
-  await user.update({ totpSecret: null, totpPendingSecret: null, totpEnrolledAt: null, totpLastStep: null }, { transaction });
+  await user.update(
+    { totpSecret: null, totpPendingSecret: null, totpEnrolledAt: null, totpLastStep: null },
+    { transaction },
+  );
   // recovery codes are credentials, not records: they go with the factor (the audit event stays)
   await RecoveryCode.destroy({ where: { userId: user.id }, transaction });
 }

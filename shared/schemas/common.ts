@@ -10,6 +10,7 @@ export const INT4_MAX = 2_147_483_647;
 export const FIRST_YEAR = 1900;
 export const LAST_YEAR = 2100;
 
+// eslint-disable-next-line no-control-regex -- finding the NUL byte is the point
 const UNSTORABLE = /\u0000|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
 export const isStorableText = (s: string) => !UNSTORABLE.test(s);
 export const UNSTORABLE_TEXT =

@@ -37,6 +37,8 @@ export type Person = {
   name: string;
   role: z.infer<typeof roleSchema>;
   active: boolean;
+  /** Whether they sign in with an authenticator app as well. */
+  secondFactor: boolean;
   lastSignInAt: string | null;
   createdAt: string;
 };

@@ -31,7 +31,11 @@ describe('writes are JSON only', () => {
 
   it('when an NCR review, close or a draft discard arrives as a form post, then 415', async () => {
     const quality = await cookieFor(await makeUser('quality'), t.config);
-    for (const url of ['/api/ncrs/NC-2026-00001/review', '/api/ncrs/NC-2026-00001/close', '/api/spec/rules/1/discard']) {
+    for (const url of [
+      '/api/ncrs/NC-2026-00001/review',
+      '/api/ncrs/NC-2026-00001/close',
+      '/api/spec/rules/1/discard',
+    ]) {
       const res = await request(t.app)
         .post(url)
         .set('Cookie', quality)

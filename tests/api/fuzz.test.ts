@@ -49,14 +49,20 @@ beforeAll(async () => {
     cookies.set(role, await cookieFor(u, t.config));
   }
   // records of this file's own to aim at: a core torn down into parts, and its people
-  const parts = await tornDownCore(t, { receiving: cookies.get('receiving')!, operator: cookies.get('operator')! }, 'TARN-6');
+  const parts = await tornDownCore(
+    t,
+    { receiving: cookies.get('receiving')!, operator: cookies.get('operator')! },
+    'TARN-6',
+  );
   const family = (await EngineFamily.findOne({ where: { code: 'TARN-6' } }))!;
   const customer = (await Customer.findOne())!;
   const defect = (await DefectCode.findOne({ where: { active: true } }))!;
-  const ncr = await request(t.app)
-    .post('/api/ncrs')
-    .set('Cookie', cookies.get('operator')!)
-    .send({ serial: parts.crankshaft, description: 'Scored journal, for the fuzz suite', severity: 'minor', defectCode: defect.code });
+  const ncr = await request(t.app).post('/api/ncrs').set('Cookie', cookies.get('operator')!).send({
+    serial: parts.crankshaft,
+    description: 'Scored journal, for the fuzz suite',
+    severity: 'minor',
+    defectCode: defect.code,
+  });
   if (ncr.status !== 201) throw new Error(`raise failed: ${JSON.stringify(ncr.body)}`);
   ids.serial = [parts.core, parts.block, parts.crankshaft];
   // ids of this file's own records only: a mistaken acceptance must not change what other files use
@@ -98,24 +104,26 @@ function requests(route: (typeof t.app.apiRoutes)[number]): fc.Arbitrary<Req> {
   const base = (node: Node | null, q: boolean) =>
     node ? plausible(node, pool, q) : fc.constant({} as Record<string, unknown>);
   const mutated = (node: Node, q: boolean) =>
-    fc
-      .tuple(base(node, q), fc.constantFrom(...leafPaths(node)))
-      .chain(([value, leaf]) =>
-        hostile(leaf.node, q).map((bad) => {
-          const copy = structuredClone(value) as Record<string, unknown>;
-          return { value: setAt(copy, leaf.path, bad) as Record<string, unknown>, at: leaf.path.join('.') || '(all)' };
-        }),
-      );
+    fc.tuple(base(node, q), fc.constantFrom(...leafPaths(node))).chain(([value, leaf]) =>
+      hostile(leaf.node, q).map((bad) => {
+        const copy = structuredClone(value) as Record<string, unknown>;
+        return { value: setAt(copy, leaf.path, bad) as Record<string, unknown>, at: leaf.path.join('.') || '(all)' };
+      }),
+    );
 
   const slots: fc.Arbitrary<Req>[] = [];
   for (const p of params) {
     slots.push(
-      fc.tuple(pathWith(p), base(query, true), base(body, false)).map(([url, q, b]) => ({ url, query: q as never, body: b, what: `path :${p}` })),
+      fc
+        .tuple(pathWith(p), base(query, true), base(body, false))
+        .map(([url, q, b]) => ({ url, query: q as never, body: b, what: `path :${p}` })),
     );
   }
   if (query && leafPaths(query).length) {
     slots.push(
-      fc.tuple(pathWith(null), mutated(query, true), base(body, false)).map(([url, q, b]) => ({ url, query: q.value, body: b, what: `query ${q.at}` })),
+      fc
+        .tuple(pathWith(null), mutated(query, true), base(body, false))
+        .map(([url, q, b]) => ({ url, query: q.value, body: b, what: `query ${q.at}` })),
     );
   }
   slots.push(
@@ -129,7 +137,9 @@ function requests(route: (typeof t.app.apiRoutes)[number]): fc.Arbitrary<Req> {
   if (write) {
     if (body && leafPaths(body).length) {
       slots.push(
-        fc.tuple(pathWith(null), base(query, true), mutated(body, false)).map(([url, q, b]) => ({ url, query: q as never, body: b.value, what: `body ${b.at}` })),
+        fc
+          .tuple(pathWith(null), base(query, true), mutated(body, false))
+          .map(([url, q, b]) => ({ url, query: q as never, body: b.value, what: `body ${b.at}` })),
       );
     }
     slots.push(
@@ -173,7 +183,14 @@ async function send(route: (typeof t.app.apiRoutes)[number], r: Req): Promise<Fi
   const res = await req;
   const wrote = await AuditEvent.count({ where: { requestId } });
   if (res.status < 500 && wrote === 0) return null;
-  return { route: `${route.method.toUpperCase()} ${route.path}`, what: r.what, url, status: res.status, wrote, body: res.text.slice(0, 200) };
+  return {
+    route: `${route.method.toUpperCase()} ${route.path}`,
+    what: r.what,
+    url,
+    status: res.status,
+    wrote,
+    body: res.text.slice(0, 200),
+  };
 }
 
 describe('the fuzz suite: hostile input on every route', () => {
@@ -194,7 +211,10 @@ describe('the fuzz suite: hostile input on every route', () => {
   it(`when photos with ${UPLOAD_RUNS} generated names and broken multipart bodies are sent, then none is a 5xx and every stored photo reads back`, async () => {
     const cookie = cookies.get('receiving')!;
     const findings: string[] = [];
-    const names = fc.sample(fc.string({ unit: 'binary', minLength: 1, maxLength: 40 }), { seed: SEED, numRuns: UPLOAD_RUNS });
+    const names = fc.sample(fc.string({ unit: 'binary', minLength: 1, maxLength: 40 }), {
+      seed: SEED,
+      numRuns: UPLOAD_RUNS,
+    });
     for (const name of names) {
       const up = await request(t.app)
         .post('/api/attachments')
@@ -209,14 +229,20 @@ describe('the fuzz suite: hostile input on every route', () => {
     }
     const broken = fc.sample(
       fc.record({
-        type: fc.constantFrom('multipart/form-data', 'multipart/form-data; boundary=b', 'multipart/form-data; boundary="'),
+        type: fc.constantFrom(
+          'multipart/form-data',
+          'multipart/form-data; boundary=b',
+          'multipart/form-data; boundary="',
+        ),
         cut: fc.integer({ min: 0, max: 120 }),
       }),
       { seed: SEED, numRuns: UPLOAD_RUNS },
     );
     for (const { type, cut } of broken) {
       const whole = Buffer.concat([
-        Buffer.from('--b\r\nContent-Disposition: form-data; name="file"; filename="p.png"\r\nContent-Type: image/png\r\n\r\n'),
+        Buffer.from(
+          '--b\r\nContent-Disposition: form-data; name="file"; filename="p.png"\r\nContent-Type: image/png\r\n\r\n',
+        ),
         pngImage(8, 8),
         Buffer.from('\r\n--b--\r\n'),
       ]);

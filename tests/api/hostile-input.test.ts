@@ -178,7 +178,9 @@ describe('the build record is named by the stored serial', () => {
       expect(res.status, JSON.stringify(typed)).toBe(200);
       expect(res.headers['content-type']).toBe('application/pdf');
       // RFC 6266 §4.1: a file name that is a token needs no quotes
-      expect(res.headers['content-disposition']).toMatch(new RegExp(`^inline; filename="?build-record-${serial}\\.pdf"?$`));
+      expect(res.headers['content-disposition']).toMatch(
+        new RegExp(`^inline; filename="?build-record-${serial}\\.pdf"?$`),
+      );
     }
     // a serial no unit has is a JSON 404, without the PDF's headers
     const missing = await request(t.app).get(`/api/units/LB-2222-2222/build-record.pdf`).set('Cookie', viewer);

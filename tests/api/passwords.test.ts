@@ -51,9 +51,9 @@ describe('guessing a password on the change-password and signature routes is lim
         .send({ serial: parts.block, description: 'Deep score in bore four', severity: 'minor', defectCode: code });
       expect(raised.status).toBe(201);
       const number = raised.body.number as string;
-      expect((await request(limited.app).post(`/api/ncrs/${number}/review`).set('Cookie', quality).send({})).status).toBe(
-        200,
-      );
+      expect(
+        (await request(limited.app).post(`/api/ncrs/${number}/review`).set('Cookie', quality).send({})).status,
+      ).toBe(200);
       const decide = (password: string) =>
         request(limited.app)
           .post(`/api/ncrs/${number}/disposition`)
@@ -117,7 +117,10 @@ describe('sign-in', () => {
       expect(list.status).toBe(200);
       const entry = list.body.accounts.find((a: { email: string }) => a.email === user.email);
       expect(entry).toMatchObject({ email: user.email, userId: user.id, name: user.name, failures: 2 });
-      const lift = await request(limited.app).post('/api/lockouts/lift').set('Cookie', admin).send({ email: user.email });
+      const lift = await request(limited.app)
+        .post('/api/lockouts/lift')
+        .set('Cookie', admin)
+        .send({ email: user.email });
       expect(lift.status).toBe(204);
       expect((await login(limited, user.email, TEST_PASSWORD)).status).toBe(200);
       const events = await AuditEvent.findAll({ where: { action: 'user.lockout_lifted', entityId: String(user.id) } });

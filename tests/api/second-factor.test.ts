@@ -92,7 +92,10 @@ describe('a second factor for admins', () => {
     const quality = await makeUser('quality');
     await enrol(cookieOf(await login({ email: quality.email, password: TEST_PASSWORD })));
     expect((await login({ email: quality.email, password: TEST_PASSWORD })).status).toBe(401);
-    const reset = await request(t.app).post(`/api/people/${quality.id}/second-factor/reset`).set('Cookie', admin).send({});
+    const reset = await request(t.app)
+      .post(`/api/people/${quality.id}/second-factor/reset`)
+      .set('Cookie', admin)
+      .send({});
     expect(reset.status).toBe(204);
     expect((await login({ email: quality.email, password: TEST_PASSWORD })).status).toBe(200);
     expect(await RecoveryCode.count({ where: { userId: quality.id } })).toBe(0);

@@ -108,7 +108,8 @@ describe('unclaimed uploads and the daily quota', () => {
     const user = await makeUser('receiving');
     const cookie = await cookieFor(user, t.config);
     const up = async () =>
-      (await request(t.app).post('/api/attachments').set('Cookie', cookie).attach('file', pngImage(), 'p.png')).body as {
+      (await request(t.app).post('/api/attachments').set('Cookie', cookie).attach('file', pngImage(), 'p.png'))
+        .body as {
         id: number;
       };
     const old = await up();
@@ -131,7 +132,8 @@ describe('unclaimed uploads and the daily quota', () => {
     const quota = makeTestApp({ UPLOAD_DIR: dir, UPLOAD_QUOTA_PER_DAY: 2 }, t.sequelize);
     const user = await makeUser('receiving');
     const cookie = await cookieFor(user, quota.config);
-    const up = () => request(quota.app).post('/api/attachments').set('Cookie', cookie).attach('file', pngImage(), 'p.png');
+    const up = () =>
+      request(quota.app).post('/api/attachments').set('Cookie', cookie).attach('file', pngImage(), 'p.png');
     expect((await up()).status).toBe(201);
     expect((await up()).status).toBe(201);
     const third = await up();

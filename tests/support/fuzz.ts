@@ -16,7 +16,13 @@ export type Node =
   | { kind: 'object'; fields: Record<string, { node: Node; optional: boolean }> }
   | { kind: 'array'; element: Node }
   | { kind: 'record'; value: Node }
-  | { kind: 'leaf'; type: 'string' | 'number' | 'boolean' | 'enum' | 'other'; format?: string; int?: boolean; schema: z.ZodType };
+  | {
+      kind: 'leaf';
+      type: 'string' | 'number' | 'boolean' | 'enum' | 'other';
+      format?: string;
+      int?: boolean;
+      schema: z.ZodType;
+    };
 
 export function describeSchema(schema: z.ZodType): Node {
   const def = defOf(schema);
@@ -105,11 +111,15 @@ export function plausible(node: Node, pool: unknown[], query = false): fc.Arbitr
   switch (node.kind) {
     case 'object': {
       const entries = Object.entries(node.fields).map(
-        ([k, f]) => [k, f.optional ? fc.option(plausible(f.node, pool, query), { nil: undefined }) : plausible(f.node, pool, query)] as const,
+        ([k, f]) =>
+          [
+            k,
+            f.optional ? fc.option(plausible(f.node, pool, query), { nil: undefined }) : plausible(f.node, pool, query),
+          ] as const,
       );
-      return fc.record(Object.fromEntries(entries)).map((o) =>
-        Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)),
-      );
+      return fc
+        .record(Object.fromEntries(entries))
+        .map((o) => Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)));
     }
     case 'array':
       return fc.array(plausible(node.element, pool, query), { maxLength: 2 });
