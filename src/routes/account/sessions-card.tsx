@@ -56,8 +56,10 @@ export function SessionsCard() {
                 {browserName(s.userAgent)}
                 {s.current && <span className="ml-2 text-sm font-normal text-ok">this browser</span>}
               </span>
-              <span className="font-mono text-sm text-ink-soft">
-                {s.ip ?? 'address unknown'} · signed in {formatWhen(s.createdAt)} · last used {formatWhen(s.lastSeenAt)}
+              <span className="flex flex-wrap gap-x-3 font-mono text-sm text-ink-soft">
+                <span className="whitespace-nowrap">{s.ip ?? 'address unknown'}</span>
+                <span className="whitespace-nowrap">signed in {formatWhen(s.createdAt)}</span>
+                <span className="whitespace-nowrap">last used {formatWhen(s.lastSeenAt)}</span>
               </span>
             </li>
           ))}

@@ -9,20 +9,22 @@ const WHY = { 'sign-in': 'failed sign-ins', password: 'wrong passwords when sign
 /**
  * Accounts and addresses refused after too many failures, and a way to let them back in at once
  * (a floor of tablets that mistyped a shared password need not wait out the window). Lifting is
- * audited. The list is this server process's: see docs/operations.md for several processes.
+ * audited. Shown above the people list only while there is one. The list is this server process's:
+ * see docs/operations.md for several processes.
  */
 export function LockoutsCard() {
   const lockouts = useLockouts();
   const lift = useLiftLockout();
   const data = lockouts.data;
   const none = data && data.accounts.length === 0 && data.addresses.length === 0;
+  if (none && !lift.error) return null;
 
   return (
     <Card labelledBy="lockouts-heading">
       <CardHeader
         id="lockouts-heading"
-        title="Lock-outs"
-        description="Who cannot sign in or sign right now after too many failures, until the time shown or until you lift it."
+        title="Locked out"
+        description="Who cannot sign in, or sign with their password, after too many failures: until the time shown, or until you lift it."
       />
       <CardBody>
         {lockouts.error && (
@@ -35,7 +37,6 @@ export function LockoutsCard() {
             {lift.error.message}
           </Notice>
         )}
-        {none && <p className="text-ink-soft">Nobody is locked out right now.</p>}
         {data && !none && (
           <ul className="flex flex-col divide-y divide-rule" aria-label="Lock-outs">
             {data.accounts.map((a) => (

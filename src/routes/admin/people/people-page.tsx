@@ -77,6 +77,9 @@ export function PeoplePage() {
           </Button>
         }
       />
+      <div className="mb-5 empty:hidden">
+        <LockoutsCard />
+      </div>
       <Card labelledBy="people-list-heading">
         <h2 id="people-list-heading" className="sr-only">
           List of people
@@ -135,9 +138,6 @@ export function PeoplePage() {
           </CardFooter>
         )}
       </Card>
-      <div className="mt-5">
-        <LockoutsCard />
-      </div>
       <AddPersonDialog open={adding} onClose={() => setAdding(false)} />
     </>
   );
