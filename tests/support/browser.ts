@@ -74,7 +74,8 @@ export async function signIn(page: Page, base: string, email: string, password: 
   await page.getByRole('button', { name: 'Sign in' }).click();
   const home = page.getByRole('heading', { level: 1, name: / home$/ });
   const code = page.getByLabel('Code from your authenticator app');
-  await Promise.race([home.waitFor(), code.waitFor()]);
+  // whichever comes: the home page, or the question for a second-factor code
+  await home.or(code).first().waitFor();
   if (await code.isVisible()) {
     await code.fill(await nextCode(email));
     await page.getByRole('button', { name: 'Sign in' }).click();
