@@ -7,9 +7,12 @@ import helmet from 'helmet';
 import type { Sequelize } from 'sequelize';
 import type { Config } from './config.js';
 import { Api } from './http/api.js';
+import { makeLimits } from './http/limits.js';
 import { authenticate } from './middleware/authenticate.js';
+import { sameOriginJson } from './middleware/same-origin.js';
 import { errorHandler } from './middleware/errors.js';
 import { requestId } from './middleware/request-id.js';
+import { accountRoutes } from './routes/account.js';
 import { attachmentRoutes } from './routes/attachments.js';
 import { setAppUrl } from './mail/links.js';
 import { ncrRoutes } from './routes/ncrs.js';
@@ -89,19 +92,26 @@ export function createApp({
   });
 
   const router = express.Router();
+  const api = new Api(router, makeLimits(config));
+  router.use((_req, res, next) => {
+    // API replies name people, parts and decisions: never kept by a browser or a proxy
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
+  router.use(sameOriginJson({ appUrl: config.APP_URL, takesFile: api.takesFile }));
   router.use(express.json({ limit: '256kb', strict: true }));
   router.use(cookieParser());
-  router.use(authenticate(config.JWT_SECRET));
-  const api = new Api(router);
+  router.use(authenticate(config.JWT_SECRET, { idleMin: config.IDLE_TIMEOUT_MIN, shiftHours: config.SHIFT_HOURS }));
   healthRoutes(api, sequelize);
   authRoutes(api, sequelize, config);
+  accountRoutes(api, sequelize, config);
   peopleRoutes(api, sequelize);
   referenceRoutes(api, sequelize);
   auditRoutes(api, sequelize);
   partyRoutes(api);
   coreRoutes(api, sequelize);
   itemRoutes(api, sequelize);
-  attachmentRoutes(api, sequelize, store);
+  attachmentRoutes(api, sequelize, store, config);
   stationRoutes(api, sequelize);
   specRoutes(api, sequelize);
   ncrRoutes(api, sequelize);

@@ -11,6 +11,14 @@ const schema = z.object({
   LOGIN_LIMIT_PER_ACCOUNT: z.coerce.number().int().positive().default(5),
   LOGIN_LIMIT_PER_ADDRESS: z.coerce.number().int().positive().default(30),
   LOGIN_LIMIT_WINDOW_MIN: z.coerce.number().positive().default(15),
+  // wrong passwords typed to sign a record or change one's own password, per person in that window
+  PASSWORD_LIMIT_PER_PERSON: z.coerce.number().int().positive().default(5),
+  // a session unused this long counts as signed out: office roles, and floor roles (a shift)
+  IDLE_TIMEOUT_MIN: z.coerce.number().positive().default(30),
+  SHIFT_HOURS: z.coerce.number().positive().default(8),
+  // photos one person may upload in 24 hours; unclaimed photos are removed after this many hours
+  UPLOAD_QUOTA_PER_DAY: z.coerce.number().int().positive().default(300),
+  UNCLAIMED_UPLOAD_HOURS: z.coerce.number().positive().default(24),
   CLIENT_DIR: z.string().optional(),
   // uploaded photos: outside any folder the server serves; read back only through /api/attachments
   UPLOAD_DIR: z.string().default('.data/uploads'),

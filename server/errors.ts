@@ -19,3 +19,22 @@ export const notFound = (what = 'That record') => new AppError(404, 'not_found',
 export const conflict = (message: string, extra?: Record<string, unknown>) =>
   new AppError(409, 'conflict', message, undefined, extra);
 export const tooMany = (message: string) => new AppError(429, 'too_many', message);
+
+/** A path parameter with a broken percent-escape: Express cannot decode it. */
+export const malformedPath = () =>
+  new AppError(400, 'malformed_path', 'The address is malformed: a % must be followed by valid UTF-8 in hex.', {
+    path: 'A % must be followed by two hex digits that make valid UTF-8.',
+  });
+export const unsupportedMediaType = (message: string) => new AppError(415, 'unsupported_media_type', message);
+export const crossSite = () =>
+  new AppError(
+    403,
+    'cross_site',
+    'Changes are accepted only from Coretrail’s own pages. Open Coretrail and try again.',
+  );
+export const secondFactorRequired = () =>
+  new AppError(
+    403,
+    'second_factor_required',
+    'Set up your second factor first: administrators sign in with a code from an authenticator app.',
+  );

@@ -5,6 +5,8 @@ import { createSequelize } from './db.js';
 import { migrate } from './migrate.js';
 import { startMailSink } from './mail/sink.js';
 import { MailWorker } from './mail/worker.js';
+import { UploadSweeper } from './jobs/upload-sweeper.js';
+import { LocalDiskStore } from './storage/blob-store.js';
 import { DEMO_USERS, seedDemoIfEmpty } from '../db/seeders/demo.js';
 
 async function main() {
@@ -30,7 +32,10 @@ async function main() {
       ? new MailWorker(sequelize, { smtp: { host: config.SMTP_HOST, port: config.SMTP_PORT }, from: config.MAIL_FROM })
       : null;
   worker?.start();
-  const app = createApp({ sequelize, config });
+  const store = new LocalDiskStore(config.UPLOAD_DIR);
+  const sweeper = new UploadSweeper(sequelize, store, config.UNCLAIMED_UPLOAD_HOURS);
+  sweeper.start();
+  const app = createApp({ sequelize, config, store });
   const server: Server = await new Promise((resolve, reject) => {
     // Express 5 hands a listen error to this callback rather than only emitting it
     const s = app.listen(config.PORT, config.HOST, (err?: Error) => {
@@ -57,6 +62,7 @@ async function main() {
     app.state.draining = true;
     server.close(async () => {
       await worker?.stop();
+      await sweeper.stop();
       await sink?.close();
       await sequelize.close();
       console.log('[api] stopped');

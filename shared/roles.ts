@@ -2,6 +2,9 @@ export const ROLES = ['admin', 'receiving', 'operator', 'quality', 'supervisor',
 
 export type Role = (typeof ROLES)[number];
 
+/** Roles that work a shift on the floor, often on a shared tablet: their sessions idle for a shift. */
+export const FLOOR_ROLES: readonly Role[] = ['receiving', 'operator', 'shipping'];
+
 export const ROLE_LABELS: Record<Role, string> = {
   admin: 'Administrator',
   receiving: 'Receiving',

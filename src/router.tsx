@@ -23,6 +23,15 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
       hydrateFallbackElement: <LoadingScreen />,
     },
     {
+      path: paths.secondFactor,
+      lazy: async () => {
+        const m = await import('./routes/second-factor/second-factor-page');
+        return { Component: m.SecondFactorPage, loader: m.secondFactorLoader(queryClient) };
+      },
+      errorElement: <RootError />,
+      hydrateFallbackElement: <LoadingScreen />,
+    },
+    {
       id: 'app',
       element: <AppLayout />,
       loader: layoutLoader(queryClient),

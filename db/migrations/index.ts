@@ -7,6 +7,7 @@ import * as m20261202130000 from './20261202130000-build-and-trail.js';
 import * as m20261202150000 from './20261202150000-reference-version.js';
 import * as m20261203100000 from './20261203100000-gate-integrity.js';
 import * as m20261203110000 from './20261203110000-office-screens.js';
+import * as m20261203120000 from './20261203120000-sessions-and-second-factor.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -22,4 +23,5 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261202150000-reference-version', ...m20261202150000 },
   { name: '20261203100000-gate-integrity', ...m20261203100000 },
   { name: '20261203110000-office-screens', ...m20261203110000 },
+  { name: '20261203120000-sessions-and-second-factor', ...m20261203120000 },
 ];

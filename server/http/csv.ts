@@ -1,4 +1,5 @@
 import type { Response } from 'express';
+import { fileDisposition } from './files.js';
 
 /** A spreadsheet cell that starts with = + - @ could run as a formula: quote it as text. */
 export function csvCell(v: unknown): string {
@@ -14,6 +15,6 @@ export const csvDocument = (header: string[], rows: unknown[][]) =>
 /** Sends a CSV as a download. */
 export function sendCsv(res: Response, filename: string, body: string) {
   res.setHeader('Content-Type', 'text/csv; charset=utf-8');
-  res.setHeader('Content-Disposition', `attachment; filename="${filename}"`);
+  res.setHeader('Content-Disposition', fileDisposition(filename));
   res.send(body);
 }

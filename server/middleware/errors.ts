@@ -7,7 +7,7 @@ import {
 } from 'sequelize';
 import { MulterError } from 'multer';
 import { ZodError } from 'zod';
-import { AppError } from '../errors.js';
+import { AppError, malformedPath } from '../errors.js';
 
 /** Plain names for the unique columns a person can clash with. */
 const FIELD_NAMES: Record<string, string> = { email: 'e-mail address', code: 'code', serial: 'serial' };
@@ -29,6 +29,8 @@ function fromZod(err: ZodError): Reply {
 }
 
 function classify(err: unknown): Reply {
+  // the router's decoding of a path parameter: a stray % or bytes that are not UTF-8
+  if (err instanceof URIError) err = malformedPath();
   if (err instanceof AppError) {
     return { status: err.status, code: err.code, message: err.message, fields: err.fields, extra: err.extra };
   }
@@ -92,6 +94,9 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
   if (reply.status >= 500) {
     console.error(`[${req.id}] ${req.method} ${req.originalUrl}:`, err);
   }
+  // a handler may have said it was sending a file before it failed: the reply is JSON all the same
+  res.removeHeader('Content-Disposition');
+  res.setHeader('Content-Type', 'application/json; charset=utf-8');
   res.status(reply.status).json({
     error: { code: reply.code, message: reply.message, fields: reply.fields, requestId: req.id, ...reply.extra },
   });

@@ -10,6 +10,7 @@ import { Customer, Supplier } from './parties.js';
 import { FieldAction, PlantSettings } from './plant.js';
 import { Attachment, LabelPrint, Shipment, WarrantyClaim } from './records.js';
 import { Reading, StageReentry, StageResult } from './results.js';
+import { RecoveryCode } from './recovery-code.js';
 import { Session } from './session.js';
 import { Characteristic, ToleranceRule } from './spec.js';
 import { Route, RouteStage, Stage } from './stage.js';
@@ -37,6 +38,7 @@ export {
   PartLot,
   PlantSettings,
   Reading,
+  RecoveryCode,
   Route,
   RouteStage,
   Session,
@@ -56,6 +58,7 @@ export {
 const MODELS = [
   User,
   Session,
+  RecoveryCode,
   EngineFamily,
   Stage,
   Route,

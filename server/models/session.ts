@@ -16,6 +16,10 @@ export class Session extends Model<InferAttributes<Session>, InferCreationAttrib
   declare userAgent: string | null;
   declare expiresAt: Date;
   declare revokedAt: Date | null;
+  /** Moved forward at most once a minute; a session idle past its role's limit counts as signed out. */
+  declare lastSeenAt: CreationOptional<Date>;
+  /** An admin signed in without a second factor: this session may only enrol one. */
+  declare enrolOnly: CreationOptional<boolean>;
   declare createdAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize) {
@@ -28,6 +32,8 @@ export class Session extends Model<InferAttributes<Session>, InferCreationAttrib
         userAgent: { type: DataTypes.STRING(300), allowNull: true },
         expiresAt: { type: DataTypes.DATE, allowNull: false },
         revokedAt: { type: DataTypes.DATE, allowNull: true },
+        lastSeenAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
+        enrolOnly: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         createdAt: DataTypes.DATE,
       },
       { sequelize, tableName: 'sessions', underscored: true, updatedAt: false },

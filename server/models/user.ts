@@ -17,6 +17,13 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare tokenVersion: CreationOptional<number>;
   declare active: CreationOptional<boolean>;
   declare lastSignInAt: Date | null;
+  /** The authenticator secret, encrypted (server/auth/totp.ts); null until enrolled. */
+  declare totpSecret: CreationOptional<string | null>;
+  /** A secret shown for enrolment, kept until the first code confirms it. */
+  declare totpPendingSecret: CreationOptional<string | null>;
+  declare totpEnrolledAt: CreationOptional<Date | null>;
+  /** The time step of the last code accepted: each code signs in once. */
+  declare totpLastStep: CreationOptional<number | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -31,6 +38,10 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         tokenVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
         lastSignInAt: { type: DataTypes.DATE, allowNull: true },
+        totpSecret: { type: DataTypes.STRING(200), allowNull: true, defaultValue: null },
+        totpPendingSecret: { type: DataTypes.STRING(200), allowNull: true, defaultValue: null },
+        totpEnrolledAt: { type: DataTypes.DATE, allowNull: true, defaultValue: null },
+        totpLastStep: { type: DataTypes.BIGINT, allowNull: true, defaultValue: null },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -1,68 +1,80 @@
-import type { CookieOptions, Request } from 'express';
-import { rateLimit } from 'express-rate-limit';
+import type { CookieOptions, Request, Response } from 'express';
 import type { Sequelize } from 'sequelize';
 import { permissionsOf } from '../../shared/permissions.js';
-import { changePasswordBody, loginBody, type MeResponse } from '../../shared/schemas/auth.js';
+import { changePasswordBody, loginBody, type MeResponse, type SessionResponse } from '../../shared/schemas/auth.js';
 import type { Config } from '../config.js';
-import { tooMany } from '../errors.js';
-import { runMiddleware, type Api } from '../http/api.js';
-import { SESSION_COOKIE } from '../middleware/authenticate.js';
+import { AppError, tooMany } from '../errors.js';
+import type { Api } from '../http/api.js';
+import { accountKey, type FailureLimiter } from '../http/limits.js';
+import { SESSION_COOKIE, type AuthedUser } from '../middleware/authenticate.js';
+import { User } from '../models/index.js';
 import { changeOwnPassword, signIn, signOut } from '../services/auth.js';
+import { secondFactorRequiredFor } from '../services/second-factor.js';
 
-function cookieOptions(config: Config, req: Request): CookieOptions {
+export function cookieOptions(config: Config, req: Request): CookieOptions {
   const secure = config.SECURE_COOKIES === 'always' || (config.SECURE_COOKIES === 'auto' && req.secure);
   return { httpOnly: true, sameSite: 'lax', secure, path: '/' };
 }
 
-export function authRoutes(api: Api, sequelize: Sequelize, config: Config) {
-  const windowMs = config.LOGIN_LIMIT_WINDOW_MIN * 60_000;
-  const TOO_MANY = `Too many failed sign-ins. Wait ${config.LOGIN_LIMIT_WINDOW_MIN} minutes, then try again, or ask an administrator.`;
-  const limited = (message: string) => () => {
-    throw tooMany(message);
+/** Who is signed in, what their role may do, and where their second factor stands. */
+export async function meOf(user: Pick<AuthedUser, 'id' | 'email' | 'name' | 'role'>): Promise<MeResponse> {
+  const row = await User.findByPk(user.id, { attributes: ['id', 'totpSecret'] });
+  return {
+    user: { id: user.id, email: user.email, name: user.name, role: user.role, stationId: null },
+    permissions: permissionsOf(user.role),
+    secondFactor: { enrolled: Boolean(row?.totpSecret), required: secondFactorRequiredFor(user.role) },
   };
-  // only failures count, per address and per account; both answer with the same plain message
-  const perAddress = rateLimit({
-    windowMs,
-    limit: config.LOGIN_LIMIT_PER_ADDRESS,
-    skipSuccessfulRequests: true,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    handler: limited(TOO_MANY),
-  });
-  const perAccount = rateLimit({
-    windowMs,
-    limit: config.LOGIN_LIMIT_PER_ACCOUNT,
-    skipSuccessfulRequests: true,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    keyGenerator: (req) => {
-      const email = (req.body as { email?: unknown } | undefined)?.email;
-      return `account:${typeof email === 'string' ? email.trim().toLowerCase() : ''}`;
-    },
-    handler: limited(TOO_MANY),
-  });
+}
+
+// failures that count: a wrong password (or unknown account) and a wrong second-factor code
+const COUNTED = new Set(['sign_in_failed', 'code_refused']);
+
+/** IETF draft-ietf-httpapi-ratelimit-headers-08: the policy and what is left of it, for the failure limit. */
+function rateLimitHeaders(res: Response, limiter: FailureLimiter, key: string) {
+  const window = Math.round(limiter.windowMs / 1000);
+  res.setHeader('RateLimit-Policy', `"failures";q=${limiter.limit};w=${window}`);
+  res.setHeader('RateLimit', `"failures";r=${limiter.remaining(key)};t=${limiter.lockedFor(key) || window}`);
+}
+
+export function authRoutes(api: Api, sequelize: Sequelize, config: Config) {
+  const { signInAccount, signInAddress } = api.limits;
+  const TOO_MANY = `Too many failed sign-ins. Wait ${config.LOGIN_LIMIT_WINDOW_MIN} minutes, then try again, or ask an administrator to lift the lock.`;
 
   api.define({
     method: 'post',
     path: '/auth/login',
     access: 'public',
-    summary: 'Sign in with e-mail and password; sets the session cookie.',
+    summary: 'Sign in with e-mail, password and, when you have one, a second-factor code; sets the session cookie.',
     body: loginBody,
     handler: async ({ body, req, res }) => {
-      // after validation, so a malformed body does not count as a failed sign-in
-      await runMiddleware(perAddress, req, res);
-      await runMiddleware(perAccount, req, res);
-      const { token, user, expiresAt } = await signIn(sequelize, body, {
-        secret: config.JWT_SECRET,
-        hours: config.SESSION_HOURS,
-        ip: req.ip ?? null,
-        userAgent: req.get('user-agent') ?? null,
-        requestId: req.id,
-      });
-      res.cookie(SESSION_COOKIE, token, { ...cookieOptions(config, req), expires: expiresAt });
+      // after validation, so a malformed body does not count as a failed sign-in; checked before and
+      // counted after, so right passwords arriving together never count against the account
+      const account = accountKey(body.email);
+      const address = req.ip ?? 'unknown';
+      rateLimitHeaders(res, signInAccount, account);
+      if (signInAccount.lockedFor(account) || signInAddress.lockedFor(address)) throw tooMany(TOO_MANY);
+      let out;
+      try {
+        out = await signIn(sequelize, body, {
+          secret: config.JWT_SECRET,
+          hours: config.SESSION_HOURS,
+          ip: req.ip ?? null,
+          userAgent: req.get('user-agent') ?? null,
+          requestId: req.id,
+        });
+      } catch (err) {
+        if (err instanceof AppError && COUNTED.has(err.code)) {
+          signInAccount.fail(account);
+          signInAddress.fail(address);
+          rateLimitHeaders(res, signInAccount, account);
+        }
+        throw err;
+      }
+      res.cookie(SESSION_COOKIE, out.token, { ...cookieOptions(config, req), expires: out.expiresAt });
       const me: MeResponse = {
-        user: { id: user.id, email: user.email, name: user.name, role: user.role, stationId: null },
-        permissions: permissionsOf(user.role),
+        user: { id: out.user.id, email: out.user.email, name: out.user.name, role: out.user.role, stationId: null },
+        permissions: permissionsOf(out.user.role),
+        secondFactor: { enrolled: Boolean(out.user.totpSecret), required: secondFactorRequiredFor(out.user.role) },
       };
       return me;
     },
@@ -72,6 +84,7 @@ export function authRoutes(api: Api, sequelize: Sequelize, config: Config) {
     method: 'post',
     path: '/auth/logout',
     access: 'signed-in',
+    enrolment: true,
     summary: 'Sign out: ends this session and clears the cookie.',
     handler: async ({ user, ctx, req, res }) => {
       await signOut(sequelize, ctx, user!.sessionId);
@@ -84,13 +97,19 @@ export function authRoutes(api: Api, sequelize: Sequelize, config: Config) {
     method: 'get',
     path: '/auth/me',
     access: 'signed-in',
-    summary: 'The signed-in person and the permissions of their role.',
+    enrolment: true,
+    summary: 'The signed-in person, the permissions of their role and their second factor.',
+    handler: ({ user }) => meOf(user!),
+  });
+
+  api.define({
+    method: 'get',
+    path: '/auth/session',
+    access: 'public',
+    summary: 'Who is signed in: as /auth/me, or 200 with a null user when nobody is (the sign-in page asks this).',
     handler: async ({ user }) => {
-      const me: MeResponse = {
-        user: { id: user!.id, email: user!.email, name: user!.name, role: user!.role, stationId: null },
-        permissions: permissionsOf(user!.role),
-      };
-      return me;
+      const reply: SessionResponse = user ? await meOf(user) : { user: null, permissions: [] };
+      return reply;
     },
   });
 
@@ -98,6 +117,7 @@ export function authRoutes(api: Api, sequelize: Sequelize, config: Config) {
     method: 'post',
     path: '/auth/password',
     access: 'account.self',
+    limit: 'password-change',
     summary: 'Change your own password; ends all your sessions, so sign in again.',
     body: changePasswordBody,
     handler: async ({ user, ctx, body, req, res }) => {

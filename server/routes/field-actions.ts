@@ -29,6 +29,7 @@ export function fieldActionRoutes(api: Api, sequelize: Sequelize) {
       'Close a field action with a signed decision (no action, notify the customer, recall); a notice or recall is mailed to the customer on file.',
     params: fieldActionParam,
     body: decideFieldActionBody,
+    limit: 'signature',
     handler: ({ ctx, params, body }) => decideFieldAction(sequelize, ctx, params.number, body),
   });
 }

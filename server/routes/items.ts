@@ -1,6 +1,7 @@
 import type { Sequelize } from 'sequelize';
 import { labelsPrintedBody, serialParam } from '../../shared/schemas/intake.js';
 import type { Api } from '../http/api.js';
+import { fileDisposition } from '../http/files.js';
 import { findBySerial, presentItem } from '../services/items.js';
 import { labelPng, labelSvg, recordLabelPrints } from '../services/labels.js';
 
@@ -36,7 +37,7 @@ export function itemRoutes(api: Api, sequelize: Sequelize) {
     handler: async ({ params, res }) => {
       const item = await findBySerial(params.serial);
       res.setHeader('Content-Type', 'image/png');
-      res.setHeader('Content-Disposition', `inline; filename="${item.serial}.png"`);
+      res.setHeader('Content-Disposition', fileDisposition(`${item.serial}.png`, 'inline'));
       res.send(await labelPng(item.serial));
       return undefined;
     },

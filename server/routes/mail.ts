@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { paging } from '../../shared/schemas/common.js';
+import { idText, paging } from '../../shared/schemas/common.js';
 import type { Config } from '../config.js';
 import { notFound } from '../errors.js';
 import type { Api } from '../http/api.js';

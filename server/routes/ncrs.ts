@@ -149,6 +149,7 @@ export function ncrRoutes(api: Api, sequelize: Sequelize) {
     method: 'post',
     path: '/ncrs/:number/disposition',
     access: 'ncr.disposition',
+    limit: 'signature',
     summary:
       'Decide an NCR under review, signed with your password: use as is, rework, repair, scrap, return to supplier.',
     params: ncrParam,
@@ -159,6 +160,7 @@ export function ncrRoutes(api: Api, sequelize: Sequelize) {
     method: 'post',
     path: '/ncrs/:number/countersign',
     access: 'ncr.disposition',
+    limit: 'signature',
     summary: 'Second signature on a critical use-as-is, by a different quality engineer.',
     params: ncrParam,
     body: countersignBody,

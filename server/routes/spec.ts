@@ -58,6 +58,7 @@ export function specRoutes(api: Api, sequelize: Sequelize) {
     method: 'post',
     path: '/spec/rules/:id/approve',
     access: 'spec.approve',
+    limit: 'signature',
     summary: "Approve a draft with the approver's signature (password re-entered); it supersedes the version in force.",
     params: idParam,
     body: approveRuleBody,

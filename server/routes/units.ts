@@ -5,6 +5,7 @@ import { buildBody, lotCodeParam, releaseBody, replacePartBody, runCsvBody } fro
 import { serialParam } from '../../shared/schemas/intake.js';
 import { AppError } from '../errors.js';
 import type { Api } from '../http/api.js';
+import { fileDisposition } from '../http/files.js';
 import { EngineFamily } from '../models/index.js';
 import { buildUnit, replacePart } from '../services/build.js';
 import { buildRecordPdf } from '../services/build-record.js';
@@ -50,6 +51,7 @@ export function unitRoutes(api: Api, sequelize: Sequelize) {
       'Release a unit that passes the gate (checked again under its lock), signed with the password: the shipment and warranty start.',
     params: serialParam,
     body: releaseBody,
+    limit: 'signature',
     status: 201,
     handler: ({ ctx, params, body }) => releaseUnit(sequelize, ctx, params.serial, body),
   });
@@ -61,8 +63,10 @@ export function unitRoutes(api: Api, sequelize: Sequelize) {
     params: serialParam,
     handler: async ({ params, res }) => {
       const pdf = await buildRecordPdf(sequelize, params.serial);
+      // named by the serial as stored, not as typed (an en dash or a line break cannot go in a header)
+      const { serial } = await findBySerial(params.serial);
       res.setHeader('Content-Type', 'application/pdf');
-      res.setHeader('Content-Disposition', `inline; filename="build-record-${params.serial.toUpperCase()}.pdf"`);
+      res.setHeader('Content-Disposition', fileDisposition(`build-record-${serial}.pdf`, 'inline'));
       res.send(pdf);
       return undefined;
     },

@@ -20,11 +20,23 @@ export const presentAttachment = (a: Attachment): AttachmentJson => ({
   createdAt: a.createdAt.toISOString(),
 });
 
-const cleanName = (name: string) =>
-  name
+/**
+ * The name kept for a photo: letters, digits, dots, dashes and spaces of what was sent, and always
+ * the extension of the type its bytes showed (a JPEG sent as poly.html is kept as poly.jpg).
+ */
+export function storedName(sent: string, ext: string): string {
+  const base = sent
     .normalize('NFKC')
     .replace(/[^\p{L}\p{N}._ -]/gu, '_')
-    .slice(-120) || 'photo';
+    .replace(/\.[^.]*$/, '')
+    .replace(/^[.\s]+|[.\s]+$/g, '')
+    .slice(-100);
+  return `${base || 'photo'}.${ext}`;
+}
+
+/** Photos a person uploaded in the last 24 hours, claimed or not, for the daily quota. */
+export const uploadsToday = (userId: number) =>
+  Attachment.count({ where: { uploadedById: userId, createdAt: { [Op.gt]: new Date(Date.now() - 24 * 3600_000) } } });
 
 /**
  * Stores an uploaded photo, not yet attached to anything ("pending", owned by the uploader) until a
@@ -53,7 +65,7 @@ export async function storeUpload(
         {
           entity: 'pending',
           entityId: String(ctx.actor!.id),
-          fileName: cleanName(file.originalname),
+          fileName: storedName(file.originalname, ext),
           mimeType: detected.mime,
           sizeBytes: file.size,
           sha256: createHash('sha256').update(file.buffer).digest('hex'),

@@ -1,30 +1,49 @@
 import { randomUUID } from 'node:crypto';
 import jwt from 'jsonwebtoken';
-import type { Sequelize } from 'sequelize';
+import type { Sequelize, Transaction } from 'sequelize';
 import type { ChangePasswordBody, LoginBody } from '../../shared/schemas/auth.js';
 import { recordAudit, type Ctx } from '../audit.js';
 import { AppError, invalid } from '../errors.js';
 import { JWT_ALGORITHM } from '../middleware/authenticate.js';
 import { Session, User } from '../models/index.js';
 import { burnTime, checkPassword, hashPassword } from './passwords.js';
+import { checkSecondFactor, secondFactorRequiredFor } from './second-factor.js';
 
 export const GENERIC_SIGN_IN_FAILURE = 'That e-mail and password do not match an active account.';
 
-export type SignIn = { token: string; user: User; expiresAt: Date };
+export type SignIn = { token: string; user: User; expiresAt: Date; enrolOnly: boolean };
 
-/** Checks the password and opens a session. Every failure looks the same to the caller. */
+/**
+ * Checks the password, then the second factor when the person has one, and opens a session. Every
+ * password failure looks the same to the caller. An admin without a second factor gets a session
+ * that can only enrol one (server/http/api.ts refuses everything else to it).
+ */
 export async function signIn(
   sequelize: Sequelize,
   body: LoginBody,
-  opts: { secret: string; hours: number; ip: string | null; userAgent: string | null; requestId: string },
+  opts: {
+    secret: string;
+    hours: number;
+    ip: string | null;
+    userAgent: string | null;
+    requestId: string;
+  },
 ): Promise<SignIn> {
   const user = await User.findOne({ where: { email: body.email } });
   const ok = user ? await checkPassword(body.password, user.passwordHash) : await burnTime(body.password);
   if (!user || !ok || !user.active) throw new AppError(401, 'sign_in_failed', GENERIC_SIGN_IN_FAILURE);
+  if (user.totpSecret && !body.code) {
+    throw new AppError(401, 'code_required', 'Enter the 6-digit code from your authenticator app.', {
+      code: 'Enter the code your authenticator app shows now.',
+    });
+  }
 
   const expiresAt = new Date(Date.now() + opts.hours * 3600_000);
   const sessionId = randomUUID();
+  const enrolOnly = secondFactorRequiredFor(user.role) && !user.totpSecret;
+  const ctx: Ctx = { actor: { id: user.id, role: user.role, name: user.name }, requestId: opts.requestId };
   await sequelize.transaction(async (transaction) => {
+    if (user.totpSecret) await checkSecondFactor(ctx, transaction, user.id, body.code!, opts.secret);
     await Session.create(
       {
         id: sessionId,
@@ -34,15 +53,16 @@ export async function signIn(
         userAgent: opts.userAgent?.slice(0, 300) ?? null,
         expiresAt,
         revokedAt: null,
+        enrolOnly,
       },
       { transaction },
     );
     await user.update({ lastSignInAt: new Date() }, { transaction });
-    await recordAudit({ actor: { id: user.id, role: user.role }, requestId: opts.requestId }, transaction, {
+    await recordAudit(ctx, transaction, {
       action: 'user.signed_in',
       entity: 'user',
       entityId: user.id,
-      after: { sessionId },
+      after: { sessionId, secondFactor: user.totpSecret ? 'checked' : enrolOnly ? 'to_enrol' : 'none' },
     });
   });
   const token = jwt.sign({ sid: sessionId, tv: user.tokenVersion }, opts.secret, {
@@ -50,7 +70,7 @@ export async function signIn(
     subject: String(user.id),
     expiresIn: Math.floor(opts.hours * 3600),
   });
-  return { token, user, expiresAt };
+  return { token, user, expiresAt, enrolOnly };
 }
 
 export async function signOut(sequelize: Sequelize, ctx: Ctx, sessionId: string): Promise<void> {
@@ -68,7 +88,7 @@ export async function signOut(sequelize: Sequelize, ctx: Ctx, sessionId: string)
 }
 
 /** Ends every session of a user: bumps the token version and revokes the session rows. */
-export async function endAllSessions(user: User, transaction: import('sequelize').Transaction) {
+export async function endAllSessions(user: User, transaction: Transaction) {
   await user.increment('tokenVersion', { transaction });
   await Session.update({ revokedAt: new Date() }, { where: { userId: user.id, revokedAt: null }, transaction });
 }
@@ -82,7 +102,9 @@ export async function changeOwnPassword(sequelize: Sequelize, ctx: Ctx, userId: 
     // locked, so two changes at once cannot both pass the check against the old password
     const user = await User.findByPk(userId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!user || !(await checkPassword(body.currentPassword, user.passwordHash))) {
-      throw invalid('Your current password is not right.', { currentPassword: 'Not right.' });
+      throw new AppError(400, 'wrong_password', 'Your current password is not right.', {
+        currentPassword: 'Not right.',
+      });
     }
     await user.update({ passwordHash }, { transaction });
     await endAllSessions(user, transaction);

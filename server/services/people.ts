@@ -15,6 +15,7 @@ export function presentPerson(u: User): Person {
     name: u.name,
     role: u.role,
     active: u.active,
+    secondFactor: Boolean(u.totpSecret),
     lastSignInAt: u.lastSignInAt?.toISOString() ?? null,
     createdAt: u.createdAt.toISOString(),
   };

@@ -1,11 +1,11 @@
 import { z } from 'zod';
-import { paging } from './common.js';
+import { idText, paging, text } from './common.js';
 
 export const listAuditQuery = z.strictObject({
   ...paging,
-  entity: z.string().trim().max(60).optional(),
-  entityId: z.string().trim().max(60).optional(),
-  actorId: z.coerce.number().int().positive().optional(),
+  entity: text().trim().max(60).optional(),
+  entityId: text().trim().max(60).optional(),
+  actorId: idText().optional(),
 });
 
 export type AuditEvent = {

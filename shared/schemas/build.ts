@@ -1,4 +1,6 @@
 import { z } from 'zod';
+import { enteredPassword } from './auth.js';
+import { text, isoDate, id } from './common.js';
 import type { FieldActionJson } from './field-actions.js';
 import type { NcrSignature, NcrState, NcrTimelineEntry } from './ncr.js';
 import type { ItemJson } from './items.js';
@@ -35,8 +37,7 @@ export const LOT_KIND_LABELS: Record<LotKind, string> = {
 };
 
 const code = (what: string, max = 60) =>
-  z
-    .string(`Enter the ${what}.`)
+  text(`Enter the ${what}.`)
     .trim()
     .min(1, `Enter the ${what}.`)
     .max(max, `At most ${max} characters.`)
@@ -44,7 +45,7 @@ const code = (what: string, max = 60) =>
 
 export const lotInput = z.strictObject({
   kind: z.enum(LOT_KINDS, 'Choose what the lot is.'),
-  supplierId: z.number('Choose the supplier.').int().positive(),
+  supplierId: id('Choose the supplier.'),
   partNumber: code('part number'),
   lotCode: code('lot code'),
   quantity: z.number().int().min(1).max(64).default(1),
@@ -53,16 +54,16 @@ export const lotInput = z.strictObject({
 });
 export type LotInput = z.output<typeof lotInput>;
 
-const serial = (what: string) => z.string(`Scan the ${what}.`).trim().min(1, `Scan the ${what}.`).max(24);
+const serial = (what: string) => text(`Scan the ${what}.`).trim().min(1, `Scan the ${what}.`).max(24);
 
 export const buildBody = z
   .strictObject({
-    family: z.string('Choose the engine family.').trim().min(1).max(20),
+    family: text('Choose the engine family.').trim().min(1).max(20),
     block: serial('block'),
     crankshaft: serial('crankshaft'),
     heads: z.array(serial('cylinder head')).min(1, 'Scan the cylinder head(s).').max(2),
     lots: z.array(lotInput).max(20),
-    notes: z.string().trim().max(2000).default(''),
+    notes: text().trim().max(2000).default(''),
   })
   .superRefine((b, ctx) => {
     const kinds = new Set(b.lots.map((l) => l.kind));
@@ -87,14 +88,11 @@ export type BuildBody = z.output<typeof buildBody>;
 
 /** Release is a signed act: the shipper's password, checked again, with the meaning "released for shipment". */
 export const releaseBody = z.strictObject({
-  customerId: z.number('Choose the customer.').int().positive(),
-  reference: z.string('Enter the order reference.').trim().min(1, 'Enter the order reference.').max(60),
-  shipDate: z.iso.date('Use a date like 2026-12-02.'),
-  carrier: z.string().trim().max(80).default(''),
-  password: z
-    .string('Enter your password to sign the release.')
-    .min(1, 'Enter your password to sign the release.')
-    .max(200),
+  customerId: id('Choose the customer.'),
+  reference: text('Enter the order reference.').trim().min(1, 'Enter the order reference.').max(60),
+  shipDate: isoDate('Use a date like 2026-12-02.'),
+  carrier: text().trim().max(80).default(''),
+  password: enteredPassword('Enter your password to sign the release.'),
 });
 export const RELEASE_MEANING = 'Released for shipment';
 
@@ -102,8 +100,7 @@ export const RELEASE_MEANING = 'Released for shipment';
 export const replacePartBody = z.strictObject({
   remove: serial('part to take out'),
   fit: serial('part to fit'),
-  reason: z
-    .string('Say why the part is replaced.')
+  reason: text('Say why the part is replaced.')
     .trim()
     .min(5, 'Say why the part is replaced, in at least 5 characters.')
     .max(300, 'At most 300 characters.'),
@@ -111,10 +108,10 @@ export const replacePartBody = z.strictObject({
 export type ReplacePartBody = z.output<typeof replacePartBody>;
 export type ReleaseBody = z.output<typeof releaseBody>;
 
-export const lotCodeParam = z.strictObject({ lotCode: z.string().trim().min(1).max(60) });
+export const lotCodeParam = z.strictObject({ lotCode: text().trim().min(1).max(60) });
 
 export const runCsvBody = z.strictObject({
-  csv: z.string('Attach the test stand export.').min(1, 'The file is empty.').max(200_000, 'At most 200 kB.'),
+  csv: text('Attach the test stand export.').min(1, 'The file is empty.').max(200_000, 'At most 200 kB.'),
 });
 
 export type BlockingReason = {

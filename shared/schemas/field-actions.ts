@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { paging } from './common.js';
+import { enteredPassword } from './auth.js';
+import { paging, text } from './common.js';
 import type { Severity } from './ncr.js';
 
 /**
@@ -32,12 +33,8 @@ export type FieldActionListQuery = z.output<typeof fieldActionListQuery>;
 
 export const decideFieldActionBody = z.strictObject({
   decision: z.enum(FIELD_ACTION_DECISIONS, 'Choose what is to be done in the field.'),
-  reason: z
-    .string('Say why.')
-    .trim()
-    .min(5, 'Say why, in at least 5 characters.')
-    .max(1000, 'At most 1000 characters.'),
-  password: z.string('Enter your password to sign.').min(1, 'Enter your password to sign.').max(200),
+  reason: text('Say why.').trim().min(5, 'Say why, in at least 5 characters.').max(1000, 'At most 1000 characters.'),
+  password: enteredPassword('Enter your password to sign.'),
 });
 export type DecideFieldActionBody = z.output<typeof decideFieldActionBody>;
 

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import type { AttachmentJson } from './attachments.js';
-import { paging } from './common.js';
+import { id, idText, isoDate, paging, text } from './common.js';
 import type { ItemJson } from './items.js';
 
 /** Visible damage the dock checks for. */
@@ -45,40 +45,39 @@ export const GRADE_LABELS: Record<(typeof GRADES)[number], string> = {
 export const CREDIT_DECISIONS = ['full', 'partial', 'none'] as const;
 export const SOURCES = ['customer_return', 'purchased'] as const;
 
-const text = (max: number) => z.string().trim().max(max);
-const partNumber = z
-  .string()
+const line = (max: number) => text().trim().max(max);
+const partNumber = text()
   .trim()
   .toUpperCase()
   .min(3, 'Enter the number as cast or stamped.')
   .max(40)
   .regex(/^[A-Z0-9][A-Z0-9 ./-]*$/, 'Use letters, digits, spaces, dots, dashes or slashes.');
-const isoDate = z.iso.date('Use a date like 2026-12-01.');
+const receivedDate = isoDate('Use a date like 2026-12-01.');
 
 export const receiveCoreBody = z
   .strictObject({
-    familyId: z.number().int().positive(),
+    familyId: id(),
     castingNumber: partNumber,
     idNumber: partNumber.optional(),
     source: z.enum(SOURCES),
-    customerId: z.number().int().positive().optional(),
-    supplierId: z.number().int().positive().optional(),
-    sourceReference: text(60).min(1, 'Enter the return or purchase reference.'),
-    receivedOn: isoDate,
+    customerId: id().optional(),
+    supplierId: id().optional(),
+    sourceReference: line(60).min(1, 'Enter the return or purchase reference.'),
+    receivedOn: receivedDate,
     complete: z.boolean(),
     missing: z.array(z.enum(CORE_PARTS)).max(CORE_PARTS.length).default([]),
     damage: z.array(z.enum(DAMAGE)).max(DAMAGE.length).default([]),
     grade: z.enum(GRADES),
     accepted: z.boolean(),
-    rejectReason: text(500).optional(),
+    rejectReason: line(500).optional(),
     creditDecision: z.enum(CREDIT_DECISIONS).optional(),
-    creditReason: text(500).optional(),
-    notes: text(2000).default(''),
-    photoIds: z.array(z.number().int().positive()).max(12).default([]),
+    creditReason: line(500).optional(),
+    notes: line(2000).default(''),
+    photoIds: z.array(id()).max(12).default([]),
     // a matching recent core was shown and the person says this one is different
     confirmNotDuplicate: z.boolean().default(false),
     /** Why the receipt goes on although its condition, grade, credit or casting number disagree (intakeMismatches). */
-    mismatchReason: text(500).optional(),
+    mismatchReason: line(500).optional(),
   })
   .superRefine(
     (b, ctx) => {
@@ -160,13 +159,13 @@ export const duplicateQuery = z.strictObject({
 export const INTAKE_SORTS = ['receivedOn', 'serial', 'family', 'grade', 'castingNumber'] as const;
 export const intakeLogQuery = z.strictObject({
   ...paging,
-  family: z.coerce.number().int().positive().optional(),
+  family: idText().optional(),
   source: z.enum(SOURCES).optional(),
   grade: z.enum(GRADES).optional(),
   accepted: z.enum(['true', 'false']).optional(),
-  from: isoDate.optional(),
-  to: isoDate.optional(),
-  q: text(40).optional(),
+  from: receivedDate.optional(),
+  to: receivedDate.optional(),
+  q: line(40).optional(),
   sort: z.enum(INTAKE_SORTS).default('receivedOn'),
   dir: z.enum(['asc', 'desc']).default('desc'),
 });
@@ -206,30 +205,30 @@ export const WEAR_PARTS = [
 
 export const teardownBody = z
   .strictObject({
-    kept: z.array(z.strictObject({ kind: z.enum(TEARDOWN_PARTS), position: text(20).optional() })).max(8),
+    kept: z.array(z.strictObject({ kind: z.enum(TEARDOWN_PARTS), position: line(20).optional() })).max(8),
     scrapped: z
       .array(
         z.strictObject({
           kind: z.enum(TEARDOWN_PARTS),
-          position: text(20).optional(),
-          reason: text(300).min(3, 'Say why it is scrapped.'),
+          position: line(20).optional(),
+          reason: line(300).min(3, 'Say why it is scrapped.'),
         }),
       )
       .max(8)
       .default([]),
-    notes: text(2000).default(''),
+    notes: line(2000).default(''),
   })
   .refine((b) => b.kept.length + b.scrapped.length > 0, { message: 'Record at least one part.', path: ['kept'] });
 export type TeardownBody = z.input<typeof teardownBody>;
 
-export const serialParam = z.strictObject({ serial: z.string().trim().min(1).max(30) });
+export const serialParam = z.strictObject({ serial: text().trim().min(1).max(30) });
 
 export const labelStocks = ['2x1in', '50x25mm'] as const;
 export const labelsPrintedBody = z.strictObject({
-  serials: z.array(z.string().trim().min(1).max(30)).min(1).max(100),
+  serials: z.array(text().trim().min(1).max(30)).min(1).max(100),
   stock: z.enum(labelStocks),
   /** Needed when any of the labels was printed before. */
-  reprintReason: z.string().trim().min(3, 'Say why, in at least 3 characters.').max(300).optional(),
+  reprintReason: line(300).min(3, 'Say why, in at least 3 characters.').optional(),
 });
 
 /** The teardown as recorded on the core (server/services/teardown.ts). */

@@ -1,6 +1,7 @@
 import { z } from 'zod';
+import { enteredPassword } from './auth.js';
 import type { AttachmentJson } from './attachments.js';
-import { paging } from './common.js';
+import { id, idText, paging, text } from './common.js';
 import type { ItemJson } from './items.js';
 
 /** Nonconformances (NCRs): states of Coretrail's own naming, dispositions in the trade's terms. */
@@ -35,22 +36,21 @@ export const NCR_ACTIONS = ['review', 'disposition', 'countersign', 'close', 'vo
 export type NcrAction = (typeof NCR_ACTIONS)[number];
 
 const reasonText = (min: number, what: string) =>
-  z
-    .string(`Say ${what}.`)
+  text(`Say ${what}.`)
     .trim()
     .min(min, `Say ${what}, in at least ${min} characters.`)
     .max(2000, 'At most 2000 characters.');
 
 /** About a part (its serial) or a purchased lot (its code, and the supplier when two share a code). */
 export const raiseNcrBody = z.strictObject({
-  serial: z.string().trim().max(24).optional(),
-  lotCode: z.string().trim().max(60).optional(),
-  supplierId: z.number().int().positive().optional(),
+  serial: text().trim().max(24).optional(),
+  lotCode: text().trim().max(60).optional(),
+  supplierId: id().optional(),
   description: reasonText(10, 'what was seen'),
   severity: z.enum(SEVERITIES, 'Choose how serious it is.'),
-  defectCode: z.string('Choose a defect code.').trim().min(1, 'Choose a defect code.').max(20),
-  containment: z.string().trim().max(2000).default(''),
-  photoIds: z.array(z.number().int().positive()).max(10, 'At most 10 photos.').default([]),
+  defectCode: text('Choose a defect code.').trim().min(1, 'Choose a defect code.').max(20),
+  containment: text().trim().max(2000).default(''),
+  photoIds: z.array(id()).max(10, 'At most 10 photos.').default([]),
 });
 export type RaiseNcrBody = z.output<typeof raiseNcrBody>;
 export const raiseNcrChecked = raiseNcrBody.superRefine((b, ctx) => {
@@ -68,48 +68,39 @@ export const raiseNcrChecked = raiseNcrBody.superRefine((b, ctx) => {
 
 export const DEFECT_CODE_PATTERN = /^[A-Z0-9][A-Z0-9-]{1,19}$/;
 export const defectCodeBody = z.strictObject({
-  code: z
-    .string('Enter a code.')
-    .trim()
-    .toUpperCase()
-    .regex(DEFECT_CODE_PATTERN, 'Use 2–20 letters, digits or dashes.'),
-  description: z
-    .string('Describe the defect.')
-    .trim()
-    .min(3, 'At least 3 characters.')
-    .max(200, 'At most 200 characters.'),
+  code: text('Enter a code.').trim().toUpperCase().regex(DEFECT_CODE_PATTERN, 'Use 2–20 letters, digits or dashes.'),
+  description: text('Describe the defect.').trim().min(3, 'At least 3 characters.').max(200, 'At most 200 characters.'),
 });
 export const updateDefectCodeBody = z
   .strictObject({
-    description: z.string().trim().min(3, 'At least 3 characters.').max(200).optional(),
+    description: text().trim().min(3, 'At least 3 characters.').max(200).optional(),
     active: z.boolean().optional(),
   })
   .refine((b) => Object.keys(b).length > 0, 'Change at least one field.');
 export const defectCodeParam = z.strictObject({
-  code: z.string().trim().toUpperCase().regex(DEFECT_CODE_PATTERN, 'Not a defect code.'),
+  code: text().trim().toUpperCase().regex(DEFECT_CODE_PATTERN, 'Not a defect code.'),
 });
 export type DefectCodeJson = { code: string; description: string; active: boolean };
 
 export const ncrParam = z.strictObject({
-  number: z
-    .string()
+  number: text()
     .trim()
     .toUpperCase()
     .regex(/^NC-\d{4}-\d{5,}$/, 'An NCR number looks like NC-2026-00042.'),
 });
 
-export const reviewBody = z.strictObject({ note: z.string().trim().max(2000).default('') });
-export const assignBody = z.strictObject({ assigneeId: z.number().int().positive().nullable() });
-export const containmentBody = z.strictObject({ containment: z.string().trim().max(2000) });
+export const reviewBody = z.strictObject({ note: text().trim().max(2000).default('') });
+export const assignBody = z.strictObject({ assigneeId: id().nullable() });
+export const containmentBody = z.strictObject({ containment: text().trim().max(2000) });
 
-const password = z.string('Enter your password to sign.').min(1, 'Enter your password to sign.').max(200);
+const password = enteredPassword('Enter your password to sign.');
 
 export const dispositionBody = z
   .strictObject({
     disposition: z.enum(DISPOSITIONS, 'Choose a disposition.'),
     reason: reasonText(5, 'why'),
     /** For rework and repair: the stage the item goes back to. */
-    reworkStage: z.string().trim().min(1).max(40).optional(),
+    reworkStage: text().trim().min(1).max(40).optional(),
     password,
   })
   .superRefine((b, ctx) => {
@@ -123,7 +114,7 @@ export const dispositionBody = z
 export type DispositionBody = z.output<typeof dispositionBody>;
 
 export const countersignBody = z.strictObject({ reason: reasonText(5, 'why you agree'), password });
-export const closeBody = z.strictObject({ note: z.string().trim().max(2000).default('') });
+export const closeBody = z.strictObject({ note: text().trim().max(2000).default('') });
 export const voidBody = z.strictObject({ reason: reasonText(5, 'why it was raised in error') });
 
 export const NCR_SORTS = ['raised', 'number', 'severity', 'state', 'serial'] as const;
@@ -131,13 +122,13 @@ export const ncrListQuery = z.strictObject({
   ...paging,
   state: z.enum([...NCR_STATES, 'open']).optional(),
   severity: z.enum(SEVERITIES).optional(),
-  defect: z.string().trim().max(20).optional(),
-  family: z.coerce.number().int().positive().optional(),
-  stage: z.string().trim().max(40).optional(),
+  defect: text().trim().max(20).optional(),
+  family: idText().optional(),
+  stage: text().trim().max(40).optional(),
   /** Raised at least this many days ago. */
   olderThanDays: z.coerce.number().int().min(0).max(3650).optional(),
-  assignee: z.union([z.coerce.number().int().positive(), z.literal('none')]).optional(),
-  q: z.string().trim().max(60).optional(),
+  assignee: z.union([idText(), z.literal('none')]).optional(),
+  q: text().trim().max(60).optional(),
   /** `me`: critical use-as-is decisions signed once, waiting for the signed-in engineer's countersignature. */
   awaiting: z.literal('me').optional(),
   sort: z.enum(NCR_SORTS).default('raised'),

@@ -1,8 +1,8 @@
 import { z } from 'zod';
 import { emailSchema, passwordSchema, roleSchema } from './auth.js';
-import { paging } from './common.js';
+import { paging, text } from './common.js';
 
-export const personName = z.string().trim().min(2, 'Enter a name.').max(120);
+export const personName = text().trim().min(2, 'Enter a name.').max(120);
 
 export const createPersonBody = z.strictObject({
   email: emailSchema,
@@ -26,7 +26,7 @@ export type ResetPasswordBody = z.infer<typeof resetPasswordBody>;
 
 export const listPeopleQuery = z.strictObject({
   ...paging,
-  q: z.string().trim().max(100).optional(),
+  q: text().trim().max(100).optional(),
   role: roleSchema.optional(),
   active: z.enum(['true', 'false']).optional(),
 });
@@ -37,6 +37,8 @@ export type Person = {
   name: string;
   role: z.infer<typeof roleSchema>;
   active: boolean;
+  /** Whether they sign in with an authenticator app as well. */
+  secondFactor: boolean;
   lastSignInAt: string | null;
   createdAt: string;
 };

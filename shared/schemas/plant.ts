@@ -1,13 +1,13 @@
 import { z } from 'zod';
 import { isTimeZone } from '../domain/warranty.js';
+import { text } from './common.js';
 
 /** The plant's identity and calendar. */
 export const plantBody = z
   .strictObject({
-    name: z.string('Enter the plant’s name.').trim().min(2, 'Enter the plant’s name.').max(120),
-    address: z.string().trim().max(300, 'At most 300 characters.'),
-    timeZone: z
-      .string('Choose the plant’s time zone.')
+    name: text('Enter the plant’s name.').trim().min(2, 'Enter the plant’s name.').max(120),
+    address: text().trim().max(300, 'At most 300 characters.'),
+    timeZone: text('Choose the plant’s time zone.')
       .trim()
       .min(1, 'Choose the plant’s time zone.')
       .max(60)

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { text } from './common.js';
 
 export const PART_KINDS = [
   'core',
@@ -24,25 +25,24 @@ export const PART_KIND_LABELS: Record<PartKind, string> = {
 
 export const LAYOUTS = ['inline', 'v'] as const;
 
-const code = z
-  .string()
+const code = text()
   .trim()
   .toUpperCase()
   .regex(/^[A-Z0-9][A-Z0-9-]{1,19}$/, 'Use 2–20 letters, digits or dashes.');
 
 export const createStationBody = z.strictObject({
   code,
-  name: z.string().trim().min(2, 'Enter a name of at least 2 characters.').max(80, 'At most 80 characters.'),
-  stageCode: z.string().trim().min(1).max(40).nullable(),
-  location: z.string().trim().max(80).optional(),
+  name: text().trim().min(2, 'Enter a name of at least 2 characters.').max(80, 'At most 80 characters.'),
+  stageCode: text().trim().min(1).max(40).nullable(),
+  location: text().trim().max(80).optional(),
 });
 export type CreateStationBody = z.infer<typeof createStationBody>;
 
 export const updateStationBody = z
   .strictObject({
-    name: z.string().trim().min(2).max(80).optional(),
-    stageCode: z.string().trim().min(1).max(40).nullable().optional(),
-    location: z.string().trim().max(80).optional(),
+    name: text().trim().min(2).max(80).optional(),
+    stageCode: text().trim().min(1).max(40).nullable().optional(),
+    location: text().trim().max(80).optional(),
     active: z.boolean().optional(),
   })
   .refine((b) => Object.keys(b).length > 0, 'Change at least one field.');
@@ -51,8 +51,8 @@ export type UpdateStationBody = z.infer<typeof updateStationBody>;
 export const familyBody = z
   .strictObject({
     code,
-    name: z.string().trim().min(2).max(80),
-    description: z.string().trim().max(500).default(''),
+    name: text().trim().min(2).max(80),
+    description: text().trim().max(500).default(''),
     layout: z.enum(LAYOUTS),
     cylinders: z
       .number('Enter the number of cylinders.')
@@ -60,6 +60,7 @@ export const familyBody = z
       .min(1, 'At least 1.')
       .max(16, 'At most 16.'),
     boreMm: z.number('Enter the bore in mm.').positive('The bore must be more than 0 mm.').max(300, 'At most 300 mm.'),
+    // numeric(7, 3): a bore or stroke converted from inches keeps 0.001 mm, which is all a family's description needs
     strokeMm: z
       .number('Enter the stroke in mm.')
       .positive('The stroke must be more than 0 mm.')

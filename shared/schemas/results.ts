@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { decimal, id, isoDateTime, text } from './common.js';
 import type { EvaluatedReading, FormCharacteristic } from '../domain/evaluate.js';
 import type { Verdict } from '../domain/tolerance.js';
 import type { AttachmentJson } from './attachments.js';
@@ -7,42 +8,42 @@ import type { ItemJson } from './items.js';
 /** Station results: what a tablet sends for one pass of a part through a stage, and the replies. */
 
 export const readingInput = z.strictObject({
-  characteristic: z.string().trim().min(1, 'Name the characteristic.').max(40),
-  position: z.string().trim().max(40).default(''),
-  // JSON has no NaN; 1e999 parses to Infinity, which z.number() refuses
-  value: z.number('Enter a number.').optional(),
+  characteristic: text().trim().min(1, 'Name the characteristic.').max(40),
+  position: text().trim().max(40).default(''),
+  // JSON has no NaN; 1e999 parses to Infinity, which z.number() refuses; stored as numeric(14, 6)
+  value: decimal(14, 6, 'Enter a number.').optional(),
   passed: z.boolean('Choose pass or fail.').optional(),
-  unit: z.string().trim().max(20).optional(),
-  location: z.string().trim().max(200, 'At most 200 characters.').optional(),
+  unit: text().trim().max(20).optional(),
+  location: text().trim().max(200, 'At most 200 characters.').optional(),
 });
 export type ReadingInput = z.output<typeof readingInput>;
 
 export const submitResultBody = z.strictObject({
   idempotencyKey: z.uuid('Send a UUID as the idempotency key.'),
-  serial: z.string().trim().min(1, 'Scan or type a serial.').max(24),
-  station: z.string().trim().min(1, 'Choose the station.').max(20),
-  gauge: z.string().trim().max(30).nullable().default(null),
+  serial: text().trim().min(1, 'Scan or type a serial.').max(24),
+  station: text().trim().min(1, 'Choose the station.').max(20),
+  gauge: text().trim().max(30).nullable().default(null),
   /** A gauge per measured characteristic where it differs from \`gauge\` (the profilometer for a finish). */
-  gauges: z.record(z.string().trim().max(40), z.string().trim().min(1).max(30)).default({}),
-  startedAt: z.iso.datetime({ offset: true }).nullable().default(null),
-  notes: z.string().trim().max(2000, 'At most 2000 characters.').default(''),
+  gauges: z.record(text().trim().max(40), text().trim().min(1).max(30)).default({}),
+  startedAt: isoDateTime().nullable().default(null),
+  notes: text().trim().max(2000, 'At most 2000 characters.').default(''),
   readings: z.array(readingInput).min(1, 'Record at least one reading.').max(2000),
-  photoIds: z.array(z.number().int().positive()).max(10, 'At most 10 photos.').default([]),
+  photoIds: z.array(id()).max(10, 'At most 10 photos.').default([]),
 });
 export type SubmitResultBody = z.output<typeof submitResultBody>;
 
 /** A correction: a whole new result for the same part and stage, superseding the current one. */
 export const correctResultBody = submitResultBody.extend({
-  reason: z.string().trim().min(5, 'Say why, in at least 5 characters.').max(500, 'At most 500 characters.'),
+  reason: text().trim().min(5, 'Say why, in at least 5 characters.').max(500, 'At most 500 characters.'),
 });
 export type CorrectResultBody = z.output<typeof correctResultBody>;
 
-export const stationFormQuery = z.strictObject({ serial: z.string().trim().min(1).max(24) });
-export const stationParam = z.strictObject({ code: z.string().trim().min(1).max(20) });
+export const stationFormQuery = z.strictObject({ serial: text().trim().min(1).max(24) });
+export const stationParam = z.strictObject({ code: text().trim().min(1).max(20) });
 
 export const reentryBody = z.strictObject({
-  stage: z.string().trim().min(1, 'Choose the stage.').max(40),
-  reason: z.string().trim().min(5, 'Say why, in at least 5 characters.').max(500, 'At most 500 characters.'),
+  stage: text().trim().min(1, 'Choose the stage.').max(40),
+  reason: text().trim().min(5, 'Say why, in at least 5 characters.').max(500, 'At most 500 characters.'),
 });
 
 /** Why a part can or cannot be recorded at a station now. */

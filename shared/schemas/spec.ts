@@ -1,4 +1,6 @@
 import { z } from 'zod';
+import { enteredPassword } from './auth.js';
+import { decimal, id, idText, isoDateTime, text } from './common.js';
 import type { Derivation, CharacteristicKind } from '../domain/evaluate.js';
 import type { PositionScheme } from '../domain/positions.js';
 import type { LimitType } from '../domain/tolerance.js';
@@ -21,7 +23,7 @@ export const RULE_STATUS_LABELS = {
   withdrawn: 'Discarded draft',
 } as const;
 
-const limit = z.number('Enter a number.').min(-1e6, 'Too small.').max(1e6, 'Too large.');
+const limit = decimal(14, 6, 'Enter a number.').min(-1e6, 'Too small.').max(1e6, 'Too large.');
 const optionalLimit = limit.nullable().default(null);
 
 /** The limits of a draft; which fields it needs depends on the kind of limit. */
@@ -33,11 +35,10 @@ export const ruleLimits = z
     plusTol: optionalLimit,
     lowerLimit: optionalLimit,
     upperLimit: optionalLimit,
-    resolution: z
-      .number('Enter the resolution readings are rounded to.')
+    resolution: decimal(12, 6, 'Enter the resolution readings are rounded to.')
       .positive('The resolution must be more than 0.')
       .max(1000, 'At most 1000.'),
-    sourceNote: z.string().trim().max(300, 'At most 300 characters.').default(''),
+    sourceNote: text().trim().max(300, 'At most 300 characters.').default(''),
   })
   .superRefine((r, ctx) => {
     const need = (field: keyof typeof r, message: string) => {
@@ -67,24 +68,24 @@ export const ruleLimits = z
 export type RuleLimits = z.output<typeof ruleLimits>;
 
 export const createDraftBody = z.strictObject({
-  family: z.string().trim().min(1).max(20),
-  characteristicId: z.number().int().positive(),
+  family: text().trim().min(1).max(20),
+  characteristicId: id(),
   limits: ruleLimits,
 });
 
 export const updateDraftBody = z.strictObject({ limits: ruleLimits });
 
 export const approveRuleBody = z.strictObject({
-  reason: z.string('Say why.').trim().min(5, 'Say why, in at least 5 characters.').max(500, 'At most 500 characters.'),
-  password: z.string('Enter your password to sign.').min(1, 'Enter your password to sign.').max(200),
+  reason: text('Say why.').trim().min(5, 'Say why, in at least 5 characters.').max(500, 'At most 500 characters.'),
+  password: enteredPassword('Enter your password to sign.'),
   /** When the new version takes over; now when left out. Never in the past. */
-  effectiveFrom: z.iso.datetime({ offset: true, error: 'Use a date and time like 2026-12-02T08:00:00Z.' }).optional(),
+  effectiveFrom: isoDateTime('Use a date and time like 2026-12-02T08:00:00Z.').optional(),
 });
 
-export const specBookQuery = z.strictObject({ family: z.string().trim().min(1).max(20) });
+export const specBookQuery = z.strictObject({ family: text().trim().min(1).max(20) });
 export const ruleHistoryQuery = z.strictObject({
-  family: z.string().trim().min(1).max(20),
-  characteristicId: z.coerce.number().int().positive(),
+  family: text().trim().min(1).max(20),
+  characteristicId: idText(),
 });
 
 export type SignatureJson = { printedName: string; meaning: string; signedAt: string };

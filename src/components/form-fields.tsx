@@ -27,6 +27,8 @@ type TextFieldProps = Common & {
   max?: string;
   /** Left empty, the field is absent (undefined) rather than "", so an optional schema key accepts it. */
   optional?: boolean;
+  /** The on-screen keyboard to offer, e.g. `numeric` for a one-time code. */
+  inputMode?: 'text' | 'numeric' | 'decimal' | 'email';
 };
 
 const blankToUndefined = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
@@ -44,6 +46,7 @@ export function TextField({
   min,
   max,
   optional = false,
+  inputMode,
 }: TextFieldProps) {
   const { id, register, error } = useBound(name);
   return (
@@ -51,6 +54,7 @@ export function TextField({
       <Input
         id={id}
         type={type}
+        inputMode={inputMode}
         mono={mono}
         autoComplete={autoComplete}
         disabled={disabled}

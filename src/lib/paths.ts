@@ -6,6 +6,7 @@ export const paths = {
   home: '/',
   signIn: '/sign-in',
   account: '/account',
+  secondFactor: '/second-factor',
   people: '/admin/people',
   stations: '/admin/stations',
   families: '/admin/families',

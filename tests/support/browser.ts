@@ -1,6 +1,9 @@
 import type { Server } from 'node:http';
 import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
+import { sealSecret, totpCode } from '../../server/auth/totp.js';
+import type { Config } from '../../server/config.js';
+import { User } from '../../server/models/index.js';
 import { makeTestApp, type TestApp } from './app.js';
 
 export const CHROMIUM_ARGS = [
@@ -41,10 +44,41 @@ export function launch(extraArgs: string[] = []): Promise<Browser> {
   });
 }
 
+/** The authenticator secret the browser tests give an administrator (base32 of 20 bytes). */
+export const TEST_TOTP_SECRET = 'GEZDGNBVGY3TQOJQGEZDGNBVGY3TQOJQ';
+
+/** Gives an account the test secret, as if it had enrolled (administrators must have one). */
+export async function givenSecondFactor(email: string, config: Config) {
+  const user = (await User.findOne({ where: { email } }))!;
+  if (user.totpSecret) return;
+  await user.update({ totpSecret: sealSecret(TEST_TOTP_SECRET, config.JWT_SECRET), totpEnrolledAt: new Date() });
+}
+
+/**
+ * What the phone would show next: a code for a time step newer than the last one the account used
+ * (each code signs in once), waiting for the clock when the step after this one is taken too.
+ */
+export async function nextCode(email: string, secret = TEST_TOTP_SECRET): Promise<string> {
+  const user = (await User.findOne({ where: { email } }))!;
+  const step = Math.floor(Date.now() / 30_000);
+  const target = Math.max(step, (user.totpLastStep ?? -1) + 1);
+  // the server accepts one step ahead of its clock; past that, wait until the clock catches up
+  if (target > step + 1) await new Promise((r) => setTimeout(r, (target - 1) * 30_000 - Date.now() + 200));
+  return totpCode(secret, target * 30_000);
+}
+
 export async function signIn(page: Page, base: string, email: string, password: string) {
   await page.goto(`${base}/sign-in`);
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('heading', { level: 1, name: / home$/ }).waitFor();
+  const home = page.getByRole('heading', { level: 1, name: / home$/ });
+  const code = page.getByLabel('Code from your authenticator app');
+  // whichever comes: the home page, or the question for a second-factor code
+  await home.or(code).first().waitFor();
+  if (await code.isVisible()) {
+    await code.fill(await nextCode(email));
+    await page.getByRole('button', { name: 'Sign in' }).click();
+  }
+  await home.waitFor();
 }

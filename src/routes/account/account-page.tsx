@@ -9,6 +9,8 @@ import { TextField } from '../../components/form-fields';
 import { PageHeader } from '../../components/page-header';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { signInHref } from '../../lib/paths';
+import { SecondFactorCard } from './second-factor-card';
+import { SessionsCard } from './sessions-card';
 
 // the server's schema, plus a second typing of the new password that never leaves the browser
 const changePasswordForm = changePasswordBody
@@ -27,7 +29,10 @@ export function AccountPage() {
 
   return (
     <>
-      <PageHeader title="Your account" description="Who Coretrail knows you as, and your password." />
+      <PageHeader
+        title="Your account"
+        description="Who Coretrail knows you as, your password, your second factor and where you are signed in."
+      />
       <div className="grid grid-cols-1 items-start gap-5 lg:grid-cols-[minmax(0,1fr)_minmax(0,1.2fr)]">
         <Card labelledBy="you-heading">
           <CardHeader id="you-heading" title="You" description="An administrator changes your name or role." />
@@ -82,6 +87,8 @@ export function AccountPage() {
             </Form>
           </CardBody>
         </Card>
+        <SecondFactorCard />
+        <SessionsCard />
       </div>
     </>
   );

@@ -1,4 +1,4 @@
-import { Link, NavLink, Outlet, useNavigate, useNavigation } from 'react-router';
+import { Link, NavLink, Outlet, redirect, useNavigate, useNavigation } from 'react-router';
 import type { LoaderFunctionArgs } from 'react-router';
 import type { QueryClient } from '@tanstack/react-query';
 import { ROLE_LABELS } from '../../../shared/roles';
@@ -14,7 +14,12 @@ import { navAreasFor } from './areas';
 export const layoutLoader =
   (queryClient: QueryClient) =>
   async ({ request }: LoaderFunctionArgs) => {
-    await requireSignedIn(queryClient, request);
+    const me = await requireSignedIn(queryClient, request);
+    // an administrator without a second factor: the server opens nothing else to this session
+    if (me.secondFactor.required && !me.secondFactor.enrolled) {
+      const url = new URL(request.url);
+      throw redirect(`${paths.secondFactor}?${new URLSearchParams({ next: `${url.pathname}${url.search}` })}`);
+    }
     // after the session check: a sign-out clears the cache, which would cancel it mid-flight
     await queryClient.ensureQueryData(plantQueryOptions());
     return null;

@@ -1,4 +1,5 @@
 import type { QueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
 import { redirect, useNavigate, useSearchParams, type LoaderFunctionArgs } from 'react-router';
 import { loginBody } from '../../../shared/schemas/auth';
 import { meQueryOptions } from '../../api/auth/me';
@@ -7,8 +8,9 @@ import { Form, SubmitButton } from '../../components/form';
 import { TextField } from '../../components/form-fields';
 import { Notice } from '../../components/ui/notice';
 import { Wordmark } from '../../components/wordmark';
-import { safeNext, SIGN_IN_NOTES, type SignInNote } from '../../lib/paths';
 import { plantQueryOptions, usePlant } from '../../api/plant/plant';
+import { ApiError } from '../../lib/http';
+import { paths, safeNext, SIGN_IN_NOTES, type SignInNote } from '../../lib/paths';
 import { forgetEverything } from '../../lib/session';
 
 export const signInLoader =
@@ -16,6 +18,7 @@ export const signInLoader =
   async ({ request }: LoaderFunctionArgs) => {
     // always ask the server: a sign-out or a lost session is exactly when the cache is out of date
     const me = await queryClient.fetchQuery({ ...meQueryOptions(), staleTime: 0 });
+    if (me?.secondFactor.required && !me.secondFactor.enrolled) throw redirect(paths.secondFactor);
     if (me) throw redirect(safeNext(new URL(request.url).searchParams.get('next')));
     forgetEverything(queryClient);
     await queryClient.ensureQueryData(plantQueryOptions());
@@ -28,6 +31,8 @@ export function SignInPage() {
   const [params] = useSearchParams();
   const navigate = useNavigate();
   const signIn = useSignIn();
+  // the password was right and this person has a second factor: ask for the code as well
+  const [askCode, setAskCode] = useState(false);
   const next = safeNext(params.get('next'));
   const note = params.get('note');
   const plantName = usePlant().data?.name ?? '';
@@ -58,12 +63,38 @@ export function SignInPage() {
             schema={loginBody}
             defaultValues={{ email: '', password: '' }}
             onSubmit={async (values) => {
-              await signIn.mutateAsync(values);
-              await navigate(next, { replace: true });
+              let me;
+              try {
+                me = await signIn.mutateAsync(values);
+              } catch (err) {
+                if (err instanceof ApiError && err.code === 'code_required') return setAskCode(true);
+                throw err;
+              }
+              // an administrator without a second factor sets one up before anything else
+              const enrol = me.secondFactor.required && !me.secondFactor.enrolled;
+              const to = enrol ? `${paths.secondFactor}?${new URLSearchParams({ next })}` : next;
+              await navigate(to, { replace: true });
             }}
           >
-            <TextField name="email" label="E-mail" type="email" autoComplete="username" autoFocus />
+            <TextField name="email" label="E-mail" type="email" autoComplete="username" autoFocus={!askCode} />
             <TextField name="password" label="Password" type="password" autoComplete="current-password" />
+            {askCode && (
+              <>
+                <Notice tone="info" live="status">
+                  Open the authenticator app on your phone and enter the code it shows for Coretrail.
+                </Notice>
+                <TextField
+                  name="code"
+                  label="Code from your authenticator app"
+                  inputMode="numeric"
+                  autoComplete="one-time-code"
+                  mono
+                  optional
+                  autoFocus
+                  hint="Six digits. Without your phone, use one of your recovery codes."
+                />
+              </>
+            )}
             <SubmitButton size="lg" wide>
               Sign in
             </SubmitButton>

@@ -3,6 +3,7 @@ import { useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
 import { ROLE_LABELS, ROLES } from '../../../../shared/roles';
 import { useSignedIn } from '../../../api/auth/me';
+import { lockoutsQueryOptions } from '../../../api/lockouts/lockouts';
 import { fetchPeople, peopleQueryOptions, usePeople } from '../../../api/people/list-people';
 import { PageHeader } from '../../../components/page-header';
 import { Pager } from '../../../components/pager';
@@ -14,6 +15,7 @@ import { formatWhen } from '../../../lib/format';
 import { requirePermission } from '../../../lib/session';
 import { useDebouncedText, useUrlFilter } from '../../../lib/use-url-filter';
 import { peopleFilterFrom } from './filter';
+import { LockoutsCard } from './lockouts-card';
 import { AddPersonDialog } from './person-dialogs';
 import { PeopleTable } from './people-table';
 import { FilterInput, FilterSelect } from '../../../components/filter-fields';
@@ -22,7 +24,10 @@ export const peopleLoader =
   (queryClient: QueryClient) =>
   async ({ request }: LoaderFunctionArgs) => {
     await requirePermission(queryClient, request, 'people.manage');
-    await queryClient.ensureQueryData(peopleQueryOptions(peopleFilterFrom(new URL(request.url).searchParams)));
+    await Promise.all([
+      queryClient.ensureQueryData(peopleQueryOptions(peopleFilterFrom(new URL(request.url).searchParams))),
+      queryClient.ensureQueryData(lockoutsQueryOptions()),
+    ]);
     return null;
   };
 
@@ -72,6 +77,9 @@ export function PeoplePage() {
           </Button>
         }
       />
+      <div className="mb-5 empty:hidden">
+        <LockoutsCard />
+      </div>
       <Card labelledBy="people-list-heading">
         <h2 id="people-list-heading" className="sr-only">
           List of people

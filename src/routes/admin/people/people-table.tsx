@@ -7,8 +7,9 @@ import { Badge } from '../../../components/ui/badge';
 import { Button } from '../../../components/ui/button';
 import { formatWhen } from '../../../lib/format';
 import { EditPersonDialog, ResetPasswordDialog, SetActiveDialog } from './person-dialogs';
+import { ResetSecondFactorDialog } from './reset-factor-dialog';
 
-type Open = { kind: 'edit' | 'password' | 'active'; person: Person } | null;
+type Open = { kind: 'edit' | 'password' | 'active' | 'factor'; person: Person } | null;
 
 const col = createColumnHelper<Person>();
 
@@ -33,6 +34,10 @@ export function PeopleTable({ rows, meId, busy }: { rows: Person[]; meId: number
       col.accessor('active', {
         header: 'Status',
         cell: (c) => (c.getValue() ? <Badge tone="ok">Active</Badge> : <Badge tone="off">Deactivated</Badge>),
+      }),
+      col.accessor('secondFactor', {
+        header: 'Second factor',
+        cell: (c) => (c.getValue() ? <Badge tone="ok">On</Badge> : <span className="text-ink-soft">Off</span>),
       }),
       col.accessor('lastSignInAt', {
         header: 'Last sign-in',
@@ -68,6 +73,15 @@ export function PeopleTable({ rows, meId, busy }: { rows: Person[]; meId: number
                   onClick={() => setOpen({ kind: 'password', person: p })}
                 >
                   Password
+                </Button>
+              )}
+              {p.secondFactor && (
+                <Button
+                  size="sm"
+                  aria-label={`Reset the second factor of ${p.name}`}
+                  onClick={() => setOpen({ kind: 'factor', person: p })}
+                >
+                  Reset 2nd factor
                 </Button>
               )}
               {!self &&
@@ -119,6 +133,7 @@ export function PeopleTable({ rows, meId, busy }: { rows: Person[]; meId: number
       )}
       {open?.kind === 'password' && <ResetPasswordDialog person={open.person} onClose={close} />}
       {open?.kind === 'active' && <SetActiveDialog person={open.person} onClose={close} />}
+      {open?.kind === 'factor' && <ResetSecondFactorDialog person={open.person} onClose={close} />}
     </>
   );
 }
