@@ -5,6 +5,8 @@ import { createSequelize } from './db.js';
 import { migrate } from './migrate.js';
 import { startMailSink } from './mail/sink.js';
 import { MailWorker } from './mail/worker.js';
+import { LedgerWorker } from './ledger/sequencer.js';
+import { signerFor } from './ledger/signer.js';
 import { DEMO_USERS, seedDemoIfEmpty } from '../db/seeders/demo.js';
 
 async function main() {
@@ -30,6 +32,13 @@ async function main() {
       ? new MailWorker(sequelize, { smtp: { host: config.SMTP_HOST, port: config.SMTP_PORT }, from: config.MAIL_FROM })
       : null;
   worker?.start();
+  const signer = signerFor(config.AUDIT_SIGNING_KEY);
+  if (!signer) console.log('[ledger] no AUDIT_SIGNING_KEY: the audit log is integrated but its heads are not signed');
+  const ledger =
+    config.LEDGER_WORKER === 'on'
+      ? new LedgerWorker(sequelize, { signer, headIntervalMs: config.AUDIT_HEAD_INTERVAL_S * 1000 })
+      : null;
+  ledger?.start();
   const app = createApp({ sequelize, config });
   const server: Server = await new Promise((resolve, reject) => {
     // Express 5 hands a listen error to this callback rather than only emitting it
@@ -57,6 +66,7 @@ async function main() {
     app.state.draining = true;
     server.close(async () => {
       await worker?.stop();
+      await ledger?.stop();
       await sink?.close();
       await sequelize.close();
       console.log('[api] stopped');

@@ -5,6 +5,7 @@ import * as m20261202090000 from './20261202090000-station-results.js';
 import * as m20261202110000 from './20261202110000-nonconformance-workflow.js';
 import * as m20261202130000 from './20261202130000-build-and-trail.js';
 import * as m20261202150000 from './20261202150000-reference-version.js';
+import * as m20261203090000 from './20261203090000-audit-ledger.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -18,4 +19,5 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261202110000-nonconformance-workflow', ...m20261202110000 },
   { name: '20261202130000-build-and-trail', ...m20261202130000 },
   { name: '20261202150000-reference-version', ...m20261202150000 },
+  { name: '20261203090000-audit-ledger', ...m20261203090000 },
 ];
