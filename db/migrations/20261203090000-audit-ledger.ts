@@ -65,6 +65,7 @@ CREATE TABLE audit_log_heads (
   signature bytea NOT NULL CHECK (octet_length(signature) = 64),
   created_at timestamptz NOT NULL DEFAULT now()
 );
+-- (statement triggers: they refuse even a statement that matches no row)
 -- The sequencer's own row: where the tree stands. Derived (verify recomputes it); never shrinks.
 CREATE TABLE audit_log_state (
   only_row boolean PRIMARY KEY DEFAULT true CHECK (only_row),
@@ -86,20 +87,20 @@ $$;
 CREATE TRIGGER audit_log_state_grows BEFORE UPDATE ON audit_log_state
   FOR EACH ROW EXECUTE FUNCTION audit_log_state_grows();
 CREATE TRIGGER audit_log_state_kept BEFORE DELETE ON audit_log_state
-  FOR EACH ROW EXECUTE FUNCTION ledger_append_only();
+  FOR EACH STATEMENT EXECUTE FUNCTION ledger_append_only();
 CREATE TRIGGER audit_log_state_no_truncate BEFORE TRUNCATE ON audit_log_state
   FOR EACH STATEMENT EXECUTE FUNCTION ledger_append_only();
 
 CREATE TRIGGER audit_leaves_no_update_delete BEFORE UPDATE OR DELETE ON audit_leaves
-  FOR EACH ROW EXECUTE FUNCTION ledger_append_only();
+  FOR EACH STATEMENT EXECUTE FUNCTION ledger_append_only();
 CREATE TRIGGER audit_leaves_no_truncate BEFORE TRUNCATE ON audit_leaves
   FOR EACH STATEMENT EXECUTE FUNCTION ledger_append_only();
 CREATE TRIGGER audit_tree_nodes_no_update_delete BEFORE UPDATE OR DELETE ON audit_tree_nodes
-  FOR EACH ROW EXECUTE FUNCTION ledger_append_only();
+  FOR EACH STATEMENT EXECUTE FUNCTION ledger_append_only();
 CREATE TRIGGER audit_tree_nodes_no_truncate BEFORE TRUNCATE ON audit_tree_nodes
   FOR EACH STATEMENT EXECUTE FUNCTION ledger_append_only();
 CREATE TRIGGER audit_log_heads_no_update_delete BEFORE UPDATE OR DELETE ON audit_log_heads
-  FOR EACH ROW EXECUTE FUNCTION ledger_append_only();
+  FOR EACH STATEMENT EXECUTE FUNCTION ledger_append_only();
 CREATE TRIGGER audit_log_heads_no_truncate BEFORE TRUNCATE ON audit_log_heads
   FOR EACH STATEMENT EXECUTE FUNCTION ledger_append_only();
 `);

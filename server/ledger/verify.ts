@@ -58,8 +58,10 @@ async function verifyIn(
   const state = await readState(sequelize, transaction);
   const status = await logStatus(sequelize, signer, transaction);
   let firstBroken: Broken | null = chain.firstBroken;
+  const problems: string[] = chain.firstBroken ? [`event ${chain.firstBroken.id}: ${chain.firstBroken.reason}`] : [];
   const fail = (b: Broken) => {
     firstBroken ??= b;
+    if (problems.length < 20) problems.push(b.id === null ? b.reason : `event ${b.id}: ${b.reason}`);
   };
 
   // heads: every signature, in size order; roots checked as the walk reaches each size
@@ -77,9 +79,6 @@ async function verifyIn(
       fail({ id: null, reason: `the signed head of size ${hd.treeSize} does not carry a valid signature` });
     } else if (signer && hd.keyId !== signer.keyId) {
       fail({ id: null, reason: `the head of size ${hd.treeSize} is signed with a key other than this plant's` });
-    }
-    if (hd.treeSize > state.treeSize) {
-      fail({ id: null, reason: `a head was signed at size ${hd.treeSize} but the log now holds ${state.treeSize}` });
     }
   }
 
@@ -152,6 +151,9 @@ async function verifyIn(
       }
     }
   }
+  const beyond = heads.find((hd) => hd.treeSize > size);
+  if (beyond)
+    fail({ id: null, reason: `a head was signed at size ${beyond.treeSize} but the log holds ${size} entries` });
   if (size !== state.treeSize)
     fail({ id: null, reason: `the state says ${state.treeSize} entries, the leaves ${size}` });
   if (!equalBytes(rootFromFrontier(nodeHasher, frontier), state.rootHash)) {
@@ -186,6 +188,7 @@ async function verifyIn(
     ok: firstBroken === null,
     checked: size,
     firstBroken,
+    problems,
     chain: { checked: chain.checked },
     log: status,
     heads: { checked: headsChecked, total: heads.length },

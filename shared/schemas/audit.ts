@@ -53,6 +53,8 @@ export type AuditVerifyReport = {
   checked: number;
   /** the first problem found: an event (id) or the tree, a head or the state (id null) */
   firstBroken: { id: number | null; reason: string } | null;
+  /** every problem found, up to 20, first first */
+  problems: string[];
   /** the hash chain of the events written before the log */
   chain: { checked: number };
   log: AuditLogStatus;
