@@ -28,6 +28,7 @@ export const paths = {
   release: '/release',
   trail: '/trail',
   lot: '/lots/:lotCode',
+  verify: '/verify',
 } as const;
 
 /** Why the sign-in page was shown, so it can say so in plain words. */
