@@ -11,8 +11,9 @@ import type { PartKind } from '../shared/schemas/reference.js';
  * history has exactly the shape the product writes. One copy in twenty also carries a bore-and-hone
  * failure, its NCR (raised, reviewed, reworked, closed, signed) and the failing readings.
  *
- * The copies do not get audit events: the chain is a SHA-256 over each event's canonical JSON and
- * would have to be computed row by row. The write path's audit step reads only the newest event.
+ * The copies do not get audit events: each would be a leaf of the Merkle log, hashed from its
+ * canonical JSON row by row. The write path's audit step reads no earlier event, so the log's size
+ * changes nothing it measures.
  */
 
 // the template's own minutes are stretched into hours of shop time

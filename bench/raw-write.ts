@@ -4,11 +4,12 @@ import { sqlText } from './pgbench.js';
 /**
  * The station-result transaction as PostgreSQL alone would run it: the statements the API sends for
  * one passing submission (copied from the server's statement log, in the same order, with the same
- * row locks, the same two audit events under the chain's advisory lock and the same stored reply;
- * the benchmark prints both statement counts so a drift shows),
- * with the values of one real submission (`sampleResultId`) as literals. What the raw side leaves
- * out is exactly what the API adds: HTTP, zod, judging the readings, JSON and hashing in JavaScript.
- * The audit hash is computed in SQL instead (sha256 over the previous hash and the event).
+ * row locks, the same two audit events — plain inserts, queued for the Merkle log by the same trigger,
+ * with no lock and no read of an earlier event — and the same stored reply; the benchmark prints both
+ * statement counts so a drift shows), with the values of one real submission (`sampleResultId`) as
+ * literals. What the raw side leaves out is exactly what the API adds: HTTP, zod, judging the
+ * readings and JSON in JavaScript. The sequencer that integrates both sides' events runs in the API
+ * process throughout.
  *
  * Before the transaction, one statement picks the next part from `bench_raw_parts` — the API's
  * load driver does that on its side.
@@ -56,8 +57,8 @@ export async function rawWriteScript(db: pg.Pool, sampleResultId: number) {
         `${lit(r.unit)},${lit(r.verdict)},${lit(r.tolerance_rule_id)},${lit(r.rule_version)},${lit(r.gauge_id)})`,
     )
     .join(',');
-  const audit = (e: (typeof events)[number], prev: string) =>
-    `INSERT INTO "audit_events" ("id","occurred_at","actor_id","actor_role","action","entity","entity_id","before","after","request_id","prev_hash","hash") VALUES (DEFAULT,now(),:uid,'operator',${lit(e.action)},${lit(e.entity)},${e.entity === 'item' ? "':serial'" : "':r_id'"},${lit(e.before)},${lit(e.after)},':key',${prev},encode(sha256(convert_to(${prev} || ${lit(e.after)}, 'UTF8')), 'hex')) RETURNING hash AS a_head \\gset`;
+  const audit = (e: (typeof events)[number]) =>
+    `INSERT INTO audit_events (occurred_at, actor_id, actor_role, action, entity, entity_id, before, after, request_id) VALUES (now(),:uid,'operator',${lit(e.action)},${lit(e.entity)},${e.entity === 'item' ? "':serial'" : "':r_id'"},${lit(e.before)},${lit(e.after)},':key');`;
   const script = `SELECT item_id, serial FROM bench_raw_parts WHERE slot = (SELECT nextval('bench_raw_seq') % :pool) \\gset
 SELECT gen_random_uuid() AS key \\gset
 SELECT s.id AS session_id, s.revoked_at, s.expires_at, s.token_version AS session_tv, u.id, u.email, u.name, u.role, u.active, u.token_version AS user_tv FROM sessions s JOIN users u ON u.id = s.user_id WHERE s.id = ':sid';
@@ -73,10 +74,8 @@ INSERT INTO "readings" ("stage_result_id","characteristic_id","position","value"
 UPDATE "items" SET "current_stage_id"=${ctx.next_stage},"updated_at"=now() WHERE "id" = :item_id;
 SELECT "id", "number", "item_id" AS "itemId", "part_lot_id" AS "partLotId", "stage_result_id" AS "stageResultId", "stage_id" AS "stageId", "defect_code_id" AS "defectCodeId", "severity", "state", "description", "failing", "containment", "disposition", "disposition_reason" AS "dispositionReason", "rework_stage_id" AS "reworkStageId", "raised_by_id" AS "raisedById", "assignee_id" AS "assigneeId", "closed_at" AS "closedAt", "item_status_before" AS "itemStatusBefore", "awaiting_second_signature" AS "awaitingSecondSignature", "decided_by_id" AS "decidedById", "decided_at" AS "decidedAt", "created_at" AS "createdAt", "updated_at" AS "updatedAt" FROM "nonconformances" AS "Nonconformance" WHERE "Nonconformance"."state" = 'decided' AND "Nonconformance"."disposition" IN ('rework', 'repair') AND "Nonconformance"."item_id" = :item_id AND "Nonconformance"."rework_stage_id" = ${result.stage_id} FOR UPDATE;
 INSERT INTO "idempotency_keys" ("key","user_id","method","path","request_hash","status_code","response","created_at") VALUES (':key',:uid,'POST','/api/results',${lit(reply.request_hash)},201,${lit(reply.response)},now());
-SELECT pg_advisory_xact_lock(72410002);
-SELECT hash AS a_prev FROM audit_events ORDER BY id DESC LIMIT 1 \\gset
-${audit(events[0]!, "':a_prev'")}
-${audit(events[1]!, "':a_head'")}
+${audit(events[0]!)}
+${audit(events[1]!)}
 COMMIT;
 `;
   // statements per transaction, for the report: every line but the part pick and the key

@@ -1,5 +1,5 @@
 import { spawn } from 'node:child_process';
-import { randomBytes } from 'node:crypto';
+import { generateKeyPairSync, randomBytes } from 'node:crypto';
 import net from 'node:net';
 
 const freePort = () =>
@@ -25,6 +25,8 @@ export async function startApi(databaseUrl: string, clientDir: string) {
       MAIL_WORKER: 'off',
       CLIENT_DIR: clientDir,
       JWT_SECRET: randomBytes(32).toString('hex'),
+      // the sequencer runs and signs heads, as on a plant's server
+      AUDIT_SIGNING_KEY: generateKeyPairSync('ed25519').privateKey.export({ format: 'pem', type: 'pkcs8' }).toString(),
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   });

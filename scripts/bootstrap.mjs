@@ -1,7 +1,7 @@
 // Shared first steps of `npm start`, `npm test` and `npm run dev`: make sure npm dependencies are
 // installed. Plain Node, no dependencies.
 import { spawnSync } from 'node:child_process';
-import { randomBytes } from 'node:crypto';
+import { generateKeyPairSync, randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -61,6 +61,17 @@ export function projectSecret() {
   fs.mkdirSync(path.dirname(file), { recursive: true });
   if (!fs.existsSync(file)) fs.writeFileSync(file, randomBytes(48).toString('base64url'), { mode: 0o600 });
   return fs.readFileSync(file, 'utf8').trim();
+}
+
+/** The plant's Ed25519 key that signs the audit log's heads, made once and kept in .data (git-ignored). */
+export function projectSigningKey() {
+  const file = path.join(projectDir, '.data', 'audit-signing-key.pem');
+  fs.mkdirSync(path.dirname(file), { recursive: true });
+  if (!fs.existsSync(file)) {
+    const { privateKey } = generateKeyPairSync('ed25519');
+    fs.writeFileSync(file, privateKey.export({ format: 'pem', type: 'pkcs8' }), { mode: 0o600 });
+  }
+  return fs.readFileSync(file, 'utf8');
 }
 
 /** Debian's Chromium for the browser suite and the benchmark: installed with apt-get when missing (as root). */

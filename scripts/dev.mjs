@@ -2,7 +2,7 @@
 // proxying /api to it. Ctrl-C stops all three.
 import { spawn } from 'node:child_process';
 import path from 'node:path';
-import { ensureNodeModules, openProjectDatabase, projectDir, projectSecret } from './bootstrap.mjs';
+import { ensureNodeModules, openProjectDatabase, projectDir, projectSecret, projectSigningKey } from './bootstrap.mjs';
 
 ensureNodeModules();
 const apiPort = Number(process.env.PORT ?? 4310);
@@ -14,6 +14,7 @@ const env = {
   PORT: String(apiPort),
   API_PORT: String(apiPort),
   JWT_SECRET: process.env.JWT_SECRET ?? projectSecret(),
+  AUDIT_SIGNING_KEY: process.env.AUDIT_SIGNING_KEY ?? projectSigningKey(),
   MAIL_SINK: process.env.MAIL_SINK ?? 'on',
   // links in e-mail open the Vite dev server, which serves the client during development
   APP_URL: process.env.APP_URL ?? `http://127.0.0.1:${process.env.VITE_PORT ?? 5173}`,

@@ -2,7 +2,14 @@
 // then serve client and API from one process. Ctrl-C stops the server, then the cluster.
 import { spawn } from 'node:child_process';
 import path from 'node:path';
-import { ensureNodeModules, openProjectDatabase, projectDir, projectSecret, run } from './bootstrap.mjs';
+import {
+  ensureNodeModules,
+  openProjectDatabase,
+  projectDir,
+  projectSecret,
+  projectSigningKey,
+  run,
+} from './bootstrap.mjs';
 
 ensureNodeModules();
 const appPort = Number(process.env.PORT ?? 4310);
@@ -22,6 +29,7 @@ const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
     DATABASE_URL: url,
     PORT: String(appPort),
     JWT_SECRET: process.env.JWT_SECRET ?? projectSecret(),
+    AUDIT_SIGNING_KEY: process.env.AUDIT_SIGNING_KEY ?? projectSigningKey(),
     CLIENT_DIR: path.join(projectDir, 'dist'),
     UPLOAD_DIR: process.env.UPLOAD_DIR ?? path.join(projectDir, '.data', 'uploads'),
     // e-mail goes to a sink on loopback that keeps what it receives (the admin's Mail page)

@@ -107,7 +107,7 @@ export function createApp({
   accountRoutes(api, sequelize, config);
   peopleRoutes(api, sequelize);
   referenceRoutes(api, sequelize);
-  auditRoutes(api, sequelize);
+  auditRoutes(api, sequelize, config);
   partyRoutes(api);
   coreRoutes(api, sequelize);
   itemRoutes(api, sequelize);

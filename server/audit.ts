@@ -5,9 +5,6 @@ import { AuditEvent } from './models/index.js';
 
 export const GENESIS_HASH = '0'.repeat(64);
 
-// an arbitrary constant naming the audit chain among this database's advisory locks
-const AUDIT_CHAIN_LOCK = 72_410_002;
-
 /** Who is acting and for which request: every write path carries one. */
 export type Ctx = {
   /** `name` as signed in, where the caller has it (spares a lookup for replies that name the actor). */
@@ -42,7 +39,11 @@ function plain(v: unknown): unknown {
   return v === undefined ? null : JSON.parse(JSON.stringify(v));
 }
 
-/** SHA-256 over the previous hash and the RFC 8785 canonical JSON of the event. */
+/**
+ * The hash chain of the events written before the Merkle log existed (migration
+ * 20261203090000-audit-ledger): SHA-256 over the previous hash and the RFC 8785 canonical JSON of
+ * the event. Those events keep their chain and are also the log's first leaves.
+ */
 export function hashEvent(prevHash: string, e: Hashed): string {
   return createHash('sha256')
     .update(prevHash)
@@ -50,50 +51,60 @@ export function hashEvent(prevHash: string, e: Hashed): string {
     .digest('hex');
 }
 
-// the newest hash a transaction has written: while it holds the chain's lock, nobody else appends
-const chainHead = new WeakMap<Transaction, string>();
+const INSERT_EVENT = `INSERT INTO audit_events
+  (occurred_at, actor_id, actor_role, action, entity, entity_id, before, after, request_id)
+  VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9)`;
+
+function eventRow(ctx: Ctx, input: AuditInput): unknown[] {
+  const before = plain(input.before);
+  const after = plain(input.after);
+  return [
+    new Date(),
+    ctx.actor?.id ?? null,
+    ctx.actor?.role ?? null,
+    input.action,
+    input.entity,
+    String(input.entityId),
+    before === null ? null : JSON.stringify(before),
+    after === null ? null : JSON.stringify(after),
+    ctx.requestId,
+  ];
+}
 
 /**
- * Writes one audit event inside the caller's transaction. Events are chained: the advisory lock
- * (released at commit) makes writers take turns, so each event links to the one committed before it.
- * A second event in the same transaction links to the first without asking the database again.
+ * Writes one audit event inside the caller's transaction, and nothing else: no lock, no read of the
+ * previous event, no position. A trigger queues it (audit_pending) in the same transaction; once it
+ * commits, the sequencer (server/ledger/sequencer.ts) gives it the next leaf of the Merkle log. If
+ * the transaction rolls back, the event and its place in the queue go with it.
  */
 export async function recordAudit(ctx: Ctx, transaction: Transaction, input: AuditInput): Promise<void> {
   const sequelize = AuditEvent.sequelize as Sequelize;
-  let prevHash = chainHead.get(transaction);
-  if (prevHash === undefined) {
-    await sequelize.query('SELECT pg_advisory_xact_lock(:k)', {
-      replacements: { k: AUDIT_CHAIN_LOCK },
-      transaction,
-    });
-    const last = await sequelize.query<{ hash: string }>('SELECT hash FROM audit_events ORDER BY id DESC LIMIT 1', {
-      type: QueryTypes.SELECT,
-      transaction,
-    });
-    prevHash = last[0]?.hash ?? GENESIS_HASH;
-  }
-  const occurredAt = new Date();
-  const body: Hashed = {
-    occurredAt: occurredAt.toISOString(),
-    actorId: ctx.actor?.id ?? null,
-    actorRole: ctx.actor?.role ?? null,
-    action: input.action,
-    entity: input.entity,
-    entityId: String(input.entityId),
-    before: plain(input.before),
-    after: plain(input.after),
-    requestId: ctx.requestId,
-  };
-  const hash = hashEvent(prevHash, body);
   // nothing reads the row back: no RETURNING of its JSON
-  await AuditEvent.create({ ...body, occurredAt, prevHash, hash }, { transaction, returning: false });
-  chainHead.set(transaction, hash);
+  await sequelize.query(INSERT_EVENT, { bind: eventRow(ctx, input), transaction, type: QueryTypes.INSERT });
+}
+
+/** The same, returning the event's id: for callers that hand out a receipt for it (documents). */
+export async function recordAuditReturningId(ctx: Ctx, transaction: Transaction, input: AuditInput): Promise<number> {
+  const sequelize = AuditEvent.sequelize as Sequelize;
+  const [rows] = (await sequelize.query(`${INSERT_EVENT} RETURNING id`, {
+    bind: eventRow(ctx, input),
+    transaction,
+    type: QueryTypes.INSERT,
+  })) as unknown as [{ id: number }[]];
+  return Number(rows[0]!.id);
 }
 
 export type ChainReport = { ok: boolean; checked: number; firstBroken: { id: number; reason: string } | null };
 
-/** Walks the whole chain in id order and reports the first event whose link or hash does not hold. */
-export async function verifyAuditChain(sequelize: Sequelize, batch = 2000): Promise<ChainReport> {
+/**
+ * Walks the chained history (the events written before the Merkle log) in id order and reports the
+ * first one whose link or hash does not hold. Events written since carry no chain; the log covers them.
+ */
+export async function verifyAuditChain(
+  sequelize: Sequelize,
+  batch = 2000,
+  transaction?: Transaction,
+): Promise<ChainReport> {
   let prevHash = GENESIS_HASH;
   let lastId = 0;
   let checked = 0;
@@ -111,9 +122,10 @@ export async function verifyAuditChain(sequelize: Sequelize, batch = 2000): Prom
       request_id: string | null;
       prev_hash: string;
       hash: string;
-    }>('SELECT * FROM audit_events WHERE id > :lastId ORDER BY id LIMIT :batch', {
+    }>('SELECT * FROM audit_events WHERE id > :lastId AND hash IS NOT NULL ORDER BY id LIMIT :batch', {
       type: QueryTypes.SELECT,
       replacements: { lastId, batch },
+      transaction,
     });
     if (!rows.length) break;
     for (const r of rows) {

@@ -34,6 +34,12 @@ const schema = z.object({
   MAIL_SINK_DIR: z.string().default('.data/mail-sink'),
   // the address people open Coretrail at, for links in e-mail
   APP_URL: z.string().optional(),
+  // the plant's Ed25519 key (PKCS #8 PEM) that signs the audit log's heads; npm start makes one in .data
+  AUDIT_SIGNING_KEY: z.string().optional(),
+  // how often a grown audit log gets a new signed head
+  AUDIT_HEAD_INTERVAL_S: z.coerce.number().positive().default(60),
+  // the sequencer that gives committed audit events their place in the log (one works at a time)
+  LEDGER_WORKER: z.enum(['on', 'off']).default('on'),
 });
 
 export type Config = z.infer<typeof schema>;

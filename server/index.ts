@@ -7,6 +7,8 @@ import { startMailSink } from './mail/sink.js';
 import { MailWorker } from './mail/worker.js';
 import { UploadSweeper } from './jobs/upload-sweeper.js';
 import { LocalDiskStore } from './storage/blob-store.js';
+import { LedgerWorker } from './ledger/sequencer.js';
+import { signerFor } from './ledger/signer.js';
 import { DEMO_USERS, seedDemoIfEmpty } from '../db/seeders/demo.js';
 
 async function main() {
@@ -35,6 +37,13 @@ async function main() {
   const store = new LocalDiskStore(config.UPLOAD_DIR);
   const sweeper = new UploadSweeper(sequelize, store, config.UNCLAIMED_UPLOAD_HOURS);
   sweeper.start();
+  const signer = signerFor(config.AUDIT_SIGNING_KEY);
+  if (!signer) console.log('[ledger] no AUDIT_SIGNING_KEY: the audit log is integrated but its heads are not signed');
+  const ledger =
+    config.LEDGER_WORKER === 'on'
+      ? new LedgerWorker(sequelize, { signer, headIntervalMs: config.AUDIT_HEAD_INTERVAL_S * 1000 })
+      : null;
+  ledger?.start();
   const app = createApp({ sequelize, config, store });
   const server: Server = await new Promise((resolve, reject) => {
     // Express 5 hands a listen error to this callback rather than only emitting it
@@ -63,6 +72,7 @@ async function main() {
     server.close(async () => {
       await worker?.stop();
       await sweeper.stop();
+      await ledger?.stop();
       await sink?.close();
       await sequelize.close();
       console.log('[api] stopped');

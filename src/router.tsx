@@ -32,6 +32,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
       hydrateFallbackElement: <LoadingScreen />,
     },
     {
+      // public: anyone holding a document checks it, no sign-in
+      path: paths.verify,
+      lazy: async () => ({ Component: (await import('./routes/verify/verify-page')).VerifyPage }),
+      errorElement: <RootError />,
+      hydrateFallbackElement: <LoadingScreen />,
+    },
+    {
       id: 'app',
       element: <AppLayout />,
       loader: layoutLoader(queryClient),

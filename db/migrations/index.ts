@@ -5,6 +5,7 @@ import * as m20261202090000 from './20261202090000-station-results.js';
 import * as m20261202110000 from './20261202110000-nonconformance-workflow.js';
 import * as m20261202130000 from './20261202130000-build-and-trail.js';
 import * as m20261202150000 from './20261202150000-reference-version.js';
+import * as m20261203090000 from './20261203090000-audit-ledger.js';
 import * as m20261203100000 from './20261203100000-gate-integrity.js';
 import * as m20261203110000 from './20261203110000-office-screens.js';
 import * as m20261203120000 from './20261203120000-sessions-and-second-factor.js';
@@ -21,6 +22,7 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261202110000-nonconformance-workflow', ...m20261202110000 },
   { name: '20261202130000-build-and-trail', ...m20261202130000 },
   { name: '20261202150000-reference-version', ...m20261202150000 },
+  { name: '20261203090000-audit-ledger', ...m20261203090000 },
   { name: '20261203100000-gate-integrity', ...m20261203100000 },
   { name: '20261203110000-office-screens', ...m20261203110000 },
   { name: '20261203120000-sessions-and-second-factor', ...m20261203120000 },

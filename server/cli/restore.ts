@@ -1,7 +1,7 @@
 // `npm run db:restore FILE [DATABASE]`: restores a backup into a fresh database and checks it.
-import { verifyAuditChain } from '../audit.js';
 import { createSequelize } from '../db.js';
 import { restoreDatabase, rowCounts } from '../ops/backup.js';
+import { verifyAudit } from '../ledger/verify.js';
 
 const [file, name] = process.argv.slice(2);
 const url = process.env.DATABASE_URL;
@@ -16,14 +16,16 @@ const restored = await restoreDatabase(admin.toString(), file, database);
 const sequelize = createSequelize(restored.url, { poolMax: 1 });
 try {
   const counts = await rowCounts(sequelize);
-  const chain = await verifyAuditChain(sequelize);
+  const audit = await verifyAudit(sequelize);
   console.log(`restored into database ${database}`);
   for (const [t, n] of Object.entries(counts)) console.log(`  ${t.padEnd(28)} ${n}`);
   console.log(
-    chain.ok ? `audit chain intact: ${chain.checked} events` : `audit chain BROKEN at ${chain.firstBroken?.id}`,
+    audit.ok
+      ? `audit log intact: ${audit.checked} events in the log, ${audit.log.pending} waiting`
+      : `audit log BROKEN${audit.firstBroken?.id ? ` at event ${audit.firstBroken.id}` : ''}: ${audit.firstBroken?.reason}`,
   );
   console.log(`\nTo run Coretrail on it: CORETRAIL_DB=${database} npm start`);
-  if (!chain.ok) process.exitCode = 1;
+  if (!audit.ok) process.exitCode = 1;
 } finally {
   await sequelize.close();
 }

@@ -7,7 +7,11 @@ import {
   type Sequelize,
 } from 'sequelize';
 
-/** One append-only, hash-chained entry of the audit trail. The database refuses UPDATE and DELETE. */
+/**
+ * One append-only entry of the audit trail; the Merkle log (server/ledger/) gives it a leaf. Events
+ * written before the log keep their hash chain (`prevHash`, `hash`); later ones have neither.
+ * The database refuses UPDATE and DELETE.
+ */
 export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreationAttributes<AuditEvent>> {
   declare id: CreationOptional<number>;
   declare occurredAt: Date;
@@ -19,8 +23,8 @@ export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreation
   declare before: unknown;
   declare after: unknown;
   declare requestId: string | null;
-  declare prevHash: string;
-  declare hash: string;
+  declare prevHash: CreationOptional<string | null>;
+  declare hash: CreationOptional<string | null>;
 
   static initModel(sequelize: Sequelize) {
     AuditEvent.init(
@@ -35,8 +39,8 @@ export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreation
         before: { type: DataTypes.JSONB, allowNull: true },
         after: { type: DataTypes.JSONB, allowNull: true },
         requestId: { type: DataTypes.STRING(64), allowNull: true },
-        prevHash: { type: DataTypes.CHAR(64), allowNull: false },
-        hash: { type: DataTypes.CHAR(64), allowNull: false, unique: true },
+        prevHash: { type: DataTypes.CHAR(64), allowNull: true },
+        hash: { type: DataTypes.CHAR(64), allowNull: true, unique: true },
       },
       { sequelize, tableName: 'audit_events', underscored: true, timestamps: false },
     );

@@ -45,13 +45,7 @@ export function mailRoutes(api: Api, config: Config) {
     path: '/mail/outbox/:id',
     access: 'mail.read',
     summary: 'One queued message as it was (or will be) sent: recipient, subject, body, Message-ID, delivery state.',
-    params: z.strictObject({
-      id: z.coerce
-        .number()
-        .int()
-        .positive()
-        .max(2 ** 53 - 1),
-    }),
+    params: z.strictObject({ id: idText() }),
     handler: async ({ params }) => {
       const m = await MailOutbox.findByPk(params.id);
       if (!m) throw notFound('That message');

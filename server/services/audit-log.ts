@@ -17,8 +17,9 @@ export async function listAuditEvents(sequelize: Sequelize, query: z.output<type
     sequelize.query<AuditJson>(
       `SELECT e.id, e.occurred_at AS "occurredAt", e.actor_id AS "actorId", u.name AS "actorName",
               e.actor_role AS "actorRole", e.action, e.entity, e.entity_id AS "entityId", e.before, e.after,
-              e.request_id AS "requestId", e.hash
+              e.request_id AS "requestId", e.hash, l.leaf_index AS "leafIndex"
          FROM audit_events e LEFT JOIN users u ON u.id = e.actor_id
+         LEFT JOIN audit_leaves l ON l.event_id = e.id
          ${filter} ORDER BY e.id DESC LIMIT :limit OFFSET :offset`,
       { type: QueryTypes.SELECT, replacements },
     ),

@@ -32,6 +32,7 @@ export const paths = {
   fieldActions: '/field-actions',
   fieldAction: '/field-actions/:number',
   plant: '/admin/plant',
+  verify: '/verify',
 } as const;
 
 /** Why the sign-in page was shown, so it can say so in plain words. */

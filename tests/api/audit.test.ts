@@ -3,9 +3,13 @@ import pg from 'pg';
 import request from 'supertest';
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { recordAudit, verifyAuditChain, hashEvent, GENESIS_HASH } from '../../server/audit.js';
+import { recordAudit, hashEvent, GENESIS_HASH } from '../../server/audit.js';
+import { integrateAll } from '../../server/ledger/sequencer.js';
+import { signerFromPem } from '../../server/ledger/signer.js';
+import { verifyAudit } from '../../server/ledger/verify.js';
+import { TEST_PLANT_KEY } from '../support/ledger.js';
 import { createSequelize } from '../../server/db.js';
-import { migrate } from '../../server/migrate.js';
+import { migrate, migrator } from '../../server/migrate.js';
 import { AuditEvent } from '../../server/models/index.js';
 import { cookieFor, makeTestApp, makeUser, unique, type TestApp } from '../support/app.js';
 
@@ -57,13 +61,18 @@ describe('audit events are written with the change', () => {
     expect(await AuditEvent.count({ where: { entityId } })).toBe(0);
   });
 
-  it('when anyone tries to UPDATE, DELETE or TRUNCATE audit_events, then the database refuses', async () => {
+  it('when anyone tries to UPDATE, DELETE or TRUNCATE audit_events or the stored log, then the database refuses', async () => {
     for (const sql of [
+      'UPDATE audit_leaves SET leaf_hash = leaf_hash WHERE leaf_index = 0',
+      'DELETE FROM audit_tree_nodes WHERE level = 1',
+      'TRUNCATE audit_log_heads',
+      'DELETE FROM audit_log_state',
       "UPDATE audit_events SET action = 'changed' WHERE id = (SELECT min(id) FROM audit_events)",
       'DELETE FROM audit_events WHERE id = (SELECT min(id) FROM audit_events)',
       'TRUNCATE audit_events',
     ]) {
-      await expect(t.sequelize.query(sql)).rejects.toThrow(/append-only/);
+      // TRUNCATE audit_events now stops earlier, at the log's foreign key to it
+      await expect(t.sequelize.query(sql)).rejects.toThrow(/append-only|referenced in a foreign key/);
     }
   });
 
@@ -84,7 +93,7 @@ describe('audit events are written with the change', () => {
   });
 });
 
-describe('the hash chain', () => {
+describe('the hash chain of the events before the log, and tampering', () => {
   it('hashes the previous hash with the canonical JSON of the event (RFC 8785 key order)', () => {
     const e = {
       occurredAt: '2026-12-01T00:00:00.000Z',
@@ -125,9 +134,71 @@ describe('the hash chain', () => {
       await admin.end();
     });
 
-    it('when a row is altered, its id is reported; when a row is removed, the next one is', async () => {
+    it('when events from before the log are migrated, then their chain still verifies and they are the first leaves, in chain order', async () => {
+      // a database at the migration before the log, with chained events written the old way
+      const name2 = `${name}_legacy`;
+      await admin.query(`CREATE DATABASE ${name2}`);
+      const url = new URL(process.env.DATABASE_URL!);
+      url.pathname = `/${name2}`;
+      const legacy = createSequelize(url.toString(), { poolMax: 2 });
+      try {
+        await migrator(legacy).up({ to: '20261202150000-reference-version' });
+        let prev = GENESIS_HASH;
+        for (let i = 1; i <= 4; i++) {
+          const e = {
+            occurredAt: new Date(Date.UTC(2026, 11, 1, 8, i)).toISOString(),
+            actorId: null,
+            actorRole: null,
+            action: 'test.legacy',
+            entity: 'test',
+            entityId: String(i),
+            before: null,
+            after: { n: i },
+            requestId: null,
+          };
+          const hash = hashEvent(prev, e);
+          await legacy.query(
+            `INSERT INTO audit_events (occurred_at, action, entity, entity_id, after, prev_hash, hash)
+           VALUES ($1, $2, $3, $4, $5, $6, $7)`,
+            { bind: [e.occurredAt, e.action, e.entity, e.entityId, JSON.stringify(e.after), prev, hash] },
+          );
+          prev = hash;
+        }
+        await migrate(legacy);
+        await legacy.transaction((transaction) =>
+          recordAudit({ actor: null, requestId: 'after' }, transaction, {
+            action: 'test.new',
+            entity: 'test',
+            entityId: 5,
+          }),
+        );
+        await integrateAll(legacy, { signer: signerFromPem(TEST_PLANT_KEY) });
+        const order = await legacy.query<{ action: string; entity_id: string; hash: string | null }>(
+          `SELECT e.action, e.entity_id, e.hash FROM audit_leaves l JOIN audit_events e ON e.id = l.event_id
+          ORDER BY l.leaf_index`,
+          { type: QueryTypes.SELECT },
+        );
+        expect(order.map((o) => o.entity_id)).toEqual(['1', '2', '3', '4', '5']);
+        expect(order.map((o) => o.hash === null)).toEqual([false, false, false, false, true]);
+        const report = await verifyAudit(legacy, { signer: signerFromPem(TEST_PLANT_KEY) });
+        expect(report).toMatchObject({ ok: true, checked: 5, chain: { checked: 4 }, firstBroken: null });
+        // a chained event altered in SQL still breaks its link, and its leaf
+        await legacy.query('ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_update_delete');
+        await legacy.query(`UPDATE audit_events SET after = '{"n": 99}' WHERE entity_id = '2'`);
+        await legacy.query('ALTER TABLE audit_events ENABLE TRIGGER audit_events_no_update_delete');
+        const broken = await verifyAudit(legacy);
+        expect(broken.ok).toBe(false);
+        expect(broken.firstBroken?.reason).toBe('its content does not match its hash');
+      } finally {
+        await legacy.close();
+        await admin.query(`DROP DATABASE IF EXISTS ${name2} WITH (FORCE)`);
+      }
+    });
+
+    it('when an event, a leaf or the end of the log is changed in SQL, then verify names what no longer holds', async () => {
       const ctx = { actor: null, requestId: 'tamper' };
-      for (let i = 1; i <= 5; i++) {
+      const signer = signerFromPem(TEST_PLANT_KEY);
+      for (let i = 1; i <= 6; i++) {
         await own.transaction((transaction) =>
           recordAudit(ctx, transaction, {
             action: 'test.event',
@@ -137,24 +208,72 @@ describe('the hash chain', () => {
           }),
         );
       }
-      expect(await verifyAuditChain(own)).toEqual({ ok: true, checked: 5, firstBroken: null });
+      await integrateAll(own, { signer, forceHead: true });
+      expect(await verifyAudit(own, { signer })).toMatchObject({ ok: true, checked: 6, firstBroken: null });
       const ids = (
         await own.query<{ id: number }>('SELECT id FROM audit_events ORDER BY id', { type: QueryTypes.SELECT })
-      ).map((r) => r.id);
+      ).map((r) => Number(r.id));
 
+      // an event's content: named by id
       await own.query('ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_update_delete');
       await own.query(`UPDATE audit_events SET after = '{"n": 99}' WHERE id = ${ids[2]}`);
       await own.query('ALTER TABLE audit_events ENABLE TRIGGER audit_events_no_update_delete');
-      let report = await verifyAuditChain(own);
+      let report = await verifyAudit(own, { signer });
       expect(report.ok).toBe(false);
-      expect(report.firstBroken).toEqual({ id: ids[2], reason: 'its content does not match its hash' });
-      expect(report.checked).toBe(2);
-
+      expect(report.firstBroken).toEqual({ id: ids[2], reason: 'its content does not match its leaf in the log' });
       await own.query('ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_update_delete');
-      await own.query(`DELETE FROM audit_events WHERE id IN (${ids[2]})`);
+      await own.query(`UPDATE audit_events SET after = '{"n": 3, "note": "ünïcode ✓"}' WHERE id = ${ids[2]}`);
       await own.query('ALTER TABLE audit_events ENABLE TRIGGER audit_events_no_update_delete');
-      report = await verifyAuditChain(own);
-      expect(report.firstBroken).toEqual({ id: ids[3], reason: 'does not link to the event before it' });
+      expect((await verifyAudit(own, { signer })).ok).toBe(true);
+
+      // a leaf rewritten: it no longer matches its event, and the signed head's root no longer comes out
+      await own.query('ALTER TABLE audit_leaves DISABLE TRIGGER audit_leaves_no_update_delete');
+      const [kept] = await own.query<{ h: string }>(
+        `SELECT encode(leaf_hash, 'hex') AS h FROM audit_leaves WHERE leaf_index = 1`,
+        {
+          type: QueryTypes.SELECT,
+        },
+      );
+      await own.query(`UPDATE audit_leaves SET leaf_hash = sha256('forged') WHERE leaf_index = 1`);
+      report = await verifyAudit(own, { signer });
+      expect(report.ok).toBe(false);
+      expect(report.firstBroken).toEqual({ id: ids[1], reason: 'its content does not match its leaf in the log' });
+      await own.query(`UPDATE audit_leaves SET leaf_hash = decode('${kept!.h}', 'hex') WHERE leaf_index = 1`);
+      await own.query('ALTER TABLE audit_leaves ENABLE TRIGGER audit_leaves_no_update_delete');
+      expect((await verifyAudit(own, { signer })).ok).toBe(true);
+
+      // the newest event and its leaf removed (what the old chain could not see): the signed head is larger
+      await own.query('ALTER TABLE audit_leaves DISABLE TRIGGER audit_leaves_no_update_delete');
+      await own.query(`DELETE FROM audit_leaves WHERE leaf_index = 5`);
+      await own.query('ALTER TABLE audit_leaves ENABLE TRIGGER audit_leaves_no_update_delete');
+      await own.query('ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_update_delete');
+      await own.query(`DELETE FROM audit_events WHERE id = ${ids[5]}`);
+      await own.query('ALTER TABLE audit_events ENABLE TRIGGER audit_events_no_update_delete');
+      report = await verifyAudit(own, { signer });
+      expect(report.ok).toBe(false);
+      expect(report.firstBroken).toEqual({
+        id: null,
+        reason: 'a head was signed at size 6 but the log holds 5 entries',
+      });
+    });
+
+    it('when a queued event is dropped from the queue, then verify reports it as missing from the log', async () => {
+      const id = await own.transaction(async (transaction) => {
+        await recordAudit({ actor: null, requestId: 'hidden' }, transaction, {
+          action: 'test.hidden',
+          entity: 'test',
+          entityId: 99,
+        });
+        const [r] = await own.query<{ id: number }>('SELECT max(id) AS id FROM audit_events', {
+          type: QueryTypes.SELECT,
+          transaction,
+        });
+        return Number(r!.id);
+      });
+      await own.query(`DELETE FROM audit_pending WHERE event_id = ${id}`);
+      const report = await verifyAudit(own);
+      expect(report.ok).toBe(false);
+      expect(JSON.stringify(report)).toContain('neither in the log nor waiting');
     });
   });
 });

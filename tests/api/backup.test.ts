@@ -4,7 +4,10 @@ import path from 'node:path';
 import pg from 'pg';
 import { afterAll, describe, expect, it } from 'vitest';
 import { seedDemoIfEmpty } from '../../db/seeders/demo.js';
-import { verifyAuditChain } from '../../server/audit.js';
+import { integrateAll } from '../../server/ledger/sequencer.js';
+import { signerFromPem } from '../../server/ledger/signer.js';
+import { verifyAudit } from '../../server/ledger/verify.js';
+import { TEST_PLANT_KEY } from '../support/ledger.js';
 import { createSequelize } from '../../server/db.js';
 import { migrate } from '../../server/migrate.js';
 import { backupDatabase, restoreDatabase, rowCounts } from '../../server/ops/backup.js';
@@ -38,12 +41,13 @@ afterAll(async () => {
 });
 
 describe('backup and restore', () => {
-  it('round-trips a seeded plant: every table has the same rows and the audit chain verifies', async () => {
+  it('round-trips a seeded plant: every table has the same rows and the audit log verifies', async () => {
     await adminQuery(`CREATE DATABASE ${src}`);
     const source = createSequelize(urlOf(src), { poolMax: 2 });
     try {
       await migrate(source);
       expect(await seedDemoIfEmpty(source, { bcryptCost: 4 })).toBe(true);
+      await integrateAll(source, { signer: signerFromPem(TEST_PLANT_KEY) });
       const before = await rowCounts(source);
       expect(before.stage_results).toBeGreaterThan(50);
       expect(before.audit_events).toBeGreaterThan(100);
@@ -54,8 +58,9 @@ describe('backup and restore', () => {
       const copy = createSequelize(restored.url, { poolMax: 2 });
       try {
         expect(await rowCounts(copy)).toEqual(before);
-        const chain = await verifyAuditChain(copy);
-        expect(chain).toMatchObject({ ok: true, checked: before.audit_events });
+        const audit = await verifyAudit(copy, { signer: signerFromPem(TEST_PLANT_KEY) });
+        expect(audit).toMatchObject({ ok: true, checked: before.audit_events, firstBroken: null });
+        expect(audit.heads.checked).toBe(1);
         // the restored copy keeps refusing edits to records
         await expect(copy.query('UPDATE readings SET value = 0')).rejects.toThrow(/records/);
       } finally {

@@ -2,6 +2,7 @@ import { spawnSync } from 'node:child_process';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { cookieFor, makeTestApp, makeUser, unique, type TestApp } from '../support/app.js';
+import { TEST_PLANT_KEY } from '../support/ledger.js';
 
 let t: TestApp;
 let admin: string;
@@ -97,8 +98,10 @@ describe('audit chain over the shared test database', () => {
   });
 
   it('the audit:verify command says the same and exits 0', () => {
-    const r = spawnSync('npx', ['tsx', 'server/cli/audit-verify.ts'], { encoding: 'utf8', env: process.env });
-    expect(r.stdout).toMatch(/audit chain intact: \d+ events checked/);
+    // the plant key the suites' heads are signed with (tests/support/ledger.ts)
+    const env = { ...process.env, AUDIT_SIGNING_KEY: TEST_PLANT_KEY };
+    const r = spawnSync('npx', ['tsx', 'server/cli/audit-verify.ts'], { encoding: 'utf8', env });
+    expect(r.stdout).toMatch(/audit trail intact: \d+ events checked/);
     expect(r.status).toBe(0);
   });
 });

@@ -44,7 +44,8 @@ export function AuditChange({ event }: { event: AuditEvent }) {
         <Json label="After" value={event.after} />
       </div>
       <p className="font-mono text-xs text-ink-faint">
-        event #{event.id} · request {event.requestId ?? '—'} · hash {event.hash.slice(0, 16)}…
+        event #{event.id} · request {event.requestId ?? '—'} ·{' '}
+        {event.leafIndex === null ? 'waiting for its place in the log' : `log entry ${event.leafIndex + 1}`}
       </p>
     </div>
   );

@@ -15,6 +15,7 @@ import { formatWhen } from '../../../lib/format';
 import { requirePermission } from '../../../lib/session';
 import { useDebouncedText, useUrlFilter } from '../../../lib/use-url-filter';
 import { AuditTable } from './audit-table';
+import { AuditLogStatus } from './audit-log-status';
 import { AuditVerify } from './audit-verify';
 import { auditFilterFrom, ENTITY_LABELS } from './filter';
 import { FilterSelect } from '../../../components/filter-fields';
@@ -53,7 +54,8 @@ export function AuditPage() {
         { header: 'Entity id', value: (e) => e.entityId },
         { header: 'Before', value: (e) => e.before },
         { header: 'After', value: (e) => e.after },
-        { header: 'Hash', value: (e) => e.hash },
+        { header: 'Log entry', value: (e) => (e.leafIndex === null ? '' : e.leafIndex + 1) },
+        { header: 'Chain hash', value: (e) => e.hash ?? '' },
       ]);
       downloadCsv(`coretrail-audit-${formatWhen(new Date().toISOString()).replace(/[ :]/g, '-')}.csv`, csv);
     } finally {
@@ -69,18 +71,21 @@ export function AuditPage() {
         title="Audit trail"
         description="Every change Coretrail records, newest first: who made it, when, and what the record was before and after. Nothing here can be edited."
       />
-      {me.can('audit.verify') && (
-        <div className="mb-5">
-          <Card labelledBy="verify-heading">
-            <h2 id="verify-heading" className="sr-only">
-              Check the chain
+      <div className="mb-5">
+        <Card labelledBy="log-heading">
+          <CardBody>
+            <h2 id="log-heading" className="mb-3 text-base font-semibold">
+              The signed log
             </h2>
-            <CardBody>
-              <AuditVerify />
-            </CardBody>
-          </Card>
-        </div>
-      )}
+            <AuditLogStatus />
+            {me.can('audit.verify') && (
+              <div className="mt-4 border-t border-rule pt-4">
+                <AuditVerify />
+              </div>
+            )}
+          </CardBody>
+        </Card>
+      </div>
       <Card labelledBy="events-heading">
         <h2 id="events-heading" className="sr-only">
           Events
