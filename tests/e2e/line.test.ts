@@ -11,7 +11,7 @@ import { DEMO_USERS } from '../../db/seeders/plant.js';
 import { readMailSink, startMailSink } from '../../server/mail/sink.js';
 import { LOT_KIND_LABELS } from '../../shared/schemas/build.js';
 import { MailWorker } from '../../server/mail/worker.js';
-import { Item, Nonconformance, Shipment, User } from '../../server/models/index.js';
+import { Item, ItemLink, Nonconformance, Shipment, User } from '../../server/models/index.js';
 import { cookieFor, signInCookie, type TestApp } from '../support/app.js';
 import { launch, serveApp, signIn, type Served } from '../support/browser.js';
 import { fillPassing } from '../support/station-ui.js';
@@ -155,14 +155,15 @@ describe('the line, end to end', () => {
 
     await s.reload();
     await s.getByLabel('Customer').selectOption({ index: 1 });
-    await s.getByLabel('Order reference').fill('SO-E2E-77');
+    const order = `SO-E2E-${randomUUID().slice(0, 6)}`;
+    await s.getByLabel('Order reference').fill(order);
     // release is a signed act: the shipper's own password, under the meaning it carries
     await s.getByText('released for shipment').first().waitFor();
     await s.getByLabel('Password').fill(demo('shipping').password);
     await s.getByRole('button', { name: 'Sign, release and ship' }).click();
-    await s.getByText('SO-E2E-77').first().waitFor();
+    await s.getByText(order).first().waitFor();
     await s.screenshot({ path: path.join(shots, 'released-1440.png'), fullPage: true });
-    expect((await Shipment.findOne({ where: { reference: 'SO-E2E-77' } }))!.unitItemId).toBe(
+    expect((await Shipment.findOne({ where: { reference: order } }))!.unitItemId).toBe(
       (await Item.findOne({ where: { serial: unit } }))!.id,
     );
 
@@ -208,8 +209,14 @@ describe('the line, end to end', () => {
     await op.getByRole('button', { name: 'Start long block' }).click();
     const unit = await (async () => {
       for (let i = 0; i < 50; i++) {
-        const u = await Item.findOne({ where: { kind: 'long_block' }, order: [['id', 'DESC']] });
+        // the unit this block went into, by genealogy: other suites build long blocks at the same time
         const installed = await Item.findOne({ where: { serial: parts.block } });
+        const link = installed
+          ? await ItemLink.findOne({
+              where: { childItemId: installed.id, linkType: 'installed_in', removedAt: null },
+            })
+          : null;
+        const u = link ? await Item.findByPk(link.parentItemId) : null;
         if (u && installed?.status === 'installed') return u.serial;
         await new Promise((r) => setTimeout(r, 100));
       }
