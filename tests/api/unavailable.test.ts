@@ -1,9 +1,9 @@
 import express from 'express';
 import pg from 'pg';
-import { QueryTypes, type Sequelize } from 'sequelize';
+import { DatabaseError, QueryTypes, UniqueConstraintError, type Sequelize } from 'sequelize';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createSequelize } from '../../server/db.js';
+import { createSequelize, isDatabaseUnreachable } from '../../server/db.js';
 import { errorHandler } from '../../server/middleware/errors.js';
 import { requestId } from '../../server/middleware/request-id.js';
 
@@ -99,5 +99,48 @@ describe('when the database connection is lost under a request', () => {
   it('then the pool heals: the next request on the same pool gets a new connection', async () => {
     const [row] = await sequelize.query<{ one: number }>('SELECT 1 AS one', { type: QueryTypes.SELECT });
     expect(row!.one).toBe(1);
+  });
+});
+
+/** A driver error as pg makes it: a message and the server's SQLSTATE or Node's errno in `code`. */
+const driverError = (message: string, code?: string) => Object.assign(new Error(message), code ? { code } : {});
+
+describe('which errors mean "not reachable right now"', () => {
+  // SQLSTATEs from the PostgreSQL 15 manual, Appendix A; errno names from Node's errors page;
+  // the messages from pg 8.23 (lib/client.js), pg-pool and sequelize-pool, which the drill above
+  // and the stopped-PostgreSQL drill cannot all provoke on demand
+  it.each([
+    [
+      'cannot_connect_now, "the database system is shutting down"',
+      driverError('the database system is shutting down', '57P03'),
+    ],
+    ['crash_shutdown', driverError('terminating connection because of crash of another server process', '57P02')],
+    ['connection_failure', driverError('connection failure', '08006')],
+    ['too_many_connections', driverError('sorry, too many clients already', '53300')],
+    ['a reset socket', driverError('read ECONNRESET', 'ECONNRESET')],
+    ['a connection that ended', driverError('Connection terminated unexpectedly')],
+    ['a pool closing for shutdown', driverError('pool is draining and cannot accept work')],
+    [
+      "pg-pool's timeout, with the socket error as its cause",
+      new Error('Connection terminated due to connection timeout', { cause: driverError('timeout expired') }),
+    ],
+  ])('when %s, then yes', (_what, err) => {
+    expect(isDatabaseUnreachable(new DatabaseError(err as never))).toBe(true);
+  });
+
+  it.each([
+    ['a unique violation', new UniqueConstraintError({ message: 'duplicate key value' })],
+    [
+      'invalid_text_representation',
+      new DatabaseError(driverError('invalid input syntax for type integer', '22P02') as never),
+    ],
+    ['serialization_failure', new DatabaseError(driverError('could not serialize access', '40001') as never)],
+    [
+      'query_canceled (statement timeout)',
+      new DatabaseError(driverError('canceling statement due to statement timeout', '57014') as never),
+    ],
+    ['a plain bug', new TypeError("Cannot read properties of undefined (reading 'id')")],
+  ])('when %s, then no', (_what, err) => {
+    expect(isDatabaseUnreachable(err)).toBe(false);
   });
 });
