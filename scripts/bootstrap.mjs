@@ -30,6 +30,12 @@ export function run(cmd, args, opts = {}) {
   return r.status ?? 1;
 }
 
+/** Where the project's cluster lives: CORETRAIL_CLUSTER_DIR, else `.data/pg` (or where cluster-location says). */
+function clusterDir(persistentClusterDir) {
+  const given = process.env.CORETRAIL_CLUSTER_DIR;
+  return given ? path.resolve(given) : persistentClusterDir(projectDir);
+}
+
 /**
  * The project's own cluster and database, as `npm start`, `npm run dev` and the db:* scripts use
  * them: started if needed, the database created if missing. Exits with a plain message on failure.
@@ -42,7 +48,7 @@ export async function openProjectDatabase() {
   try {
     const bin = ensurePostgres();
     cluster = await startCluster({
-      dir: persistentClusterDir(projectDir),
+      dir: clusterDir(persistentClusterDir),
       port: Number(process.env.CORETRAIL_PG_PORT ?? 54329),
       bin,
     });

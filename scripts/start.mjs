@@ -1,6 +1,7 @@
 // `npm start`: install what is missing, start the project's PostgreSQL cluster, build the client,
 // then serve client and API from one process. Ctrl-C stops the server, then the cluster.
 import { spawn } from 'node:child_process';
+import fs from 'node:fs';
 import path from 'node:path';
 import { ensureNodeModules, openProjectDatabase, projectDir, projectSecret, run } from './bootstrap.mjs';
 
@@ -8,10 +9,14 @@ ensureNodeModules();
 const appPort = Number(process.env.PORT ?? 4310);
 const { cluster, url } = await openProjectDatabase();
 
-process.stderr.write('[setup] building the client (vite build)…\n');
-if (run('npx', ['vite', 'build', '--logLevel', 'warn']) !== 0) {
-  cluster.stop();
-  process.exit(1);
+if (process.env.CORETRAIL_SKIP_BUILD === '1' && fs.existsSync(path.join(projectDir, 'dist', 'index.html'))) {
+  process.stderr.write('[setup] CORETRAIL_SKIP_BUILD=1: serving the client already built in dist\n');
+} else {
+  process.stderr.write('[setup] building the client (vite build)…\n');
+  if (run('npx', ['vite', 'build', '--logLevel', 'warn']) !== 0) {
+    cluster.stop();
+    process.exit(1);
+  }
 }
 
 const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
