@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import pg from 'pg';
-import { afterAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedDemoIfEmpty } from '../../db/seeders/demo.js';
 import { verifyAuditChain } from '../../server/audit.js';
 import { createSequelize } from '../../server/db.js';
@@ -37,13 +37,23 @@ afterAll(async () => {
   fs.rmSync(dir, { recursive: true, force: true });
 });
 
+const mode = (p: string) => fs.statSync(p).mode & 0o777;
+
+beforeAll(async () => {
+  await adminQuery(`CREATE DATABASE ${src}`);
+  const source = createSequelize(urlOf(src), { poolMax: 2 });
+  try {
+    await migrate(source);
+    expect(await seedDemoIfEmpty(source, { bcryptCost: 4 })).toBe(true);
+  } finally {
+    await source.close();
+  }
+}, 120_000);
+
 describe('backup and restore', () => {
   it('round-trips a seeded plant: every table has the same rows and the audit chain verifies', async () => {
-    await adminQuery(`CREATE DATABASE ${src}`);
     const source = createSequelize(urlOf(src), { poolMax: 2 });
     try {
-      await migrate(source);
-      expect(await seedDemoIfEmpty(source, { bcryptCost: 4 })).toBe(true);
       const before = await rowCounts(source);
       expect(before.stage_results).toBeGreaterThan(50);
       expect(before.audit_events).toBeGreaterThan(100);
@@ -67,4 +77,20 @@ describe('backup and restore', () => {
       await source.close();
     }
   }, 120_000);
+
+  it('when a backup is written, then only its owner can read it (0600) or enter its folder (0700)', async () => {
+    // it holds password hashes and sessions
+    const { file } = await backupDatabase(urlOf(src), path.join(dir, 'nightly', 'plant.dump'));
+    expect(mode(file).toString(8)).toBe('600');
+    expect(mode(path.dirname(file)).toString(8)).toBe('700');
+  }, 60_000);
+
+  it('when the backup folder exists and others may enter it, then it is closed to them (0700) before anything is written', async () => {
+    const loose = path.join(dir, 'loose');
+    fs.mkdirSync(loose, { mode: 0o755 });
+    fs.chmodSync(loose, 0o755);
+    const { file } = await backupDatabase(urlOf(src), path.join(loose, 'plant.dump'));
+    expect(mode(loose).toString(8)).toBe('700');
+    expect(mode(file).toString(8)).toBe('600');
+  }, 60_000);
 });
