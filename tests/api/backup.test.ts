@@ -7,6 +7,7 @@ import { seedDemoIfEmpty } from '../../db/seeders/demo.js';
 import { verifyAuditChain } from '../../server/audit.js';
 import { createSequelize } from '../../server/db.js';
 import { migrate } from '../../server/migrate.js';
+import { makeBackupKey, readIdentities, readRecipients } from '../../server/ops/backup-keys.js';
 import { backupDatabase, restoreDatabase, rowCounts } from '../../server/ops/backup.js';
 
 // A seeded plant of its own (not the shared test database, which other files change meanwhile),
@@ -14,6 +15,7 @@ import { backupDatabase, restoreDatabase, rowCounts } from '../../server/ops/bac
 const admin = process.env.ADMIN_DATABASE_URL!;
 const src = `backup_src_${process.pid}`;
 const dst = `backup_dst_${process.pid}`;
+const sealed = `backup_sealed_${process.pid}`;
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'coretrail-backup-'));
 const urlOf = (db: string) => {
   const u = new URL(admin);
@@ -34,6 +36,7 @@ async function adminQuery(sql: string) {
 afterAll(async () => {
   await adminQuery(`DROP DATABASE IF EXISTS ${src} WITH (FORCE)`);
   await adminQuery(`DROP DATABASE IF EXISTS ${dst} WITH (FORCE)`);
+  await adminQuery(`DROP DATABASE IF EXISTS ${sealed} WITH (FORCE)`);
   fs.rmSync(dir, { recursive: true, force: true });
 });
 
@@ -57,7 +60,7 @@ describe('backup and restore', () => {
       const before = await rowCounts(source);
       expect(before.stage_results).toBeGreaterThan(50);
       expect(before.audit_events).toBeGreaterThan(100);
-      const { file, bytes } = backupDatabase(urlOf(src), path.join(dir, 'plant.dump'));
+      const { file, bytes } = await backupDatabase(urlOf(src), path.join(dir, 'plant.dump'));
       expect(bytes).toBeGreaterThan(10_000);
 
       const restored = await restoreDatabase(admin, file, dst);
@@ -92,5 +95,65 @@ describe('backup and restore', () => {
     const { file } = await backupDatabase(urlOf(src), path.join(loose, 'plant.dump'));
     expect(mode(loose).toString(8)).toBe('700');
     expect(mode(file).toString(8)).toBe('600');
+  }, 60_000);
+
+  it("when encrypted to the plant's key, then the file reads as age and no dump, restores only with that key, and matches its source", async () => {
+    const keyFile = path.join(dir, 'plant-key.txt');
+    const recipient = await makeBackupKey(keyFile);
+    expect(mode(keyFile).toString(8)).toBe('600');
+    const pubFile = path.join(dir, 'recipients.txt');
+    fs.writeFileSync(pubFile, `# the plant's backup key\n${recipient}\n`);
+    const { file, encrypted } = await backupDatabase(urlOf(src), path.join(dir, 'sealed', 'plant.dump.age'), {
+      recipients: readRecipients(pubFile),
+    });
+    expect(encrypted).toBe(true);
+    expect(mode(file).toString(8)).toBe('600');
+    const bytes = fs.readFileSync(file);
+    // age-encryption.org/v1 (the age format's specification): the header's first line, then a
+    // stanza per recipient; pg_dump's custom format begins "PGDMP" (pg_backup_archiver.c), which
+    // must not appear in the clear, nor any e-mail address of the plant's people
+    expect(bytes.subarray(0, 22).toString()).toBe('age-encryption.org/v1\n');
+    expect(bytes.subarray(22, 32).toString()).toBe('-> X25519 ');
+    expect(bytes.includes('PGDMP')).toBe(false);
+    expect(bytes.includes('@larkspur.example')).toBe(false);
+
+    // without the key, or with another one: a plain refusal, and no database left behind
+    await expect(restoreDatabase(admin, file, sealed)).rejects.toThrow(/is encrypted: give the plant's backup key/);
+    const otherKey = path.join(dir, 'other-key.txt');
+    await makeBackupKey(otherKey);
+    await expect(restoreDatabase(admin, file, sealed, { identities: readIdentities(otherKey) })).rejects.toThrow(
+      /could not be decrypted/,
+    );
+    const c = new pg.Client({ connectionString: admin });
+    await c.connect();
+    expect((await c.query('SELECT 1 FROM pg_database WHERE datname = $1', [sealed])).rowCount).toBe(0);
+    await c.end();
+
+    const source = createSequelize(urlOf(src), { poolMax: 2 });
+    const before = await rowCounts(source).finally(() => source.close());
+    const restored = await restoreDatabase(admin, file, sealed, { identities: readIdentities(keyFile) });
+    const copy = createSequelize(restored.url, { poolMax: 2 });
+    try {
+      expect(await rowCounts(copy)).toEqual(before);
+      expect(await verifyAuditChain(copy)).toMatchObject({ ok: true, checked: before.audit_events });
+    } finally {
+      await copy.close();
+    }
+  }, 120_000);
+
+  it('when an encrypted backup is cut short, then the restore refuses it and leaves no database', async () => {
+    const keyFile = path.join(dir, 'cut-key.txt');
+    const recipient = await makeBackupKey(keyFile);
+    const { file } = await backupDatabase(urlOf(src), path.join(dir, 'cut', 'plant.dump.age'), {
+      recipients: [recipient],
+    });
+    fs.truncateSync(file, fs.statSync(file).size - 100);
+    await expect(restoreDatabase(admin, file, sealed, { identities: readIdentities(keyFile) })).rejects.toThrow(
+      /could not be decrypted/,
+    );
+    const c = new pg.Client({ connectionString: admin });
+    await c.connect();
+    expect((await c.query('SELECT 1 FROM pg_database WHERE datname = $1', [sealed])).rowCount).toBe(0);
+    await c.end();
   }, 60_000);
 });
