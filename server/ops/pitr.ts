@@ -14,7 +14,13 @@ import { pgTool, privateFolder, withoutPassword } from './backup.js';
  */
 
 /** What a base backup folder says about itself, beside pg_basebackup's base.tar.gz and pg_wal.tar.gz. */
-export type BaseBackupInfo = { label: string; startedAt: string; finishedAt: string };
+export type BaseBackupInfo = {
+  label: string;
+  startedAt: string;
+  finishedAt: string;
+  /** The first WAL segment this backup needs: the archive's older segments serve only older backups. */
+  startWal: string | null;
+};
 const INFO = 'coretrail-base.json';
 
 function run(cmd: string, args: string[], env: NodeJS.ProcessEnv = process.env) {
@@ -64,7 +70,11 @@ export async function takeBaseBackup(url: string, parent: string) {
     ],
     env,
   );
-  const info: BaseBackupInfo = { label, startedAt: startedAt.toISOString(), finishedAt: new Date().toISOString() };
+  const finishedAt = new Date().toISOString();
+  // backup_label says where the backup starts in the WAL: "START WAL LOCATION: 0/4000028 (file 0000…04)"
+  const labelText = spawnSync('tar', ['-xzOf', path.join(dir, 'base.tar.gz'), 'backup_label'], { encoding: 'utf8' });
+  const startWal = /\(file ([0-9A-F]{24})\)/.exec(labelText.stdout ?? '')?.[1] ?? null;
+  const info: BaseBackupInfo = { label, startedAt: startedAt.toISOString(), finishedAt, startWal };
   fs.writeFileSync(path.join(dir, INFO), `${JSON.stringify(info, null, 2)}\n`, { mode: 0o600 });
   closeToOthers(dir);
   const bytes = fs.readdirSync(dir).reduce((n, f) => n + fs.statSync(path.join(dir, f)).size, 0);

@@ -71,6 +71,8 @@ describe('point-in-time recovery', () => {
     const base = await takeBaseBackup(url, path.join(scratch, 'base'));
     expect((fs.statSync(base.dir).mode & 0o777).toString(8)).toBe('700');
     expect((fs.statSync(path.join(base.dir, 'base.tar.gz')).mode & 0o777).toString(8)).toBe('600');
+    // a WAL segment name: timeline, log and segment, 8 hexadecimal digits each (PostgreSQL's xlog_internal.h)
+    expect(base.startWal).toMatch(/^[0-9A-F]{24}$/);
     await record(before);
     const expected = {
       results: await count('SELECT count(*)::int AS n FROM stage_results'),
