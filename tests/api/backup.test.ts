@@ -16,6 +16,7 @@ const admin = process.env.ADMIN_DATABASE_URL!;
 const src = `backup_src_${process.pid}`;
 const dst = `backup_dst_${process.pid}`;
 const sealed = `backup_sealed_${process.pid}`;
+const cut = `backup_cut_${process.pid}`;
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'coretrail-backup-'));
 const urlOf = (db: string) => {
   const u = new URL(admin);
@@ -37,6 +38,7 @@ afterAll(async () => {
   await adminQuery(`DROP DATABASE IF EXISTS ${src} WITH (FORCE)`);
   await adminQuery(`DROP DATABASE IF EXISTS ${dst} WITH (FORCE)`);
   await adminQuery(`DROP DATABASE IF EXISTS ${sealed} WITH (FORCE)`);
+  await adminQuery(`DROP DATABASE IF EXISTS ${cut} WITH (FORCE)`);
   fs.rmSync(dir, { recursive: true, force: true });
 });
 
@@ -141,19 +143,24 @@ describe('backup and restore', () => {
     }
   }, 120_000);
 
-  it('when an encrypted backup is cut short, then the restore refuses it and leaves no database', async () => {
+  it('when an encrypted backup is cut short, or a file is no dump, then the restore refuses it and leaves no database', async () => {
     const keyFile = path.join(dir, 'cut-key.txt');
     const recipient = await makeBackupKey(keyFile);
     const { file } = await backupDatabase(urlOf(src), path.join(dir, 'cut', 'plant.dump.age'), {
       recipients: [recipient],
     });
     fs.truncateSync(file, fs.statSync(file).size - 100);
-    await expect(restoreDatabase(admin, file, sealed, { identities: readIdentities(keyFile) })).rejects.toThrow(
+    await expect(restoreDatabase(admin, file, cut, { identities: readIdentities(keyFile) })).rejects.toThrow(
       /could not be decrypted/,
     );
+    // a file that decrypts, or needs no decrypting, but is no dump: pg_restore fails after the
+    // database was made, and it is dropped again
+    const junk = path.join(dir, 'junk.dump');
+    fs.writeFileSync(junk, 'PGDMP but not really a dump\n', { mode: 0o600 });
+    await expect(restoreDatabase(admin, junk, cut)).rejects.toThrow(/pg_restore failed/);
     const c = new pg.Client({ connectionString: admin });
     await c.connect();
-    expect((await c.query('SELECT 1 FROM pg_database WHERE datname = $1', [sealed])).rowCount).toBe(0);
+    expect((await c.query('SELECT 1 FROM pg_database WHERE datname = $1', [cut])).rowCount).toBe(0);
     await c.end();
   }, 60_000);
 });
