@@ -19,5 +19,11 @@ export function startCluster(opts: {
   port: number;
   bin?: string;
   settings?: Record<string, string | number>;
+  /** A folder to archive WAL into, 'off', or undefined to keep what the last start set. */
+  walArchive?: string;
+  /** Start a cluster laid out from a base backup as a recovery to `targetTime` from `archiveDir`. */
+  recovery?: { archiveDir: string; targetTime: string };
 }): Promise<Cluster>;
+export function walArchiveOf(pgdata: string): string | null;
+export function chownToServer(dir: string): void;
 export function ensureDatabase(cluster: Cluster, database: string): Promise<void>;

@@ -106,6 +106,13 @@ function chownTree(dir, uid, gid) {
   }
 }
 
+/** Gives a folder and everything in it to the user the server runs as (when we are root). */
+export function chownToServer(dir) {
+  if (!isRoot) return;
+  const { uid, gid } = pgUserIds();
+  chownTree(dir, uid, gid);
+}
+
 /**
  * Where a persistent cluster lives. Normally `.data/pg` in the project. As root, when the postgres
  * user cannot enter the project (a clone under a 0700 folder), it lives in /var/lib/coretrail/<hash>
@@ -163,12 +170,110 @@ export function freePort() {
   });
 }
 
+/** The file in pgdata that postgresql.conf includes: the settings these scripts own. */
+const OWN_CONF = 'coretrail.conf';
+
+/** Characters a folder may not have to be named in archive_command and restore_command (a shell runs them). */
+const UNSAFE_IN_COMMAND = /["$`\\'%\n]/;
+
+/**
+ * Continuous archiving (PostgreSQL manual, "Continuous Archiving and Point-in-Time Recovery"): each
+ * finished WAL segment is compressed into `archiveDir`, written under a temporary name, flushed to
+ * disk and renamed, and never over a file already there. archive_timeout closes a segment at least
+ * once a minute while anything is written, so at most about a minute of work waits outside the
+ * archive; a mostly empty segment compresses to a few kB.
+ */
+function archiveSettings(archiveDir) {
+  const d = archiveDir;
+  return [
+    `# wal archive: ${d}`,
+    'wal_level = replica',
+    'archive_mode = on',
+    `archive_command = 'test ! -f "${d}/%f.gz" && gzip -c %p > "${d}/%f.gz.part" && sync "${d}/%f.gz.part" && mv "${d}/%f.gz.part" "${d}/%f.gz"'`,
+    'archive_timeout = 60',
+  ];
+}
+
+/** Recovery to a point in time from the archive, then promotion (the same chapter of the manual). */
+function recoverySettings({ archiveDir, targetTime }) {
+  const d = archiveDir;
+  return [
+    `# restored from the wal archive in ${d}, to ${targetTime}`,
+    'archive_mode = off',
+    `restore_command = 'gunzip -c "${d}/%f.gz" > %p'`,
+    `recovery_target_time = '${targetTime.replace(/'/g, '')}'`,
+    "recovery_target_action = 'promote'",
+  ];
+}
+
+function writeOwned(file, text, ids) {
+  fs.writeFileSync(file, text, { mode: 0o600 });
+  if (ids) fs.chownSync(file, ids.uid, ids.gid);
+}
+
+/** Makes the folder the server archives into: the server's user alone may enter it. */
+function prepareArchiveDir(archiveDir, ids) {
+  if (!path.isAbsolute(archiveDir) || UNSAFE_IN_COMMAND.test(archiveDir)) {
+    throw new ClusterError(
+      `The WAL archive folder must be an absolute path without quotes, $, %, or backslashes: ${archiveDir}`,
+    );
+  }
+  fs.mkdirSync(archiveDir, { recursive: true, mode: 0o700 });
+  fs.chmodSync(archiveDir, 0o700);
+  if (ids) fs.chownSync(archiveDir, ids.uid, ids.gid);
+  if (!canReach(archiveDir)) {
+    throw new ClusterError(`The "${PG_USER}" user cannot write to ${archiveDir}; choose a folder it can reach.`);
+  }
+}
+
+/**
+ * Writes `coretrail.conf` (and makes sure postgresql.conf includes it) before a start. `walArchive`:
+ * a folder turns archiving on, 'off' turns it off, undefined leaves the file as the last start
+ * wrote it (so a plant's setting holds whichever script starts the cluster). `recovery` replaces
+ * it all with a recovery to a point in time, and asks for one with recovery.signal.
+ */
+function writeOwnConf(pgdata, { walArchive, recovery }, ids) {
+  const main = path.join(pgdata, 'postgresql.conf');
+  const include = `include_if_exists = '${OWN_CONF}'`;
+  if (!fs.readFileSync(main, 'utf8').includes(include)) {
+    fs.appendFileSync(main, `\n# settings written by Coretrail's db/cluster.mjs\n${include}\n`);
+  }
+  const own = path.join(pgdata, OWN_CONF);
+  const head = '# written by db/cluster.mjs at each start of the cluster; edit the setting, not this file\n';
+  if (recovery) {
+    writeOwned(own, `${head}${recoverySettings(recovery).join('\n')}\n`, ids);
+    writeOwned(path.join(pgdata, 'recovery.signal'), '', ids);
+  } else if (walArchive === 'off' || (walArchive === undefined && !fs.existsSync(own))) {
+    writeOwned(own, `${head}# continuous archiving: off\n`, ids);
+  } else if (walArchive !== undefined) {
+    prepareArchiveDir(walArchive, ids);
+    writeOwned(own, `${head}${archiveSettings(walArchive).join('\n')}\n`, ids);
+  }
+}
+
+/** The WAL archive folder a cluster's last start was set up with, or null when archiving is off. */
+export function walArchiveOf(pgdata) {
+  const own = path.join(pgdata, OWN_CONF);
+  if (!fs.existsSync(own)) return null;
+  const m = /^# wal archive: (.+)$/m.exec(fs.readFileSync(own, 'utf8'));
+  return m ? m[1] : null;
+}
+
 /**
  * Creates the cluster if needed and starts it. Returns connection details and a stop function.
  * `dir` holds pgdata/ (the cluster), run/ (its socket), postgres.log and credentials.json.
  * `settings`: more server settings for this start (`-c name=value`), e.g. the benchmark's memory sizes.
+ * `walArchive`: a folder to archive WAL into, or 'off' (see writeOwnConf). `recovery`: start a
+ * cluster restored from a base backup as a recovery to `targetTime` from `archiveDir`.
  */
-export async function startCluster({ dir, port, bin = ensurePostgres(), settings = {} }) {
+export async function startCluster({
+  dir,
+  port,
+  bin = ensurePostgres(),
+  settings = {},
+  walArchive = undefined,
+  recovery = undefined,
+}) {
   const ids = isRoot ? pgUserIds() : null;
   fs.mkdirSync(dir, { recursive: true, mode: 0o700 });
   if (ids) fs.chownSync(dir, ids.uid, ids.gid);
@@ -220,6 +325,12 @@ export async function startCluster({ dir, port, bin = ensurePostgres(), settings
       );
     }
     log(`reusing the cluster already running on 127.0.0.1:${port}`);
+    const archiving = walArchiveOf(pgdata);
+    if (walArchive !== undefined && (walArchive === 'off' ? archiving !== null : archiving !== walArchive)) {
+      log(
+        `continuous archiving is set at a start of the cluster: stop it and start again to make it ${walArchive === 'off' ? 'off' : walArchive}`,
+      );
+    }
   } else {
     if (await portAnswers(port)) {
       throw new ClusterError(
@@ -227,6 +338,7 @@ export async function startCluster({ dir, port, bin = ensurePostgres(), settings
           'Set CORETRAIL_PG_PORT to a free port, or stop whatever is listening there.',
       );
     }
+    writeOwnConf(pgdata, { walArchive, recovery }, ids);
     const extra = Object.entries(settings)
       .map(([k, v]) => ` -c ${k}=${v}`)
       .join('');

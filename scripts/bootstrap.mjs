@@ -30,6 +30,23 @@ export function run(cmd, args, opts = {}) {
   return r.status ?? 1;
 }
 
+/** Where the project's cluster lives: CORETRAIL_CLUSTER_DIR, else `.data/pg` (or where cluster-location says). */
+function clusterDir(persistentClusterDir) {
+  const given = process.env.CORETRAIL_CLUSTER_DIR;
+  return given ? path.resolve(given) : persistentClusterDir(projectDir);
+}
+
+/**
+ * CORETRAIL_WAL_ARCHIVE: `on` archives WAL into the cluster folder's wal-archive/, a path archives
+ * there, `off` stops archiving; unset keeps what the cluster was last started with.
+ */
+function walArchiveSetting(dir) {
+  const v = process.env.CORETRAIL_WAL_ARCHIVE?.trim();
+  if (!v) return undefined;
+  if (v === 'off') return 'off';
+  return v === 'on' ? path.join(dir, 'wal-archive') : path.resolve(v);
+}
+
 /**
  * The project's own cluster and database, as `npm start`, `npm run dev` and the db:* scripts use
  * them: started if needed, the database created if missing. Exits with a plain message on failure.
@@ -41,8 +58,10 @@ export async function openProjectDatabase() {
   let cluster;
   try {
     const bin = ensurePostgres();
+    const dir = clusterDir(persistentClusterDir);
     cluster = await startCluster({
-      dir: persistentClusterDir(projectDir),
+      dir,
+      walArchive: walArchiveSetting(dir),
       port: Number(process.env.CORETRAIL_PG_PORT ?? 54329),
       bin,
     });

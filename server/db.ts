@@ -1,4 +1,4 @@
-import { DataTypes, Sequelize } from 'sequelize';
+import { ConnectionError, DataTypes, Sequelize } from 'sequelize';
 import pg from 'pg';
 import { initModels } from './models/index.js';
 
@@ -27,4 +27,58 @@ export function createSequelize(
   });
   initModels(sequelize);
   return sequelize;
+}
+
+// SQLSTATEs that say the session is gone or cannot start now, not that the statement was wrong
+// (PostgreSQL manual, Appendix A): class 08 connection exceptions; 57P01 admin_shutdown (a fast
+// shutdown ends every session with it), 57P02 crash_shutdown, 57P03 cannot_connect_now (starting
+// up or shutting down), 57P05 idle_session_timeout; 53300 too_many_connections.
+const UNREACHABLE_SQLSTATE = /^(08...|57P0[1235]|53300)$/;
+// socket errors (Node's errno names) on the way to the server
+const UNREACHABLE_ERRNO = new Set([
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'EPIPE',
+  'ETIMEDOUT',
+  'EHOSTUNREACH',
+  'ENETUNREACH',
+  'ENOTFOUND',
+  'EAI_AGAIN',
+]);
+// what pg, pg-pool, sequelize-pool and Sequelize say, without a code, when the connection or the
+// pool is gone (their sources, pg 8.23 and Sequelize 6.37)
+const UNREACHABLE_MESSAGE = [
+  /^Connection terminated/, // …unexpectedly; …due to connection timeout
+  /is not queryable$/, // Client has encountered a connection error and…; Client was closed and…
+  /^timeout expired$/, // connectionTimeoutMillis
+  /^pool is draining and cannot accept work$/, // this process is closing its pool
+  /^ConnectionManager\.getConnection was called after the connection manager was closed/,
+];
+
+/**
+ * True when an error means "the database is not reachable right now" rather than "this request
+ * is wrong": the caller should try again, with the same idempotency key. Looks through the
+ * wrappers (Sequelize keeps the driver's error as `parent`/`original`, pg-pool as `cause`). A
+ * COMMIT that fails this way may or may not have committed; a retry with the same key settles it.
+ */
+export function isDatabaseUnreachable(err: unknown): boolean {
+  const seen = new Set<unknown>();
+  const queue: unknown[] = [err];
+  while (queue.length) {
+    const e = queue.shift();
+    if (!e || typeof e !== 'object' || seen.has(e)) continue;
+    seen.add(e);
+    if (e instanceof ConnectionError) return true;
+    const { code, message, parent, original, cause } = e as {
+      code?: unknown;
+      message?: unknown;
+      parent?: unknown;
+      original?: unknown;
+      cause?: unknown;
+    };
+    if (typeof code === 'string' && (UNREACHABLE_SQLSTATE.test(code) || UNREACHABLE_ERRNO.has(code))) return true;
+    if (typeof message === 'string' && UNREACHABLE_MESSAGE.some((m) => m.test(message))) return true;
+    queue.push(parent, original, cause);
+  }
+  return false;
 }

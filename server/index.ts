@@ -62,6 +62,11 @@ async function main() {
   for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(11)} ${u.email.padEnd(30)} ${u.password}`);
   console.log('');
   console.log('Press Ctrl-C to stop.');
+  // under `npm start`'s supervisor: tell it this start got as far as serving (it restarts only such)
+  if (process.send) {
+    process.send('listening');
+    process.channel?.unref();
+  }
 
   let stopping = false;
   const stop = (signal: string) => {

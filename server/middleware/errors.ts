@@ -1,19 +1,29 @@
 import type { ErrorRequestHandler } from 'express';
 import {
-  ConnectionError,
   ForeignKeyConstraintError,
   UniqueConstraintError,
   ValidationError as SequelizeValidationError,
 } from 'sequelize';
 import { MulterError } from 'multer';
 import { ZodError } from 'zod';
+import { isDatabaseUnreachable } from '../db.js';
 import { AppError, malformedPath } from '../errors.js';
 
 /** Plain names for the unique columns a person can clash with. */
 const FIELD_NAMES: Record<string, string> = { email: 'e-mail address', code: 'code', serial: 'serial' };
 const camel = (s: string) => s.replace(/_([a-z])/g, (_m, c: string) => c.toUpperCase());
 
-type Reply = { status: number; code: string; message: string; fields?: Record<string, string>; extra?: object };
+type Reply = {
+  status: number;
+  code: string;
+  message: string;
+  fields?: Record<string, string>;
+  extra?: object;
+  retryAfter?: number;
+};
+
+/** Seconds a client waits before it tries again: a restart of PostgreSQL takes a few. */
+export const UNAVAILABLE_RETRY_AFTER = 2;
 
 function fromZod(err: ZodError): Reply {
   const fields: Record<string, string> = {};
@@ -35,6 +45,16 @@ function classify(err: unknown): Reply {
     return { status: err.status, code: err.code, message: err.message, fields: err.fields, extra: err.extra };
   }
   if (err instanceof ZodError) return fromZod(err);
+  // before the other database errors: a lost connection can surface as any Sequelize error class (DatabaseError
+  // wrapping 57P01, a failed COMMIT, a pool that cannot hand out a connection)
+  if (isDatabaseUnreachable(err)) {
+    return {
+      status: 503,
+      code: 'unavailable',
+      message: 'The database is not reachable right now. Try again shortly.',
+      retryAfter: UNAVAILABLE_RETRY_AFTER,
+    };
+  }
   if (err instanceof MulterError) {
     if (err.code === 'LIMIT_FILE_SIZE') {
       return { status: 413, code: 'too_large', message: 'The file is larger than the 8 MB a photo may be.' };
@@ -74,9 +94,6 @@ function classify(err: unknown): Reply {
   if (err instanceof SequelizeValidationError) {
     return { status: 400, code: 'invalid', message: err.message };
   }
-  if (err instanceof ConnectionError) {
-    return { status: 503, code: 'unavailable', message: 'The database is not reachable right now. Try again shortly.' };
-  }
   if (e?.expose && typeof e.status === 'number' && e.status < 500) {
     return { status: e.status, code: 'bad_request', message: String((err as Error).message) };
   }
@@ -87,16 +104,28 @@ function classify(err: unknown): Reply {
   };
 }
 
+/** The driver's own words, under Sequelize's wrapper. */
+function describe(err: unknown): string {
+  const e = err as { message?: string; parent?: { message?: string; code?: string } };
+  const inner = e?.parent?.message && e.parent.message !== e.message ? ` (${e.parent.message})` : '';
+  const code = e?.parent?.code ? ` [${e.parent.code}]` : '';
+  return `${e?.message ?? String(err)}${inner}${code}`;
+}
+
 /** One place maps every error to `{ error: { code, message, fields?, requestId } }`. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
   if (res.headersSent) return next(err);
   const reply = classify(err);
-  if (reply.status >= 500) {
+  if (reply.code === 'unavailable') {
+    // one line each: while the database is away every request in flight lands here
+    console.error(`[${req.id}] ${req.method} ${req.originalUrl}: 503, database unreachable: ${describe(err)}`);
+  } else if (reply.status >= 500) {
     console.error(`[${req.id}] ${req.method} ${req.originalUrl}:`, err);
   }
   // a handler may have said it was sending a file before it failed: the reply is JSON all the same
   res.removeHeader('Content-Disposition');
   res.setHeader('Content-Type', 'application/json; charset=utf-8');
+  if (reply.retryAfter) res.setHeader('Retry-After', String(reply.retryAfter));
   res.status(reply.status).json({
     error: { code: reply.code, message: reply.message, fields: reply.fields, requestId: req.id, ...reply.extra },
   });

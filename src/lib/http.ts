@@ -10,8 +10,10 @@ export class ApiError extends Error {
   readonly requestId: string | undefined;
   /** Anything else the server said about the refusal, e.g. `reason` and the look-alike cores of a 409. */
   readonly details: Record<string, unknown>;
+  /** Seconds the server asked the client to wait before trying again (Retry-After), if it said. */
+  readonly retryAfter: number | null;
 
-  constructor(status: number, body: ErrorBody) {
+  constructor(status: number, body: ErrorBody, retryAfter: number | null = null) {
     super(body.message);
     this.name = 'ApiError';
     this.status = status;
@@ -26,6 +28,7 @@ export class ApiError extends Error {
       ...details
     } = body as ErrorBody & Record<string, unknown>;
     this.details = details;
+    this.retryAfter = retryAfter;
   }
 
   /** The session is gone (expired, revoked, password changed elsewhere): not a wrong password. */
@@ -53,6 +56,15 @@ function withQuery(path: string, query: Query | undefined): string {
   }
   const s = q.toString();
   return s ? `${path}?${s}` : path;
+}
+
+/** Retry-After as seconds: delay-seconds or an HTTP-date (RFC 9110, section 10.2.3). */
+function retryAfterOf(res: Response): number | null {
+  const raw = res.headers.get('Retry-After')?.trim();
+  if (!raw) return null;
+  if (/^\d+$/.test(raw)) return Number(raw);
+  const at = Date.parse(raw);
+  return Number.isNaN(at) ? null : Math.max(0, Math.ceil((at - Date.now()) / 1000));
 }
 
 async function readError(res: Response): Promise<ErrorBody> {
@@ -93,7 +105,7 @@ export async function http<T>(path: string, { method = 'GET', body, query, signa
       message: 'Coretrail could not reach the server. Check the connection, then try again.',
     });
   }
-  if (!res.ok) throw new ApiError(res.status, await readError(res));
+  if (!res.ok) throw new ApiError(res.status, await readError(res), retryAfterOf(res));
   if (res.status === 204) return undefined as T;
   return (await res.json()) as T;
 }

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import type { submitResultBody } from '../../../shared/schemas/results';
-import { http } from '../../lib/http';
+import { ApiError, http } from '../../lib/http';
 import { auditKeys } from '../audit/keys';
 import { itemKeys } from '../items/keys';
 import { ncrKeys } from '../ncrs/keys';
@@ -16,6 +16,28 @@ export type RecordResultBody = z.input<typeof submitResultBody>;
  */
 export const recordResult = (body: RecordResultBody) => http<ResultJson>('/api/results', { method: 'POST', body });
 
+/** Retries after the first try, before the operator is asked to press Record result again. */
+export const SUBMIT_RETRIES = 5;
+
+/**
+ * Which failures the station sends again by itself: a 503 (the database is away for a moment, or
+ * the server is restarting) and no answer at all. The body goes again unchanged, idempotency key
+ * included, so a result that did reach the database comes back as it was stored, never twice.
+ * Anything else is an answer about the result itself and goes to the operator.
+ */
+export function retrySubmission(failuresSoFar: number, err: unknown): boolean {
+  return err instanceof ApiError && (err.status === 503 || err.status === 0) && failuresSoFar < SUBMIT_RETRIES;
+}
+
+/** The server's Retry-After when it gave one; else 1 s, 2 s, 4 s … up to 15 s. */
+export function submissionRetryDelay(failuresSoFar: number, err: unknown): number {
+  if (err instanceof ApiError && err.retryAfter !== null) return Math.min(err.retryAfter, 60) * 1000;
+  return Math.min(1000 * 2 ** failuresSoFar, 15_000);
+}
+
+/** How the station sends a result: the fetcher and its retry policy (the hook adds the cache updates). */
+export const submission = { mutationFn: recordResult, retry: retrySubmission, retryDelay: submissionRetryDelay };
+
 /**
  * A result moves the part on (or holds it): its forms, its item view with its results history
  * (kept under the item's key) and the audit trail change; a failure also adds an NCR to the lists.
@@ -23,7 +45,7 @@ export const recordResult = (body: RecordResultBody) => http<ResultJson>('/api/r
 export function useRecordResult() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: recordResult,
+    ...submission,
     onSuccess: (result) =>
       Promise.all([
         refreshStationForms(queryClient),

@@ -1,6 +1,6 @@
 import { useId, useMemo, useRef, useState, type KeyboardEvent, type RefObject } from 'react';
 import { FormProvider, useForm, useWatch } from 'react-hook-form';
-import { useRecordResult } from '../../api/station/record-result';
+import { SUBMIT_RETRIES, useRecordResult } from '../../api/station/record-result';
 import type { StationFormJson } from '../../api/station/types';
 import { PhotoField } from '../../components/photo-field';
 import { Button } from '../../components/ui/button';
@@ -210,6 +210,12 @@ export function ReadingForm({
   };
 
   const submitting = record.isPending;
+  // while the station sends the same result again by itself (503 or no answer), say so
+  const progress = !submitting
+    ? ''
+    : record.failureCount > 0
+      ? `The server is not answering; sending the same result again (try ${record.failureCount + 1} of ${SUBMIT_RETRIES + 1}). It will not be stored twice.`
+      : 'Recording…';
   return (
     <FormProvider {...methods}>
       <FormStateContext.Provider value={state}>
@@ -323,7 +329,7 @@ export function ReadingForm({
             <div className="flex flex-wrap items-center gap-3">
               {!canRecord && <p className="text-base text-ink-soft">Your role can see this form but not record it.</p>}
               <p role="status" className="text-base text-ink-soft empty:hidden">
-                {submitting ? 'Recording…' : ''}
+                {progress}
               </p>
               <button
                 ref={submitRef}
