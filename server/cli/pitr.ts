@@ -4,7 +4,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { freePort, persistentClusterDir, walArchiveOf } from '../../db/cluster.mjs';
-import { verifyAuditChain } from '../audit.js';
+import { verifyAudit } from '../ledger/verify.js';
 import { createSequelize } from '../db.js';
 import { rowCounts } from '../ops/backup.js';
 import { restoreToTime } from '../ops/pitr.js';
@@ -42,14 +42,16 @@ const seconds = ((Date.now() - started) / 1000).toFixed(1);
 const sequelize = createSequelize(cluster.url(database), { poolMax: 1 });
 try {
   const counts = await rowCounts(sequelize);
-  const chain = await verifyAuditChain(sequelize);
+  const audit = await verifyAudit(sequelize);
   console.log(`restored to ${targetTime.toISOString()} in ${seconds} s, into ${dir}`);
   if (lastReplayed) console.log(`the newest transaction kept committed at ${lastReplayed.toISOString()}`);
   for (const [t, n] of Object.entries(counts)) console.log(`  ${t.padEnd(28)} ${n}`);
   console.log(
-    chain.ok ? `audit chain intact: ${chain.checked} events` : `audit chain BROKEN at ${chain.firstBroken?.id}`,
+    audit.ok
+      ? `audit log intact: ${audit.checked} events in the log, ${audit.log.pending} waiting`
+      : `audit log BROKEN${audit.firstBroken?.id ? ` at event ${audit.firstBroken.id}` : ''}: ${audit.firstBroken?.reason}`,
   );
-  if (!chain.ok) process.exitCode = 1;
+  if (!audit.ok) process.exitCode = 1;
 } finally {
   await sequelize.close();
   cluster.stop();
