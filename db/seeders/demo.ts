@@ -15,6 +15,7 @@ import {
   ToleranceRule,
   User,
 } from '../../server/models/index.js';
+import { seedDemoHistory } from './demo-history.js';
 import { seedDemoPartsIfEmpty } from './demo-parts.js';
 import { CHARACTERISTICS, firstRules } from './spec-book.js';
 import { DEFECT_CODES, DEMO_USERS, FAMILIES, GAUGES, PLANT, ROUTES, STAGES, STATIONS } from './plant.js';
@@ -49,6 +50,8 @@ export async function seedDemoIfEmpty(sequelize: Sequelize, { bcryptCost = 12 } 
   });
   // parts on the line go through the product's own services, each in its own transaction
   if (seeded) await seedDemoPartsIfEmpty(sequelize);
+  // months of shipped units before today, for the control charts (set-based, marked as demo history)
+  if (seeded) await seedDemoHistory(sequelize);
   return seeded;
 }
 

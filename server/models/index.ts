@@ -11,6 +11,7 @@ import { FieldAction, PlantSettings } from './plant.js';
 import { Attachment, LabelPrint, Shipment, WarrantyClaim } from './records.js';
 import { Reading, StageReentry, StageResult } from './results.js';
 import { Session } from './session.js';
+import { RuleRehearsal, SpcLimits, SpcSignal } from './spc.js';
 import { Characteristic, ToleranceRule } from './spec.js';
 import { Route, RouteStage, Stage } from './stage.js';
 import { Station } from './station.js';
@@ -38,10 +39,13 @@ export {
   PlantSettings,
   Reading,
   Route,
+  RuleRehearsal,
   RouteStage,
   Session,
   Shipment,
   Signature,
+  SpcLimits,
+  SpcSignal,
   Stage,
   StageReentry,
   StageResult,
@@ -88,6 +92,9 @@ const MODELS = [
   AuditEvent,
   PlantSettings,
   FieldAction,
+  SpcLimits,
+  SpcSignal,
+  RuleRehearsal,
 ] as const;
 
 export function initModels(sequelize: Sequelize) {

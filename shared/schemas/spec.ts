@@ -79,6 +79,8 @@ export const approveRuleBody = z.strictObject({
   password: z.string('Enter your password to sign.').min(1, 'Enter your password to sign.').max(200),
   /** When the new version takes over; now when left out. Never in the past. */
   effectiveFrom: z.iso.datetime({ offset: true, error: 'Use a date and time like 2026-12-02T08:00:00Z.' }).optional(),
+  /** The rehearsal of this draft the approver saw: kept with the approval. */
+  rehearsalId: z.number().int().positive().optional(),
 });
 
 export const specBookQuery = z.strictObject({ family: z.string().trim().min(1).max(20) });
