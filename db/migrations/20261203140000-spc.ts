@@ -77,21 +77,17 @@ CREATE INDEX rule_rehearsals_rule_idx ON rule_rehearsals (tolerance_rule_id, cre
 -- records: never deleted; limits only superseded, a signal only linked to its hold, a rehearsal
 -- only marked as kept with the approval, each once
 CREATE FUNCTION spc_records_fixed() RETURNS trigger LANGUAGE plpgsql AS $$
+DECLARE
+  -- the one column set once per table; every other column stays as it was
+  settable text[] := CASE TG_TABLE_NAME
+    WHEN 'spc_limits' THEN ARRAY['superseded_at', 'superseded_by_id']
+    WHEN 'spc_signals' THEN ARRAY['nonconformance_id', 'held_by_id', 'held_at']
+    ELSE ARRAY['kept_with_approval_at'] END;
 BEGIN
   IF TG_OP = 'DELETE' THEN
     RAISE EXCEPTION '% rows are records: they are never deleted', TG_TABLE_NAME USING ERRCODE = 'insufficient_privilege';
   END IF;
-  IF TG_TABLE_NAME = 'spc_limits' AND OLD.superseded_at IS NULL
-     AND (to_jsonb(NEW) - 'superseded_at' - 'superseded_by_id') = (to_jsonb(OLD) - 'superseded_at' - 'superseded_by_id') THEN
-    RETURN NEW;
-  END IF;
-  IF TG_TABLE_NAME = 'spc_signals' AND OLD.nonconformance_id IS NULL
-     AND (to_jsonb(NEW) - 'nonconformance_id' - 'held_by_id' - 'held_at')
-       = (to_jsonb(OLD) - 'nonconformance_id' - 'held_by_id' - 'held_at') THEN
-    RETURN NEW;
-  END IF;
-  IF TG_TABLE_NAME = 'rule_rehearsals' AND OLD.kept_with_approval_at IS NULL
-     AND (to_jsonb(NEW) - 'kept_with_approval_at') = (to_jsonb(OLD) - 'kept_with_approval_at') THEN
+  IF to_jsonb(OLD) ->> settable[1] IS NULL AND (to_jsonb(NEW) - settable) = (to_jsonb(OLD) - settable) THEN
     RETURN NEW;
   END IF;
   RAISE EXCEPTION '% rows are records: they are never edited', TG_TABLE_NAME USING ERRCODE = 'insufficient_privilege';

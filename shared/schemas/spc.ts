@@ -18,7 +18,7 @@ export type ChartMethodChoice = (typeof CHART_METHODS)[number];
 export type ChartMethod = Exclude<ChartMethodChoice, 'auto'>;
 
 export const CHART_METHOD_LABELS: Record<ChartMethod, string> = {
-  'part-means': 'Part means and within-part range',
+  'part-means': 'Part means and within-part spread',
   'xbar-r': 'X̄–R',
   'xbar-s': 'X̄–S',
   'i-mr': 'Individuals and moving range',

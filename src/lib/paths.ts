@@ -31,6 +31,7 @@ export const paths = {
   fieldActions: '/field-actions',
   fieldAction: '/field-actions/:number',
   plant: '/admin/plant',
+  spc: '/spc',
 } as const;
 
 /** Why the sign-in page was shown, so it can say so in plain words. */

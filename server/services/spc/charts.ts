@@ -7,6 +7,7 @@ import {
   sampleSd,
   type BaselineRange,
   type ControlChart,
+  type SpecLimits,
 } from '../../../shared/domain/spc/index.js';
 import {
   CHART_KIND_LABELS,
@@ -15,6 +16,7 @@ import {
   type SignalJson,
   type SpcChartJson,
   type SpcChartQuery,
+  type SpecLimitsJson,
 } from '../../../shared/schemas/spc.js';
 import { invalid } from '../../errors.js';
 import { limitsFor, limitsInForce, namesById, presentLimits } from './limits.js';
@@ -54,6 +56,20 @@ function presentLine(c: ControlChart, count: number): ChartLineJson {
     sigma: c.sigma,
     rules: c.rules,
     values,
+  };
+}
+
+/**
+ * Where the histogram's outer edges go. Readings are rounded to the resolution, so a rounded reading
+ * conforms exactly when it lies within half a step of the limits: with the edges there, each bin is
+ * centred on the values it holds (no bin left empty by the rounding, none straddling a limit).
+ */
+export function binEdges(spec: SpecLimitsJson | null, resolution: number | null): SpecLimits {
+  if (!spec) return { lower: null, upper: null };
+  const half = resolution ? resolution / 2 : 0;
+  return {
+    lower: spec.lower === null ? null : spec.lower - half,
+    upper: spec.upper === null ? null : spec.upper + half,
   };
 }
 
@@ -191,7 +207,7 @@ export async function spcChart(sequelize: Sequelize, q: SpcChartQuery): Promise<
         },
     capability: spec ? capability(values, spec, { sigmaWithin: computed.sigmaWithin }) : null,
     normality: normalityCheck(values),
-    histogram: histogram(values, spec ?? { lower: null, upper: null }, { resolution: s.resolution }),
+    histogram: histogram(values, binEdges(spec, s.resolution), { resolution: s.resolution }),
     notes,
   };
 }

@@ -29,8 +29,9 @@ export async function resolveScope(sequelize: Sequelize, q: ScopeInput, transact
   if (!family) throw notFound(`Engine family ${q.family}`);
   const characteristic = ref.characteristic(q.characteristicId);
   if (!characteristic) throw notFound('That characteristic');
-  if (characteristic.kind !== 'variable') {
-    throw invalid(`${characteristic.name} is not a measured size: control charts need measured readings.`, {
+  // measured, or worked out from measured readings (out-of-round, taper): a pass/fail check has no values
+  if (characteristic.kind === 'attribute') {
+    throw invalid(`${characteristic.name} is a pass/fail check: control charts need measured readings.`, {
       characteristicId: 'Choose a measured characteristic.',
     });
   }

@@ -48,7 +48,8 @@ function binWidth(span: number, spec: SpecLimits, target: number, most: number, 
       for (let k = 1; k <= Math.min(steps, most); k++) {
         if (steps % k === 0 && Math.abs(k - wanted) <= Math.abs(best - wanted)) best = k;
       }
-      return tol / best;
+      // a step count with no divisor near the wanted count (a prime) would give a bin or two
+      if (best * 2 >= wanted && best <= wanted * 2) return tol / best;
     }
     return tol / wanted;
   }
