@@ -22,7 +22,7 @@ export function spcRoutes(api: Api, sequelize: Sequelize) {
     path: '/spc/chart',
     access: 'spc.read',
     summary:
-      "A control chart of a family's characteristic over a period (station and gauge optional), with run-rule signals, capability, histogram and normality check.",
+      'A control chart of a characteristic over a period, with run-rule signals, capability, histogram and normality check.',
     query: spcChartQuery,
     handler: ({ query }) => spcChart(sequelize, query),
   });
@@ -74,7 +74,7 @@ export function spcRoutes(api: Api, sequelize: Sequelize) {
     path: '/spec/rules/:id/rehearsals',
     access: 'spec.edit',
     summary:
-      "Rehearse a draft over a period's stored readings: parts that would flip, Cpk before and after, shipped units affected. Kept as a record.",
+      'Rehearse a draft over stored readings: parts that would flip, Cpk before and after, shipped units affected.',
     params: idParam,
     body: rehearseBody,
     status: 201,
