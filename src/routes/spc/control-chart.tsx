@@ -33,7 +33,7 @@ export function ControlChart({ line, points, signals, baseline, digits, unit }: 
     const values = line.values.filter((v): v is number => v !== null);
     const lo = Math.min(line.lower, ...values);
     const hi = Math.max(line.upper, ...values);
-    const pad = (hi - lo || Math.abs(hi) || 1) * 0.08;
+    const pad = (hi - lo || Math.abs(hi) || 1) * 0.14;
     return {
       legend: { show: false },
       cursor: { y: false, points: { size: 9 } },

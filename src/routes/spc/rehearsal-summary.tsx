@@ -56,8 +56,8 @@ export function RehearsalCounts({ rehearsal }: { rehearsal: RehearsalJson }) {
         </li>
       </ul>
       <p className="text-sm text-ink-soft">
-        Failing now {c.partsFailingBefore} → {c.partsFailingAfter} parts; readings {c.readingsPassToFail} pass → fail,{' '}
-        {c.readingsFailToPass} fail → pass. σ within
+        Parts failing: {c.partsFailingBefore} now, {c.partsFailingAfter} under the draft. Readings:{' '}
+        {c.readingsPassToFail} pass → fail, {c.readingsFailToPass} fail → pass. σ within
         {s.sigmaSource === 'frozen limits' ? ' from the frozen control limits' : ' from these readings'}.
       </p>
     </div>
