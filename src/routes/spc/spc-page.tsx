@@ -22,6 +22,7 @@ import { CapabilityCard } from './capability-card';
 import { ChartsCard } from './charts-card';
 import { defaultCharacteristic, defaultPeriod, measured, spcFilterFrom } from './filter';
 import { LimitsCard } from './limits-card';
+import { CsvButton } from './numbers-panel';
 import { decimalsOf } from './numbers';
 import { StationSignalsCard } from './station-signals-card';
 
@@ -250,23 +251,41 @@ export function SpcPage() {
                   '…'
                 )}
               </p>
-              {(filter?.station || filter?.gauge || filter?.chart || filter?.limits || filter?.baselineFrom) && (
-                <Button
-                  onClick={() =>
-                    setMany({
-                      station: '',
-                      gauge: '',
-                      chart: '',
-                      subgroup: '',
-                      limits: '',
-                      baselineFrom: '',
-                      baselineTo: '',
-                    })
-                  }
-                >
-                  Clear the other choices
-                </Button>
-              )}
+              <div className="flex flex-wrap items-center gap-2">
+                {data && data.charts.length > 0 && (
+                  <CsvButton
+                    filename={`${data.family.code}-${data.characteristic.code}-${filter?.from}-${filter?.to}-points.csv`}
+                    rows={data.points.map((p, i) => ({ p, i }))}
+                    columns={[
+                      { header: 'Point', text: (r) => String(r.i + 1) },
+                      { header: 'Serial', text: (r) => r.p.serial },
+                      { header: 'Recorded', text: (r) => r.p.at },
+                      { header: 'Station', text: (r) => r.p.station ?? '' },
+                      ...data.charts.map((c) => ({
+                        header: c.label,
+                        text: (r: { i: number }) => String(c.values[r.i] ?? ''),
+                      })),
+                    ]}
+                  />
+                )}
+                {(filter?.station || filter?.gauge || filter?.chart || filter?.limits || filter?.baselineFrom) && (
+                  <Button
+                    onClick={() =>
+                      setMany({
+                        station: '',
+                        gauge: '',
+                        chart: '',
+                        subgroup: '',
+                        limits: '',
+                        baselineFrom: '',
+                        baselineTo: '',
+                      })
+                    }
+                  >
+                    Clear the other choices
+                  </Button>
+                )}
+              </div>
             </div>
           </form>
         </Card>
