@@ -22,12 +22,14 @@ type Props = {
  */
 export function HistogramChart({ histogram, limits, digits, unit, mean, sigma }: Props) {
   const { bins } = histogram;
-  const spec = limits ?? { lower: null, upper: null };
+  const lowerLimit = limits?.lower ?? null;
+  const upperLimit = limits?.upper ?? null;
   const data = useMemo<uPlot.AlignedData>(
     () => [bins.map((b) => (b.lower + b.upper) / 2), bins.map((b) => b.count)],
     [bins],
   );
   const options = useMemo<Omit<uPlot.Options, 'width' | 'height'>>(() => {
+    const spec = { lower: lowerLimit, upper: upperLimit };
     const lo = Math.min(bins[0]!.lower, spec.lower ?? Infinity);
     const hi = Math.max(bins.at(-1)!.upper, spec.upper ?? -Infinity);
     const pad = (hi - lo) * 0.04;
@@ -117,7 +119,7 @@ export function HistogramChart({ histogram, limits, digits, unit, mean, sigma }:
         ],
       },
     };
-  }, [bins, spec, digits, mean, sigma, histogram.width, histogram.n]);
+  }, [bins, lowerLimit, upperLimit, digits, mean, sigma, histogram.width, histogram.n]);
 
   const outside = bins.filter((b) => b.zone !== 'within').reduce((s, b) => s + b.count, 0);
   return (
