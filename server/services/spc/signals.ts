@@ -195,7 +195,7 @@ export async function checkControlLimits(
   if (!map.size) return { signals: 0, heldBy: null };
   const covered = ref
     .characteristics(stage.id)
-    .filter((c) => c.kind === 'variable')
+    .filter((c) => c.kind !== 'attribute')
     .map((c) => ({ c, limits: limitsFor(map, item.engineFamilyId, c.id, station.id) }))
     .filter((x): x is { c: (typeof x)['c']; limits: SpcLimits } => x.limits !== null);
   if (!covered.length) return { signals: 0, heldBy: null };
