@@ -50,6 +50,7 @@ const ROUTES: { route: string; path: string; module: string }[] = [
   { route: 'trail', path: paths.trail, module: 'src/routes/trail/trail-page.tsx' },
   { route: 'release', path: paths.release, module: 'src/routes/release/release-page.tsx' },
   { route: 'spec-book', path: paths.specBook, module: 'src/routes/spec/spec-book-page.tsx' },
+  { route: 'control-charts', path: paths.spc, module: 'src/routes/spc/spc-page.tsx' },
 ];
 
 // Level 9, as for files compressed once at build or deploy time. The server's compression

@@ -48,7 +48,7 @@ export type Template = { unitId: number; familyCode: string; items: { id: number
 export async function loadTemplates(db: pg.Pool): Promise<Template[]> {
   const { rows } = await db.query<{ unit_id: number; family: string; id: number; kind: PartKind }>(
     `WITH u AS (SELECT i.id, f.code FROM items i JOIN engine_families f ON f.id = i.engine_family_id
-                 WHERE i.kind = 'long_block' AND i.status = 'shipped'),
+                 WHERE i.kind = 'long_block' AND i.status = 'shipped' AND i.attributes->>'demoHistory' IS NULL),
           parts AS (SELECT l.parent_item_id AS unit_id, l.child_item_id AS id FROM item_links l
                      WHERE l.parent_item_id IN (SELECT id FROM u) AND l.link_type = 'installed_in' AND l.removed_at IS NULL),
           cores AS (SELECT DISTINCT p.unit_id, l.parent_item_id AS id FROM parts p
@@ -217,9 +217,15 @@ export async function writeCopies(
     await client.query(
       `INSERT INTO readings (stage_result_id, characteristic_id, position, value, passed, location_note, unit, verdict,
                              tolerance_rule_id, rule_version, gauge_id, created_at)
-       SELECT m.new_id, t.characteristic_id, t.position, t.value, t.passed, t.location_note, t.unit, t.verdict,
-              t.tolerance_rule_id, t.rule_version, t.gauge_id, m.at
+       SELECT m.new_id, t.characteristic_id, t.position,
+              -- each copy's bores scattered by a step either way (all still in tolerance), so control
+              -- charts of the history have variation to chart; derived readings stay as copied
+              CASE WHEN t.characteristic_id = b.id AND t.value IS NOT NULL
+                   THEN t.value + 0.0001 * (abs(hashtext(t.position || m.new_id::text)) % 3 - 1) ELSE t.value END,
+              t.passed, t.location_note, t.unit, t.verdict, t.tolerance_rule_id, t.rule_version, t.gauge_id, m.at
          FROM bench_result_map m JOIN bench_tpl_readings t ON t.stage_result_id = m.old_id
+        CROSS JOIN (SELECT c.id FROM characteristics c JOIN stages s ON s.id = c.stage_id
+                     WHERE s.code = 'bore-hone' AND c.code = 'bore') b
         WHERE ${inRange} `,
       k2,
     );

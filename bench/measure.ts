@@ -27,7 +27,7 @@ const brief = (r: HttpRun | SqlRun) =>
 const pick = <T>(xs: T[]) => xs[Math.floor(Math.random() * xs.length)]!;
 
 /** One read measured both ways at one fixed rate, each after a short warm-up. */
-async function readBoth(
+export async function readBoth(
   c: Ctx,
   rate: number,
   api: { cookie: string; path: () => string },

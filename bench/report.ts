@@ -1,5 +1,6 @@
 import type { BundleRow } from './client.js';
 import type { Side, WritePath } from './measure.js';
+import type { SpcFigures } from './spc.js';
 import { round } from './stats.js';
 
 export type Figures = {
@@ -18,6 +19,7 @@ export type Figures = {
   trail: { tenth: Side; full: Side };
   lots: Side;
   ncrs: Side;
+  spc: SpcFigures;
   write: WritePath;
   client: { bundles: BundleRow[]; scan: { p50: number; p95: number; max: number; samples: number[] } };
   wallSeconds: number;
@@ -63,6 +65,8 @@ export function verdicts(f: Figures) {
     trailGrowthRaw: f.trail.full.raw.latency.p95 / f.trail.tenth.raw.latency.p95,
     lotRatio: f.lots.api.latency.p95 / f.lots.raw.latency.p95,
     ncrRatio: f.ncrs.api.latency.p95 / f.ncrs.raw.latency.p95,
+    spcChartRatio: f.spc.chart.api.latency.p95 / f.spc.chart.raw.latency.p95,
+    spcRehearsalRatio: f.spc.rehearsal.api.latency.p95 / f.spc.rehearsal.raw.latency.p95,
     stationKb: station ? station.gzipBytes / 1024 : NaN,
     // the part's form is fetched as soon as a station is chosen, before any scan: the route loads it
     stationFormKb: station ? (station.gzipBytes + formChunk(station)) / 1024 : NaN,
@@ -130,6 +134,15 @@ export function printReport(f: Figures) {
       ],
     ),
   );
+  out.push(
+    `\nSPC at ${f.spc.chart.api.target}/s, V8 bore over a year: ${f.spc.parts} parts, ${f.spc.readings} readings; a ±0.0003 in draft flips ${f.spc.flips} parts in ${f.spc.shipped} shipped units`,
+  );
+  out.push(
+    table(
+      ['read', 'API', 'PostgreSQL alone', 'p95 ratio', 'errors'],
+      [read('control chart and capability', f.spc.chart), read('rule rehearsal (stored)', f.spc.rehearsal)],
+    ),
+  );
   out.push('\nClient: JavaScript a cold load fetches per route (gzip)');
   out.push(
     table(
@@ -166,6 +179,18 @@ export function printReport(f: Figures) {
           `${round(v.trailGrowth, 2)} × (SQL ${round(v.trailGrowthRaw, 2)} ×)`,
           '≤ 1.5 ×',
           ok(v.trailGrowth <= 1.5),
+        ],
+        [
+          'SPC chart of a bore over a year, p95',
+          `${ms(f.spc.chart.api.latency.p95)} (${round(v.spcChartRatio, 2)} × SQL)`,
+          '≤ 300 ms, ≤ 2 ×',
+          ok(f.spc.chart.api.latency.p95 <= 300 && v.spcChartRatio <= 2),
+        ],
+        [
+          'rule rehearsal over a year, p95',
+          `${ms(f.spc.rehearsal.api.latency.p95)} (${round(v.spcRehearsalRatio, 2)} × SQL)`,
+          '≤ 1 s, ≤ 2 ×',
+          ok(f.spc.rehearsal.api.latency.p95 <= 1000 && v.spcRehearsalRatio <= 2),
         ],
         [
           'station route JavaScript, with the part form',

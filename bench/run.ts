@@ -15,6 +15,7 @@ import { measureLots, measureNcrList, measureTrail, measureWritePath, type Ctx }
 import { prepareDatabase } from './prep.js';
 import { printReport } from './report.js';
 import { startApi } from './server.js';
+import { measureSpc } from './spc.js';
 
 const url = process.env.DATABASE_URL!;
 const pgBin = process.env.PG_BIN!;
@@ -22,6 +23,7 @@ const UNITS = Number(process.env.BENCH_UNITS ?? 50_000);
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 10);
 const WRITE_RATES = (process.env.BENCH_WRITE_RATES ?? '10,20,30,40,50,60').split(',').map(Number);
 const READ_RATE = Number(process.env.BENCH_READ_RATE ?? 20);
+const SPC_RATE = Number(process.env.BENCH_SPC_RATE ?? 2);
 const STATION = 'BH-1';
 const POOL_BASE = 10_000_000; // copy numbers of parts waiting at the station, apart from shipped units
 const BATCH = 2_500;
@@ -198,6 +200,7 @@ try {
   const trail100 = await measureTrail(c, READ_RATE);
   const lots = await measureLots(c, READ_RATE);
   const ncrs = await measureNcrList(c, READ_RATE);
+  const spc = await measureSpc(c, SPC_RATE);
 
   const form = (await (
     await fetch(`${server.url}/api/stations/${STATION}/form?serial=${apiParts[0]!.serial}`, {
@@ -235,6 +238,7 @@ try {
     trail: { tenth: trail10, full: trail100 },
     lots,
     ncrs,
+    spc,
     write,
     client: { bundles, scan },
     wallSeconds: (Date.now() - started) / 1000,

@@ -21,6 +21,7 @@ import { fieldActionRoutes } from './routes/field-actions.js';
 import { plantRoutes } from './routes/plant.js';
 import { mailRoutes } from './routes/mail.js';
 import { specRoutes } from './routes/spec.js';
+import { spcRoutes } from './routes/spc.js';
 import { stationRoutes } from './routes/station.js';
 import { auditRoutes } from './routes/audit.js';
 import { coreRoutes } from './routes/cores.js';
@@ -114,6 +115,7 @@ export function createApp({
   attachmentRoutes(api, sequelize, store, config);
   stationRoutes(api, sequelize);
   specRoutes(api, sequelize);
+  spcRoutes(api, sequelize);
   ncrRoutes(api, sequelize);
   unitRoutes(api, sequelize);
   fieldActionRoutes(api, sequelize);

@@ -33,6 +33,10 @@ export const PERMISSIONS = {
   'spec.read': ['quality', 'supervisor', 'operator', 'admin'],
   'spec.edit': ['quality'],
   'spec.approve': ['quality'],
+  // control charts and capability; limits are frozen by quality, a signal's part held by either
+  'spc.read': ['quality', 'supervisor'],
+  'spc.freeze': ['quality'],
+  'spc.hold': ['quality', 'supervisor'],
 
   'ncr.read': ['receiving', 'quality', 'supervisor', 'operator', 'shipping', 'warranty', 'admin'],
   'ncr.raise': ['receiving', 'operator', 'quality', 'supervisor', 'shipping', 'warranty'],

@@ -127,6 +127,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.spc,
+              lazy: async () => {
+                const m = await import('./routes/spc/spc-page');
+                return { Component: m.SpcPage, loader: m.spcLoader(queryClient) };
+              },
+            },
+            {
               path: paths.station,
               lazy: async () => {
                 const m = await import('./routes/station/station-page');

@@ -15,6 +15,7 @@ import {
   ToleranceRule,
   User,
 } from '../../server/models/index.js';
+import { seedDemoHistory } from './demo-history.js';
 import { seedDemoPartsIfEmpty } from './demo-parts.js';
 import { CHARACTERISTICS, firstRules } from './spec-book.js';
 import { DEFECT_CODES, DEMO_USERS, FAMILIES, GAUGES, PLANT, ROUTES, STAGES, STATIONS } from './plant.js';
@@ -36,7 +37,10 @@ async function insertMany(
 }
 
 /** Seeds the demo plant when the database has no users yet. Returns whether it seeded. */
-export async function seedDemoIfEmpty(sequelize: Sequelize, { bcryptCost = 12 } = {}): Promise<boolean> {
+export async function seedDemoIfEmpty(
+  sequelize: Sequelize,
+  { bcryptCost = 12, history = true } = {},
+): Promise<boolean> {
   const seeded = await sequelize.transaction(async (transaction) => {
     await sequelize.query('SELECT pg_advisory_xact_lock(:k)', { replacements: { k: SEED_LOCK }, transaction });
     const [row] = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM users', {
@@ -49,6 +53,8 @@ export async function seedDemoIfEmpty(sequelize: Sequelize, { bcryptCost = 12 } 
   });
   // parts on the line go through the product's own services, each in its own transaction
   if (seeded) await seedDemoPartsIfEmpty(sequelize);
+  // months of shipped units before today, for the control charts (set-based, marked as demo history)
+  if (seeded && history) await seedDemoHistory(sequelize);
   return seeded;
 }
 

@@ -12,6 +12,7 @@ import { Attachment, LabelPrint, Shipment, WarrantyClaim } from './records.js';
 import { Reading, StageReentry, StageResult } from './results.js';
 import { RecoveryCode } from './recovery-code.js';
 import { Session } from './session.js';
+import { RuleRehearsal, SpcLimits, SpcSignal } from './spc.js';
 import { Characteristic, ToleranceRule } from './spec.js';
 import { Route, RouteStage, Stage } from './stage.js';
 import { Station } from './station.js';
@@ -40,10 +41,13 @@ export {
   Reading,
   RecoveryCode,
   Route,
+  RuleRehearsal,
   RouteStage,
   Session,
   Shipment,
   Signature,
+  SpcLimits,
+  SpcSignal,
   Stage,
   StageReentry,
   StageResult,
@@ -91,6 +95,9 @@ const MODELS = [
   AuditEvent,
   PlantSettings,
   FieldAction,
+  SpcLimits,
+  SpcSignal,
+  RuleRehearsal,
 ] as const;
 
 export function initModels(sequelize: Sequelize) {

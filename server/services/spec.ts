@@ -14,6 +14,7 @@ import { conflict, forbidden, invalid, notFound } from '../errors.js';
 import { Characteristic, EngineFamily, Signature, Stage, ToleranceRule, User } from '../models/index.js';
 import type { Reference } from './reference-cache.js';
 import { signWithPassword } from './signatures.js';
+import { keepRehearsalWithApproval } from './spc/approval.js';
 
 /**
  * The spec book. A rule is drafted, then approved with the approver's signature (their password
@@ -361,7 +362,7 @@ export async function approveRule(
   sequelize: Sequelize,
   ctx: Ctx,
   id: number,
-  input: { reason: string; password: string; effectiveFrom?: string },
+  input: { reason: string; password: string; effectiveFrom?: string; rehearsalId?: number },
 ): Promise<RuleJson> {
   return sequelize.transaction(async (transaction) => {
     const rule = await lockedRule(id, transaction);
@@ -370,6 +371,9 @@ export async function approveRule(
     if (rule.createdById === ctx.actor!.id) {
       throw forbidden('You drafted this version: another quality engineer must approve it.');
     }
+    const rehearsal = input.rehearsalId
+      ? await keepRehearsalWithApproval(ctx, transaction, rule, input.rehearsalId)
+      : null;
     const now = new Date();
     const effectiveFrom = input.effectiveFrom ? new Date(input.effectiveFrom) : now;
     // a minute's grace for the clock of the approver's computer
@@ -438,6 +442,7 @@ export async function approveRule(
         ...snapshot(rule),
         reason: input.reason,
         signature: { printedName: approver.name, meaning, signedAt: now.toISOString() },
+        ...(rehearsal ? { rehearsal } : {}),
       },
     });
     return presentOne(rule, transaction);

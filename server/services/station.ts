@@ -37,6 +37,7 @@ import {
 } from './nonconformances.js';
 import { referenceData, VERSION_SQL, versionRead, type Reference, type VersionRow } from './reference-cache.js';
 import { formCharacteristics } from './spec.js';
+import { checkControlLimits } from './spc/signals.js';
 import { lockUnitsReachedBy } from './unit-locks.js';
 
 type Route = NonNullable<Awaited<ReturnType<typeof routeFor>>>;
@@ -520,6 +521,8 @@ export async function submitResult(
     }
 
     if (!supersedes) await settleRework(ctx, transaction, item, stage.id, result, ncr, stage.name);
+    // a run-rule signal against frozen control limits mails quality and may hold the part
+    await checkControlLimits(sequelize, ctx, transaction, { ref, item, stage, station, resultId: result.id });
 
     // the next stage is on the route already read; the operator's name came with the session
     const nextStage = item.currentStageId

@@ -80,6 +80,8 @@ export const approveRuleBody = z.strictObject({
   password: enteredPassword('Enter your password to sign.'),
   /** When the new version takes over; now when left out. Never in the past. */
   effectiveFrom: isoDateTime('Use a date and time like 2026-12-02T08:00:00Z.').optional(),
+  /** The rehearsal of this draft the approver saw: kept with the approval. */
+  rehearsalId: z.number().int().positive().optional(),
 });
 
 export const specBookQuery = z.strictObject({ family: text().trim().min(1).max(20) });

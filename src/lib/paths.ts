@@ -33,6 +33,7 @@ export const paths = {
   fieldAction: '/field-actions/:number',
   plant: '/admin/plant',
   verify: '/verify',
+  spc: '/spc',
 } as const;
 
 /** Why the sign-in page was shown, so it can say so in plain words. */

@@ -74,6 +74,22 @@ describe('histogram bins against the tolerance', () => {
     expect(total(histogram(year, spec))).toBe(200_000);
   });
 
+  it('when the resolution is given, then the width is a whole number of steps and no bin is left empty by the rounding', () => {
+    // bores read at 0.0001 in against 4.0295–4.0305 in: ten steps in the tolerance
+    const random = seeded(48);
+    const rounded = Array.from({ length: 5000 }, () => Number((4.03 + (random() - 0.5) * 0.0008).toFixed(4)));
+    const h = histogram(rounded, spec, { resolution: 0.0001 });
+    const steps = h.width / 0.0001;
+    expect(Math.abs(steps - Math.round(steps))).toBeLessThan(1e-9);
+    expect((0.001 / h.width) % 1).toBeCloseTo(0, 9);
+    const inside = h.bins.filter((b) => b.lower >= 4.0297 - 1e-12 && b.upper <= 4.0303 + 1e-12);
+    expect(inside.every((b) => b.count > 0)).toBe(true);
+    expect(total(h)).toBe(5000);
+    // without it, widths of a fourteenth of the tolerance leave bins the rounded readings never reach
+    const plain = histogram(rounded, spec, { bins: 14 });
+    expect(plain.bins.some((b) => b.zone === 'within' && b.count === 0)).toBe(true);
+  });
+
   it('when there is no tolerance or the input is unusable, then bins are all "within" or the call is refused', () => {
     const none = histogram([1, 2, 3, 4, 5], { lower: null, upper: null });
     expect(none.bins.every((b) => b.zone === 'within')).toBe(true);

@@ -17,6 +17,12 @@ export type HistogramOptions = {
   bins?: number;
   /** Never more bins than this, however far readings lie from the tolerance. */
   maxBins?: number;
+  /**
+   * The step readings are rounded to. With both limits set, the width is then a whole number of
+   * steps as well as a whole fraction of the tolerance, so every bin holds the same number of
+   * possible readings (otherwise readings at 0.0001 in binned 0.00007 in wide leave every third bin empty).
+   */
+  resolution?: number | null;
 };
 
 const EDGE_EPS = 1e-9;
@@ -31,10 +37,21 @@ function niceWidth(raw: number): number {
  * Bin width: a whole fraction of the tolerance when both limits are set, so both fall on edges;
  * otherwise a round width. About `target` bins cover the core (see coreSpan), at most `most`.
  */
-function binWidth(span: number, spec: SpecLimits, target: number, most: number): number {
+function binWidth(span: number, spec: SpecLimits, target: number, most: number, resolution?: number | null): number {
   if (spec.lower !== null && spec.upper !== null) {
     const tol = spec.upper - spec.lower;
-    return tol / Math.min(most, Math.max(1, Math.round((tol * target) / span)));
+    const wanted = Math.min(most, Math.max(1, Math.round((tol * target) / span)));
+    const steps = resolution && resolution > 0 ? Math.round(tol / resolution) : 0;
+    if (steps > 0 && Math.abs(steps * resolution! - tol) < EDGE_EPS * tol) {
+      // the divisor of the tolerance's steps nearest the wanted count, within maxBins
+      let best = 1;
+      for (let k = 1; k <= Math.min(steps, most); k++) {
+        if (steps % k === 0 && Math.abs(k - wanted) <= Math.abs(best - wanted)) best = k;
+      }
+      // a step count with no divisor near the wanted count (a prime) would give a bin or two
+      if (best * 2 >= wanted && best <= wanted * 2) return tol / best;
+    }
+    return tol / wanted;
   }
   if (span === 0) return 1;
   return niceWidth(Math.max(span / target, span / most));
@@ -81,7 +98,7 @@ export function histogram(values: readonly number[], spec: SpecLimits, opts: His
   const sorted = [...values].sort((a, b) => a - b);
   const core = coreSpan(sorted, spec);
   // room for the anchor's rounding and a stretched bin at each end
-  const width = binWidth(core.hi - core.lo, spec, target, maxBins - 3);
+  const width = binWidth(core.hi - core.lo, spec, target, maxBins - 3, opts.resolution);
   const anchor = spec.lower ?? spec.upper ?? Math.floor(core.lo / width) * width;
   const pos = (x: number) => position(x, anchor, width);
   const upperEdge = spec.upper === null ? null : Math.round(pos(spec.upper));

@@ -102,13 +102,17 @@ export function rehearseRule(input: RehearsalInput): Rehearsal {
   const byPart = new Map<string, number[]>();
   const values: number[] = [];
   let skipped = 0;
+  // a year of readings holds few distinct values (they are rounded to the gauge's resolution):
+  // judging each value once keeps the decimal arithmetic off the per-reading path
+  const judged = new Map<number, ReturnType<typeof judgeValue>>();
 
   for (const r of input.readings) {
     if (r.value === null) {
       skipped++;
       continue;
     }
-    const j = judgeValue(r.value, draft);
+    let j = judged.get(r.value);
+    if (!j) judged.set(r.value, (j = judgeValue(r.value, draft)));
     const part = parts.get(r.partId) ?? { was: 'pass', now: 'pass', failing: [] };
     if (r.verdict === 'fail') part.was = 'fail';
     if (j.verdict === 'fail') {

@@ -1,5 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { auditKeys } from '../audit/keys';
+import { spcKeys } from '../spc/keys';
 import { refreshStationForms } from '../station/keys';
 import { specKeys } from './keys';
 
@@ -11,5 +12,7 @@ export const afterRuleChange = (queryClient: QueryClient) =>
   Promise.all([
     queryClient.invalidateQueries({ queryKey: specKeys.all }),
     queryClient.invalidateQueries({ queryKey: auditKeys.all }),
+    // a rehearsal goes stale when its draft changes, and is marked kept when the draft is approved
+    queryClient.invalidateQueries({ queryKey: spcKeys.all }),
     refreshStationForms(queryClient),
   ]);

@@ -116,6 +116,12 @@ export const AREAS: Area[] = [
     summary: 'Tolerance rules per engine family, stage and characteristic: drafts, signed approvals, every version.',
   },
   {
+    label: 'Control charts',
+    to: paths.spc,
+    permission: 'spc.read',
+    summary: 'Control charts and capability of measured characteristics; freeze limits, see run-rule signals.',
+  },
+  {
     label: 'Defect codes',
     to: paths.defectCodes,
     permission: 'defects.manage',

@@ -1,11 +1,15 @@
 import { z } from 'zod';
 import { approveRuleBody, type RuleHistoryJson, type RuleJson } from '../../../shared/schemas/spec';
 import { useApproveRule } from '../../api/spec/approve-rule';
+import { useRehearsals } from '../../api/spc/rehearsals';
 import { Form, SubmitButton } from '../../components/form';
 import { TextAreaField, TextField } from '../../components/form-fields';
 import { Button } from '../../components/ui/button';
 import { Dialog, DialogActions } from '../../components/ui/dialog';
 import { Icon } from '../../components/ui/icon';
+import { Notice } from '../../components/ui/notice';
+import { currentRehearsal } from '../spc/rehearsal-panel';
+import { RehearsalCounts } from '../spc/rehearsal-summary';
 import { definitionText, formatNumber, ruleLimitsText } from './limits';
 
 const pad = (n: number) => String(Math.abs(n)).padStart(2, '0');
@@ -52,6 +56,7 @@ type ApproveDialogProps = {
 
 export function ApproveDialog({ history, draft, signer, onClose, onApproved }: ApproveDialogProps) {
   const approve = useApproveRule();
+  const rehearsal = currentRehearsal(useRehearsals(draft.id).data);
   const c = history.characteristic;
   const inForce = c.inForce;
   const how = definitionText(draft);
@@ -100,12 +105,31 @@ export function ApproveDialog({ history, draft, signer, onClose, onApproved }: A
           </dd>
         </dl>
       </section>
+      <section aria-labelledby="rehearsal-heading" className="mb-4 flex flex-col gap-2">
+        <h3 id="rehearsal-heading" className="font-semibold">
+          What it would change
+        </h3>
+        {rehearsal ? (
+          <>
+            <RehearsalCounts rehearsal={rehearsal} />
+            <p className="text-sm text-ink-soft">This rehearsal is kept with your approval.</p>
+          </>
+        ) : (
+          <Notice tone="hold">
+            Not rehearsed since the draft last changed: close this and rehearse it to see which parts already measured
+            would change verdict before you sign.
+          </Notice>
+        )}
+      </section>
       <Form
         schema={approveForm}
         defaultValues={{ reason: '', password: '' }}
         onSubmit={async ({ reason, password, effectiveFrom }) => {
           const at = effectiveFrom ? (localToIso(effectiveFrom) ?? undefined) : undefined;
-          const rule = await approve.mutateAsync({ id: draft.id, body: { reason, password, effectiveFrom: at } });
+          const rule = await approve.mutateAsync({
+            id: draft.id,
+            body: { reason, password, effectiveFrom: at, rehearsalId: rehearsal?.id },
+          });
           onApproved(rule);
         }}
       >

@@ -9,6 +9,7 @@ import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Notice } from '../../components/ui/notice';
 import { formatWhen } from '../../lib/format';
 import { ApiError } from '../../lib/http';
+import { RehearsalPanel } from '../spc/rehearsal-panel';
 import { ApproveDialog } from './approve-dialog';
 import { DraftForm } from './draft-form';
 import { definitionText, limitsFrom, ruleLimitsText } from './limits';
@@ -147,6 +148,7 @@ export function DraftSection({ history, me, onMessage }: DraftSectionProps) {
               onApprove={() => setApproving(true)}
             />
           )}
+          {draft && <RehearsalPanel rule={draft} canRun={canEdit} canTrail={me.can('trail.read')} />}
           {draft && !canEdit && (
             <>
               <DraftReadOnly history={history} draft={draft} />

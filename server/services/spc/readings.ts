@@ -1,0 +1,173 @@
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+
+/**
+ * The stored readings SPC works on, read in one statement each and returned as one JSON document
+ * (parsed natively, far cheaper than a row per reading). A result a correction superseded is left
+ * out: the correction is what was measured. Readings are found through `readings_characteristic_idx`
+ * (characteristic, time) and grouped by result before anything else is joined, so the joins see one
+ * row per part. The statements are exported so the benchmark runs exactly these in PostgreSQL alone.
+ */
+
+export type ReadingFilter = {
+  familyId: number;
+  characteristicId: number;
+  from: Date;
+  to: Date;
+  stationId?: number | null;
+  gaugeId?: number | null;
+};
+
+type Sql = { sql: string; replacements: Record<string, unknown> };
+
+function where(f: ReadingFilter) {
+  const replacements: Record<string, unknown> = {
+    familyId: f.familyId,
+    characteristicId: f.characteristicId,
+    from: f.from.toISOString(),
+    to: f.to.toISOString(),
+  };
+  const gauge = f.gaugeId ? 'AND r.gauge_id = :gaugeId' : '';
+  const station = f.stationId ? 'AND sr.station_id = :stationId' : '';
+  if (f.gaugeId) replacements.gaugeId = f.gaugeId;
+  if (f.stationId) replacements.stationId = f.stationId;
+  return { replacements, gauge, station };
+}
+
+/**
+ * One row per part result: [result id, serial, time (ms since epoch), station id, gauge id, values].
+ * Time is the reading's stored time, which is the result's transaction time; points are in that order.
+ */
+export function partReadingsSql(f: ReadingFilter): Sql {
+  const w = where(f);
+  return {
+    replacements: w.replacements,
+    sql: `SELECT coalesce(json_agg(json_build_array(p.result_id, i.serial, p.at, sr.station_id, p.gauge_id, p.vals)
+                                 ORDER BY p.at, p.result_id), '[]') AS parts
+  FROM (SELECT r.stage_result_id AS result_id, (extract(epoch FROM min(r.created_at)) * 1000)::bigint AS at,
+               min(r.gauge_id) AS gauge_id, json_agg(r.value) AS vals
+          FROM readings r
+         WHERE r.characteristic_id = :characteristicId AND r.created_at >= :from AND r.created_at < :to
+           AND r.value IS NOT NULL ${w.gauge}
+         GROUP BY r.stage_result_id) p
+  JOIN stage_results sr ON sr.id = p.result_id
+  JOIN items i ON i.id = sr.item_id
+ WHERE i.engine_family_id = :familyId ${w.station}
+   AND NOT EXISTS (SELECT 1 FROM stage_results x WHERE x.supersedes_id = sr.id)`,
+  };
+}
+
+export type PartReadings = {
+  resultId: number;
+  serial: string;
+  at: number;
+  stationId: number | null;
+  gaugeId: number | null;
+  values: number[];
+};
+
+export async function partReadings(
+  sequelize: Sequelize,
+  f: ReadingFilter,
+  transaction?: Transaction,
+): Promise<PartReadings[]> {
+  const { sql, replacements } = partReadingsSql(f);
+  const [row] = await sequelize.query<{ parts: [number, string, number, number | null, number | null, number[]][] }>(
+    sql,
+    { type: QueryTypes.SELECT, replacements, transaction },
+  );
+  return (row?.parts ?? []).map(([resultId, serial, at, stationId, gaugeId, values]) => ({
+    resultId,
+    serial,
+    at: Number(at),
+    stationId,
+    gaugeId,
+    values,
+  }));
+}
+
+/**
+ * For a rehearsal: each part's newest current result in the period (the part as it left the stage),
+ * with every reading's position, value and stored verdict. One row per part:
+ * [item id, serial, result id, time (ms), [[position, value, verdict], …]].
+ */
+export function rehearsalReadingsSql(f: ReadingFilter): Sql {
+  const w = where(f);
+  return {
+    replacements: w.replacements,
+    sql: `SELECT coalesce(json_agg(json_build_array(x.item_id, x.serial, x.result_id, x.at, x.readings)
+                                 ORDER BY x.at, x.result_id), '[]') AS parts
+  FROM (SELECT DISTINCT ON (sr.item_id) sr.item_id, i.serial, p.result_id, p.at, p.readings
+          FROM (SELECT r.stage_result_id AS result_id, (extract(epoch FROM min(r.created_at)) * 1000)::bigint AS at,
+                       json_agg(json_build_array(r.position, r.value, r.verdict)) AS readings
+                  FROM readings r
+                 WHERE r.characteristic_id = :characteristicId AND r.created_at >= :from AND r.created_at < :to ${w.gauge}
+                 GROUP BY r.stage_result_id) p
+          JOIN stage_results sr ON sr.id = p.result_id
+          JOIN items i ON i.id = sr.item_id
+         WHERE i.engine_family_id = :familyId ${w.station}
+           AND NOT EXISTS (SELECT 1 FROM stage_results x WHERE x.supersedes_id = sr.id)
+         ORDER BY sr.item_id, p.at DESC, p.result_id DESC) x`,
+  };
+}
+
+export type PartVerdicts = {
+  itemId: number;
+  serial: string;
+  resultId: number;
+  at: number;
+  readings: [string, number | null, 'pass' | 'fail'][];
+};
+
+export async function rehearsalReadings(
+  sequelize: Sequelize,
+  f: ReadingFilter,
+  transaction?: Transaction,
+): Promise<PartVerdicts[]> {
+  const { sql, replacements } = rehearsalReadingsSql(f);
+  const [row] = await sequelize.query<{ parts: [number, string, number, number, PartVerdicts['readings']][] }>(sql, {
+    type: QueryTypes.SELECT,
+    replacements,
+    transaction,
+  });
+  return (row?.parts ?? []).map(([itemId, serial, resultId, at, readings]) => ({
+    itemId,
+    serial,
+    resultId,
+    at: Number(at),
+    readings,
+  }));
+}
+
+/** Shipped units (a live shipment) that hold one of these parts now, or are these items themselves. */
+export const SHIPPED_UNITS_SQL = `SELECT p.id AS part_id, p.serial AS part, u.serial AS unit, s.ship_date, s.reference, c.name AS customer
+  FROM items p
+  JOIN item_links l ON l.child_item_id = p.id AND l.link_type = 'installed_in' AND l.removed_at IS NULL
+  JOIN items u ON u.id = l.parent_item_id
+  JOIN shipments s ON s.unit_item_id = u.id AND s.returned_at IS NULL
+  LEFT JOIN customers c ON c.id = s.customer_id
+ WHERE p.id IN (:ids)
+UNION ALL
+SELECT u.id, u.serial, u.serial, s.ship_date, s.reference, c.name
+  FROM items u
+  JOIN shipments s ON s.unit_item_id = u.id AND s.returned_at IS NULL
+  LEFT JOIN customers c ON c.id = s.customer_id
+ WHERE u.id IN (:ids) AND u.kind = 'long_block'
+ ORDER BY 4, 3`;
+
+export type ShippedRow = {
+  part_id: number;
+  part: string;
+  unit: string;
+  ship_date: string | null;
+  reference: string;
+  customer: string | null;
+};
+
+export async function shippedUnitsHolding(sequelize: Sequelize, itemIds: number[], transaction?: Transaction) {
+  if (!itemIds.length) return [];
+  return sequelize.query<ShippedRow>(SHIPPED_UNITS_SQL, {
+    type: QueryTypes.SELECT,
+    replacements: { ids: itemIds },
+    transaction,
+  });
+}
