@@ -24,6 +24,8 @@ export function startCluster(opts: {
   /** Start a cluster laid out from a base backup as a recovery to `targetTime` from `archiveDir`. */
   recovery?: { archiveDir: string; targetTime: string };
 }): Promise<Cluster>;
+/** A hot standby of `primary`, streaming its WAL, started on `port` (pg_basebackup -X stream -R). */
+export function startStandby(opts: { primary: Cluster; dir: string; port: number; bin?: string }): Promise<Cluster>;
 export function walArchiveOf(pgdata: string): string | null;
 export function chownToServer(dir: string): void;
 export function ensureDatabase(cluster: Cluster, database: string): Promise<void>;

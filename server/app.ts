@@ -16,6 +16,7 @@ import { accountRoutes } from './routes/account.js';
 import { attachmentRoutes } from './routes/attachments.js';
 import { setAppUrl } from './mail/links.js';
 import { ncrRoutes } from './routes/ncrs.js';
+import { primaryOnly, type ReadSide } from './read-side.js';
 import { unitRoutes } from './routes/units.js';
 import { fieldActionRoutes } from './routes/field-actions.js';
 import { plantRoutes } from './routes/plant.js';
@@ -41,10 +42,13 @@ export function createApp({
   sequelize,
   config,
   store = new LocalDiskStore(config.UPLOAD_DIR),
+  read = primaryOnly(sequelize),
 }: {
   sequelize: Sequelize;
   config: Config;
   store?: BlobStore;
+  /** where read-only pages read: a hot standby (DATABASE_READ_URL), else the primary */
+  read?: ReadSide;
 }): Express & { apiRoutes: Api['routes']; state: AppState } {
   setBcryptCost(config.BCRYPT_COST);
   setAppUrl(config.APP_URL ?? `http://${config.HOST}:${config.PORT}`);
@@ -117,7 +121,7 @@ export function createApp({
   specRoutes(api, sequelize);
   spcRoutes(api, sequelize);
   ncrRoutes(api, sequelize);
-  unitRoutes(api, sequelize);
+  unitRoutes(api, sequelize, read);
   fieldActionRoutes(api, sequelize);
   plantRoutes(api, sequelize);
   mailRoutes(api, config);

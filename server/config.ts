@@ -2,6 +2,8 @@ import { z } from 'zod';
 
 const schema = z.object({
   DATABASE_URL: z.string().min(1, 'DATABASE_URL is required (npm start sets it).'),
+  /** A hot standby of DATABASE_URL's database: the trail, lot lookups, search and analytics read there. */
+  DATABASE_READ_URL: z.string().min(1).optional(),
   PORT: z.coerce.number().int().min(0).max(65535).default(4310),
   HOST: z.string().default('127.0.0.1'),
   JWT_SECRET: z.string().min(32, 'JWT_SECRET must be at least 32 characters.'),

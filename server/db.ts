@@ -14,7 +14,16 @@ pg.types.setTypeParser(pg.types.builtins.INT8, (v: string) => Number(v));
  */
 export function createSequelize(
   url: string,
-  { poolMax = 10, poolMin = 0 }: { poolMax?: number; poolMin?: number } = {},
+  {
+    poolMax = 10,
+    poolMin = 0,
+    models = true,
+  }: {
+    poolMax?: number;
+    poolMin?: number;
+    /** false for a second connection (the read side): the models stay bound to the primary's */
+    models?: boolean;
+  } = {},
 ): Sequelize {
   const sequelize = new Sequelize(url, {
     dialect: 'postgres',
@@ -25,7 +34,7 @@ export function createSequelize(
     // at a plant's size, to save microseconds. Short transactional queries never gain from it.
     dialectOptions: { connectionTimeoutMillis: 5_000, options: '-c jit=off' },
   });
-  initModels(sequelize);
+  if (models) initModels(sequelize);
   return sequelize;
 }
 

@@ -5,6 +5,7 @@ import { createSequelize } from './db.js';
 import { migrate } from './migrate.js';
 import { startMailSink } from './mail/sink.js';
 import { MailWorker } from './mail/worker.js';
+import { PartitionKeeper } from './jobs/reading-partitions.js';
 import { UploadSweeper } from './jobs/upload-sweeper.js';
 import { LocalDiskStore } from './storage/blob-store.js';
 import { LedgerWorker } from './ledger/sequencer.js';
@@ -37,6 +38,8 @@ async function main() {
   const store = new LocalDiskStore(config.UPLOAD_DIR);
   const sweeper = new UploadSweeper(sequelize, store, config.UNCLAIMED_UPLOAD_HOURS);
   sweeper.start();
+  const partitions = new PartitionKeeper(sequelize);
+  partitions.start();
   const signer = signerFor(config.AUDIT_SIGNING_KEY);
   if (!signer) console.log('[ledger] no AUDIT_SIGNING_KEY: the audit log is integrated but its heads are not signed');
   const ledger =
@@ -44,7 +47,12 @@ async function main() {
       ? new LedgerWorker(sequelize, { signer, headIntervalMs: config.AUDIT_HEAD_INTERVAL_S * 1000 })
       : null;
   ledger?.start();
-  const app = createApp({ sequelize, config, store });
+  // the trail and lot lookups read from a hot standby when one is named (docs/operations.md)
+  const readDb = config.DATABASE_READ_URL
+    ? createSequelize(config.DATABASE_READ_URL, { poolMin: 1, models: false })
+    : null;
+  if (readDb) console.log('[db] reading the trail and lot lookups from the standby in DATABASE_READ_URL');
+  const app = createApp({ sequelize, config, store, read: readDb ? { db: readDb, standby: true } : undefined });
   const server: Server = await new Promise((resolve, reject) => {
     // Express 5 hands a listen error to this callback rather than only emitting it
     const s = app.listen(config.PORT, config.HOST, (err?: Error) => {
@@ -77,8 +85,10 @@ async function main() {
     server.close(async () => {
       await worker?.stop();
       await sweeper.stop();
+      await partitions.stop();
       await ledger?.stop();
       await sink?.close();
+      await readDb?.close();
       await sequelize.close();
       console.log('[api] stopped');
       process.exit(0);

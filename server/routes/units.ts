@@ -12,8 +12,9 @@ import { buildRecordPdf } from '../services/build-record.js';
 import { findBySerial } from '../services/items.js';
 import { checkUnit, releaseUnit } from '../services/release.js';
 import { lotLookup, trailOf } from '../services/trail.js';
+import type { ReadSide } from '../read-side.js';
 
-export function unitRoutes(api: Api, sequelize: Sequelize) {
+export function unitRoutes(api: Api, sequelize: Sequelize, read: ReadSide) {
   api.define({
     method: 'post',
     path: '/units',
@@ -78,7 +79,7 @@ export function unitRoutes(api: Api, sequelize: Sequelize) {
     summary:
       'Everything about a serial: genealogy tree, every result with readings and rule versions, NCRs, lots, shipment, warranty.',
     params: serialParam,
-    handler: ({ params }) => trailOf(sequelize, params.serial),
+    handler: ({ params }) => trailOf(sequelize, params.serial, read),
   });
   api.define({
     method: 'get',
@@ -86,7 +87,7 @@ export function unitRoutes(api: Api, sequelize: Sequelize) {
     access: 'trail.read',
     summary: 'A purchased lot code: every unit it went into, with ship dates and customers.',
     params: lotCodeParam,
-    handler: ({ params }) => lotLookup(sequelize, params.lotCode),
+    handler: ({ params }) => lotLookup(read, params.lotCode),
   });
   api.define({
     method: 'post',

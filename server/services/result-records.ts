@@ -1,4 +1,5 @@
-import { Op, type Sequelize } from 'sequelize';
+import { Op, QueryTypes, type Sequelize } from 'sequelize';
+import { selectModels, type ReadSide } from '../read-side.js';
 import type { AttachmentJson } from '../../shared/schemas/attachments.js';
 import { describePosition, expandPositions } from '../../shared/domain/positions.js';
 import { limitsOf } from '../../shared/domain/tolerance.js';
@@ -51,25 +52,38 @@ export type RecordedReading = {
 export async function loadResultRecords(
   results: StageResult[],
   items: Item[],
-  { ref: known }: { ref?: Reference } = {},
+  { ref: known, read }: { ref?: Reference; read?: ReadSide } = {},
 ) {
   const ids = results.map((r) => r.id);
+  const operatorIds = [...new Set(results.map((r) => r.operatorId))];
   const [readings, ref, photos, users] = await Promise.all([
     // plain rows, only the columns shown: a unit's trail has hundreds of readings
-    ids.length
-      ? (Reading.findAll({
-          where: { stageResultId: { [Op.in]: ids } },
-          attributes: [...READING_COLUMNS],
-          order: [['id', 'ASC']],
-          raw: true,
-        }) as unknown as Promise<ReadingRow[]>)
-      : [],
+    ids.length && read
+      ? read.db.query<ReadingRow>(
+          `SELECT ${READING_COLUMNS.map((c) => `${Reading.getAttributes()[c].field} AS "${c}"`).join(', ')}
+             FROM readings WHERE stage_result_id IN (:ids) ORDER BY id`,
+          { type: QueryTypes.SELECT, replacements: { ids } },
+        )
+      : ids.length
+        ? (Reading.findAll({
+            where: { stageResultId: { [Op.in]: ids } },
+            attributes: [...READING_COLUMNS],
+            order: [['id', 'ASC']],
+            raw: true,
+          }) as unknown as Promise<ReadingRow[]>)
+        : [],
     known ?? referenceData(Reading.sequelize as Sequelize),
-    ids.length ? Attachment.findAll({ where: { entity: 'stage_result', entityId: { [Op.in]: ids.map(String) } } }) : [],
-    User.findAll({
-      where: { id: { [Op.in]: [...new Set(results.map((r) => r.operatorId))] } },
-      attributes: ['id', 'name'],
-    }),
+    !ids.length
+      ? []
+      : read
+        ? selectModels(read, Attachment, "entity = 'stage_result' AND entity_id IN (:ids)", { ids: ids.map(String) })
+        : Attachment.findAll({ where: { entity: 'stage_result', entityId: { [Op.in]: ids.map(String) } } }),
+    read
+      ? read.db.query<{ id: number; name: string }>('SELECT id, name FROM users WHERE id IN (:operatorIds)', {
+          type: QueryTypes.SELECT,
+          replacements: { operatorIds: operatorIds.length ? operatorIds : [0] },
+        })
+      : User.findAll({ where: { id: { [Op.in]: operatorIds } }, attributes: ['id', 'name'] }),
   ]);
   const charIds = [...new Set(readings.map((r) => r.characteristicId))];
   const ruleIds = [...new Set(readings.map((r) => r.toleranceRuleId).filter((x): x is number => x !== null))];

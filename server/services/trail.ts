@@ -1,9 +1,11 @@
-import { Op, QueryTypes, type Sequelize } from 'sequelize';
+import { QueryTypes, type Sequelize } from 'sequelize';
 import type { LotLookupJson, TrailJson, TrailNcr, TrailNode, TrailResult } from '../../shared/schemas/build.js';
 import type { NcrState } from '../../shared/schemas/ncr.js';
 import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.js';
 import { Item, Shipment, Signature, StageResult } from '../models/index.js';
-import { findBySerial, presentItem, type KnownLink } from './items.js';
+import { checkedSerial, presentItem, type KnownLink } from './items.js';
+import { notFound } from '../errors.js';
+import { freshnessOf, primaryOnly, selectModels, type ReadSide } from '../read-side.js';
 import { referenceData } from './reference-cache.js';
 import { listFieldActions } from './field-actions.js';
 import { ncrTimeline } from './ncr-timeline.js';
@@ -25,15 +27,28 @@ type Link = KnownLink & {
   removed_reason: string | null;
 };
 
-export async function trailOf(sequelize: Sequelize, serial: string): Promise<TrailJson> {
-  const [item, ref] = await Promise.all([findBySerial(serial), referenceData(sequelize)]);
+/**
+ * `read`: where the records are read (a hot standby when one is set up); the reference data comes
+ * from the primary's cache, and the answer says how old the read side's data may be.
+ */
+export async function trailOf(
+  sequelize: Sequelize,
+  serial: string,
+  read: ReadSide = primaryOnly(sequelize),
+): Promise<TrailJson> {
+  const db = read.db;
+  const [item, ref, readFrom] = await Promise.all([
+    itemBySerial(read, serial),
+    referenceData(sequelize),
+    freshnessOf(read),
+  ]);
   // every item linked to this one, up to a core's parts' units and a unit's parts' cores: the links
   // are gathered as the walk follows them (index scans only), never by scanning item_links for
   // links among the items found, which grew with the plant's history. A part in a unit starts the
   // walk at its unit: the tree is the unit's, whose other parts may come from other cores, three
   // links away from this part. A part taken out of a unit keeps its ended link: the history of
   // what was in the unit, and when, stays in the tree.
-  const links = await sequelize.query<Link>(
+  const links = await db.query<Link>(
     `WITH RECURSIVE g(id, depth, link_id) AS (
        SELECT COALESCE((SELECT parent_item_id FROM item_links
                          WHERE child_item_id = :id AND link_type = 'installed_in' AND removed_at IS NULL), :id::int),
@@ -51,14 +66,8 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
   const ids = [...new Set([item.id, ...links.flatMap((l) => [l.parent_item_id, l.child_item_id])])];
   // the items and every result among them at once; results outside the tree are dropped below
   const [items, allResults] = await Promise.all([
-    Item.findAll({ where: { id: { [Op.in]: ids } } }),
-    StageResult.findAll({
-      where: { itemId: { [Op.in]: ids } },
-      order: [
-        ['finishedAt', 'ASC'],
-        ['id', 'ASC'],
-      ],
-    }),
+    selectModels(read, Item, 'id IN (:ids)', { ids }),
+    selectModels(read, StageResult, 'item_id IN (:ids)', { ids }, 'finished_at, id'),
   ]);
   const byId = new Map(items.map((i) => [i.id, i]));
 
@@ -131,7 +140,7 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
   const top = byId.get(unitId ?? item.id)!;
   // everything else at once: the records around the results, NCRs (then their timelines), lots,
   // the shipment, and the item's own card
-  const ncrsWithSteps = sequelize
+  const ncrsWithSteps = db
     .query<{
       id: number;
       number: string;
@@ -156,7 +165,7 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
       const ncrIds = ncrs.map((n) => n.id);
       if (!ncrIds.length) return { ncrs, transitions: [], signatures: [] };
       const [transitions, signatures] = await Promise.all([
-        sequelize.query<{
+        db.query<{
           nonconformance_id: number;
           created_at: Date;
           from_state: NcrState | null;
@@ -169,17 +178,22 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
             WHERE t.nonconformance_id IN (:ncrIds) ORDER BY t.id`,
           { type: QueryTypes.SELECT, replacements: { ncrIds } },
         ),
-        Signature.findAll({
-          where: { entity: 'nonconformance', entityId: { [Op.in]: ncrs.map((n) => n.number) } },
-          order: [['id', 'ASC']],
-        }),
+        selectModels(
+          read,
+          Signature,
+          "entity = 'nonconformance' AND entity_id IN (:numbers)",
+          {
+            numbers: ncrs.map((n) => n.number),
+          },
+          'id',
+        ),
       ]);
       return { ncrs, transitions, signatures };
     });
   const [records, { ncrs, transitions, signatures }, lots, shipped, card, fieldActions] = await Promise.all([
-    loadResultRecords(results, items, { ref }),
+    loadResultRecords(results, items, { ref, read }),
     ncrsWithSteps,
-    sequelize.query<{
+    db.query<{
       kind: string;
       supplier: string;
       part_number: string;
@@ -192,12 +206,12 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
         WHERE ul.unit_item_id = :top ORDER BY ul.id`,
       { type: QueryTypes.SELECT, replacements: { top: top.id } },
     ),
-    Shipment.findOne({ where: { unitItemId: top.id }, order: [['id', 'DESC']] }).then((s) =>
+    selectModels(read, Shipment, 'unit_item_id = :top', { top: top.id }, 'id DESC LIMIT 1').then(([s]) =>
       s ? presentShipment(s) : null,
     ),
     presentItem(item, { ref, genealogy: { links: live, items } }),
     top.kind === 'long_block'
-      ? listFieldActions(sequelize, { unitId: top.id, page: 1, pageSize: 200 }).then((p) => p.rows)
+      ? listFieldActions(db, { unitId: top.id, page: 1, pageSize: 200 }).then((p) => p.rows)
       : [],
   ]);
 
@@ -260,7 +274,16 @@ export async function trailOf(sequelize: Sequelize, serial: string): Promise<Tra
     shipment: shipped,
     warranty: shipped?.warranty ?? null,
     fieldActions,
+    readFrom,
   };
+}
+
+/** An item by its serial, read on the read side (items.findBySerial reads the primary). */
+async function itemBySerial(read: ReadSide, input: string): Promise<Item> {
+  const serial = checkedSerial(input);
+  const [item] = await selectModels(read, Item, 'serial = :serial', { serial });
+  if (!item) throw notFound(`Serial ${serial}`);
+  return item;
 }
 
 /** The lot lookup's one statement (`:lotCode` however it was typed); the benchmark runs it too. */
@@ -278,8 +301,9 @@ export const LOT_LOOKUP_SQL = `SELECT pl.id AS lot_id, pl.part_kind AS kind, s.n
  ORDER BY pl.id, ul.created_at`;
 
 /** Every unit a lot code went into, with its ship date and customer (one query). */
-export async function lotLookup(sequelize: Sequelize, lotCode: string): Promise<LotLookupJson> {
-  const rows = await sequelize.query<{
+export async function lotLookup(read: ReadSide, lotCode: string): Promise<LotLookupJson> {
+  const readFrom = await freshnessOf(read);
+  const rows = await read.db.query<{
     lot_id: number;
     kind: string;
     supplier: string;
@@ -318,5 +342,5 @@ export async function lotLookup(sequelize: Sequelize, lotCode: string): Promise<
       });
     }
   }
-  return { lotCode: lotCode.toUpperCase(), lots: [...lots.values()] };
+  return { lotCode: lotCode.toUpperCase(), lots: [...lots.values()], readFrom };
 }

@@ -242,10 +242,19 @@ export type TrailJson = {
   warranty: WarrantyJson | null;
   /** Problems found after the unit shipped, open or decided. */
   fieldActions: FieldActionJson[];
+  /** Where this was read and how old it may be. */
+  readFrom: Freshness;
 };
+
+/**
+ * Where a read-only page's data came from: the primary, or a hot standby that may be `lagSeconds`
+ * behind it (0 when it has replayed everything it received).
+ */
+export type Freshness = { source: 'primary' | 'standby'; lagSeconds: number; asOf: string };
 
 export type LotLookupJson = {
   lotCode: string;
+  readFrom: Freshness;
   lots: {
     kind: string;
     supplier: string;

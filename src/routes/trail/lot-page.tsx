@@ -5,6 +5,7 @@ import type { LotLookupJson } from '../../../shared/schemas/build';
 import { lotQueryOptions, normalLotCode, useLot } from '../../api/trail/lot';
 import { DataTable } from '../../components/data-table';
 import { StatusBadge } from '../../components/item-status';
+import { DataAge } from '../../components/data-age';
 import { PageHeader } from '../../components/page-header';
 import { Badge, type Tone } from '../../components/ui/badge';
 import { Button, ButtonLink } from '../../components/ui/button';
@@ -165,6 +166,13 @@ export function LotPage() {
           </Notice>
         ) : !lot.data ? (
           <p className="text-ink-soft">Loading lot {code}…</p>
+        ) : lot.data.readFrom.source === 'standby' && lot.data.lots.length > 0 ? (
+          <>
+            <DataAge readFrom={lot.data.readFrom} />
+            {lot.data.lots.map((l, i) => (
+              <LotCard key={`${l.supplier}/${l.partNumber}/${l.lotCode}`} lot={l} index={i} />
+            ))}
+          </>
         ) : lot.data.lots.length === 0 ? (
           <Notice tone="info" title="No such lot">
             No purchased lot with the code {code} has been recorded. Check the box label; codes are matched without

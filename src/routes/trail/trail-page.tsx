@@ -4,6 +4,7 @@ import { parseSerial } from '../../../shared/domain/serial';
 import type { TrailJson } from '../../../shared/schemas/build';
 import { trailQueryOptions, useTrail } from '../../api/trail/trail';
 import { StatusBadge } from '../../components/item-status';
+import { DataAge } from '../../components/data-age';
 import { PageHeader } from '../../components/page-header';
 import { ScanBox } from '../../components/scan-box';
 import { buttonClass } from '../../components/ui/button';
@@ -166,7 +167,10 @@ export function TrailPage() {
         ) : serial && !data ? (
           <p className="text-ink-soft">Loading the trail of {serial}…</p>
         ) : data ? (
-          <Trail trail={data} />
+          <>
+            <DataAge readFrom={data.readFrom} />
+            <Trail trail={data} />
+          </>
         ) : null}
       </div>
     </div>
