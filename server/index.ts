@@ -5,6 +5,7 @@ import { createSequelize } from './db.js';
 import { migrate } from './migrate.js';
 import { startMailSink } from './mail/sink.js';
 import { MailWorker } from './mail/worker.js';
+import { OverdueReminderJob } from './services/corrective-action/reminders.js';
 import { DEMO_USERS, seedDemoIfEmpty } from '../db/seeders/demo.js';
 
 async function main() {
@@ -30,6 +31,8 @@ async function main() {
       ? new MailWorker(sequelize, { smtp: { host: config.SMTP_HOST, port: config.SMTP_PORT }, from: config.MAIL_FROM })
       : null;
   worker?.start();
+  const reminders = config.REMINDERS === 'on' ? new OverdueReminderJob(sequelize) : null;
+  reminders?.start();
   const app = createApp({ sequelize, config });
   const server: Server = await new Promise((resolve, reject) => {
     // Express 5 hands a listen error to this callback rather than only emitting it
@@ -56,6 +59,7 @@ async function main() {
     console.log(`[api] ${signal}: finishing requests in flight, refusing new ones…`);
     app.state.draining = true;
     server.close(async () => {
+      await reminders?.stop();
       await worker?.stop();
       await sink?.close();
       await sequelize.close();

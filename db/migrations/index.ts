@@ -6,6 +6,7 @@ import * as m20261202110000 from './20261202110000-nonconformance-workflow.js';
 import * as m20261202130000 from './20261202130000-build-and-trail.js';
 import * as m20261202150000 from './20261202150000-reference-version.js';
 import * as m20261203100000 from './20261203100000-gate-integrity.js';
+import * as m20261203150000 from './20261203150000-warranty-and-corrective-action.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -20,4 +21,5 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261202130000-build-and-trail', ...m20261202130000 },
   { name: '20261202150000-reference-version', ...m20261202150000 },
   { name: '20261203100000-gate-integrity', ...m20261203100000 },
+  { name: '20261203150000-warranty-and-corrective-action', ...m20261203150000 },
 ];

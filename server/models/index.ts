@@ -8,7 +8,15 @@ import { PartLot, UnitLot } from './lots.js';
 import { DefectCode, Nonconformance, NonconformanceTransition, Signature } from './nonconformances.js';
 import { Customer, Supplier } from './parties.js';
 import { FieldAction, PlantSettings } from './plant.js';
-import { Attachment, LabelPrint, Shipment, WarrantyClaim } from './records.js';
+import { Attachment, LabelPrint, Shipment } from './records.js';
+import { CauseCode, CoreCreditRevision, WarrantyClaim, WarrantyFinding } from './warranty.js';
+import {
+  CorrectiveAction,
+  CorrectiveActionContainment,
+  CorrectiveActionMember,
+  CorrectiveActionSource,
+  CorrectiveActionTask,
+} from './corrective-action.js';
 import { Reading, StageReentry, StageResult } from './results.js';
 import { Session } from './session.js';
 import { Characteristic, ToleranceRule } from './spec.js';
@@ -19,6 +27,13 @@ import { User } from './user.js';
 export {
   Attachment,
   AuditEvent,
+  CauseCode,
+  CoreCreditRevision,
+  CorrectiveAction,
+  CorrectiveActionContainment,
+  CorrectiveActionMember,
+  CorrectiveActionSource,
+  CorrectiveActionTask,
   Characteristic,
   CoreReceipt,
   Customer,
@@ -51,6 +66,7 @@ export {
   UnitLot,
   User,
   WarrantyClaim,
+  WarrantyFinding,
 };
 
 const MODELS = [
@@ -88,6 +104,14 @@ const MODELS = [
   AuditEvent,
   PlantSettings,
   FieldAction,
+  CauseCode,
+  WarrantyFinding,
+  CoreCreditRevision,
+  CorrectiveAction,
+  CorrectiveActionSource,
+  CorrectiveActionMember,
+  CorrectiveActionContainment,
+  CorrectiveActionTask,
 ] as const;
 
 export function initModels(sequelize: Sequelize) {
@@ -182,7 +206,13 @@ export function initModels(sequelize: Sequelize) {
   Item.hasMany(Shipment, { foreignKey: 'unitItemId', as: 'shipments' });
   WarrantyClaim.belongsTo(Item, { foreignKey: 'unitItemId', as: 'unit' });
   WarrantyClaim.belongsTo(User, { foreignKey: 'openedById', as: 'openedBy' });
+  WarrantyClaim.belongsTo(Shipment, { foreignKey: 'shipmentId', as: 'shipment' });
+  WarrantyClaim.belongsTo(Customer, { foreignKey: 'customerId', as: 'customer' });
+  WarrantyClaim.hasMany(WarrantyFinding, { foreignKey: 'claimId', as: 'findings' });
   Item.hasMany(WarrantyClaim, { foreignKey: 'unitItemId', as: 'warrantyClaims' });
+  WarrantyFinding.belongsTo(CauseCode, { foreignKey: 'causeCodeId', as: 'causeCode' });
+  CoreCreditRevision.belongsTo(User, { foreignKey: 'revisedById', as: 'revisedBy' });
+  CorrectiveAction.hasMany(CorrectiveActionTask, { foreignKey: 'correctiveActionId', as: 'tasks' });
 
   FieldAction.belongsTo(Shipment, { foreignKey: 'shipmentId', as: 'shipment' });
   FieldAction.belongsTo(Item, { foreignKey: 'unitItemId', as: 'unit' });

@@ -17,7 +17,7 @@ export function attachmentRoutes(api: Api, sequelize: Sequelize, store: BlobStor
     method: 'post',
     path: '/attachments',
     access: 'attachments.upload',
-    summary: 'Upload one photo (multipart field "file"); attach it to a record by its id.',
+    summary: 'Upload one photo or PDF (multipart field "file"); attach it to a record by its id.',
     before: upload,
     status: 201,
     handler: async ({ req, ctx }) => {
@@ -36,7 +36,9 @@ export function attachmentRoutes(api: Api, sequelize: Sequelize, store: BlobStor
       const { attachment, data } = await readAttachment(store, params.id, user!.id);
       res.setHeader('Content-Type', attachment.mimeType);
       res.setHeader('X-Content-Type-Options', 'nosniff');
-      res.setHeader('Content-Disposition', `inline; filename="${attachment.fileName.replace(/"/g, '')}"`);
+      // a PDF is downloaded, never shown in the app's own origin
+      const disposition = attachment.mimeType.startsWith('image/') ? 'inline' : 'attachment';
+      res.setHeader('Content-Disposition', `${disposition}; filename="${attachment.fileName.replace(/"/g, '')}"`);
       res.setHeader('Cache-Control', 'private, max-age=3600');
       res.end(data);
       return undefined;
