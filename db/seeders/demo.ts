@@ -15,6 +15,7 @@ import {
   ToleranceRule,
   User,
 } from '../../server/models/index.js';
+import { seedDemoHistory } from './demo-history.js';
 import { seedDemoPartsIfEmpty } from './demo-parts.js';
 import { CHARACTERISTICS, firstRules } from './spec-book.js';
 import { DEFECT_CODES, DEMO_USERS, FAMILIES, GAUGES, PLANT, ROUTES, STAGES, STATIONS } from './plant.js';
@@ -36,7 +37,8 @@ async function insertMany(
 }
 
 /** Seeds the demo plant when the database has no users yet. Returns whether it seeded. */
-export async function seedDemoIfEmpty(sequelize: Sequelize, { bcryptCost = 12 } = {}): Promise<boolean> {
+/** `history`: also a year of shipped units with a few claims (demo-history.ts); the benchmark writes its own. */
+export async function seedDemoIfEmpty(sequelize: Sequelize, { bcryptCost = 12, history = true } = {}): Promise<boolean> {
   const seeded = await sequelize.transaction(async (transaction) => {
     await sequelize.query('SELECT pg_advisory_xact_lock(:k)', { replacements: { k: SEED_LOCK }, transaction });
     const [row] = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM users', {
@@ -49,6 +51,7 @@ export async function seedDemoIfEmpty(sequelize: Sequelize, { bcryptCost = 12 } 
   });
   // parts on the line go through the product's own services, each in its own transaction
   if (seeded) await seedDemoPartsIfEmpty(sequelize);
+  if (seeded && history) await sequelize.transaction((t) => seedDemoHistory(sequelize, t));
   return seeded;
 }
 
