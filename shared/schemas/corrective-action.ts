@@ -77,13 +77,17 @@ export type UpdateCaBody = z.input<typeof updateCaBody>;
 export const addSourceBody = z
   .strictObject({ ncr: ncrNumber.optional(), claim: claimNumber.optional() })
   .refine((b) => !b.ncr !== !b.claim, { message: 'Add one NCR or one claim.', path: ['ncr'] });
+export type AddSourceBody = z.input<typeof addSourceBody>;
 export const teamBody = z.strictObject({ members: z.array(member).max(20, 'At most 20 people.') });
+export type TeamBody = z.input<typeof teamBody>;
 export const containmentLinkBody = z
   .strictObject({ ncr: ncrNumber.optional(), fieldAction: faNumber.optional(), note: words(500).default('') })
   .refine((b) => !b.ncr !== !b.fieldAction, { message: 'Link one hold (its NCR) or one field action.', path: ['ncr'] });
+export type ContainmentLinkBody = z.input<typeof containmentLinkBody>;
 export const evidenceBody = z.strictObject({
   attachmentIds: z.array(z.number().int().positive()).min(1, 'Upload a photo or PDF first.').max(12),
 });
+export type EvidenceBody = z.input<typeof evidenceBody>;
 export const taskBody = z.strictObject({
   kind: z.enum(TASK_KINDS, 'Choose corrective or preventive.'),
   description: said(5, 'what is to be done', 2000),
