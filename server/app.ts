@@ -19,6 +19,8 @@ import { ncrRoutes } from './routes/ncrs.js';
 import { primaryOnly, type ReadSide } from './read-side.js';
 import { unitRoutes } from './routes/units.js';
 import { fieldActionRoutes } from './routes/field-actions.js';
+import { warrantyRoutes } from './routes/warranty.js';
+import { correctiveActionRoutes } from './routes/corrective-actions.js';
 import { plantRoutes } from './routes/plant.js';
 import { mailRoutes } from './routes/mail.js';
 import { specRoutes } from './routes/spec.js';
@@ -123,6 +125,8 @@ export function createApp({
   ncrRoutes(api, sequelize);
   unitRoutes(api, sequelize, read);
   fieldActionRoutes(api, sequelize);
+  warrantyRoutes(api, sequelize);
+  correctiveActionRoutes(api, sequelize);
   plantRoutes(api, sequelize);
   mailRoutes(api, config);
   router.use((req, res) => {

@@ -30,6 +30,8 @@ const schema = z.object({
   SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
   MAIL_FROM: z.string().default('Coretrail <coretrail@larkspur.example>'),
   MAIL_WORKER: z.enum(['on', 'off']).default('on'),
+  // queue one reminder per overdue corrective-action action per plant day (safe in several processes)
+  REMINDERS: z.enum(['on', 'off']).default('on'),
   // run the loopback SMTP sink in this process (npm start, npm run dev); never with a real relay
   MAIL_SINK: z.enum(['on', 'off']).default('off'),
   // where the loopback sink keeps what it received; the admin mail page reads it

@@ -10,6 +10,7 @@ import { UploadSweeper } from './jobs/upload-sweeper.js';
 import { LocalDiskStore } from './storage/blob-store.js';
 import { LedgerWorker } from './ledger/sequencer.js';
 import { signerFor } from './ledger/signer.js';
+import { OverdueReminderJob } from './services/corrective-action/reminders.js';
 import { DEMO_USERS, seedDemoIfEmpty } from '../db/seeders/demo.js';
 
 async function main() {
@@ -47,6 +48,8 @@ async function main() {
       ? new LedgerWorker(sequelize, { signer, headIntervalMs: config.AUDIT_HEAD_INTERVAL_S * 1000 })
       : null;
   ledger?.start();
+  const reminders = config.REMINDERS === 'on' ? new OverdueReminderJob(sequelize) : null;
+  reminders?.start();
   // the trail and lot lookups read from a hot standby when one is named (docs/operations.md)
   const readDb = config.DATABASE_READ_URL
     ? createSequelize(config.DATABASE_READ_URL, { poolMin: 1, models: false })
@@ -83,6 +86,7 @@ async function main() {
     console.log(`[api] ${signal}: finishing requests in flight, refusing new ones…`);
     app.state.draining = true;
     server.close(async () => {
+      await reminders?.stop();
       await worker?.stop();
       await sweeper.stop();
       await partitions.stop();

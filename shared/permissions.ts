@@ -48,6 +48,17 @@ export const PERMISSIONS = {
   'release.ship': ['shipping'],
   'trail.read': ['warranty', 'quality', 'supervisor', 'shipping', 'admin'],
   'warranty.record': ['warranty'],
+  // claims: the desk logs and decides them, receiving takes the unit back, the floor tears it down
+  'warranty.read': ['warranty', 'quality', 'supervisor', 'receiving', 'operator', 'admin'],
+  'warranty.return': ['receiving'],
+  'warranty.teardown': ['operator', 'supervisor'],
+  'warranty.analysis': ['warranty', 'quality', 'supervisor', 'admin'],
+  'cause-codes.manage': ['quality', 'admin'],
+  // a core's credit settled after its teardown (the dock's decision is kept beside it)
+  'intake.revise-credit': ['receiving', 'supervisor'],
+  // corrective actions: quality runs them; anyone may own an action in one
+  'corrective-actions.read': everyone,
+  'corrective-actions.manage': ['quality'],
   // problems found after a unit shipped: the warranty desk follows them, quality decides them
   'field-actions.read': ['warranty', 'quality', 'supervisor', 'shipping', 'admin'],
   'field-actions.decide': ['quality'],

@@ -238,6 +238,69 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
                 return { Component: m.PlantPage, loader: m.plantLoader(queryClient) };
               },
             },
+            {
+              path: paths.warrantyClaims,
+              lazy: async () => {
+                const m = await import('./routes/warranty/claims-page');
+                return { Component: m.ClaimsPage, loader: m.claimsLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.logClaim,
+              lazy: async () => {
+                const m = await import('./routes/warranty/log-claim-page');
+                return { Component: m.LogClaimPage, loader: m.logClaimLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.claim,
+              lazy: async () => {
+                const m = await import('./routes/warranty/claim-page');
+                return { Component: m.ClaimPage, loader: m.claimLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.warrantyAnalysis,
+              lazy: async () => {
+                const m = await import('./routes/warranty/analysis-page');
+                return { Component: m.AnalysisPage, loader: m.analysisLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.weibull,
+              lazy: async () => {
+                const m = await import('./routes/warranty/weibull-page');
+                return { Component: m.WeibullPage, loader: m.weibullLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.causeCodes,
+              lazy: async () => {
+                const m = await import('./routes/warranty/cause-codes-page');
+                return { Component: m.CauseCodesPage, loader: m.causeCodesLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.correctiveActions,
+              lazy: async () => {
+                const m = await import('./routes/corrective-actions/list-page');
+                return { Component: m.CaListPage, loader: m.caListLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.openCa,
+              lazy: async () => {
+                const m = await import('./routes/corrective-actions/open-page');
+                return { Component: m.OpenCaPage, loader: m.openCaLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.ca,
+              lazy: async () => {
+                const m = await import('./routes/corrective-actions/ca-page');
+                return { Component: m.CaPage, loader: m.caLoader(queryClient) };
+              },
+            },
             { path: '*', element: <NotFoundPage /> },
           ],
         },

@@ -15,6 +15,7 @@ import {
   ToleranceRule,
   User,
 } from '../../server/models/index.js';
+import { seedDemoClaimsHistory } from './demo-claims-history.js';
 import { seedDemoHistory } from './demo-history.js';
 import { seedDemoPartsIfEmpty } from './demo-parts.js';
 import { CHARACTERISTICS, firstRules } from './spec-book.js';
@@ -37,6 +38,10 @@ async function insertMany(
 }
 
 /** Seeds the demo plant when the database has no users yet. Returns whether it seeded. */
+/**
+ * `history`: also months of shipped units for the control charts (demo-history.ts) and a year of
+ * shipped units with a few claims (demo-claims-history.ts); the benchmark writes its own.
+ */
 export async function seedDemoIfEmpty(
   sequelize: Sequelize,
   { bcryptCost = 12, history = true } = {},
@@ -55,6 +60,8 @@ export async function seedDemoIfEmpty(
   if (seeded) await seedDemoPartsIfEmpty(sequelize);
   // months of shipped units before today, for the control charts (set-based, marked as demo history)
   if (seeded && history) await seedDemoHistory(sequelize);
+  // a year of copies of the demo's own shipped unit, some with warranty claims (marked demo)
+  if (seeded && history) await sequelize.transaction((t) => seedDemoClaimsHistory(sequelize, t));
   return seeded;
 }
 

@@ -8,7 +8,15 @@ import { PartLot, UnitLot } from './lots.js';
 import { DefectCode, Nonconformance, NonconformanceTransition, Signature } from './nonconformances.js';
 import { Customer, Supplier } from './parties.js';
 import { FieldAction, PlantSettings } from './plant.js';
-import { Attachment, LabelPrint, Shipment, WarrantyClaim } from './records.js';
+import { Attachment, LabelPrint, Shipment } from './records.js';
+import { CauseCode, CoreCreditRevision, WarrantyClaim, WarrantyFinding } from './warranty.js';
+import {
+  CorrectiveAction,
+  CorrectiveActionContainment,
+  CorrectiveActionMember,
+  CorrectiveActionSource,
+  CorrectiveActionTask,
+} from './corrective-action.js';
 import { Reading, StageReentry, StageResult } from './results.js';
 import { RecoveryCode } from './recovery-code.js';
 import { Session } from './session.js';
@@ -21,6 +29,13 @@ import { User } from './user.js';
 export {
   Attachment,
   AuditEvent,
+  CauseCode,
+  CoreCreditRevision,
+  CorrectiveAction,
+  CorrectiveActionContainment,
+  CorrectiveActionMember,
+  CorrectiveActionSource,
+  CorrectiveActionTask,
   Characteristic,
   CoreReceipt,
   Customer,
@@ -57,6 +72,7 @@ export {
   UnitLot,
   User,
   WarrantyClaim,
+  WarrantyFinding,
 };
 
 const MODELS = [
@@ -98,6 +114,14 @@ const MODELS = [
   SpcLimits,
   SpcSignal,
   RuleRehearsal,
+  CauseCode,
+  WarrantyFinding,
+  CoreCreditRevision,
+  CorrectiveAction,
+  CorrectiveActionSource,
+  CorrectiveActionMember,
+  CorrectiveActionContainment,
+  CorrectiveActionTask,
 ] as const;
 
 export function initModels(sequelize: Sequelize) {
@@ -192,7 +216,13 @@ export function initModels(sequelize: Sequelize) {
   Item.hasMany(Shipment, { foreignKey: 'unitItemId', as: 'shipments' });
   WarrantyClaim.belongsTo(Item, { foreignKey: 'unitItemId', as: 'unit' });
   WarrantyClaim.belongsTo(User, { foreignKey: 'openedById', as: 'openedBy' });
+  WarrantyClaim.belongsTo(Shipment, { foreignKey: 'shipmentId', as: 'shipment' });
+  WarrantyClaim.belongsTo(Customer, { foreignKey: 'customerId', as: 'customer' });
+  WarrantyClaim.hasMany(WarrantyFinding, { foreignKey: 'claimId', as: 'findings' });
   Item.hasMany(WarrantyClaim, { foreignKey: 'unitItemId', as: 'warrantyClaims' });
+  WarrantyFinding.belongsTo(CauseCode, { foreignKey: 'causeCodeId', as: 'causeCode' });
+  CoreCreditRevision.belongsTo(User, { foreignKey: 'revisedById', as: 'revisedBy' });
+  CorrectiveAction.hasMany(CorrectiveActionTask, { foreignKey: 'correctiveActionId', as: 'tasks' });
 
   FieldAction.belongsTo(Shipment, { foreignKey: 'shipmentId', as: 'shipment' });
   FieldAction.belongsTo(Item, { foreignKey: 'unitItemId', as: 'unit' });

@@ -108,32 +108,3 @@ export class Shipment extends Model<InferAttributes<Shipment>, InferCreationAttr
     );
   }
 }
-
-export class WarrantyClaim extends Model<InferAttributes<WarrantyClaim>, InferCreationAttributes<WarrantyClaim>> {
-  declare id: CreationOptional<number>;
-  declare unitItemId: number;
-  declare openedById: number;
-  declare complaint: string;
-  declare distanceKm: number | null;
-  declare status: string;
-  declare findings: CreationOptional<string>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
-
-  static initModel(sequelize: Sequelize) {
-    WarrantyClaim.init(
-      {
-        id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
-        unitItemId: { type: DataTypes.INTEGER, allowNull: false },
-        openedById: { type: DataTypes.INTEGER, allowNull: false },
-        complaint: { type: DataTypes.TEXT, allowNull: false },
-        distanceKm: { type: DataTypes.INTEGER, allowNull: true },
-        status: { type: DataTypes.STRING(20), allowNull: false },
-        findings: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
-        createdAt: DataTypes.DATE,
-        updatedAt: DataTypes.DATE,
-      },
-      { sequelize, tableName: 'warranty_claims', underscored: true },
-    );
-  }
-}

@@ -33,7 +33,7 @@ export function attachmentRoutes(api: Api, sequelize: Sequelize, store: BlobStor
     method: 'post',
     path: '/attachments',
     access: 'attachments.upload',
-    summary: 'Upload one photo (multipart field "file"); attach it to a record by its id.',
+    summary: 'Upload one photo or PDF (multipart field "file"); attach it to a record by its id.',
     file: true,
     before: upload,
     status: 201,
@@ -61,8 +61,11 @@ export function attachmentRoutes(api: Api, sequelize: Sequelize, store: BlobStor
       const { attachment, data } = await readAttachment(store, params.id, user!.id);
       res.setHeader('Content-Type', attachment.mimeType);
       res.setHeader('X-Content-Type-Options', 'nosniff');
-      // RFC 6266 with an RFC 8187 filename* for names outside Latin-1
-      res.setHeader('Content-Disposition', fileDisposition(attachment.fileName, 'inline'));
+      // a PDF is downloaded, never shown in the app's own origin; RFC 6266 with an RFC 8187
+      // filename* for names outside Latin-1
+      const disposition = attachment.mimeType.startsWith('image/') ? 'inline' : 'attachment';
+      res.setHeader('Content-Disposition', fileDisposition(attachment.fileName, disposition));
+      res.setHeader('Cache-Control', 'private, max-age=3600');
       res.end(data);
       return undefined;
     },

@@ -7,8 +7,10 @@ import { AppError, invalid, notFound } from '../errors.js';
 import { Attachment } from '../models/index.js';
 import type { BlobStore } from '../storage/blob-store.js';
 
-/** Photos only, recognised by their bytes: the name and the browser's Content-Type are not trusted. */
+/** Photos, recognised by their bytes: the name and the browser's Content-Type are not trusted. */
 export const IMAGE_TYPES: Record<string, string> = { 'image/jpeg': 'jpg', 'image/png': 'png', 'image/webp': 'webp' };
+/** Documents a record may also claim where it says so (a corrective action's evidence): PDF. */
+export const DOCUMENT_TYPES: Record<string, string> = { 'application/pdf': 'pdf' };
 export const MAX_UPLOAD_BYTES = 8 * 1024 * 1024;
 
 export const presentAttachment = (a: Attachment): AttachmentJson => ({
@@ -49,12 +51,12 @@ export async function storeUpload(
   file: { buffer: Buffer; originalname: string; size: number },
 ): Promise<AttachmentJson> {
   const detected = await fileTypeFromBuffer(file.buffer);
-  const ext = detected && IMAGE_TYPES[detected.mime];
+  const ext = detected && (IMAGE_TYPES[detected.mime] ?? DOCUMENT_TYPES[detected.mime]);
   if (!detected || !ext) {
     throw new AppError(
       415,
       'not_an_image',
-      'Only photos can be attached: JPEG, PNG or WebP. This file is not one of them.',
+      'Only photos (JPEG, PNG or WebP) or PDF documents can be attached. This file is none of them.',
     );
   }
   const key = `${randomUUID()}.${ext}`;
@@ -88,25 +90,33 @@ export async function storeUpload(
   }
 }
 
-/** Attaches the uploader's pending photos to a record, inside the record's own transaction. */
+/**
+ * Attaches the uploader's pending photos to a record, inside the record's own transaction. A record
+ * takes photos only, unless it accepts documents too (`documents`): a PDF never lands among a
+ * part's photos.
+ */
 export async function claimUploads(
   ctx: Ctx,
   transaction: Transaction,
   ids: number[],
   entity: string,
   entityId: string | number,
+  { documents = false, field = 'photoIds' }: { documents?: boolean; field?: string } = {},
 ): Promise<void> {
   if (!ids.length) return;
   const unique = [...new Set(ids)];
+  const types = Object.keys(documents ? { ...IMAGE_TYPES, ...DOCUMENT_TYPES } : IMAGE_TYPES);
   const [count] = await Attachment.update(
     { entity, entityId: String(entityId) },
     {
-      where: { id: { [Op.in]: unique }, entity: 'pending', uploadedById: ctx.actor!.id },
+      where: { id: { [Op.in]: unique }, entity: 'pending', uploadedById: ctx.actor!.id, mimeType: { [Op.in]: types } },
       transaction,
     },
   );
   if (count !== unique.length) {
-    throw invalid('A photo could not be attached: upload it again.', { photoIds: 'Unknown or already used photo.' });
+    throw invalid(`A ${documents ? 'file' : 'photo'} could not be attached: upload it again.`, {
+      [field]: documents ? 'Unknown or already used file.' : 'Unknown or already used photo (PDFs go with evidence).',
+    });
   }
 }
 

@@ -224,8 +224,14 @@ export async function intakeLog(sequelize: Sequelize, q: LogQuery, { all = false
       `SELECT i.serial, f.code AS "familyCode", r.casting_number AS "castingNumber", r.id_number AS "idNumber", r.source,
               coalesce(c.name, s.name) AS "partyName", r.source_reference AS "sourceReference",
               to_char(r.received_on, 'YYYY-MM-DD') AS "receivedOn", u.name AS "receivedBy", r.grade, r.accepted,
-              r.credit_decision AS "creditDecision", i.status
-         ${from} ${filter} ORDER BY ${order} ${page}`,
+              r.credit_decision AS "creditDecision", cr.credit_decision AS "settledCredit",
+              cr.reason AS "settledReason", cr.by AS "settledBy", cr.created_at AS "settledAt", i.status
+         ${from}
+         -- the credit as settled after teardown: the newest revision, beside the dock's decision
+         LEFT JOIN LATERAL (SELECT x.credit_decision, x.reason, x.created_at, ru.name AS by
+                              FROM core_credit_revisions x JOIN users ru ON ru.id = x.revised_by_id
+                             WHERE x.core_item_id = i.id ORDER BY x.id DESC LIMIT 1) cr ON true
+         ${filter} ORDER BY ${order} ${page}`,
       {
         type: QueryTypes.SELECT,
         replacements: { ...replacements, limit: q.pageSize, offset: (q.page - 1) * q.pageSize },
@@ -253,6 +259,10 @@ export function intakeCsv(rows: CoreSummary[]): string {
     'grade',
     'accepted',
     'core_credit',
+    'core_credit_settled',
+    'settled_reason',
+    'settled_by',
+    'settled_at',
     'status',
   ];
   return csvDocument(
@@ -270,6 +280,10 @@ export function intakeCsv(rows: CoreSummary[]): string {
       r.grade,
       r.accepted ? 'yes' : 'no',
       r.creditDecision,
+      r.settledCredit,
+      r.settledReason,
+      r.settledBy,
+      r.settledAt ? new Date(r.settledAt).toISOString() : null,
       r.status,
     ]),
   );

@@ -71,7 +71,7 @@ export async function presentItem(
   const family = ref.family(item.engineFamilyId)!;
   const route = known !== undefined ? known : ref.route(item.engineFamilyId, item.kind);
   const currentIdx = route?.steps.findIndex((s) => s.stageId === item.currentStageId) ?? -1;
-  const finished = ['finished', 'torn_down', 'installed', 'released', 'shipped'].includes(item.status);
+  const finished = ['finished', 'torn_down', 'installed', 'released', 'shipped', 'returned'].includes(item.status);
   // a core exists because it was received: intake is behind it whether it was accepted or not
   const pastIntake = item.kind === 'core';
   const steps: RouteStep[] = (route?.steps ?? []).map((s, i) => ({

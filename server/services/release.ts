@@ -192,6 +192,15 @@ export async function releaseCheck(
     });
   }
   checks.push({ label: 'Not already shipped', ok: !live, link: null });
+  // back from the field under a warranty claim: it ships again only once rebuilt (its shipment ended)
+  if (unit.status === 'returned') {
+    reasons.unshift({
+      code: 'returned',
+      message: `${unit.serial} came back from the field under a warranty claim: it waits for its teardown.`,
+      serial: unit.serial,
+      link: itemLink(unit.serial),
+    });
+  }
   return { serial: unit.serial, releasable: reasons.length === 0, reasons, checks };
 }
 

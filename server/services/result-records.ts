@@ -21,6 +21,7 @@ const READING_COLUMNS = [
   'toleranceRuleId',
   'ruleVersion',
   'locationNote',
+  'gaugeId',
 ] as const;
 type ReadingRow = Pick<Reading, (typeof READING_COLUMNS)[number]>;
 
@@ -40,6 +41,8 @@ export type RecordedReading = {
   lower: number | null;
   upper: number | null;
   location: string | null;
+  /** The gauge this reading was taken with (a characteristic may be read with its own). */
+  gauge: string | null;
 };
 
 /**
@@ -146,6 +149,7 @@ export async function loadResultRecords(
           lower: limits.lower,
           upper: limits.upper,
           location: x.locationNote,
+          gauge: x.gaugeId ? (ref.gauge(x.gaugeId)?.code ?? null) : null,
         };
       }),
   };

@@ -123,6 +123,7 @@ export type BlockingReason = {
     | 'run_test'
     | 'not_finished'
     | 'shipped'
+    | 'returned'
     | 'part_scrapped'
     | 'part_on_hold'
     | 'lot_unusable';

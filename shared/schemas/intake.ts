@@ -184,6 +184,11 @@ export type CoreSummary = {
   grade: (typeof GRADES)[number] | null;
   accepted: boolean;
   creditDecision: (typeof CREDIT_DECISIONS)[number] | null;
+  /** The credit as settled after teardown (the newest revision), when it was revised. */
+  settledCredit: (typeof CREDIT_DECISIONS)[number] | null;
+  settledReason: string | null;
+  settledBy: string | null;
+  settledAt: string | null;
   status: string;
 };
 

@@ -6,13 +6,20 @@ import { Button } from './ui/button';
 import { Icon } from './ui/icon';
 import { Notice } from './ui/notice';
 
-type PhotoFieldProps = { name: string; label: string; max: number; hint?: string };
+type PhotoFieldProps = {
+  name: string;
+  label: string;
+  max: number;
+  hint?: string;
+  /** PDFs too, where the record takes documents (a corrective action's evidence). */
+  documents?: boolean;
+};
 
 /**
  * Photos go up the moment they are chosen (a tablet camera shot can be large, and the dock should
  * see a refusal at once, not on submit). The form keeps only their ids; the thumbnails are kept here.
  */
-export function PhotoField({ name, label, max, hint }: PhotoFieldProps) {
+export function PhotoField({ name, label, max, hint, documents = false }: PhotoFieldProps) {
   const id = useId();
   const { getValues, setValue } = useFormContext<FieldValues>();
   const ids = (useWatch({ name }) as number[] | undefined) ?? [];
@@ -63,8 +70,8 @@ export function PhotoField({ name, label, max, hint }: PhotoFieldProps) {
         <input
           id={id}
           type="file"
-          accept="image/*"
-          capture="environment"
+          accept={documents ? 'image/*,application/pdf' : 'image/*'}
+          capture={documents ? undefined : 'environment'}
           multiple
           disabled={room <= 0}
           onChange={(e) => void onFiles(e)}
@@ -97,11 +104,17 @@ export function PhotoField({ name, label, max, hint }: PhotoFieldProps) {
         <ul aria-label="Attached so far" className="flex flex-wrap gap-3">
           {shown.map((p, i) => (
             <li key={p.id} className="flex w-36 flex-col gap-1.5">
-              <img
-                src={p.url}
-                alt={`Photo ${i + 1}: ${p.fileName}`}
-                className="aspect-[4/3] w-36 rounded-control border border-rule-strong bg-sunk object-cover"
-              />
+              {p.mimeType.startsWith('image/') ? (
+                <img
+                  src={p.url}
+                  alt={`Photo ${i + 1}: ${p.fileName}`}
+                  className="aspect-[4/3] w-36 rounded-control border border-rule-strong bg-sunk object-cover"
+                />
+              ) : (
+                <span className="flex aspect-[4/3] w-36 items-center justify-center break-all rounded-control border border-rule-strong bg-sunk p-2 text-center font-mono text-sm">
+                  {p.fileName}
+                </span>
+              )}
               <Button size="sm" onClick={() => remove(p.id)} aria-label={`Remove photo ${p.fileName}`}>
                 <Icon name="trash" size={16} />
                 Remove

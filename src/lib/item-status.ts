@@ -12,6 +12,7 @@ const STATUS: Record<string, { label: string; tone: Tone }> = {
   installed: { label: 'Installed', tone: 'neutral' },
   released: { label: 'Released', tone: 'ok' },
   shipped: { label: 'Shipped', tone: 'ok' },
+  returned: { label: 'Back from the field', tone: 'hold' },
   scrapped: { label: 'Scrapped', tone: 'bad' },
 };
 

@@ -34,6 +34,15 @@ export const paths = {
   plant: '/admin/plant',
   verify: '/verify',
   spc: '/spc',
+  warrantyClaims: '/warranty/claims',
+  logClaim: '/warranty/claims/new',
+  claim: '/warranty/claims/:number',
+  warrantyAnalysis: '/warranty/analysis',
+  weibull: '/warranty/weibull',
+  causeCodes: '/admin/cause-codes',
+  correctiveActions: '/corrective-actions',
+  openCa: '/corrective-actions/new',
+  ca: '/corrective-actions/:number',
 } as const;
 
 /** Why the sign-in page was shown, so it can say so in plain words. */
@@ -126,3 +135,15 @@ export const trailHref = (serial?: string) =>
 export const lotHref = (lotCode: string) => `/lots/${encodeURIComponent(lotCode)}`;
 export const buildRecordHref = (serial: string) => `/api/units/${encodeURIComponent(serial)}/build-record.pdf`;
 export const fieldActionHref = (number: string) => `/field-actions/${encodeURIComponent(number)}`;
+export const claimHref = (number: string) => `/warranty/claims/${encodeURIComponent(number)}`;
+export const logClaimHref = (serial?: string) =>
+  serial ? `${paths.logClaim}?serial=${encodeURIComponent(serial)}` : paths.logClaim;
+export const caHref = (number: string) => `/corrective-actions/${encodeURIComponent(number)}`;
+/** Open a corrective action from claims and NCRs already in hand. */
+export function openCaHref(from: { claims?: string[]; ncrs?: string[] } = {}): string {
+  const q = new URLSearchParams();
+  for (const c of from.claims ?? []) q.append('claim', c);
+  for (const n of from.ncrs ?? []) q.append('ncr', n);
+  const s = q.toString();
+  return s ? `${paths.openCa}?${s}` : paths.openCa;
+}

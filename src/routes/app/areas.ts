@@ -97,6 +97,31 @@ export const AREAS: Area[] = [
     summary: 'Problems found after a unit shipped: which customer has it, and what quality decided to do.',
   },
   {
+    label: 'Warranty claims',
+    to: paths.warrantyClaims,
+    permission: 'warranty.read',
+    summary: 'Claims by serial with their coverage; the unit taken back, torn down, decided and closed.',
+  },
+  {
+    label: 'Log a claim',
+    to: paths.logClaim,
+    permission: 'warranty.record',
+    summary: 'A customer reports a failure: scan the serial, see at once whether it is covered, and log it.',
+    homeOnly: true,
+  },
+  {
+    label: 'Warranty analysis',
+    to: paths.warrantyAnalysis,
+    permission: 'warranty.analysis',
+    summary: 'Claim rates by family, build month, lot, core, station, gauge and operator; Weibull of time to failure.',
+  },
+  {
+    label: 'Corrective actions',
+    to: paths.correctiveActions,
+    permission: 'corrective-actions.read',
+    summary: 'Problems answered once for many NCRs and claims: root cause, actions with owners, proof it worked.',
+  },
+  {
     label: 'Raise a concern',
     to: paths.raiseConcern,
     permission: 'ncr.raise',
@@ -128,6 +153,13 @@ export const AREAS: Area[] = [
     summary: 'The plant’s list of defect codes for NCRs: add, reword, retire.',
   },
   {
+    label: 'Cause codes',
+    to: paths.causeCodes,
+    permission: 'cause-codes.manage',
+    summary: 'The plant’s list of causes for teardown findings, and which of them count as failures.',
+    homeOnly: true,
+  },
+  {
     label: 'Mail',
     to: paths.mail,
     permission: 'mail.read',
@@ -147,12 +179,6 @@ export const navAreasFor = (role: Role) => areasFor(role).filter((a) => !a.homeO
 /** Work that is planned but not built; a role sees an entry when it holds any of its permissions. */
 export type Coming = { label: string; permissions: Permission[]; summary: string };
 
-export const COMING: Coming[] = [
-  {
-    label: 'Warranty claims',
-    permissions: ['warranty.record'],
-    summary: 'Log a claim and the teardown findings of a returned unit.',
-  },
-];
+export const COMING: Coming[] = [];
 
 export const comingFor = (role: Role) => COMING.filter((c) => c.permissions.some((p) => can(role, p)));

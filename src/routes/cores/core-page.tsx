@@ -11,6 +11,7 @@ import { labelsHref, paths, teardownHref } from '../../lib/paths';
 import { canonicalSerial, requireSerial } from '../../lib/serial';
 import { requirePermission } from '../../lib/session';
 import { PartList, PhotoStrip, ReceiptList, TeardownSummary } from './core-sections';
+import { CreditSettled } from './credit-settled';
 
 export const coreLoader =
   (queryClient: QueryClient) =>
@@ -118,6 +119,9 @@ export function CorePage() {
               )}
             </CardBody>
           </Card>
+          {core.receipt.source === 'customer_return' && core.receipt.accepted && (
+            <CreditSettled core={core} canRevise={me.can('intake.revise-credit')} />
+          )}
           {core.teardown && (
             <Card labelledBy="teardown-heading">
               <CardHeader id="teardown-heading" title="Teardown record" />

@@ -6,6 +6,7 @@ import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
 import { formatWhen, plural } from '../../lib/format';
 import { fieldActionHref, ncrHref, paths } from '../../lib/paths';
+import { ActionsWaiting, ClaimsWaiting, claimTurnOf } from './waiting-claims';
 
 /** Countersignatures a quality engineer owes: each one a tap from its NCR. */
 function AwaitingSignature() {
@@ -91,11 +92,13 @@ function OpenFieldActions() {
 export function WaitingForYou({ me }: { me: SignedIn }) {
   const signs = me.can('ncr.disposition');
   const follows = me.can('field-actions.read') && (me.user.role === 'warranty' || me.user.role === 'quality');
-  if (!signs && !follows) return null;
+  const claimTurn = claimTurnOf(me);
   return (
-    <section aria-label="Waiting for you" className="mb-8 grid grid-cols-1 gap-5 xl:grid-cols-2">
+    <section aria-label="Waiting for you" className="mb-8 grid grid-cols-1 gap-5 empty:hidden xl:grid-cols-2">
       {signs && <AwaitingSignature />}
+      {claimTurn && <ClaimsWaiting waiting={claimTurn} />}
       {follows && <OpenFieldActions />}
+      {me.can('corrective-actions.read') && <ActionsWaiting everyone={me.can('corrective-actions.manage')} />}
     </section>
   );
 }

@@ -95,7 +95,19 @@ export function IntakeTable({ rows, busy, sort, dir, onSort, empty }: IntakeTabl
         meta: { nowrap: true, wideOnly: true },
         cell: (c) => {
           const d = c.getValue();
-          return d ? CREDIT_SHORT[d] : <span className="text-ink-soft">—</span>;
+          const settled = c.row.original.settledCredit;
+          if (!d) return <span className="text-ink-soft">—</span>;
+          // the dock's decision stays; the one settled after teardown sits beside it
+          return settled ? (
+            <span className="flex flex-col leading-snug" title={c.row.original.settledReason ?? undefined}>
+              <span className="text-sm text-ink-soft">{CREDIT_SHORT[d]} at the dock</span>
+              <span>
+                {CREDIT_SHORT[settled]} <span className="text-sm text-ink-soft">settled</span>
+              </span>
+            </span>
+          ) : (
+            CREDIT_SHORT[d]
+          );
         },
       }),
       // the status says "Rejected at intake" for a rejected core, so no separate accepted column

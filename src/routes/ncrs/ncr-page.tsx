@@ -7,7 +7,7 @@ import { PageHeader } from '../../components/page-header';
 import { ButtonLink } from '../../components/ui/button';
 import { formatWhen, plural } from '../../lib/format';
 import { ApiError } from '../../lib/http';
-import { paths } from '../../lib/paths';
+import { openCaHref, paths } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
 import { NcrActions, NcrDecision } from './ncr-actions';
 import { NcrAssignee } from './ncr-assign';
@@ -72,7 +72,16 @@ export function NcrPage() {
             <NcrAssignee ncr={ncr} me={me.user} canDecide={canDecide} />
           </span>
         }
-        actions={<ButtonLink to={paths.ncrs}>All NCRs</ButtonLink>}
+        actions={
+          <>
+            {me.can('corrective-actions.manage') && (
+              <ButtonLink to={openCaHref({ ncrs: [ncr.number] })} icon="plus">
+                Open a corrective action
+              </ButtonLink>
+            )}
+            <ButtonLink to={paths.ncrs}>All NCRs</ButtonLink>
+          </>
+        }
       />
       {/* on a wide screen the steps sit beside the record; narrower, they follow what was found */}
       <div className="grid grid-cols-1 items-start gap-5 xl:grid-flow-dense xl:grid-cols-[minmax(0,1fr)_26rem]">

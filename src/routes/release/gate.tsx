@@ -17,6 +17,7 @@ const REASON_MARK: Record<BlockingReason['code'], IconName> = {
   lot_ncr_open: 'hold',
   not_finished: 'wait',
   shipped: 'info',
+  returned: 'hold',
   part_scrapped: 'bad',
   part_on_hold: 'hold',
   lot_unusable: 'bad',

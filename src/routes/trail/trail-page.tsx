@@ -22,6 +22,7 @@ import { TrailLots } from './trail-lots';
 import { TrailNcrs } from './trail-ncrs';
 import { TrailResults } from './trail-results';
 import { ShipmentFacts, WarrantyStatus } from './warranty';
+import { TrailClaims } from './trail-claims';
 
 export const trailLoader =
   (queryClient: QueryClient) =>
@@ -113,6 +114,9 @@ function Trail({ trail }: { trail: TrailJson }) {
               )}
             </CardBody>
           </Card>
+          {trail.tree.kind === 'long_block' && (
+            <TrailClaims unit={trail.tree.serial} shipped={trail.item.status === 'shipped'} />
+          )}
           {trail.tree.kind === 'long_block' && <TrailLots lots={trail.lots} />}
         </div>
         <div className="flex min-w-0 flex-col gap-5">

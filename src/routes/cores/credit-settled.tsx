@@ -1,0 +1,109 @@
+import { useState } from 'react';
+import { CREDIT_DECISIONS } from '../../../shared/schemas/intake';
+import { creditRevisionBody } from '../../../shared/schemas/warranty';
+import type { CoreDetail } from '../../api/cores/types';
+import { useCreditRevisions } from '../../api/warranty/credit';
+import { useReviseCredit } from '../../api/warranty/revise-credit';
+import { RadioGroupField } from '../../components/choice-fields';
+import { Form, SubmitButton } from '../../components/form';
+import { TextAreaField } from '../../components/form-fields';
+import { PhotoField } from '../../components/photo-field';
+import { Button } from '../../components/ui/button';
+import { Card, CardBody, CardHeader } from '../../components/ui/card';
+import { formatWhen } from '../../lib/format';
+import { CREDIT_LABELS } from '../../lib/intake-labels';
+
+/**
+ * A returned core's credit as decided at the dock and as settled after its teardown: every
+ * revision is a new record with its reason and who made it; the dock's decision stays beside them.
+ */
+export function CreditSettled({ core, canRevise }: { core: CoreDetail; canRevise: boolean }) {
+  const revisions = useCreditRevisions(core.serial);
+  const revise = useReviseCredit(core.serial);
+  const [open, setOpen] = useState(false);
+  const rows = revisions.data ?? [];
+  const current = rows.at(-1)?.creditDecision ?? core.receipt.creditDecision;
+  const may = canRevise && core.status === 'torn_down';
+  return (
+    <Card labelledBy="credit-heading">
+      <CardHeader
+        id="credit-heading"
+        title="Core credit"
+        description="Decided at the dock, settled on the teardown’s evidence."
+        actions={
+          may &&
+          !open && (
+            <Button size="sm" onClick={() => setOpen(true)}>
+              Settle the credit
+            </Button>
+          )
+        }
+      />
+      <CardBody>
+        <ol className="flex flex-col gap-2">
+          <li>
+            <span className="text-sm text-ink-soft">At the dock · </span>
+            <span className="font-semibold">
+              {core.receipt.creditDecision ? CREDIT_LABELS[core.receipt.creditDecision] : '—'}
+            </span>
+            {core.receipt.creditReason && <span className="block text-ink-soft">{core.receipt.creditReason}</span>}
+          </li>
+          {rows.map((r) => (
+            <li key={r.revisedAt} className="border-t border-rule pt-2">
+              <span className="text-sm text-ink-soft">
+                Settled by {r.revisedBy} · <span className="font-mono">{formatWhen(r.revisedAt)}</span> ·{' '}
+              </span>
+              <span className="font-semibold">{CREDIT_LABELS[r.creditDecision]}</span>
+              <span className="block whitespace-pre-line">{r.reason}</span>
+              {r.photos.length > 0 && (
+                <span className="mt-1 flex flex-wrap gap-2">
+                  {r.photos.map((p) => (
+                    <a key={p.id} href={p.url} target="_blank" rel="noreferrer">
+                      <img
+                        src={p.url}
+                        alt={p.fileName}
+                        className="h-20 w-28 rounded-control border border-rule-strong object-cover"
+                      />
+                    </a>
+                  ))}
+                </span>
+              )}
+            </li>
+          ))}
+        </ol>
+        {open && (
+          <div className="mt-3 border-t border-rule pt-3">
+            <Form
+              schema={creditRevisionBody}
+              defaultValues={{ reason: '', photoIds: [] }}
+              onSubmit={async (body) => {
+                await revise.mutateAsync({ serial: core.serial, body });
+                setOpen(false);
+              }}
+            >
+              <RadioGroupField
+                name="creditDecision"
+                legend="Settled credit"
+                columns={3}
+                options={CREDIT_DECISIONS.filter((d) => d !== current).map((d) => ({
+                  value: d,
+                  label: CREDIT_LABELS[d],
+                }))}
+              />
+              <TextAreaField
+                name="reason"
+                label="What the teardown showed"
+                hint="The evidence, in words the customer will read."
+              />
+              <PhotoField name="photoIds" label="Photos" max={8} />
+              <div className="flex justify-end gap-2">
+                <Button onClick={() => setOpen(false)}>Cancel</Button>
+                <SubmitButton>Record the settled credit</SubmitButton>
+              </div>
+            </Form>
+          </div>
+        )}
+      </CardBody>
+    </Card>
+  );
+}
