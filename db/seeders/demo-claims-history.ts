@@ -73,7 +73,10 @@ type Claim = {
 const q = <T extends object>(s: Sequelize, t: Transaction, sql: string, replacements: Record<string, unknown> = {}) =>
   s.query<T>(sql, { type: QueryTypes.SELECT, replacements, transaction: t });
 
-export async function seedDemoClaimsHistory(sequelize: Sequelize, transaction: Transaction): Promise<Record<string, number>> {
+export async function seedDemoClaimsHistory(
+  sequelize: Sequelize,
+  transaction: Transaction,
+): Promise<Record<string, number>> {
   const faker = new Faker({ locale: [en] });
   faker.seed(FAKER_SEED);
   const random = (n: number) => faker.number.int({ min: 0, max: n - 1 });
