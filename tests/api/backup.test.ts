@@ -52,7 +52,7 @@ beforeAll(async () => {
   const source = createSequelize(urlOf(src), { poolMax: 2 });
   try {
     await migrate(source);
-    expect(await seedDemoIfEmpty(source, { bcryptCost: 4 })).toBe(true);
+    expect(await seedDemoIfEmpty(source, { bcryptCost: 4, history: false })).toBe(true);
     await integrateAll(source, { signer: signerFromPem(TEST_PLANT_KEY) });
   } finally {
     await source.close();

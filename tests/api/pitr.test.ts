@@ -37,7 +37,7 @@ beforeAll(async () => {
   await ensureDatabase(cluster, 'drill');
   t = makeTestApp({ DATABASE_URL: cluster.url('drill') });
   await migrate(t.sequelize);
-  await seedDemoIfEmpty(t.sequelize, { bcryptCost: 4 });
+  await seedDemoIfEmpty(t.sequelize, { bcryptCost: 4, history: false });
   cookies = {
     receiving: await cookieFor(await makeUser('receiving'), t.config),
     operator: await cookieFor(await makeUser('operator'), t.config),

@@ -52,7 +52,7 @@ beforeAll(async () => {
   const own = createSequelize(urlOf(database), { poolMax: 2 });
   try {
     await migrate(own);
-    await seedDemoIfEmpty(own, { bcryptCost: 4 });
+    await seedDemoIfEmpty(own, { bcryptCost: 4, history: false });
   } finally {
     await own.close();
   }

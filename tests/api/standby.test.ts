@@ -58,7 +58,7 @@ beforeAll(async () => {
   await ensureDatabase(primary, 'plant');
   t = makeTestApp({ DATABASE_URL: primary.url('plant') });
   await migrate(t.sequelize);
-  await seedDemoIfEmpty(t.sequelize, { bcryptCost: 4 });
+  await seedDemoIfEmpty(t.sequelize, { bcryptCost: 4, history: false });
   standby = await startStandby({ primary, dir: standbyDir, port: await freePort() });
   readDb = createSequelize(standby.url('plant'), { poolMax: 3, models: false });
   onStandby = createApp({ sequelize: t.sequelize, config: t.config, read: { db: readDb, standby: true } });
