@@ -1,7 +1,7 @@
 import type { Sequelize } from 'sequelize';
 import { AuditEvent } from './audit-event.js';
 import { EngineFamily } from './engine-family.js';
-import { Gauge, GaugeCalibration } from './gauges.js';
+import { Containment, ContainmentItem, Gauge, GaugeCalibration, GaugeStudy } from './gauges.js';
 import { IdempotencyKey, MailOutbox } from './infra.js';
 import { CoreReceipt, Item, ItemLink } from './items.js';
 import { PartLot, UnitLot } from './lots.js';
@@ -22,6 +22,8 @@ export {
   Attachment,
   AuditEvent,
   Characteristic,
+  Containment,
+  ContainmentItem,
   CoreReceipt,
   Customer,
   DefectCode,
@@ -29,6 +31,7 @@ export {
   FieldAction,
   Gauge,
   GaugeCalibration,
+  GaugeStudy,
   IdempotencyKey,
   Item,
   ItemLink,
@@ -79,6 +82,9 @@ const MODELS = [
   UnitLot,
   Gauge,
   GaugeCalibration,
+  GaugeStudy,
+  Containment,
+  ContainmentItem,
   StageResult,
   Reading,
   StageReentry,
@@ -148,6 +154,9 @@ export function initModels(sequelize: Sequelize) {
   Gauge.hasMany(GaugeCalibration, { foreignKey: 'gaugeId', as: 'calibrations' });
   GaugeCalibration.belongsTo(Gauge, { foreignKey: 'gaugeId', as: 'gauge' });
   GaugeCalibration.belongsTo(User, { foreignKey: 'recordedById', as: 'recordedBy' });
+  GaugeStudy.belongsTo(Gauge, { foreignKey: 'gaugeId', as: 'gauge' });
+  GaugeStudy.belongsTo(User, { foreignKey: 'recordedById', as: 'recordedBy' });
+  ContainmentItem.belongsTo(Containment, { foreignKey: 'containmentId', as: 'containment' });
 
   // results
   StageResult.belongsTo(Item, { foreignKey: 'itemId', as: 'item' });

@@ -7,6 +7,9 @@ import { AppError, invalid, notFound } from '../errors.js';
 import { Attachment } from '../models/index.js';
 import type { BlobStore } from '../storage/blob-store.js';
 
+/** A calibration certificate: a PDF, recognised by its bytes. */
+export const CERTIFICATE_TYPES: Record<string, string> = { 'application/pdf': 'pdf' };
+
 /** Photos only, recognised by their bytes: the name and the browser's Content-Type are not trusted. */
 export const IMAGE_TYPES: Record<string, string> = { 'image/jpeg': 'jpg', 'image/png': 'png', 'image/webp': 'webp' };
 export const MAX_UPLOAD_BYTES = 8 * 1024 * 1024;
@@ -47,16 +50,15 @@ export async function storeUpload(
   store: BlobStore,
   ctx: Ctx,
   file: { buffer: Buffer; originalname: string; size: number },
+  accept: { types: Record<string, string>; code: string; message: string } = {
+    types: IMAGE_TYPES,
+    code: 'not_an_image',
+    message: 'Only photos can be attached: JPEG, PNG or WebP. This file is not one of them.',
+  },
 ): Promise<AttachmentJson> {
   const detected = await fileTypeFromBuffer(file.buffer);
-  const ext = detected && IMAGE_TYPES[detected.mime];
-  if (!detected || !ext) {
-    throw new AppError(
-      415,
-      'not_an_image',
-      'Only photos can be attached: JPEG, PNG or WebP. This file is not one of them.',
-    );
-  }
+  const ext = detected && accept.types[detected.mime];
+  if (!detected || !ext) throw new AppError(415, accept.code, accept.message);
   const key = `${randomUUID()}.${ext}`;
   await store.put(key, file.buffer);
   try {
