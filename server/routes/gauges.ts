@@ -96,7 +96,7 @@ export function gaugeRoutes(api: Api, sequelize: Sequelize) {
   });
   api.define({
     method: 'post',
-    path: '/characteristics/:id/gauge-ratio',
+    path: '/gauge-ratios/:id',
     access: 'spec.edit',
     summary: 'Relax (or restore) the 10 : 1 gauge resolution rule for one characteristic, with the reason.',
     params: idParam,

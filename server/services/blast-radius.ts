@@ -23,6 +23,8 @@ import { plantSettings } from './plant.js';
 export type Scope = {
   kind: TriggerKind;
   label: string;
+  /** A few words for a signature's meaning: "gauge BG-014", "lot L-12". */
+  subject: string;
   /** The SQL condition on readings r joined to stage_results sr, or null for a lot. */
   where: string | null;
   replacements: Record<string, unknown>;
@@ -60,6 +62,7 @@ export async function scopeOf(q: BlastQuery, transaction?: Transaction): Promise
   const to = q.to ? new Date(q.to) : null;
   let kind: TriggerKind = 'window';
   let label = 'Every reading';
+  let subject = 'a time window';
   let errors: Record<string, number> = {};
   let guardBand: Scope['guardBand'] = null;
   let lotId: number | null = null;
@@ -70,6 +73,7 @@ export async function scopeOf(q: BlastQuery, transaction?: Transaction): Promise
     if (!gauge) throw notFound(`Gauge ${q.gauge}`);
     const { bad, lastGood } = await gaugeWindow(gauge, transaction);
     conds.push('r.gauge_id = :gaugeId');
+    subject = `gauge ${gauge.code}`;
     replacements.gaugeId = gauge.id;
     if (!q.from && lastGood) {
       // the whole day of the last good calibration, in the plant's time zone: a reading that morning counts
@@ -96,6 +100,7 @@ export async function scopeOf(q: BlastQuery, transaction?: Transaction): Promise
     if (lots.length > 1)
       throw invalid(`Lot code ${q.lot} is used by more than one supplier.`, { lot: 'Ambiguous lot code.' });
     lotId = lots[0]!.id;
+    subject = `lot ${lots[0]!.lotCode}`;
     label = `Lot ${lots[0]!.lotCode} (${lots[0]!.partKind.replace(/_/g, ' ')})`;
   } else if (q.ruleId) {
     kind = 'rule';
@@ -103,6 +108,7 @@ export async function scopeOf(q: BlastQuery, transaction?: Transaction): Promise
     if (!rule) throw notFound(`Rule ${q.ruleId}`);
     conds.push('r.tolerance_rule_id = :ruleId');
     replacements.ruleId = rule.id;
+    subject = `rule ${rule.id} v${rule.version}`;
     label = `Rule version ${rule.version} (rule ${rule.id})`;
   } else if (q.operatorId) {
     kind = 'operator';
@@ -110,6 +116,7 @@ export async function scopeOf(q: BlastQuery, transaction?: Transaction): Promise
     if (!user) throw notFound(`Person ${q.operatorId}`);
     conds.push('sr.operator_id = :operatorId');
     replacements.operatorId = user.id;
+    subject = `readings by ${user.name}`.slice(0, 60);
     label = `Readings taken by ${user.name}`;
   } else if (q.station) {
     kind = 'station';
@@ -117,6 +124,7 @@ export async function scopeOf(q: BlastQuery, transaction?: Transaction): Promise
     if (!station) throw notFound(`Station ${q.station}`);
     conds.push('sr.station_id = :stationId');
     replacements.stationId = station.id;
+    subject = `station ${station.code}`;
     label = `Readings taken at ${station.name}`;
   }
   if (from) {
@@ -132,6 +140,7 @@ export async function scopeOf(q: BlastQuery, transaction?: Transaction): Promise
   return {
     kind,
     label,
+    subject,
     where: kind === 'lot' ? null : conds.join(' AND '),
     replacements,
     from,

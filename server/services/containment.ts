@@ -67,7 +67,7 @@ export async function contain(sequelize: Sequelize, ctx: Ctx, body: ContainBody)
     const { user } = await signWithPassword(ctx, transaction, {
       entity: 'containment',
       entityId: number,
-      meaning: `Contained what ${scope.label.charAt(0).toLowerCase()}${scope.label.slice(1)} touched: held in the plant${body.fieldActions ? ', field actions for what shipped' : ''}`,
+      meaning: `Held what ${scope.subject} touched${body.fieldActions ? '; field actions for shipped units' : ''}`,
       reason: body.reason,
       password: body.password,
       refused: 'nothing was held.',
