@@ -63,7 +63,7 @@ export async function scopeOf(q: BlastQuery, transaction?: Transaction): Promise
   let kind: TriggerKind = 'window';
   let label = 'Every reading';
   let subject = 'a time window';
-  let errors: Record<string, number> = {};
+  const errors: Record<string, number> = {};
   let guardBand: Scope['guardBand'] = null;
   let lotId: number | null = null;
 

@@ -3,15 +3,7 @@ import type { BlastQuery, ContainBody, ContainmentJson } from '../../shared/sche
 import { recordAudit, type Ctx } from '../audit.js';
 import { conflict, invalid, notFound } from '../errors.js';
 import { enqueueMail, quoted } from '../mail/messages.js';
-import {
-  Containment,
-  ContainmentItem,
-  DefectCode,
-  FieldAction,
-  Item,
-  Nonconformance,
-  Signature,
-} from '../models/index.js';
+import { Containment, ContainmentItem, DefectCode, FieldAction, Item, Signature } from '../models/index.js';
 import { blastParts, scopeOf, whereNow } from './blast-radius.js';
 import { raiseNonconformance } from './nonconformances.js';
 import { signWithPassword } from './signatures.js';

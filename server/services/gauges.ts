@@ -1,4 +1,4 @@
-import { Op, type Sequelize } from 'sequelize';
+import type { Sequelize } from 'sequelize';
 import { asFoundError } from '../../shared/domain/gauge-fit.js';
 import { todayIn } from '../../shared/domain/warranty.js';
 import type {
@@ -280,6 +280,3 @@ export async function setGaugeRatio(
     };
   });
 }
-
-/** Gauges whose last study failed, for the station's flag. */
-export const failedStudyGauges = () => Gauge.findAll({ where: { studyVerdict: { [Op.eq]: 'unacceptable' } } });

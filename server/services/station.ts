@@ -4,7 +4,6 @@ import { Op, QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { evaluateForm, physicallyPossible, type Entries } from '../../shared/domain/evaluate.js';
 import { describePosition, expandPositions } from '../../shared/domain/positions.js';
 import type {
-  GaugeChoice,
   ReadingJson,
   ResultJson,
   SequenceCheck,
