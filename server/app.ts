@@ -21,6 +21,7 @@ import { unitRoutes } from './routes/units.js';
 import { fieldActionRoutes } from './routes/field-actions.js';
 import { warrantyRoutes } from './routes/warranty.js';
 import { correctiveActionRoutes } from './routes/corrective-actions.js';
+import { gaugeRoutes } from './routes/gauges.js';
 import { plantRoutes } from './routes/plant.js';
 import { mailRoutes } from './routes/mail.js';
 import { specRoutes } from './routes/spec.js';
@@ -127,6 +128,7 @@ export function createApp({
   fieldActionRoutes(api, sequelize);
   warrantyRoutes(api, sequelize);
   correctiveActionRoutes(api, sequelize);
+  gaugeRoutes(api, sequelize);
   plantRoutes(api, sequelize);
   mailRoutes(api, config);
   router.use((req, res) => {

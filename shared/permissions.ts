@@ -62,6 +62,11 @@ export const PERMISSIONS = {
   // problems found after a unit shipped: the warranty desk follows them, quality decides them
   'field-actions.read': ['warranty', 'quality', 'supervisor', 'shipping', 'admin'],
   'field-actions.decide': ['quality'],
+  // the gauge register and calibrations; the blast radius of a bad gauge, lot, rule, person or station
+  'gauges.read': ['quality', 'supervisor', 'operator', 'admin'],
+  'gauges.manage': ['quality'],
+  'containment.read': ['quality', 'supervisor', 'warranty'],
+  'containment.act': ['quality'],
   'mail.read': ['admin'],
 } as const satisfies Record<string, readonly Role[]>;
 

@@ -127,6 +127,27 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.gauges,
+              lazy: async () => {
+                const m = await import('./routes/gauges/gauges-page');
+                return { Component: m.GaugesPage, loader: m.gaugesLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.gauge,
+              lazy: async () => {
+                const m = await import('./routes/gauges/gauge-page');
+                return { Component: m.GaugePage, loader: m.gaugeLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.blastRadius,
+              lazy: async () => {
+                const m = await import('./routes/gauges/blast-radius-page');
+                return { Component: m.BlastRadiusPage, loader: m.blastLoader(queryClient) };
+              },
+            },
+            {
               path: paths.spc,
               lazy: async () => {
                 const m = await import('./routes/spc/spc-page');

@@ -22,6 +22,7 @@ ALTER TABLE readings RENAME TO readings_unpartitioned;
 ALTER INDEX readings_pkey RENAME TO readings_unpartitioned_pkey;
 ALTER INDEX readings_characteristic_idx RENAME TO readings_unpartitioned_characteristic_idx;
 ALTER INDEX readings_gauge_idx RENAME TO readings_unpartitioned_gauge_idx;
+ALTER INDEX IF EXISTS readings_gauge_time_idx RENAME TO readings_unpartitioned_gauge_time_idx;
 ALTER TABLE readings_unpartitioned
   RENAME CONSTRAINT readings_stage_result_id_characteristic_id_position_key TO readings_unpartitioned_one_key;
 
@@ -79,6 +80,8 @@ DROP TABLE readings_unpartitioned;
 CREATE INDEX readings_characteristic_idx ON readings (characteristic_id, created_at);
 -- containment: everything measured with a gauge found out of calibration
 CREATE INDEX readings_gauge_idx ON readings (gauge_id) WHERE gauge_id IS NOT NULL;
+-- the blast radius of a gauge: its readings in time order (20261203150000-measurement)
+CREATE INDEX readings_gauge_time_idx ON readings (gauge_id, created_at) WHERE gauge_id IS NOT NULL;
 CREATE TRIGGER readings_no_edit BEFORE UPDATE OR DELETE ON readings
   FOR EACH ROW EXECUTE FUNCTION results_are_records();
 `);
@@ -101,6 +104,7 @@ ALTER TABLE readings ADD FOREIGN KEY (gauge_id) REFERENCES gauges(id);
 ALTER TABLE readings ADD CHECK (verdict IN ('pass','fail'));
 CREATE INDEX readings_characteristic_idx ON readings (characteristic_id, created_at);
 CREATE INDEX readings_gauge_idx ON readings (gauge_id) WHERE gauge_id IS NOT NULL;
+CREATE INDEX readings_gauge_time_idx ON readings (gauge_id, created_at) WHERE gauge_id IS NOT NULL;
 CREATE TRIGGER readings_no_edit BEFORE UPDATE OR DELETE ON readings
   FOR EACH ROW EXECUTE FUNCTION results_are_records();
 `);

@@ -10,6 +10,7 @@ import * as m20261203100000 from './20261203100000-gate-integrity.js';
 import * as m20261203110000 from './20261203110000-office-screens.js';
 import * as m20261203120000 from './20261203120000-sessions-and-second-factor.js';
 import * as m20261203140000 from './20261203140000-spc.js';
+import * as m20261203150000m from './20261203150000-measurement.js';
 import * as m20261203150000 from './20261203150000-warranty-and-corrective-action.js';
 import * as m20261203180000 from './20261203180000-readings-by-month.js';
 
@@ -30,6 +31,7 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261203110000-office-screens', ...m20261203110000 },
   { name: '20261203120000-sessions-and-second-factor', ...m20261203120000 },
   { name: '20261203140000-spc', ...m20261203140000 },
+  { name: '20261203150000-measurement', ...m20261203150000m },
   { name: '20261203150000-warranty-and-corrective-action', ...m20261203150000 },
   { name: '20261203180000-readings-by-month', ...m20261203180000 },
 ];

@@ -9,6 +9,8 @@ import { recordAudit, systemCtx } from '../../server/audit.js';
 import { Customer, Item, Station, User, type EngineFamily } from '../../server/models/index.js';
 import { referenceData, type Reference } from '../../server/services/reference-cache.js';
 import { formCharacteristics, toRuleInForce } from '../../server/services/spec.js';
+import { fitOf } from '../../server/services/gauge-suitability.js';
+import { PREFERRED_GAUGE } from './demo-parts.js';
 import { passingReadings } from './sample-readings.js';
 
 /**
@@ -118,7 +120,13 @@ export async function seedDemoHistory(
   const stations = await Station.findAll({ where: { active: true }, order: [['id', 'ASC']] });
   const stationOf = (stageId: number) => stations.find((s) => s.stageId === stageId)?.id ?? null;
   const gaugeByCode = new Map(ref.gauges.map((g) => [g.code, g.id]));
-  const gaugeFor = (unit: string | null) => ref.gauges.find((g) => g.unit === unit && g.code !== 'BG-009')?.id ?? null;
+  // a gauge that can measure the characteristic (unit, range, resolution), the plant's usual one first
+  const gaugeFor = (c: Parameters<typeof fitOf>[2]) => {
+    const fit = ref.gauges.filter((g) => g.code !== 'BG-009' && fitOf(ref, g, c).ok);
+    return (
+      (fit.find((g) => g.code === PREFERRED_GAUGE[c.code]) ?? fit.find((g) => g.unit === c.unit) ?? fit[0])?.id ?? null
+    );
+  };
   const now = Date.now();
   const serials = new Set((await Item.findAll({ attributes: ['serial'] })).map((i) => i.serial));
   const serial = (kind: PartKind) => {
@@ -359,7 +367,7 @@ export async function seedDemoHistory(
     for (const p of planned) {
       const id = nextResult++;
       const firstGauge = p.chars.find((c) => c.kind === 'variable' && !c.optional);
-      const gauge = p.gaugeOverride !== undefined ? p.gaugeOverride : firstGauge ? gaugeFor(firstGauge.unit) : null;
+      const gauge = p.gaugeOverride !== undefined ? p.gaugeOverride : firstGauge ? gaugeFor(firstGauge) : null;
       push(results, {
         id,
         item_id: p.itemId,
@@ -386,7 +394,7 @@ export async function seedDemoHistory(
           verdict: r.verdict ?? 'fail',
           tolerance_rule_id: r.ruleId,
           rule_version: r.ruleVersion,
-          gauge_id: c.kind === 'variable' ? (c.code === 'bore' && gauge ? gauge : gaugeFor(c.unit)) : null,
+          gauge_id: c.kind === 'variable' ? (c.code === 'bore' && gauge ? gauge : gaugeFor(c)) : null,
           created_at: p.at,
         });
       }

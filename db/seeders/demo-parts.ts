@@ -52,15 +52,23 @@ const PLAN: Plan[] = [
 ];
 
 /** The gauge the demo plant uses for a characteristic, where a unit alone does not say (invented). */
-const PREFERRED_GAUGE: Record<string, string> = {
+export const PREFERRED_GAUGE: Record<string, string> = {
   'main-journal': 'OM-022',
   'rod-journal': 'OM-022',
   'main-journal-at-fit': 'OM-022',
   'rod-journal-at-fit': 'OM-022',
-  'piston-skirt': 'OM-022',
+  'piston-skirt': 'OM-035',
+  'main-bore': 'BG-021',
   'deck-point': 'DI-031',
   'seat-runout': 'DI-031',
   'end-play': 'DI-031',
+  'ring-gap-top': 'FG-012',
+  'ring-gap-second': 'FG-012',
+  compression: 'CG-006',
+  'main-bearing-id': 'BG-030',
+  'rod-bearing-id': 'BG-030',
+  torque: 'DY-001',
+  speed: 'TA-002',
 };
 
 type Form = Awaited<ReturnType<typeof stationForm>>;
@@ -68,8 +76,13 @@ type Form = Awaited<ReturnType<typeof stationForm>>;
 /** One gauge for the result, and another for each measured characteristic read with a different one. */
 export function gaugesFor(form: Form) {
   const usable = form.gauges.filter((g) => g.usable);
-  const pick = (c: (typeof form.characteristics)[number]) =>
-    usable.find((g) => g.code === PREFERRED_GAUGE[c.code]) ?? usable.find((g) => g.unit === c.unit) ?? usable[0]!;
+  // only gauges that can measure it (unit, range, resolution), as the station offers them
+  const pick = (c: (typeof form.characteristics)[number]) => {
+    const fit = usable.filter((g) => !g.unfit[c.code]);
+    return (
+      fit.find((g) => g.code === PREFERRED_GAUGE[c.code]) ?? fit.find((g) => g.unit === c.unit) ?? fit[0] ?? usable[0]!
+    );
+  };
   const measured = form.characteristics.filter((c) => c.kind === 'variable' && !c.optional);
   if (!measured.length) return { gauge: null, gauges: {} };
   const gauge = pick(measured[0]!).code;

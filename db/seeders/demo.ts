@@ -1,6 +1,7 @@
 import { Faker, en } from '@faker-js/faker';
 import bcrypt from 'bcryptjs';
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { todayIn } from '../../shared/domain/warranty.js';
 import { recordAudit, systemCtx } from '../../server/audit.js';
 import { personSnapshot } from '../../server/services/people.js';
 import {
@@ -166,12 +167,63 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
     'defect_codes',
     DEFECT_CODES.map((d) => ({ ...d, ...stamp })),
   );
-  const dueOn = (days: number) => new Date(now.getTime() + days * 86_400_000).toISOString().slice(0, 10);
+  // the plant's calendar: a gauge due in 12 days is due on the plant's date 12 days on
+  const plantToday = todayIn(PLANT.timeZone, now);
+  const dayOf = (days: number) =>
+    new Date(Date.parse(`${plantToday}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10);
   await insertMany(
     sequelize,
     transaction,
     'gauges',
-    GAUGES.map(({ dueInDays, ...g }) => ({ ...g, calibration_due_on: dueOn(dueInDays), ...stamp })),
+    GAUGES.map(({ dueInDays, rangeLow, rangeHigh, intervalDays, ...g }) => ({
+      ...g,
+      range_low: rangeLow,
+      range_high: rangeHigh,
+      interval_days: intervalDays,
+      status: 'in_use',
+      calibrated: true,
+      calibration_due_on: dayOf(dueInDays),
+      last_calibrated_on: dayOf(dueInDays - intervalDays),
+      ...stamp,
+    })),
+  );
+  // each gauge's last calibration, in house and in tolerance, at two points of its range (invented)
+  const gaugeIds = new Map(
+    (
+      await sequelize.query<{ id: number; code: string }>('SELECT id, code FROM gauges', {
+        type: QueryTypes.SELECT,
+        transaction,
+      })
+    ).map((r) => [r.code, r.id]),
+  );
+  await insertMany(
+    sequelize,
+    transaction,
+    'gauge_calibrations',
+    GAUGES.map((g) => {
+      const at = (f: number) => Number((g.rangeLow + (g.rangeHigh - g.rangeLow) * f).toFixed(4));
+      const points = [at(0.25), at(0.75)].map((reference) => ({
+        reference,
+        asFound: reference,
+        asLeft: reference,
+        tolerance: g.resolution,
+      }));
+      return {
+        gauge_id: gaugeIds.get(g.code),
+        calibrated_on: dayOf(g.dueInDays - g.intervalDays),
+        due_on: dayOf(g.dueInDays),
+        result: 'in_tolerance',
+        certificate: null,
+        as_found_in_tolerance: true,
+        as_left_in_tolerance: true,
+        as_found_error: 0,
+        points: JSON.stringify(points),
+        performed_by: 'in_house',
+        performer: 'Demo metrology bench',
+        notes: 'Seeded with the demo plant.',
+        created_at: now,
+      };
+    }),
   );
 
   await PlantSettings.update(
@@ -181,6 +233,22 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
   // drafted by one quality engineer, approved by the other
   const [author, approver] = await User.findAll({ where: { role: 'quality' }, order: [['id', 'ASC']], transaction });
   const specCounts = await seedSpecBook(ctx, transaction, stageByCode, families, author!, approver!, now);
+  // the plant's balancer reads to 0.1 g·in: quality accepts five to one for residual imbalance, on record
+  const relaxed =
+    'The balancer reads to 0.1 g·in, the finest the plant has; five to one accepted for residual imbalance (demo).';
+  const [imbalance] = await sequelize.query<{ id: number }>(
+    "UPDATE characteristics SET gauge_ratio = 5, gauge_ratio_reason = :relaxed WHERE code = 'imbalance' RETURNING id",
+    { type: QueryTypes.SELECT, replacements: { relaxed }, transaction },
+  );
+  if (imbalance) {
+    await recordAudit(ctx, transaction, {
+      action: 'characteristic.gauge_ratio_set',
+      entity: 'characteristic',
+      entityId: imbalance.id,
+      before: { gaugeRatio: 10, reason: null },
+      after: { gaugeRatio: 5, reason: relaxed },
+    });
+  }
 
   await recordAudit(ctx, transaction, {
     action: 'demo.seeded',

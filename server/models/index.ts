@@ -1,7 +1,7 @@
 import type { Sequelize } from 'sequelize';
 import { AuditEvent } from './audit-event.js';
 import { EngineFamily } from './engine-family.js';
-import { Gauge, GaugeCalibration } from './gauges.js';
+import { Containment, ContainmentItem, Gauge, GaugeCalibration, GaugeStudy } from './gauges.js';
 import { IdempotencyKey, MailOutbox } from './infra.js';
 import { CoreReceipt, Item, ItemLink } from './items.js';
 import { PartLot, UnitLot } from './lots.js';
@@ -37,6 +37,8 @@ export {
   CorrectiveActionSource,
   CorrectiveActionTask,
   Characteristic,
+  Containment,
+  ContainmentItem,
   CoreReceipt,
   Customer,
   DefectCode,
@@ -44,6 +46,7 @@ export {
   FieldAction,
   Gauge,
   GaugeCalibration,
+  GaugeStudy,
   IdempotencyKey,
   Item,
   ItemLink,
@@ -95,6 +98,9 @@ const MODELS = [
   UnitLot,
   Gauge,
   GaugeCalibration,
+  GaugeStudy,
+  Containment,
+  ContainmentItem,
   StageResult,
   Reading,
   StageReentry,
@@ -172,6 +178,9 @@ export function initModels(sequelize: Sequelize) {
   Gauge.hasMany(GaugeCalibration, { foreignKey: 'gaugeId', as: 'calibrations' });
   GaugeCalibration.belongsTo(Gauge, { foreignKey: 'gaugeId', as: 'gauge' });
   GaugeCalibration.belongsTo(User, { foreignKey: 'recordedById', as: 'recordedBy' });
+  GaugeStudy.belongsTo(Gauge, { foreignKey: 'gaugeId', as: 'gauge' });
+  GaugeStudy.belongsTo(User, { foreignKey: 'recordedById', as: 'recordedBy' });
+  ContainmentItem.belongsTo(Containment, { foreignKey: 'containmentId', as: 'containment' });
 
   // results
   StageResult.belongsTo(Item, { foreignKey: 'itemId', as: 'item' });

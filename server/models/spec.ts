@@ -35,6 +35,9 @@ export class Characteristic extends Model<InferAttributes<Characteristic>, Infer
   /** The defect code an NCR raised by this characteristic's failure carries. */
   declare defectCode: string | null;
   declare help: CreationOptional<string>;
+  /** Tolerance band ÷ gauge resolution the plant asks for here, when relaxed from 10 (with its reason). */
+  declare gaugeRatio: CreationOptional<number | null>;
+  declare gaugeRatioReason: CreationOptional<string | null>;
   /** Recorded when the station can (torque on a stand with a dynamometer); not required. */
   declare optional: CreationOptional<boolean>;
   declare createdAt: CreationOptional<Date>;
@@ -58,6 +61,8 @@ export class Characteristic extends Model<InferAttributes<Characteristic>, Infer
         physicalMax: { type: DataTypes.DECIMAL(14, 6), allowNull: true },
         defectCode: { type: DataTypes.STRING(20), allowNull: true },
         help: { type: DataTypes.STRING(300), allowNull: false, defaultValue: '' },
+        gaugeRatio: { type: DataTypes.DECIMAL(6, 2), allowNull: true },
+        gaugeRatioReason: { type: DataTypes.STRING(500), allowNull: true },
         optional: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

@@ -6,7 +6,13 @@ import type { Config } from '../config.js';
 import { AppError, invalid } from '../errors.js';
 import type { Api } from '../http/api.js';
 import { fileDisposition } from '../http/files.js';
-import { MAX_UPLOAD_BYTES, readAttachment, storeUpload, uploadsToday } from '../services/attachments.js';
+import {
+  CERTIFICATE_TYPES,
+  MAX_UPLOAD_BYTES,
+  readAttachment,
+  storeUpload,
+  uploadsToday,
+} from '../services/attachments.js';
 import type { BlobStore } from '../storage/blob-store.js';
 
 export function attachmentRoutes(api: Api, sequelize: Sequelize, store: BlobStore, config: Config) {
@@ -48,6 +54,25 @@ export function attachmentRoutes(api: Api, sequelize: Sequelize, store: BlobStor
         );
       }
       return storeUpload(sequelize, store, ctx, req.file);
+    },
+  });
+
+  api.define({
+    method: 'post',
+    path: '/gauges/certificates',
+    access: 'gauges.manage',
+    summary:
+      'Upload a calibration certificate (multipart field "file"), a PDF by its bytes; a calibration record claims it.',
+    file: true,
+    before: upload,
+    status: 201,
+    handler: async ({ req, ctx }) => {
+      if (!req.file) throw invalid('Choose the certificate to upload.', { file: 'No file was sent.' });
+      return storeUpload(sequelize, store, ctx, req.file, {
+        types: CERTIFICATE_TYPES,
+        code: 'not_a_pdf',
+        message: 'A certificate is attached as a PDF. This file is not one.',
+      });
     },
   });
 

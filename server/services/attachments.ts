@@ -7,6 +7,9 @@ import { AppError, invalid, notFound } from '../errors.js';
 import { Attachment } from '../models/index.js';
 import type { BlobStore } from '../storage/blob-store.js';
 
+/** A calibration certificate: a PDF, recognised by its bytes. */
+export const CERTIFICATE_TYPES: Record<string, string> = { 'application/pdf': 'pdf' };
+
 /** Photos, recognised by their bytes: the name and the browser's Content-Type are not trusted. */
 export const IMAGE_TYPES: Record<string, string> = { 'image/jpeg': 'jpg', 'image/png': 'png', 'image/webp': 'webp' };
 /** Documents a record may also claim where it says so (a corrective action's evidence): PDF. */
@@ -49,16 +52,16 @@ export async function storeUpload(
   store: BlobStore,
   ctx: Ctx,
   file: { buffer: Buffer; originalname: string; size: number },
+  accept: { types: Record<string, string>; code: string; message: string } = {
+    // a PDF is taken only where a record says so (a corrective action's evidence)
+    types: { ...IMAGE_TYPES, ...DOCUMENT_TYPES },
+    code: 'not_an_image',
+    message: 'Only photos (JPEG, PNG or WebP) or PDF documents can be attached. This file is none of them.',
+  },
 ): Promise<AttachmentJson> {
   const detected = await fileTypeFromBuffer(file.buffer);
-  const ext = detected && (IMAGE_TYPES[detected.mime] ?? DOCUMENT_TYPES[detected.mime]);
-  if (!detected || !ext) {
-    throw new AppError(
-      415,
-      'not_an_image',
-      'Only photos (JPEG, PNG or WebP) or PDF documents can be attached. This file is none of them.',
-    );
-  }
+  const ext = detected && accept.types[detected.mime];
+  if (!detected || !ext) throw new AppError(415, accept.code, accept.message);
   const key = `${randomUUID()}.${ext}`;
   await store.put(key, file.buffer);
   try {

@@ -4,6 +4,7 @@ import {
   Characteristic,
   EngineFamily,
   Gauge,
+  PlantSettings,
   Route,
   RouteStage,
   Stage,
@@ -41,6 +42,8 @@ export type Reference = {
   rule: (id: number) => ToleranceRule | undefined;
   gauges: Gauge[];
   gauge: (id: number) => Gauge | undefined;
+  /** The plant's time zone: a gauge's due date and "today" are the plant's calendar, not UTC. */
+  timeZone: string;
 };
 
 // one copy per database connection pool (tests run several in one process)
@@ -94,6 +97,7 @@ export async function referenceData(
   });
   const rules = await ToleranceRule.findAll({ where: { status: ['approved', 'superseded'] }, ...t });
   const gauges = await Gauge.findAll({ order: [['code', 'ASC']], ...t });
+  const plant = await PlantSettings.findByPk(1, { attributes: ['timeZone'], ...t });
 
   const stageById = new Map(stages.map((s) => [s.id, s]));
   const routeOf = new Map<string, RouteWithSteps>();
@@ -127,6 +131,7 @@ export async function referenceData(
     rule: (id) => ruleById.get(id),
     gauges,
     gauge: (id) => gaugeById.get(id),
+    timeZone: plant?.timeZone ?? 'UTC',
   };
   if (!mine) cache.set(sequelize, reference);
   return reference;

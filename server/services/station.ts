@@ -4,7 +4,6 @@ import { Op, QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { evaluateForm, physicallyPossible, type Entries } from '../../shared/domain/evaluate.js';
 import { describePosition, expandPositions } from '../../shared/domain/positions.js';
 import type {
-  GaugeChoice,
   ReadingJson,
   ResultJson,
   SequenceCheck,
@@ -39,11 +38,11 @@ import { referenceData, VERSION_SQL, versionRead, type Reference, type VersionRo
 import { formCharacteristics } from './spec.js';
 import { checkControlLimits } from './spc/signals.js';
 import { lockUnitsReachedBy } from './unit-locks.js';
+import { fitOf, gaugeChoices } from './gauge-suitability.js';
 
 type Route = NonNullable<Awaited<ReturnType<typeof routeFor>>>;
 type FormChar = ReturnType<typeof formCharacteristics>[number];
 
-const today = () => new Date().toISOString().slice(0, 10);
 const lower = (s: string) => s.charAt(0).toLowerCase() + s.slice(1);
 
 function stationByCode(ref: Reference, code: string) {
@@ -133,32 +132,6 @@ export function checkSequence(
   );
 }
 
-/** The gauges with their calibration state today. */
-function gaugeChoices(ref: Reference): { choices: GaugeChoice[]; byCode: Map<string, Gauge> } {
-  const gauges = ref.gauges;
-  const now = today();
-  const choices = gauges.map((g) => {
-    const overdue = !!g.calibrationDueOn && g.calibrationDueOn < now;
-    const inService = g.status === 'in_service';
-    return {
-      code: g.code,
-      description: g.description,
-      unit: g.unit,
-      resolution: g.resolution === null ? null : Number(g.resolution),
-      calibrationDueOn: g.calibrationDueOn,
-      usable: inService && !overdue,
-      why: !inService
-        ? `Out of service (${g.status.replace(/_/g, ' ')}).`
-        : overdue
-          ? `Calibration was due on ${g.calibrationDueOn}.`
-          : g.calibrationDueOn
-            ? `Calibrated; due ${g.calibrationDueOn}.`
-            : 'No calibration due date recorded.',
-    };
-  });
-  return { choices, byCode: new Map(gauges.map((g) => [g.code, g])) };
-}
-
 async function openReentry(itemId: number, transaction?: Transaction) {
   return StageReentry.findOne({ where: { itemId, usedByResultId: null }, transaction });
 }
@@ -170,7 +143,6 @@ export async function stationForm(stationCode: string, serial: string): Promise<
   const item = await findBySerial(serial);
   const family = ref.family(item.engineFamilyId)!;
   const route = ref.route(item.engineFamilyId, item.kind);
-  const gauges = gaugeChoices(ref);
   const [holds, reentry, current] = await Promise.all([
     blockingNcrsOf(item.id, stage.id),
     openReentry(item.id),
@@ -179,6 +151,7 @@ export async function stationForm(stationCode: string, serial: string): Promise<
   const characteristics = formCharacteristics(ref, stage.id, family.id, new Date(), (c) =>
     expandPositions(c.positions, family, item),
   );
+  const gauges = gaugeChoices(ref, characteristics);
   const operator = current ? await User.findByPk(current.operatorId, { attributes: ['name'] }) : null;
   const rework = await Nonconformance.findOne({
     where: {
@@ -375,7 +348,7 @@ export async function submitResult(
     }
 
     // the result's gauge, and any measured characteristic taken with another one
-    const gauges = gaugeChoices(ref);
+    const gauges = gaugeChoices(ref, chars);
     const usableGauge = (code: string, field: string) => {
       const g = gauges.byCode.get(code.toUpperCase()) ?? null;
       const choice = gauges.choices.find((x) => x.code === g?.code);
@@ -407,6 +380,24 @@ export async function submitResult(
     const unmeasured = chars.filter((c) => c.kind === 'variable' && !c.optional && !gaugeOf.has(c.code));
     if (!gauge && unmeasured.length) {
       throw invalid('Choose the gauge the readings were taken with.', { gauge: 'Choose the gauge used.' });
+    }
+    // each measured characteristic read must be within what its gauge can measure (unit, range, resolution)
+    const unsuitable: Record<string, string> = {};
+    for (const c of chars) {
+      if (c.kind !== 'variable' || !body.readings.some((r) => r.characteristic === c.code)) continue;
+      const g = gaugeOf.get(c.code) ?? gauge;
+      if (!g) continue;
+      const fit = fitOf(ref, g, c);
+      if (!fit.ok) unsuitable[gaugeOf.has(c.code) ? `gauges.${c.code}` : 'gauge'] ??= fit.message;
+    }
+    const refused = Object.values(unsuitable);
+    if (refused.length) {
+      throw new AppError(
+        400,
+        'gauge_unsuitable',
+        `${refused[0]} Choose a gauge that can measure it. Nothing was recorded.`,
+        unsuitable,
+      );
     }
 
     const { entries, locations } = checkReadings(chars, body);

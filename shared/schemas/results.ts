@@ -61,9 +61,15 @@ export type GaugeChoice = {
   description: string;
   unit: string | null;
   resolution: number | null;
+  rangeLow: number | null;
+  rangeHigh: number | null;
   calibrationDueOn: string | null;
   usable: boolean;
   why: string;
+  /** Measured characteristics of this form the gauge cannot read, with the reason (unit, range, resolution). */
+  unfit: Record<string, string>;
+  /** Its last gauge study was unacceptable: offered, but flagged. */
+  studyFailed: boolean;
 };
 
 export type HoldJson = { number: string; state: string; description: string };

@@ -43,6 +43,9 @@ export const paths = {
   correctiveActions: '/corrective-actions',
   openCa: '/corrective-actions/new',
   ca: '/corrective-actions/:number',
+  gauges: '/gauges',
+  gauge: '/gauges/:code',
+  blastRadius: '/blast-radius',
 } as const;
 
 /** Why the sign-in page was shown, so it can say so in plain words. */
@@ -71,6 +74,8 @@ export function safeNext(raw: string | null | undefined): string {
   return raw;
 }
 
+export const gaugeHref = (code: string) => `/gauges/${encodeURIComponent(code)}`;
+export const blastHref = (q: Record<string, string>) => `/blast-radius?${new URLSearchParams(q).toString()}`;
 export const coreHref = (serial: string) => `/cores/${encodeURIComponent(serial)}`;
 export const itemHref = (serial: string) => `/items/${encodeURIComponent(serial)}`;
 

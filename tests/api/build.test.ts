@@ -217,7 +217,15 @@ describe('the run test', () => {
     const res = await request(t.app)
       .post('/api/results')
       .set('Cookie', cookies.operator)
-      .send({ idempotencyKey: randomUUID(), serial: built.body.serial, station: 'RT-1', gauge: 'PG-011', readings });
+      .send({
+        idempotencyKey: randomUUID(),
+        serial: built.body.serial,
+        station: 'RT-1',
+        // compression on a 0–300 psi gauge: the 0–100 psi oil pressure gauge cannot reach 150 psi
+        gauge: 'CG-006',
+        gauges: { 'oil-pressure-idle': 'PG-011', 'oil-pressure-2500': 'PG-011', torque: 'DY-001', speed: 'TA-002' },
+        readings,
+      });
     expect(res.status).toBe(201);
     const spread = res.body.readings.find((r: { characteristic: string }) => r.characteristic === 'compression-spread');
     expect(spread).toMatchObject({ rounded: 10.7, verdict: 'fail' });

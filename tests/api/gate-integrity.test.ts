@@ -6,7 +6,7 @@ import { passingReadings } from '../../db/seeders/sample-readings.js';
 import { Characteristic, Customer, MailOutbox } from '../../server/models/index.js';
 import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
 import { pngImage } from '../support/images.js';
-import { formFor, gaugeFor, pass, releasableUnit, tornDownCore } from '../support/parts.js';
+import { formFor, gaugesOf, pass, releasableUnit, tornDownCore } from '../support/parts.js';
 
 /** What the release gate and the records got wrong, each seen once by hand and now held by a test. */
 
@@ -217,7 +217,7 @@ describe('records that tell the truth', () => {
       idempotencyKey: randomUUID(),
       serial: parts.block,
       station: 'PT-1',
-      gauge: gaugeFor(form),
+      ...gaugesOf(form),
       readings: passingReadings(form, (c, _p, v) => (c === 'hold-time' ? 1 : v)),
     });
     expect(res.body.verdict).toBe('fail');

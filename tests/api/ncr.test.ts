@@ -9,7 +9,7 @@ import { readMailSink, startMailSink } from '../../server/mail/sink.js';
 import { MailWorker } from '../../server/mail/worker.js';
 import { AuditEvent, Item, MailOutbox, Nonconformance, Signature } from '../../server/models/index.js';
 import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
-import { formFor, gaugeFor, pass, passThrough, tornDownCore } from '../support/parts.js';
+import { formFor, gaugesOf, pass, passThrough, tornDownCore } from '../support/parts.js';
 
 let t: TestApp;
 let receiving: string;
@@ -43,7 +43,7 @@ async function failedBlock(value = 4.0309) {
       idempotencyKey: randomUUID(),
       serial: parts.block,
       station: 'BH-1',
-      gauge: gaugeFor(form),
+      ...gaugesOf(form),
       readings: passingReadings(form, (c, p, v) => (c === 'bore' && p === 'c2/top/axial' ? value : v)),
     });
   expect(res.body.verdict).toBe('fail');
@@ -135,7 +135,7 @@ describe('an NCR from a failing result', () => {
       idempotencyKey: randomUUID(),
       serial,
       station: 'BH-1',
-      gauge: gaugeFor(form),
+      ...gaugesOf(form),
       readings: passingReadings(form, (c, p, v) => (c === 'bore' && p === 'c2/top/axial' ? 4.0312 : v)),
     });
     expect(again.body.verdict).toBe('fail');

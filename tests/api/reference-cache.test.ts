@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { passingReadings } from '../../db/seeders/sample-readings.js';
 import { referenceData } from '../../server/services/reference-cache.js';
 import { cookieFor, makeTestApp, makeUser, unique, type TestApp } from '../support/app.js';
-import { formFor, passThrough, tornDownCore } from '../support/parts.js';
+import { formFor, gaugesOf, passThrough, tornDownCore } from '../support/parts.js';
 
 // Each API process keeps the reference data in memory behind a version the database bumps on every
 // change. "Another process" here is a plain connection of its own changing the tables directly.
@@ -36,14 +36,15 @@ describe('reference data kept in memory', () => {
     expect(before.gauges.some((g) => g.code === code)).toBe(false);
 
     await other.query(
-      `INSERT INTO gauges (code, description, kind, resolution, unit, calibration_due_on)
-       VALUES ($1, 'Bore gauge on loan', 'bore gauge', 0.0001, 'in', current_date + 90)`,
+      // calibrated, with a range that reaches the bores: a gauge with no calibration is never usable
+      `INSERT INTO gauges (code, description, kind, resolution, unit, range_low, range_high, calibrated, calibration_due_on)
+       VALUES ($1, 'Bore gauge on loan', 'bore gauge', 0.0001, 'in', 3, 6, true, current_date + 90)`,
       [code],
     );
     const added = await formFor(t, operator, 'BH-1', parts.block);
     expect(added.gauges.find((g) => g.code === code)).toMatchObject({ usable: true });
 
-    await other.query("UPDATE gauges SET status = 'out_of_service' WHERE code = $1", [code]);
+    await other.query("UPDATE gauges SET status = 'out_for_calibration' WHERE code = $1", [code]);
     const res = await request(t.app)
       .post('/api/results')
       .set('Cookie', operator)
@@ -51,11 +52,12 @@ describe('reference data kept in memory', () => {
         idempotencyKey: randomUUID(),
         serial: parts.block,
         station: 'BH-1',
+        ...gaugesOf(added),
         gauge: code,
         readings: passingReadings(added),
       });
     expect(res.status).toBe(400);
-    expect(res.body.error.message).toMatch(new RegExp(`${code} cannot be used: Out of service`));
+    expect(res.body.error.message).toMatch(new RegExp(`${code} cannot be used: Out for calibration`));
     expect((await formFor(t, operator, 'BH-1', parts.block)).gauges.find((g) => g.code === code)).toMatchObject({
       usable: false,
     });

@@ -20,7 +20,7 @@ import { cookieFor, makeTestApp, makeUser, TEST_PASSWORD, unique, type TestApp }
 import {
   CRANK_STATIONS,
   formFor,
-  gaugeFor,
+  gaugesOf,
   HEAD_STATIONS,
   lotsFor,
   passThrough,
@@ -83,7 +83,7 @@ async function recordBores(serial: string, a: number, b: number) {
       idempotencyKey: randomUUID(),
       serial,
       station,
-      gauge: gaugeFor(form),
+      ...gaugesOf(form),
       readings: passingReadings(form, (c, p, v) => (c === 'bore' ? (p.endsWith('/thrust') ? a : b) : v)),
     });
   if (res.status !== 201) throw new Error(`result failed: ${res.status} ${JSON.stringify(res.body)}`);

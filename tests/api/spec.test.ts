@@ -5,7 +5,7 @@ import { passingReadings } from '../../db/seeders/sample-readings.js';
 import { AuditEvent, Characteristic, Signature, Stage, ToleranceRule } from '../../server/models/index.js';
 import type { SpecBookJson } from '../../shared/schemas/spec.js';
 import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
-import { formFor, gaugeFor, passThrough, tornDownCore } from '../support/parts.js';
+import { formFor, gaugesOf, passThrough, tornDownCore } from '../support/parts.js';
 
 let t: TestApp;
 let quality: string;
@@ -106,7 +106,7 @@ describe('drafting and approving a new version', () => {
         idempotencyKey: randomUUID(),
         serial: a.block,
         station: 'BH-1',
-        gauge: gaugeFor(formA),
+        ...gaugesOf(formA),
         readings: passingReadings(formA, (code, _p, v) => (code === 'bore-finish' ? 32 : v)),
       });
     expect(before.body.verdict).toBe('pass');
@@ -196,7 +196,7 @@ describe('drafting and approving a new version', () => {
         idempotencyKey: randomUUID(),
         serial: b.block,
         station: 'BH-1',
-        gauge: gaugeFor(formB),
+        ...gaugesOf(formB),
         readings: passingReadings(formB, (code, _p, v) => (code === 'bore-finish' ? 32 : v)),
       });
     expect(after.body.verdict).toBe('fail');

@@ -5,7 +5,7 @@ import { passingReadings } from '../../db/seeders/sample-readings.js';
 import { AuditEvent, IdempotencyKey, Item, Nonconformance, Reading, StageResult } from '../../server/models/index.js';
 import type { ReadingInput, StationFormJson } from '../../shared/schemas/results.js';
 import { cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
-import { formFor, gaugeFor, pass, passThrough, tornDownCore } from '../support/parts.js';
+import { formFor, gaugesOf, pass, passThrough, tornDownCore } from '../support/parts.js';
 
 let t: TestApp;
 let receiving: string;
@@ -33,7 +33,7 @@ const submit = (cookie: string, body: Record<string, unknown>) =>
   request(t.app).post('/api/results').set('Cookie', cookie).send(body);
 
 function boreBody(serial: string, form: StationFormJson, readings: ReadingInput[], key = randomUUID()) {
-  return { idempotencyKey: key, serial, station: 'BH-1', gauge: gaugeFor(form), readings };
+  return { idempotencyKey: key, serial, station: 'BH-1', ...gaugesOf(form), readings };
 }
 
 async function counts() {

@@ -21,7 +21,7 @@ import {
   HEAD_STATIONS,
   finishedParts,
   formFor,
-  gaugeFor,
+  gaugesOf,
   lotsFor,
   pass,
   passThrough,
@@ -87,7 +87,7 @@ describe('the line, end to end', () => {
         idempotencyKey: randomUUID(),
         serial: parts.block,
         station: 'BH-1',
-        gauge: gaugeFor(form),
+        ...gaugesOf(form),
         readings: passingReadings(form, (c, p, v) => (c === 'bore' && p === 'c4/bottom/thrust' ? 3.7213 : v)),
       });
     const number = failed.body.nonconformance.number as string;

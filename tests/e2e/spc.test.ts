@@ -9,7 +9,7 @@ import { DEMO_USERS } from '../../db/seeders/plant.js';
 import { Characteristic, EngineFamily, RuleRehearsal, Stage, ToleranceRule } from '../../server/models/index.js';
 import { cookieFor, makeUser } from '../support/app.js';
 import { launch, serveApp, signIn, type Served } from '../support/browser.js';
-import { formFor, gaugeFor, passThrough, tornDownCore } from '../support/parts.js';
+import { formFor, gaugesOf, passThrough, tornDownCore } from '../support/parts.js';
 
 /**
  * Quality at the control charts: the six-cylinder's bore diameter over the last year (the demo's
@@ -47,7 +47,7 @@ beforeAll(async () => {
       idempotencyKey: randomUUID(),
       serial: parts.block,
       station: 'BH-1',
-      gauge: gaugeFor(form),
+      ...gaugesOf(form),
       readings: passingReadings(form, (c, _p, v) => (c === 'bore' ? 3.7209 : v)),
     });
   if (res.status !== 201 || res.body.verdict !== 'pass') throw new Error(JSON.stringify(res.body));

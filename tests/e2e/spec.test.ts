@@ -9,7 +9,7 @@ import { DEMO_USERS } from '../../db/seeders/plant.js';
 import { Characteristic, Stage } from '../../server/models/index.js';
 import { cookieFor, makeUser } from '../support/app.js';
 import { launch, serveApp, signIn, type Served } from '../support/browser.js';
-import { formFor, gaugeFor, passThrough, tornDownCore } from '../support/parts.js';
+import { formFor, gaugesOf, passThrough, tornDownCore } from '../support/parts.js';
 
 let served: Served;
 let browser: Browser;
@@ -43,7 +43,7 @@ async function deckResult() {
       idempotencyKey: randomUUID(),
       serial: parts.block,
       station: 'DK-1',
-      gauge: gaugeFor(form),
+      ...gaugesOf(form),
       readings: passingReadings(form, (c, _p, v) => (c === 'deck-finish' ? 95 : v)),
     });
   return { serial: parts.block, result: res.body };

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import pg from 'pg';
 import { passingReadings } from '../../db/seeders/sample-readings.js';
 import type { TestApp } from './app.js';
-import { formFor, gaugeFor, tornDownCore } from './parts.js';
+import { formFor, gaugesOf, tornDownCore } from './parts.js';
 
 // What the fault drills share: a burst of station submissions from many clients, each behaving as
 // the station's queue does (a 503 or a dropped connection is retried with the same idempotency
@@ -34,7 +34,7 @@ export async function firstStageSubmissions(
         key,
         serial,
         station,
-        body: { idempotencyKey: key, serial, station, gauge: gaugeFor(form), readings: passingReadings(form) },
+        body: { idempotencyKey: key, serial, station, ...gaugesOf(form), readings: passingReadings(form) },
       });
     }
     return out;

@@ -65,8 +65,22 @@ export async function formFor(t: TestApp, cookie: string, station: string, seria
   return res.body as StationFormJson;
 }
 
-export const gaugeFor = (form: StationFormJson) =>
-  form.characteristics.some((c) => c.kind === 'variable') ? form.gauges.find((g) => g.usable)!.code : null;
+/**
+ * The gauges a tablet would send: one for the result that can read the first measured
+ * characteristic, and another for each measured characteristic it cannot (unit, range, resolution).
+ */
+export function gaugesOf(form: StationFormJson): { gauge: string | null; gauges: Record<string, string> } {
+  const measured = form.characteristics.filter((c) => c.kind === 'variable' && !c.optional);
+  if (!measured.length) return { gauge: null, gauges: {} };
+  const usable = form.gauges.filter((g) => g.usable);
+  const pick = (code: string) => (usable.find((g) => !g.unfit[code]) ?? usable[0]!).code;
+  const gauge = pick(measured[0]!.code);
+  const gauges: Record<string, string> = {};
+  for (const c of measured) if (form.gauges.find((g) => g.code === gauge)?.unfit[c.code]) gauges[c.code] = pick(c.code);
+  return { gauge, gauges };
+}
+
+export const gaugeFor = (form: StationFormJson) => gaugesOf(form).gauge;
 
 /** Records a passing result at a station for a part that is due there. */
 export async function pass(t: TestApp, cookie: string, station: string, serial: string) {
@@ -78,7 +92,7 @@ export async function pass(t: TestApp, cookie: string, station: string, serial: 
       idempotencyKey: randomUUID(),
       serial,
       station,
-      gauge: gaugeFor(form),
+      ...gaugesOf(form),
       readings: passingReadings(form),
     });
   if (res.status !== 201 || res.body.verdict !== 'pass') throw new Error(`pass failed: ${JSON.stringify(res.body)}`);

@@ -91,6 +91,13 @@ export const AREAS: Area[] = [
     summary: 'Look up any serial or lot code: genealogy, every reading and decision, shipment and warranty.',
   },
   {
+    label: 'Gauges',
+    to: paths.gauges,
+    permission: 'gauges.read',
+    summary:
+      'The gauge register: calibration due dates in the plant’s calendar, calibration records, what a bad gauge touched.',
+  },
+  {
     label: 'Field actions',
     to: paths.fieldActions,
     permission: 'field-actions.read',

@@ -14,20 +14,24 @@ export const measuredOf = (characteristics: FormCharacteristic[]) =>
 
 export const charGaugeKey = (c: FormCharacteristic) => `gauges.${c.code}`;
 
-const unitOf = (gauges: GaugeChoice[], code: string) => gauges.find((g) => g.code === code)?.unit ?? null;
+/** Whether the main gauge can measure it (unit, range, resolution, as the server judges). */
+const mainFits = (gauges: GaugeChoice[], main: string, c: FormCharacteristic) => {
+  const g = gauges.find((x) => x.code === main);
+  return !!g && !g.unfit[c.code];
+};
 
-const usableIn = (gauges: GaugeChoice[], unit: string | null) =>
-  gauges.filter((g) => g.usable && unit !== null && g.unit === unit);
+/** Only the usable gauges that can measure this characteristic are offered for it. */
+const usableFor = (gauges: GaugeChoice[], c: FormCharacteristic) => gauges.filter((g) => g.usable && !g.unfit[c.code]);
 
 /** Worth asking only where the main gauge cannot have read it, or where the operator had a real choice. */
 export function asksGauge(c: FormCharacteristic, gauges: GaugeChoice[], main: string): boolean {
-  return c.unit !== unitOf(gauges, main) || usableIn(gauges, c.unit).length > 1;
+  return !mainFits(gauges, main, c) || usableFor(gauges, c).length > 1;
 }
 
-/** A gauge reading in the characteristic's unit when the main gauge does not; otherwise "same". */
+/** A gauge that can measure it when the main gauge cannot; otherwise "same". */
 export function preselectedFor(c: FormCharacteristic, gauges: GaugeChoice[], main: string): string {
-  if (c.unit === unitOf(gauges, main)) return '';
-  return usableIn(gauges, c.unit)[0]?.code ?? '';
+  if (mainFits(gauges, main, c)) return '';
+  return usableFor(gauges, c)[0]?.code ?? '';
 }
 
 /** The choices as the form starts, for the preselected main gauge. */
@@ -68,8 +72,9 @@ export function charGaugeProblems(measured: FormCharacteristic[], gauges: GaugeC
     const code = sent[c.code];
     if (!code) return [];
     const g = gauges.find((x) => x.code === code);
-    if (g?.usable) return [];
-    return [{ key: charGaugeKey(c), label: `Gauge for ${c.name}`, message: g?.why ?? 'choose a gauge from the list' }];
+    if (g?.usable && !g.unfit[c.code]) return [];
+    const why = g && !g.usable ? g.why : (g?.unfit[c.code] ?? 'choose a gauge from the list');
+    return [{ key: charGaugeKey(c), label: `Gauge for ${c.name}`, message: why }];
   });
 }
 
@@ -86,8 +91,8 @@ export function CharGaugeField({ char, index, gauges, problem, onChange }: CharG
   const { register } = useFormContext<Draft>();
   const main = useWatch<Draft, 'gauge'>({ name: 'gauge' });
   if (!asksGauge(char, gauges, main)) return null;
-  const matching = usableIn(gauges, char.unit);
-  const others = gauges.filter((g) => g.usable && !matching.includes(g));
+  const matching = usableFor(gauges, char);
+  const others: GaugeChoice[] = [];
   const name = `Gauge for ${char.name}`;
   return (
     <div className="flex flex-col gap-1">
@@ -105,7 +110,7 @@ export function CharGaugeField({ char, index, gauges, problem, onChange }: CharG
           >
             <option value="">Same as Gauge used</option>
             {matching.length > 0 && (
-              <optgroup label={`Reading in ${char.unit}`}>
+              <optgroup label="Gauges that can measure it">
                 {matching.map((g) => (
                   <option key={g.code} value={g.code}>
                     {g.code} — {g.description}

@@ -6,23 +6,26 @@ import { bigControl, bigLabel } from './controls';
 
 type GaugeFieldProps = {
   gauges: GaugeChoice[];
-  /** The unit of the readings, so the gauges that measure in it are listed first. */
+  /** The unit of the readings the gauge is chosen for. */
   unit: string | null;
+  /** The first measured characteristic: only gauges that can measure it are offered. */
+  first: string | null;
   problem?: string;
   onChange: () => void;
 };
 
 const optionText = (g: GaugeChoice) =>
-  `${g.code} — ${g.description}${g.usable ? '' : ` (cannot be used: ${g.why.replace(/\.$/, '')})`}`;
+  `${g.code} — ${g.description}${g.usable ? '' : ` (cannot be used: ${g.why.replace(/\.$/, '')})`}${g.studyFailed ? ' — last gauge study failed' : ''}`;
 
 /** Which gauge took the readings: a gauge past its calibration date is listed, greyed, with the reason. */
-export function GaugeField({ gauges, unit, problem, onChange }: GaugeFieldProps) {
+export function GaugeField({ gauges, unit, first, problem, onChange }: GaugeFieldProps) {
   const id = useId();
   const { register } = useFormContext<{ gauge: string }>();
   const chosen = useWatch<{ gauge: string }, 'gauge'>({ name: 'gauge' });
   const g = gauges.find((x) => x.code === chosen);
-  const matching = gauges.filter((x) => unit !== null && x.unit === unit);
-  const others = gauges.filter((x) => !matching.includes(x));
+  // a gauge that cannot measure it (unit, range, resolution) is not offered at all
+  const matching = gauges.filter((x) => first !== null && !x.unfit[first]);
+  const others: GaugeChoice[] = [];
   const unusable = gauges.filter((x) => !x.usable && matching.includes(x));
   return (
     <div className="flex flex-col gap-1.5">
@@ -41,7 +44,7 @@ export function GaugeField({ gauges, unit, problem, onChange }: GaugeFieldProps)
         >
           <option value="">Choose the gauge</option>
           {matching.length > 0 && (
-            <optgroup label={`Gauges reading in ${unit}`}>
+            <optgroup label={`Gauges that can measure it (${unit ?? 'no unit'})`}>
               {matching.map((x) => (
                 <option key={x.code} value={x.code} disabled={!x.usable}>
                   {optionText(x)}
@@ -84,7 +87,7 @@ export function GaugeField({ gauges, unit, problem, onChange }: GaugeFieldProps)
   );
 }
 
-/** A usable gauge that reads in the unit of the form's first measured characteristic, if there is one. */
-export function preselectedGauge(gauges: GaugeChoice[], unit: string | null): string {
-  return gauges.find((g) => g.usable && unit !== null && g.unit === unit)?.code ?? '';
+/** A usable gauge that can measure the form's first measured characteristic, if there is one. */
+export function preselectedGauge(gauges: GaugeChoice[], first: string | null): string {
+  return gauges.find((g) => g.usable && first !== null && !g.unfit[first] && !g.studyFailed)?.code ?? '';
 }

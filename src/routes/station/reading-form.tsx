@@ -79,7 +79,7 @@ export function ReadingForm({
   const measured = useMemo(() => measuredOf(form.characteristics), [form.characteristics]);
   const firstMeasured = measured[0] ?? null;
   const needsGauge = firstMeasured !== null;
-  const mainGauge = preselectedGauge(form.gauges, firstMeasured?.unit ?? null);
+  const mainGauge = preselectedGauge(form.gauges, firstMeasured?.code ?? null);
   const methods = useForm<Draft>({
     defaultValues: {
       slots: slots.map(() => ({ text: '', choice: '', where: '' })),
@@ -259,6 +259,7 @@ export function ReadingForm({
                 <GaugeField
                   gauges={form.gauges}
                   unit={firstMeasured.unit}
+                  first={firstMeasured.code}
                   problem={problemMap.gauge}
                   onChange={() => {
                     state.clearProblem('gauge');

@@ -1,0 +1,103 @@
+import type { Sequelize } from 'sequelize';
+import { attributeAgreement, attributeBands } from '../../shared/domain/attribute-study.js';
+import type { Band } from '../../shared/domain/gauge-study.js';
+import { anovaGaugeStudy } from '../../shared/domain/gauge-rr-anova.js';
+import { averageAndRange } from '../../shared/domain/gauge-rr-range.js';
+import { StudyDataError } from '../../shared/domain/study-error.js';
+import type { StudyBody, StudyJson } from '../../shared/schemas/gauges.js';
+import { recordAudit, type Ctx } from '../audit.js';
+import { invalid } from '../errors.js';
+import { GaugeStudy, User } from '../models/index.js';
+import { findGauge } from './gauges.js';
+
+/**
+ * Gauge studies (MSA) stored with their grid and figures. The statistics are shared/domain's
+ * (average-and-range and ANOVA per the AIAG MSA 4th edition; Cohen's and Fleiss' kappa); this file
+ * only runs them on what was entered, keeps the result, and flags the gauge when the last study
+ * was unacceptable.
+ */
+
+const worst = (bands: Band[]): Band =>
+  bands.includes('unacceptable') ? 'unacceptable' : bands.includes('conditional') ? 'conditional' : 'acceptable';
+
+function analyse(body: StudyBody): { result: unknown; verdict: Band } {
+  try {
+    if (body.method === 'attribute') {
+      const result = attributeAgreement({ ratings: body.ratings, reference: body.reference, nonconforming: 'fail' });
+      const bands: Band[] = [];
+      if (result.overallKappa) bands.push(attributeBands.kappa(result.overallKappa.kappa));
+      for (const a of result.appraisers) {
+        if (a.effectiveness?.percent != null) bands.push(attributeBands.effectiveness(a.effectiveness.percent));
+        if (a.misses?.percent != null) bands.push(attributeBands.missRate(a.misses.percent));
+        if (a.falseAlarms?.percent != null) bands.push(attributeBands.falseAlarmRate(a.falseAlarms.percent));
+      }
+      if (!bands.length)
+        throw new StudyDataError('the judgements give nothing to rate: every part was judged the same', 'ratings');
+      return { result, verdict: worst(bands) };
+    }
+    const options = { tolerance: body.tolerance };
+    const result =
+      body.method === 'range' ? averageAndRange(body.readings, options) : anovaGaugeStudy(body.readings, options);
+    return { result, verdict: result.verdict };
+  } catch (err) {
+    if (err instanceof StudyDataError) {
+      throw invalid(`The study cannot be worked out: ${err.message}.`, { [err.field ?? 'readings']: err.message });
+    }
+    throw err;
+  }
+}
+
+const present = (s: GaugeStudy & { recordedBy?: User | null }, gauge: string): StudyJson => ({
+  id: s.id,
+  gauge,
+  method: s.method,
+  characteristic: s.characteristic,
+  tolerance: s.tolerance === null ? null : Number(s.tolerance),
+  verdict: s.verdict,
+  result: s.result,
+  recordedBy: s.recordedBy?.name ?? '',
+  recordedAt: s.createdAt.toISOString(),
+});
+
+export async function recordStudy(sequelize: Sequelize, ctx: Ctx, code: string, body: StudyBody): Promise<StudyJson> {
+  const { result, verdict } = analyse(body);
+  return sequelize.transaction(async (transaction) => {
+    const g = await findGauge(code, transaction, true);
+    const s = await GaugeStudy.create(
+      {
+        gaugeId: g.id,
+        method: body.method,
+        characteristic: body.characteristic,
+        tolerance: body.method === 'attribute' ? null : body.tolerance,
+        data:
+          body.method === 'attribute'
+            ? { ratings: body.ratings, reference: body.reference }
+            : { readings: body.readings },
+        result,
+        verdict,
+        recordedById: ctx.actor!.id,
+      },
+      { transaction },
+    );
+    const before = { studyVerdict: g.studyVerdict ?? null };
+    await g.update({ studyVerdict: verdict }, { transaction });
+    await recordAudit(ctx, transaction, {
+      action: 'gauge.studied',
+      entity: 'gauge',
+      entityId: g.code,
+      before,
+      after: { studyId: s.id, method: body.method, characteristic: body.characteristic, verdict },
+    });
+    return present(s, g.code);
+  });
+}
+
+export async function listStudies(code: string): Promise<StudyJson[]> {
+  const g = await findGauge(code);
+  const rows = await GaugeStudy.findAll({
+    where: { gaugeId: g.id },
+    include: [{ model: User, as: 'recordedBy', attributes: ['name'] }],
+    order: [['createdAt', 'DESC']],
+  });
+  return rows.map((s) => present(s, g.code));
+}
