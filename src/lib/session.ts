@@ -37,5 +37,3 @@ export function forgetEverything(queryClient: QueryClient): void {
   queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== meKey[0] });
 }
 
-/** Floor roles work on tablets, often gloved; their screens get larger targets. */
-export const FLOOR_ROLES = new Set(['receiving', 'operator', 'shipping']);

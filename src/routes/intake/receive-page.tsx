@@ -126,7 +126,7 @@ export function ReceivePage() {
             {/* who received it is not a choice: shown as text, not as a box that looks editable */}
             <div className="flex flex-col gap-1.5">
               <p className="text-sm font-medium text-ink floor:text-base">Received by</p>
-              <p className="flex min-h-9 items-center font-medium floor:min-h-11">{me.user.name}</p>
+              <p className="flex min-h-9 items-center font-medium floor:min-h-12">{me.user.name}</p>
               <p className="text-sm text-ink-faint">You, as signed in.</p>
             </div>
           </div>
