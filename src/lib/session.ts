@@ -36,4 +36,3 @@ export async function requirePermission(
 export function forgetEverything(queryClient: QueryClient): void {
   queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== meKey[0] });
 }
-

@@ -134,7 +134,13 @@ export function AuditPage() {
             value={filter.actorId ? String(filter.actorId) : ''}
             onChange={(v) => set('actorId', v)}
           />
-          <FilterInput id="audit-from" label="From" type="date" value={filter.from ?? ''} onChange={(v) => set('from', v)} />
+          <FilterInput
+            id="audit-from"
+            label="From"
+            type="date"
+            value={filter.from ?? ''}
+            onChange={(v) => set('from', v)}
+          />
           <FilterInput id="audit-to" label="To" type="date" value={filter.to ?? ''} onChange={(v) => set('to', v)} />
           <div className="flex flex-wrap items-center gap-3 sm:col-span-2 lg:col-span-5">
             <p aria-live="polite" className="text-sm text-ink-soft">
@@ -142,10 +148,7 @@ export function AuditPage() {
               {filtered ? ' match these filters' : ''}
             </p>
             {filtered && (
-              <Button
-                size="sm"
-                onClick={() => setMany({ entity: '', entityId: '', actorId: '', from: '', to: '' })}
-              >
+              <Button size="sm" onClick={() => setMany({ entity: '', entityId: '', actorId: '', from: '', to: '' })}>
                 Clear filters
               </Button>
             )}

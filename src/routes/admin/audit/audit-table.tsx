@@ -22,7 +22,8 @@ function RecordName({ event: e }: { event: AuditEvent }) {
     </>
   );
 }
-const linkCls = 'inline-flex min-h-8 items-center text-left text-accent underline-offset-4 hover:underline floor:min-h-12';
+const linkCls =
+  'inline-flex min-h-8 items-center text-left text-accent underline-offset-4 hover:underline floor:min-h-12';
 
 type AuditTableProps = {
   rows: AuditEvent[];
