@@ -155,8 +155,21 @@ const ROLE_RULES = [
   'dlitem',
 ];
 
-// the screens already opened at each size (name-size), by any role
+// the screens already opened at each size (name-size), by any role, and the controls each showed
 const seen = new Set<string>();
+const checkedControls = new Set<string>();
+
+/** The page's controls (kind, name, state), as one string: two roles with the same string see the same controls. */
+function controlsOf(page: Page) {
+  return page.evaluate(() =>
+    Array.from(document.querySelectorAll('a[href], button, input, select, textarea, summary, [role], [tabindex]'))
+      .map(
+        (el) =>
+          `${el.tagName}:${el.getAttribute('aria-label') ?? el.textContent?.trim().slice(0, 30)}:${(el as HTMLInputElement).disabled}`,
+      )
+      .join('|'),
+  );
+}
 
 /** Tables (or their scroll boxes) wider than the box they sit in, and a page that scrolls sideways. */
 function tablesTooWide(page: Page) {
@@ -231,15 +244,24 @@ describe('every screen fits the device it is opened on', () => {
             const began = Date.now();
             await open(page, r.path);
             const opened = Date.now();
-            // Every rule (target size included) the first time a screen is opened at a size; for the
-            // other roles the same screen differs only in the controls they may use, so those are
-            // checked again (ROLE_RULES) and the costly page-wide rules are left to the first run.
+            // Every rule (target size included) the first time a screen is opened at 1024 with touch.
+            // After that only the rules about controls (ROLE_RULES, target size among them), and only
+            // when this role's screen has controls no role before it had here: colours, headings and
+            // landmarks are the same for everyone and at both sizes, and axe is the test's cost.
             const key = `${r.name}-${vp.name}`;
+            const controls = await controlsOf(page);
+            const fresh = !checkedControls.has(`${key}:${controls}`);
+            checkedControls.add(`${key}:${controls}`);
             const builder = new AxeBuilder({ page }).options({
               rules: { 'target-size': { enabled: true } },
               resultTypes: ['violations'], // details of the passes cost time and are not read
             });
-            const axe = await (seen.has(key) ? builder.withRules(ROLE_RULES) : builder).analyze();
+            const full = vp.touch && !seen.has(key);
+            const axe = full
+              ? await builder.analyze()
+              : fresh
+                ? await builder.withRules(ROLE_RULES).analyze()
+                : { violations: [] };
             for (const v of axe.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical')) {
               const where = v.nodes
                 .slice(0, 3)
@@ -271,4 +293,81 @@ describe('every screen fits the device it is opened on', () => {
       }, 240_000);
     }
   }
+});
+
+describe('the trail and the audit trail read in the page and in words', () => {
+  it('when quality expands the last result on a V8’s trail, then its readings are in the page itself, not in a scroll box of their own', async () => {
+    const context = await contextFor('quality', VIEWPORTS[1]!);
+    const page = await context.newPage();
+    try {
+      await open(page, `/trail?serial=${unit}`);
+      await page
+        .getByRole('button', { name: /^Readings \(\d+\)/ })
+        .last()
+        .click();
+      const readings = page.getByRole('table', { name: /^Readings of result/ }).last();
+      const lastRow = readings.locator('tbody tr').last();
+      await lastRow.scrollIntoViewIfNeeded();
+      const boxes = await readings.evaluate((table) => {
+        const out: string[] = [];
+        for (let el = table.parentElement; el && el !== document.body; el = el.parentElement) {
+          const oy = getComputedStyle(el).overflowY;
+          if (oy !== 'visible' && oy !== 'clip' && el.scrollHeight > el.clientHeight + 1) {
+            out.push(`${el.tagName.toLowerCase()} ${el.getAttribute('aria-label') ?? el.className}`);
+          }
+        }
+        return out;
+      });
+      expect(boxes).toEqual([]);
+      // the last reading is on screen and nothing covers it
+      const hit = await lastRow.evaluate((tr) => {
+        const b = tr.getBoundingClientRect();
+        return tr.contains(document.elementFromPoint(b.left + b.width / 2, b.top + b.height / 2));
+      });
+      expect(hit).toBe(true);
+      await page.screenshot({ path: path.join(shots, 'trail-last-result-open-mouse-1440.png') });
+    } finally {
+      await context.close();
+    }
+  }, 60_000);
+
+  it('when an admin filters the audit trail by kind, person and days, then each filter narrows the list and no raw code is shown', async () => {
+    const context = await contextFor('admin', VIEWPORTS[1]!);
+    const page = await context.newPage();
+    try {
+      await open(page, '/admin/audit');
+      const kinds = await page.getByLabel('Kind of record').locator('option').allTextContents();
+      // the issue's missing kinds: NCRs, results, rules (src/routes/admin/audit/words.ts)
+      expect(kinds).toEqual(expect.arrayContaining(['NCRs', 'Stage results', 'Spec rules', 'Cores, parts and units']));
+      await page.getByLabel('Kind of record').selectOption({ label: 'NCRs' });
+      await page
+        .getByRole('button', { name: `Only events of NCR ${ncr}` })
+        .first()
+        .waitFor();
+      const events = page.getByRole('table', { name: 'Audit events, newest first' });
+      const text = await events.innerText();
+      expect(text).toContain('NCR raised');
+      // no action code (item.held, ncr.raised) and no table name (stage_result) on screen
+      expect(text.match(/\b[a-z]+_?[a-z]*\.[a-z_]+\b|\b[a-z]+_[a-z_]+\b/g)).toBeNull();
+      const today = await page.evaluate(() => new Date().toISOString().slice(0, 10));
+      const tomorrow = await page.evaluate(() => new Date(Date.now() + 2 * 86_400_000).toISOString().slice(0, 10));
+      await page.getByLabel('From').fill(tomorrow);
+      await page.getByText('No events match these filters.').waitFor();
+      await page.getByLabel('From').fill('');
+      await page.getByLabel('To').fill(today);
+      await page
+        .getByRole('button', { name: `Only events of NCR ${ncr}` })
+        .first()
+        .waitFor();
+      const operator = await page
+        .getByLabel('Person')
+        .locator('option', { hasText: /Station operator/ })
+        .first();
+      await page.getByLabel('Person').selectOption({ label: (await operator.textContent())!.trim() });
+      await page.waitForURL(/actorId=\d+/);
+      await page.screenshot({ path: path.join(shots, 'audit-filtered-mouse-1440.png'), fullPage: true });
+    } finally {
+      await context.close();
+    }
+  }, 60_000);
 });
