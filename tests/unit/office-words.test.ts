@@ -39,7 +39,7 @@ describe('the audit trail speaks in words', () => {
     expect(recordName('item', 'CR-7KX4-P2MK')).toBe('Core CR-7KX4-P2MK');
     expect(recordName('item', 'LB-7KX4-P2MK')).toBe('Long block LB-7KX4-P2MK');
     expect(recordName('stage_result', '1664')).toBe('Stage result 1664');
-    expect(recordName('nonconformance', 'NCR-2026-0001')).toBe('NCR NCR-2026-0001');
+    expect(recordName('nonconformance', 'NC-2026-00001')).toBe('NCR NC-2026-00001');
   });
 });
 

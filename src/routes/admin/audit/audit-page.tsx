@@ -121,7 +121,7 @@ export function AuditPage() {
             <Input
               id="audit-entity-id"
               mono
-              placeholder="e.g. NCR-2026-0001"
+              placeholder="e.g. NC-2026-00001"
               value={entityId}
               onChange={(e) => onEntityId(e.target.value)}
             />

@@ -15,11 +15,12 @@ function RecordName({ event: e }: { event: AuditEvent }) {
   if (e.recordLabel) return <>{e.recordLabel}</>;
   const name = recordName(e.entity, e.entityId);
   const words = name.slice(0, name.length - e.entityId.length);
+  // one span: inside the flex button a bare trailing space between the words and the id would collapse
   return (
-    <>
+    <span>
       {words}
       <span className="font-mono">{e.entityId}</span>
-    </>
+    </span>
   );
 }
 const linkCls =
