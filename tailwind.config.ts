@@ -45,7 +45,8 @@ export default {
       },
       borderRadius: { card: '6px', control: '4px' },
       boxShadow: { card: '0 1px 0 rgba(29, 33, 36, 0.08), 0 1px 3px rgba(29, 33, 36, 0.06)' },
-      maxWidth: { page: '1320px' },
+      // wide enough that a 1440–1920 px desk uses its width for tables; capped so lines stay readable
+      maxWidth: { page: '1920px' },
     },
   },
 } satisfies Config;

@@ -7,7 +7,7 @@ import { consistencyBetween, receiptFor } from '../ledger/receipts.js';
 import { signerFor } from '../ledger/signer.js';
 import { headsPage, latestHead } from '../ledger/store.js';
 import { logStatus, verifyAudit } from '../ledger/verify.js';
-import { listAuditEvents } from '../services/audit-log.js';
+import { listAuditActors, listAuditEvents } from '../services/audit-log.js';
 
 const eventIdParam = z.strictObject({ id: z.coerce.number().int().positive().max(Number.MAX_SAFE_INTEGER) });
 
@@ -20,9 +20,16 @@ export function auditRoutes(api: Api, sequelize: Sequelize, config: Config) {
     method: 'get',
     path: '/audit/events',
     access: 'audit.read',
-    summary: 'The audit trail, newest first, filtered by entity, entity id or actor.',
+    summary: 'The audit trail, newest first, filtered by entity, entity id, actor or a range of days.',
     query: listAuditQuery,
     handler: ({ query }) => listAuditEvents(sequelize, query),
+  });
+  api.define({
+    method: 'get',
+    path: '/audit/actors',
+    access: 'audit.read',
+    summary: 'Everyone with an event in the audit trail, by name, for the person filter.',
+    handler: () => listAuditActors(sequelize),
   });
   api.define({
     method: 'get',

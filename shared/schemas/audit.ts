@@ -1,12 +1,26 @@
 import { z } from 'zod';
-import { idText, paging, text } from './common.js';
+import { idText, isoDate, paging, text } from './common.js';
 
-export const listAuditQuery = z.strictObject({
-  ...paging,
-  entity: text().trim().max(60).optional(),
-  entityId: text().trim().max(60).optional(),
-  actorId: idText().optional(),
-});
+/**
+ * The trail's filters: a record (entity, entity id), a person, and a range of calendar days in the
+ * plant's time zone, both ends included.
+ */
+export const listAuditQuery = z
+  .strictObject({
+    ...paging,
+    entity: text().trim().max(60).optional(),
+    entityId: text().trim().max(60).optional(),
+    actorId: idText().optional(),
+    from: isoDate().optional(),
+    to: isoDate().optional(),
+  })
+  .refine((q) => !q.from || !q.to || q.from <= q.to, {
+    path: ['to'],
+    message: 'The last day comes before the first.',
+  });
+
+/** The people who have changed something, for the trail's person filter. */
+export type AuditActor = { id: number; name: string; role: string; active: boolean };
 
 export type AuditEvent = {
   id: number;
@@ -17,6 +31,8 @@ export type AuditEvent = {
   action: string;
   entity: string;
   entityId: string;
+  /** the record in words where its id says little (a person's name, a result's stage and serial), else null */
+  recordLabel: string | null;
   before: unknown;
   after: unknown;
   requestId: string | null;

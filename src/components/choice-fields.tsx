@@ -8,7 +8,7 @@ import { Icon } from './ui/icon';
  * one reads by its thick outline and filled mark as well as its tint.
  */
 const tileClass =
-  'flex min-h-11 cursor-pointer items-center gap-2.5 rounded-control border border-rule-strong bg-field px-3 py-2 ' +
+  'flex min-h-11 floor:min-h-12 cursor-pointer items-center gap-2.5 rounded-control border border-rule-strong bg-field px-3 py-2 ' +
   'text-ink hover:border-ink-soft has-checked:border-2 has-checked:border-accent has-checked:bg-accent-tint ' +
   'has-checked:font-semibold has-focus-visible:outline-3 has-focus-visible:outline-offset-2 has-focus-visible:outline-accent';
 

@@ -76,7 +76,7 @@ export function PhotoField({ name, label, max, hint, documents = false }: PhotoF
           disabled={room <= 0}
           onChange={(e) => void onFiles(e)}
           aria-describedby={`${id}-hint`}
-          className="block min-h-11 max-w-full rounded-control border border-rule-strong bg-field text-ink file:mr-3 file:min-h-11 file:cursor-pointer file:border-0 file:border-r file:border-rule-strong file:bg-sunk file:px-4 file:font-medium file:text-ink hover:file:bg-ground-deep/40 disabled:opacity-55"
+          className="block min-h-11 floor:min-h-12 max-w-full rounded-control border border-rule-strong bg-field text-ink file:mr-3 file:min-h-11 floor:file:min-h-12 file:cursor-pointer file:border-0 file:border-r file:border-rule-strong file:bg-sunk file:px-4 file:font-medium file:text-ink hover:file:bg-ground-deep/40 disabled:opacity-55"
         />
         <p id={`${id}-hint`} className="text-sm text-ink-faint">
           {hint ?? 'JPEG, PNG or WebP, up to 8 MB each.'}{' '}

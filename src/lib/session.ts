@@ -36,6 +36,3 @@ export async function requirePermission(
 export function forgetEverything(queryClient: QueryClient): void {
   queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== meKey[0] });
 }
-
-/** Floor roles work on tablets, often gloved; their screens get larger targets. */
-export const FLOOR_ROLES = new Set(['receiving', 'operator', 'shipping']);

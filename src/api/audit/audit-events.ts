@@ -4,7 +4,16 @@ import type { Paged } from '../../../shared/schemas/common';
 import { http } from '../../lib/http';
 import { auditKeys } from './keys';
 
-export type AuditFilter = { page: number; pageSize: number; entity?: string; entityId?: string; actorId?: number };
+export type AuditFilter = {
+  page: number;
+  pageSize: number;
+  entity?: string;
+  entityId?: string;
+  actorId?: number;
+  /** calendar days in the plant's time zone, both included */
+  from?: string;
+  to?: string;
+};
 
 export const fetchAuditEvents = (filter: AuditFilter, signal?: AbortSignal) =>
   http<Paged<AuditEvent>>('/api/audit/events', { query: filter, signal });

@@ -8,7 +8,7 @@ export type ButtonSize = 'sm' | 'md' | 'lg';
 const base =
   'inline-flex items-center justify-center gap-2 whitespace-nowrap rounded-control font-medium ' +
   'transition-colors disabled:cursor-not-allowed disabled:opacity-55 aria-disabled:cursor-not-allowed aria-disabled:opacity-55 ' +
-  'floor:min-h-11 floor:min-w-11 floor:text-base';
+  'floor:min-h-12 floor:min-w-12 floor:text-base';
 
 const variants: Record<ButtonVariant, string> = {
   primary: 'bg-accent text-white hover:bg-accent-strong border border-accent-strong',
@@ -21,7 +21,7 @@ const variants: Record<ButtonVariant, string> = {
 const sizes: Record<ButtonSize, string> = {
   sm: 'h-8 px-2.5 text-sm floor:px-3.5',
   md: 'h-9 px-3.5 text-[0.95rem] floor:px-4',
-  lg: 'h-11 px-5 text-base',
+  lg: 'h-11 px-5 text-base floor:h-12',
 };
 
 export function buttonClass(variant: ButtonVariant = 'secondary', size: ButtonSize = 'md'): string {

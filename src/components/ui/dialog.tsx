@@ -51,7 +51,7 @@ export function Dialog({ open, onClose, title, description, children, width = 'n
               type="button"
               onClick={onClose}
               aria-label="Close"
-              className="-mr-1 inline-flex size-9 items-center justify-center rounded-control text-ink-soft hover:bg-sunk floor:size-11"
+              className="-mr-1 inline-flex size-9 items-center justify-center rounded-control text-ink-soft hover:bg-sunk floor:size-12"
             >
               <Icon name="close" size={20} />
             </button>

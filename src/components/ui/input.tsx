@@ -8,7 +8,7 @@ export const controlClass =
 type InputProps = InputHTMLAttributes<HTMLInputElement> & { mono?: boolean };
 
 export function Input({ mono, ...rest }: InputProps) {
-  return <input className={`${controlClass} h-9 floor:h-11 ${mono ? 'font-mono' : ''}`} {...rest} />;
+  return <input className={`${controlClass} h-9 floor:h-12 ${mono ? 'font-mono' : ''}`} {...rest} />;
 }
 
 export function Textarea(props: TextareaHTMLAttributes<HTMLTextAreaElement>) {

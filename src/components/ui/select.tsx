@@ -15,7 +15,7 @@ type SelectProps = SelectHTMLAttributes<HTMLSelectElement> & {
 export function Select({ options = [], groups = [], placeholder, ...rest }: SelectProps) {
   return (
     <span className="relative block">
-      <select className={`${controlClass} h-9 appearance-none pr-8 floor:h-11`} {...rest}>
+      <select className={`${controlClass} h-9 appearance-none pr-8 floor:h-12`} {...rest}>
         {placeholder !== undefined && <option value="">{placeholder}</option>}
         {options.map((o) => (
           <option key={o.value} value={o.value}>

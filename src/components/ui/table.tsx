@@ -3,15 +3,19 @@ import type { ReactNode, TdHTMLAttributes, ThHTMLAttributes } from 'react';
 export type Align = 'left' | 'right' | 'center';
 const alignCls: Record<Align, string> = { left: 'text-left', right: 'text-right', center: 'text-center' };
 
-/** Scrolls inside itself so the header row can stay in view over long lists. */
+/**
+ * The box a table sits in. It does not scroll by itself: the page scrolls, and the header row sticks
+ * to the top of the window, so a long list or an opened row is never trapped in a box inside the
+ * page. Tables fit their width instead (long columns wrap or move to a second line, see DataTable);
+ * only on a phone-narrow screen does the box scroll sideways.
+ */
 export function TableFrame({ children, label, busy = false }: { children: ReactNode; label?: string; busy?: boolean }) {
   return (
     <div
-      className={`max-h-[calc(100vh-16rem)] min-h-32 overflow-auto transition-opacity ${busy ? 'opacity-60' : ''}`}
+      className={`min-h-32 transition-opacity max-md:overflow-x-auto ${busy ? 'opacity-60' : ''}`}
       aria-busy={busy}
       role={label ? 'region' : undefined}
       aria-label={label}
-      tabIndex={label ? 0 : undefined}
     >
       {children}
     </div>
@@ -34,7 +38,7 @@ export function TR({ children, muted = false }: { children: ReactNode; muted?: b
   return <tr className={`hover:bg-sunk/60 ${muted ? 'text-ink-soft' : ''}`}>{children}</tr>;
 }
 
-/** `wideOnly` cells give way on a tablet and come back on a desktop-width screen. */
+/** `wideOnly` cells give way below 1280 px (DataTable moves them to a second line) and come back on a wide screen. */
 type CellOwn = { align?: Align; mono?: boolean; nowrap?: boolean; wideOnly?: boolean };
 
 export function TH({
@@ -59,10 +63,12 @@ export function TD({
   mono = false,
   nowrap = false,
   wideOnly = false,
+  className = '',
   children,
   ...rest
 }: CellOwn & TdHTMLAttributes<HTMLTableCellElement>) {
   const cls = [
+    className,
     'border-b border-rule px-2.5 py-2 align-middle first:pl-5 last:pr-5 floor:py-3',
     alignCls[align],
     mono ? 'font-mono text-[0.875rem] floor:text-[0.95rem]' : '',

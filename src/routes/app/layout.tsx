@@ -8,7 +8,7 @@ import { Wordmark } from '../../components/wordmark';
 import { Button } from '../../components/ui/button';
 import { paths, signInHref } from '../../lib/paths';
 import { plantQueryOptions, usePlant } from '../../api/plant/plant';
-import { FLOOR_ROLES, requireSignedIn } from '../../lib/session';
+import { requireSignedIn } from '../../lib/session';
 import { navAreasFor } from './areas';
 
 export const layoutLoader =
@@ -42,13 +42,13 @@ export function AppLayout() {
   // between a sign-out and the sign-in page there is nobody to show
   if (!me) return null;
   const { user } = me;
-  const floor = FLOOR_ROLES.has(user.role);
 
   const onSignOut = () =>
     signOut.mutate(undefined, { onSettled: () => navigate(signInHref({ note: 'signed-out' }), { replace: true }) });
 
   return (
-    <div data-density={floor ? 'floor' : 'office'} className="flex min-h-screen flex-col print:block print:min-h-0">
+    // the size scale follows the device (pointer: coarse), not the role: see the floor variant in index.css
+    <div className="flex min-h-screen flex-col print:block print:min-h-0">
       <a
         href="#main"
         className="sr-only focus:not-sr-only focus:absolute focus:left-3 focus:top-3 focus:z-50 focus:rounded-control focus:bg-card focus:px-3 focus:py-2"
@@ -69,7 +69,7 @@ export function AppLayout() {
             <NavLink
               to={paths.account}
               className={({ isActive }) =>
-                `${isActive ? 'font-semibold text-ink underline' : 'text-accent'} inline-flex h-9 items-center rounded-control px-2 underline-offset-4 hover:underline floor:h-11 floor:px-3`
+                `${isActive ? 'font-semibold text-ink underline' : 'text-accent'} inline-flex h-9 items-center rounded-control px-2 underline-offset-4 hover:underline floor:h-12 floor:px-3`
               }
             >
               Account

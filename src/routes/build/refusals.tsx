@@ -99,7 +99,7 @@ export function RefusalSummary({ slots }: { slots: Slot[] }) {
                   <button
                     type="button"
                     onClick={() => goTo(where.selector!)}
-                    className="inline-flex min-h-11 items-center font-semibold text-accent underline underline-offset-4"
+                    className="inline-flex min-h-11 floor:min-h-12 items-center font-semibold text-accent underline underline-offset-4"
                   >
                     <span className="sr-only">Go to </span>
                     {where.label}

@@ -92,7 +92,7 @@ export function PartList({ parts }: { parts: ItemPart[] }) {
         <li key={p.serial} className="flex flex-wrap items-center gap-x-4 gap-y-1 py-2.5">
           <Link
             to={itemHref(p.serial)}
-            className="inline-flex items-center font-mono text-lg font-semibold text-accent underline-offset-4 hover:underline floor:min-h-11"
+            className="inline-flex items-center font-mono text-lg font-semibold text-accent underline-offset-4 hover:underline floor:min-h-12"
           >
             {p.serial}
           </Link>
@@ -119,7 +119,7 @@ export function TeardownSummary({ record }: { record: TeardownRecord }) {
                 {partName(PART_KIND_LABELS[k.kind], k.position)}:{' '}
                 <Link
                   to={itemHref(k.serial)}
-                  className="inline-flex items-center font-mono text-accent underline underline-offset-4 floor:min-h-11"
+                  className="inline-flex items-center font-mono text-accent underline underline-offset-4 floor:min-h-12"
                 >
                   {k.serial}
                 </Link>

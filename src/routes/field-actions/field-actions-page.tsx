@@ -51,7 +51,7 @@ export function FieldActionsPage() {
             type="button"
             aria-pressed={state === f.value}
             onClick={() => setMany({ state: f.value, page: '' })}
-            className={`min-h-11 rounded-control border px-4 font-medium ${state === f.value ? 'border-accent bg-accent text-white' : 'border-rule-strong bg-card text-ink hover:border-accent'}`}
+            className={`min-h-11 floor:min-h-12 rounded-control border px-4 font-medium ${state === f.value ? 'border-accent bg-accent text-white' : 'border-rule-strong bg-card text-ink hover:border-accent'}`}
           >
             {f.label}
           </button>

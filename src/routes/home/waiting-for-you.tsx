@@ -28,7 +28,7 @@ function AwaitingSignature() {
               <li key={n.number} className="py-2">
                 <Link
                   to={ncrHref(n.number)}
-                  className="flex min-h-11 flex-wrap items-center gap-x-3 text-accent underline-offset-4 hover:underline"
+                  className="flex min-h-11 floor:min-h-12 flex-wrap items-center gap-x-3 text-accent underline-offset-4 hover:underline"
                 >
                   <Icon name="key" size={18} />
                   <span className="font-mono font-semibold">{n.number}</span>
@@ -64,7 +64,7 @@ function OpenFieldActions() {
               <li key={fa.number} className="py-2">
                 <Link
                   to={fieldActionHref(fa.number)}
-                  className="flex min-h-11 flex-wrap items-center gap-x-3 text-accent underline-offset-4 hover:underline"
+                  className="flex min-h-11 floor:min-h-12 flex-wrap items-center gap-x-3 text-accent underline-offset-4 hover:underline"
                 >
                   <Icon name="hold" size={18} />
                   <span className="font-mono font-semibold">{fa.number}</span>

@@ -37,7 +37,7 @@ export function IntakeTable({ rows, busy, sort, dir, onSort, empty }: IntakeTabl
         cell: (c) => (
           <Link
             to={coreHref(c.getValue())}
-            className="inline-flex items-center font-semibold text-accent underline-offset-4 hover:underline floor:min-h-11"
+            className="inline-flex items-center font-semibold text-accent underline-offset-4 hover:underline floor:min-h-12"
           >
             {c.getValue()}
           </Link>

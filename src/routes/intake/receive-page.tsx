@@ -10,6 +10,7 @@ import { familiesQueryOptions, useFamilies } from '../../api/reference/families'
 import { suppliersQueryOptions } from '../../api/reference/suppliers';
 import { Form, SubmitButton } from '../../components/form';
 import { SelectField, TextAreaField, TextField } from '../../components/form-fields';
+import { FormSummary, type SummarySection } from '../../components/form-summary';
 import { PageHeader } from '../../components/page-header';
 import { PhotoField } from '../../components/photo-field';
 import { ButtonLink } from '../../components/ui/button';
@@ -42,14 +43,65 @@ function today(): string {
 }
 
 /** Parts of one form, so not landmarks of their own (and their titles never shadow a field's label). */
-function Section({ title, description, children }: { title: string; description?: string; children: ReactNode }) {
+function Section({
+  id,
+  title,
+  description,
+  children,
+}: {
+  id: string;
+  title: string;
+  description?: string;
+  children: ReactNode;
+}) {
   return (
-    <Card as="div">
-      <CardHeader title={title} description={description} />
-      <CardBody>{children}</CardBody>
-    </Card>
+    <div id={id} className="scroll-mt-4">
+      <Card as="div">
+        <CardHeader title={title} description={description} />
+        <CardBody>{children}</CardBody>
+      </Card>
+    </div>
   );
 }
+
+const SECTIONS: SummarySection[] = [
+  { id: 'receive-core', title: 'The core', fields: ['familyId', 'castingNumber', 'idNumber'] },
+  {
+    id: 'receive-source',
+    title: 'Where it came from',
+    fields: ['source', 'customerId', 'supplierId', 'sourceReference'],
+  },
+  { id: 'receive-receipt', title: 'Receipt', fields: ['receivedOn'] },
+  { id: 'receive-condition', title: 'Condition', fields: ['complete', 'missing', 'damage', 'grade'] },
+  {
+    id: 'receive-decision',
+    title: 'Decision',
+    fields: ['accepted', 'rejectReason', 'creditDecision', 'creditReason', 'mismatchReason'],
+  },
+  { id: 'receive-photos', title: 'Photos and notes', fields: ['photoIds', 'notes'] },
+];
+
+const LABELS: Record<string, string> = {
+  familyId: 'engine family',
+  castingNumber: 'casting number',
+  idNumber: 'ID number',
+  source: 'source',
+  customerId: 'customer',
+  supplierId: 'supplier',
+  sourceReference: 'reference',
+  receivedOn: 'date received',
+  complete: 'whether it is complete',
+  missing: 'missing parts',
+  damage: 'damage',
+  grade: 'grade',
+  accepted: 'accept or reject',
+  rejectReason: 'reject reason',
+  creditDecision: 'core credit',
+  creditReason: 'credit reason',
+  mismatchReason: 'reason to go on',
+  photoIds: 'photos',
+  notes: 'notes',
+};
 
 function CoreNumbers() {
   const families = useFamilies();
@@ -107,46 +159,58 @@ export function ReceivePage() {
   };
 
   return (
-    <div className="mx-auto max-w-[60rem]">
+    <div className="mx-auto max-w-[80rem]">
       <PageHeader
         title="Receive a core"
         description="Log the core as it stands at the dock. It gets its serial when you save; print its label next."
         actions={<ButtonLink to={paths.intake}>Intake log</ButtonLink>}
       />
       <Form schema={receiveCoreBody} defaultValues={{ ...defaults, receivedOn: today() }} onSubmit={onSubmit}>
-        <Section title="The core" description="Which engine it is, by the numbers on the casting.">
-          <CoreNumbers />
-        </Section>
-        <Section title="Where it came from">
-          <SourceFields />
-        </Section>
-        <Section title="Receipt">
-          <div className="grid grid-cols-1 gap-4 md:grid-cols-2">
-            <TextField name="receivedOn" label="Received on" type="date" />
-            {/* who received it is not a choice: shown as text, not as a box that looks editable */}
-            <div className="flex flex-col gap-1.5">
-              <p className="text-sm font-medium text-ink floor:text-base">Received by</p>
-              <p className="flex min-h-9 items-center font-medium floor:min-h-11">{me.user.name}</p>
-              <p className="text-sm text-ink-faint">You, as signed in.</p>
-            </div>
+        <div className="grid grid-cols-1 gap-4 lg:grid-cols-[minmax(0,1fr)_17rem]">
+          <div className="flex min-w-0 flex-col gap-4">
+            <Section
+              id="receive-core"
+              title="The core"
+              description="Which engine it is, by the numbers on the casting."
+            >
+              <CoreNumbers />
+            </Section>
+            <Section id="receive-source" title="Where it came from">
+              <SourceFields />
+            </Section>
+            <Section id="receive-receipt" title="Receipt">
+              <div className="grid grid-cols-1 gap-4 md:grid-cols-2">
+                <TextField name="receivedOn" label="Received on" type="date" />
+                {/* who received it is not a choice: shown as text, not as a box that looks editable */}
+                <div className="flex flex-col gap-1.5">
+                  <p className="text-sm font-medium text-ink floor:text-base">Received by</p>
+                  <p className="flex min-h-9 items-center font-medium floor:min-h-12">{me.user.name}</p>
+                  <p className="text-sm text-ink-faint">You, as signed in.</p>
+                </div>
+              </div>
+            </Section>
+            <Section
+              id="receive-condition"
+              title="Condition"
+              description="What arrived, what is missing, what is damaged."
+            >
+              <ConditionFields />
+            </Section>
+            <Section id="receive-decision" title="Decision">
+              <DecisionFields />
+            </Section>
+            <Section id="receive-photos" title="Photos and notes">
+              <div className="flex flex-col gap-4">
+                <PhotoField name="photoIds" label="Photos" max={12} />
+                <TextAreaField name="notes" label="Notes" hint="Anything the next person should know." />
+              </div>
+            </Section>
+            <MismatchCheck fromServer={mismatches} />
+            {lookAlikes && lookAlikes.length > 0 && <DuplicateConfirm rows={lookAlikes} />}
           </div>
-        </Section>
-        <Section title="Condition" description="What arrived, what is missing, what is damaged.">
-          <ConditionFields />
-        </Section>
-        <Section title="Decision">
-          <DecisionFields />
-        </Section>
-        <Section title="Photos and notes">
-          <div className="flex flex-col gap-4">
-            <PhotoField name="photoIds" label="Photos" max={12} />
-            <TextAreaField name="notes" label="Notes" hint="Anything the next person should know." />
-          </div>
-        </Section>
-        <MismatchCheck fromServer={mismatches} />
-        {lookAlikes && lookAlikes.length > 0 && <DuplicateConfirm rows={lookAlikes} />}
-        <div className="flex justify-end">
-          <SubmitButton size="lg">Receive core</SubmitButton>
+          <FormSummary schema={receiveCoreBody} sections={SECTIONS} labels={LABELS}>
+            <SubmitButton size="lg">Receive core</SubmitButton>
+          </FormSummary>
         </div>
       </Form>
     </div>

@@ -200,7 +200,7 @@ function ResultEntry({ result, byId }: { result: ItemResult; byId: Map<number, I
       )}
       {result.readings.length > 0 && (
         <details className="group">
-          <summary className="inline-flex min-h-9 cursor-pointer list-none items-center gap-1.5 rounded-control font-medium text-accent hover:underline floor:min-h-11 [&::-webkit-details-marker]:hidden">
+          <summary className="inline-flex min-h-9 cursor-pointer list-none items-center gap-1.5 rounded-control font-medium text-accent hover:underline floor:min-h-12 [&::-webkit-details-marker]:hidden">
             <Icon name="chevronRight" size={18} className="transition-transform group-open:rotate-90" />
             Readings ({result.readings.length})
           </summary>

@@ -119,7 +119,7 @@ export function LabelsPage() {
                 {STOCKS.map((s) => (
                   <label
                     key={s.value}
-                    className="flex min-h-11 cursor-pointer items-center gap-2.5 rounded-control border border-rule-strong bg-field px-3 has-checked:border-2 has-checked:border-accent has-checked:bg-accent-tint has-checked:font-semibold"
+                    className="flex min-h-11 floor:min-h-12 cursor-pointer items-center gap-2.5 rounded-control border border-rule-strong bg-field px-3 has-checked:border-2 has-checked:border-accent has-checked:bg-accent-tint has-checked:font-semibold"
                   >
                     <input
                       type="radio"
@@ -201,7 +201,7 @@ export function LabelsPage() {
                     href={`/api/items/${encodeURIComponent(s)}/label.png`}
                     download={`${s}.png`}
                     aria-label={`Download PNG for ${s}`}
-                    className="inline-flex min-h-11 items-center gap-1.5 px-1 text-accent underline-offset-4 hover:underline"
+                    className="inline-flex min-h-11 floor:min-h-12 items-center gap-1.5 px-1 text-accent underline-offset-4 hover:underline"
                   >
                     <Icon name="download" size={16} />
                     Download PNG

@@ -18,7 +18,7 @@ export function NcrPart({ ncr }: { ncr: NcrDetail }) {
             <div className="flex flex-wrap items-baseline gap-x-5 gap-y-1">
               <Link
                 to={itemHref(item.serial)}
-                className="font-mono text-[1.75rem] font-semibold leading-tight tracking-wide text-accent underline-offset-4 hover:underline"
+                className="inline-flex items-center font-mono text-[1.75rem] font-semibold leading-tight tracking-wide text-accent underline-offset-4 hover:underline floor:min-h-12"
               >
                 {item.serial}
               </Link>

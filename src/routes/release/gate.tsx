@@ -61,7 +61,7 @@ export function GateChecklist({ check }: { check: ReleaseCheckJson }) {
           {c.link && (
             <Link
               to={c.link}
-              className="inline-flex min-h-11 items-center font-medium text-accent underline underline-offset-4"
+              className="inline-flex min-h-11 floor:min-h-12 items-center font-medium text-accent underline underline-offset-4"
             >
               {linkWords(c.link)}
             </Link>
@@ -90,7 +90,7 @@ export function GateReasons({ reasons }: { reasons: BlockingReason[] }) {
             <span className="min-w-0 flex-1">{r.message}</span>
             <Link
               to={r.link}
-              className="inline-flex min-h-11 items-center font-medium text-accent underline underline-offset-4"
+              className="inline-flex min-h-11 floor:min-h-12 items-center font-medium text-accent underline underline-offset-4"
             >
               {linkWords(r.link)}
             </Link>

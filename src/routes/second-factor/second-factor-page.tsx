@@ -75,7 +75,7 @@ export function SecondFactorPage() {
                   ))}
                 </ol>
               </div>
-              <label className="flex min-h-11 items-center gap-3">
+              <label className="flex min-h-11 floor:min-h-12 items-center gap-3">
                 <input type="checkbox" className="h-6 w-6" checked={kept} onChange={(e) => setKept(e.target.checked)} />
                 I have kept these codes somewhere safe
               </label>

@@ -41,6 +41,48 @@ export const specBookLoader =
 
 type Stage = SpecBookJson['stages'][number];
 
+/**
+ * The book's stages at a glance, sticky beside them on a wide screen: how many characteristics each
+ * has, which lack a rule in force, and which have a draft waiting. A long book is walked from here.
+ */
+function StageIndex({ stages }: { stages: Stage[] }) {
+  return (
+    <aside aria-labelledby="stage-index-heading" className="xl:sticky xl:top-4 xl:self-start">
+      <div className="rounded-card border border-rule bg-card shadow-card">
+        <h2 id="stage-index-heading" className="border-b border-rule px-4 py-3 font-semibold">
+          Stages in this book
+        </h2>
+        <ol className="flex flex-wrap xl:block xl:divide-y xl:divide-rule">
+          {stages.map((s) => {
+            const noRule = s.characteristics.filter((c) => !c.inForce).length;
+            const drafts = s.characteristics.filter((c) => c.draft).length;
+            return (
+              <li key={s.code} className="min-w-0 max-xl:basis-1/3">
+                <a
+                  href={`#stage-${s.code}`}
+                  className="flex min-h-11 flex-col justify-center px-4 py-1.5 hover:bg-sunk floor:min-h-12"
+                  onClick={(e) => {
+                    // jump without touching the address, which keeps the family and stage filters
+                    e.preventDefault();
+                    document.getElementById(`stage-${s.code}`)?.scrollIntoView({ block: 'start' });
+                  }}
+                >
+                  <span className="font-medium text-accent">{s.name}</span>
+                  <span className="text-sm text-ink-soft">
+                    {plural(s.characteristics.length, 'characteristic')}
+                    {noRule > 0 && <span className="font-medium text-hold"> · {noRule} without a rule</span>}
+                    {drafts > 0 && <> · {plural(drafts, 'draft')} waiting</>}
+                  </span>
+                </a>
+              </li>
+            );
+          })}
+        </ol>
+      </div>
+    </aside>
+  );
+}
+
 function exportBook(book: SpecBookJson, stages: Stage[]) {
   const rows = stages.flatMap((s) => s.characteristics.map((c) => ({ stage: s, c })));
   const csv = toCsv(rows, [
@@ -125,47 +167,50 @@ export function SpecBookPage() {
           </div>
         </form>
       </Card>
-      <div className="mt-5 flex flex-col gap-5">
-        {family && families.data && !known && (
-          <Notice tone="bad" title={`No engine family ${family}`}>
-            Choose one of this plant&apos;s families above.
-          </Notice>
-        )}
-        {book.error && (
-          <Notice tone="bad" live="alert">
-            {book.error.message}
-          </Notice>
-        )}
-        {book.data && stage && shown.length === 0 && (
-          <Notice tone="info" title="No characteristics at that stage">
-            This family&apos;s book has nothing recorded at the stage in the address.{' '}
-            <button type="button" className="font-medium text-accent underline" onClick={() => set('stage', '')}>
-              Show all stages
-            </button>
-          </Notice>
-        )}
-        {book.data &&
-          shown.map((s) => (
-            <Card key={s.code} labelledBy={`stage-${s.code}`}>
-              <CardHeader
-                id={`stage-${s.code}`}
-                title={s.name}
-                description={`${PART_KIND_LABELS[s.partKind as PartKind] ?? s.partKind} · ${plural(s.characteristics.length, 'characteristic')}`}
-              />
-              <CardBody flush>
-                <StageTable family={book.data.family.code} stage={s} />
+      <div className="mt-5 grid grid-cols-1 gap-5 xl:grid-cols-[16rem_minmax(0,1fr)]">
+        {book.data && shown.length > 1 && <StageIndex stages={shown} />}
+        <div className="flex min-w-0 flex-col gap-5 xl:col-start-2">
+          {family && families.data && !known && (
+            <Notice tone="bad" title={`No engine family ${family}`}>
+              Choose one of this plant&apos;s families above.
+            </Notice>
+          )}
+          {book.error && (
+            <Notice tone="bad" live="alert">
+              {book.error.message}
+            </Notice>
+          )}
+          {book.data && stage && shown.length === 0 && (
+            <Notice tone="info" title="No characteristics at that stage">
+              This family&apos;s book has nothing recorded at the stage in the address.{' '}
+              <button type="button" className="font-medium text-accent underline" onClick={() => set('stage', '')}>
+                Show all stages
+              </button>
+            </Notice>
+          )}
+          {book.data &&
+            shown.map((s) => (
+              <Card key={s.code} labelledBy={`stage-${s.code}`}>
+                <CardHeader
+                  id={`stage-${s.code}`}
+                  title={s.name}
+                  description={`${PART_KIND_LABELS[s.partKind as PartKind] ?? s.partKind} · ${plural(s.characteristics.length, 'characteristic')}`}
+                />
+                <CardBody flush>
+                  <StageTable family={book.data.family.code} stage={s} />
+                </CardBody>
+              </Card>
+            ))}
+          {book.data && allStages.length === 0 && (
+            <Card as="div">
+              <CardBody>
+                <p className="flex items-center gap-2 text-ink-soft">
+                  <Icon name="info" /> No stage of this family has characteristics yet.
+                </p>
               </CardBody>
             </Card>
-          ))}
-        {book.data && allStages.length === 0 && (
-          <Card as="div">
-            <CardBody>
-              <p className="flex items-center gap-2 text-ink-soft">
-                <Icon name="info" /> No stage of this family has characteristics yet.
-              </p>
-            </CardBody>
-          </Card>
-        )}
+          )}
+        </div>
       </div>
     </>
   );

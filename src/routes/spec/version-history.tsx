@@ -113,11 +113,14 @@ export function VersionHistory({ history }: { history: RuleHistoryJson }) {
               return (
                 <TR key={v.id} muted={v.status === 'withdrawn'}>
                   <TD>
-                    <Checkbox
-                      aria-label={`Compare version ${v.version}`}
-                      checked={chosen.includes(v.version)}
-                      onChange={() => toggle(v.version)}
-                    />
+                    {/* the label is the finger's target on a touch screen, the box alone is too small */}
+                    <label className="-m-2 inline-flex items-center justify-center p-2 floor:size-12">
+                      <Checkbox
+                        aria-label={`Compare version ${v.version}`}
+                        checked={chosen.includes(v.version)}
+                        onChange={() => toggle(v.version)}
+                      />
+                    </label>
                   </TD>
                   <TD mono nowrap>
                     {versionLabel(v.version)}

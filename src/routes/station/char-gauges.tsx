@@ -105,7 +105,7 @@ export function CharGaugeField({ char, index, gauges, problem, onChange }: CharG
             aria-label={name}
             aria-invalid={problem ? true : undefined}
             data-key={charGaugeKey(char)}
-            className={`${bigControl} h-11 w-auto max-w-[22rem] appearance-none py-0 pr-9`}
+            className={`${bigControl} h-11 floor:h-12 w-auto max-w-[22rem] appearance-none py-0 pr-9`}
             {...register(`gauges.${index}`, { onChange })}
           >
             <option value="">Same as Gauge used</option>

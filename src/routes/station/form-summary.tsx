@@ -24,7 +24,7 @@ export function ProblemSummary({
             <button
               type="button"
               onClick={() => onGo(p.key)}
-              className="min-h-11 text-left text-base underline underline-offset-4 hover:text-bad"
+              className="min-h-11 floor:min-h-12 text-left text-base underline underline-offset-4 hover:text-bad"
             >
               <span className="font-semibold">{p.label}</span>: {p.message}
             </button>

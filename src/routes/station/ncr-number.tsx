@@ -7,7 +7,7 @@ export function NcrNumber({ number, link }: { number: string; link: boolean }) {
   return (
     <Link
       to={ncrHref(number)}
-      className="inline-flex min-h-11 items-center font-mono font-semibold text-accent underline underline-offset-4"
+      className="inline-flex min-h-11 floor:min-h-12 items-center font-mono font-semibold text-accent underline underline-offset-4"
     >
       {number}
     </Link>

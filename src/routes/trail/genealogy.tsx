@@ -30,7 +30,7 @@ function Node({ node, current }: { node: TrailNode; current: string }) {
           <Link
             to={trailHref(node.serial)}
             aria-current={here ? 'page' : undefined}
-            className="inline-flex min-h-8 items-center font-mono text-[1.05rem] font-semibold text-accent underline-offset-4 hover:underline floor:min-h-11"
+            className="inline-flex min-h-8 items-center font-mono text-[1.05rem] font-semibold text-accent underline-offset-4 hover:underline floor:min-h-12"
           >
             {node.serial}
           </Link>

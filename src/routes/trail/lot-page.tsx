@@ -50,7 +50,7 @@ const columns = [
     cell: (c) => (
       <Link
         to={trailHref(c.getValue())}
-        className="inline-flex items-center font-semibold text-accent underline-offset-4 hover:underline floor:min-h-11"
+        className="inline-flex items-center font-semibold text-accent underline-offset-4 hover:underline floor:min-h-12"
       >
         {c.getValue()}
       </Link>

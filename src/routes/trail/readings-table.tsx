@@ -44,7 +44,7 @@ function Verdict({ r }: { r: TrailReading }) {
 export function ReadingsTable({ result }: { result: TrailResult }) {
   const decimals = decimalsOf(result.readings);
   return (
-    <div className="overflow-x-auto rounded-control border border-rule bg-card">
+    <div className="rounded-control border border-rule bg-card">
       <Table caption={`Readings of result ${result.id}: ${result.stage.name}, ${result.serial}`}>
         <THead>
           <tr>

@@ -109,7 +109,7 @@ const ResultRow = memo(function ResultRow({ r, kind, open, onToggle }: RowProps)
               aria-expanded={open}
               aria-controls={open ? detailsId : undefined}
               onClick={() => onToggle(r.id)}
-              className="inline-flex min-h-9 items-center gap-1 rounded-control px-1 font-medium text-accent hover:underline floor:min-h-11"
+              className="inline-flex min-h-9 items-center gap-1 rounded-control px-1 font-medium text-accent hover:underline floor:min-h-12"
             >
               <Icon name={open ? 'chevronDown' : 'chevronRight'} size={18} />
               Readings ({r.readings.length})

@@ -11,34 +11,45 @@ import { Field } from '../../../components/ui/field';
 import { Input } from '../../../components/ui/input';
 import { Notice } from '../../../components/ui/notice';
 import { downloadCsv, fetchAllPages, toCsv } from '../../../lib/csv';
-import { formatWhen } from '../../../lib/format';
+import { formatWhen, plural } from '../../../lib/format';
+import { ROLE_LABELS, type Role } from '../../../../shared/roles';
 import { requirePermission } from '../../../lib/session';
 import { useDebouncedText, useUrlFilter } from '../../../lib/use-url-filter';
 import { AuditTable } from './audit-table';
 import { AuditLogStatus } from './audit-log-status';
 import { AuditVerify } from './audit-verify';
-import { auditFilterFrom, ENTITY_LABELS } from './filter';
-import { FilterSelect } from '../../../components/filter-fields';
+import { auditFilterFrom } from './filter';
+import { actionWords, ENTITY_LABELS, recordName } from './words';
+import { FilterInput, FilterSelect } from '../../../components/filter-fields';
+import { auditActorsQueryOptions, useAuditActors } from '../../../api/audit/audit-actors';
 
 export const auditLoader =
   (queryClient: QueryClient) =>
   async ({ request }: LoaderFunctionArgs) => {
     await requirePermission(queryClient, request, 'audit.read');
-    await queryClient.ensureQueryData(auditEventsQueryOptions(auditFilterFrom(new URL(request.url).searchParams)));
+    await Promise.all([
+      queryClient.ensureQueryData(auditEventsQueryOptions(auditFilterFrom(new URL(request.url).searchParams))),
+      queryClient.ensureQueryData(auditActorsQueryOptions()),
+    ]);
     return null;
   };
 
-const entityOptions = Object.entries(ENTITY_LABELS).map(([value, label]) => ({ value, label: `${label} (${value})` }));
+const entityOptions = Object.entries(ENTITY_LABELS).map(([value, label]) => ({ value, label }));
 
 export function AuditPage() {
   const me = useSignedIn();
   const { params, set, setMany } = useUrlFilter();
   const filter = auditFilterFrom(params);
   const events = useAuditEvents(filter);
+  const actors = useAuditActors().data?.rows ?? [];
   const [entityId, onEntityId] = useDebouncedText(filter.entityId ?? '', (v) => set('entityId', v));
   const [exporting, setExporting] = useState(false);
   const data = events.data;
-  const actorName = filter.actorId ? data?.rows.find((e) => e.actorId === filter.actorId)?.actorName : undefined;
+  const actorOptions = actors.map((a) => ({
+    value: String(a.id),
+    label: `${a.name}, ${ROLE_LABELS[a.role as Role] ?? a.role}${a.active ? '' : ' (left)'}`,
+  }));
+  const filtered = Boolean(filter.entity || filter.entityId || filter.actorId || filter.from || filter.to);
 
   const onExport = async () => {
     setExporting(true);
@@ -49,9 +60,11 @@ export function AuditPage() {
         { header: 'When (UTC)', value: (e) => e.occurredAt },
         { header: 'Who', value: (e) => e.actorName ?? 'System' },
         { header: 'Role', value: (e) => e.actorRole ?? '' },
+        { header: 'What happened', value: (e) => actionWords(e.action) },
         { header: 'Action', value: (e) => e.action },
         { header: 'Entity', value: (e) => e.entity },
         { header: 'Entity id', value: (e) => e.entityId },
+        { header: 'Record', value: (e) => e.recordLabel ?? recordName(e.entity, e.entityId) },
         { header: 'Before', value: (e) => e.before },
         { header: 'After', value: (e) => e.after },
         { header: 'Log entry', value: (e) => (e.leafIndex === null ? '' : e.leafIndex + 1) },
@@ -94,36 +107,57 @@ export function AuditPage() {
           role="search"
           aria-label="Filter events"
           onSubmit={(e) => e.preventDefault()}
-          className="grid grid-cols-1 gap-3 border-b border-rule px-5 py-4 sm:grid-cols-[minmax(0,1fr)_minmax(0,1fr)_auto] sm:items-end"
+          className="grid grid-cols-1 gap-3 border-b border-rule px-5 py-4 sm:grid-cols-2 lg:grid-cols-[repeat(3,minmax(0,1fr))_minmax(0,0.8fr)_minmax(0,0.8fr)] lg:items-end"
         >
           <FilterSelect
             id="audit-entity"
-            label="Entity"
-            placeholder="Any entity"
+            label="Kind of record"
+            placeholder="Every kind"
             options={entityOptions}
             value={filter.entity ?? ''}
             onChange={(v) => set('entity', v)}
           />
-          <Field id="audit-entity-id" label="Entity id">
+          <Field id="audit-entity-id" label="Record (serial, number or id)">
             <Input
               id="audit-entity-id"
               mono
-              placeholder="e.g. 12"
+              placeholder="e.g. NC-2026-00001"
               value={entityId}
               onChange={(e) => onEntityId(e.target.value)}
             />
           </Field>
-          <Button onClick={onExport} disabled={exporting || !data?.total} aria-busy={exporting}>
-            Export CSV
-          </Button>
-          {filter.actorId && (
-            <p className="flex flex-wrap items-center gap-2 text-sm sm:col-span-3">
-              Only changes by <span className="font-medium">{actorName ?? `person #${filter.actorId}`}</span>
-              <Button size="sm" onClick={() => set('actorId', '')}>
-                Show everyone
-              </Button>
+          <FilterSelect
+            id="audit-actor"
+            label="Person"
+            placeholder="Everyone"
+            options={actorOptions}
+            value={filter.actorId ? String(filter.actorId) : ''}
+            onChange={(v) => set('actorId', v)}
+          />
+          <FilterInput
+            id="audit-from"
+            label="From"
+            type="date"
+            value={filter.from ?? ''}
+            onChange={(v) => set('from', v)}
+          />
+          <FilterInput id="audit-to" label="To" type="date" value={filter.to ?? ''} onChange={(v) => set('to', v)} />
+          <div className="flex flex-wrap items-center gap-3 sm:col-span-2 lg:col-span-5">
+            <p aria-live="polite" className="text-sm text-ink-soft">
+              {data ? plural(data.total, 'event') : ''}
+              {filtered ? ' match these filters' : ''}
             </p>
-          )}
+            {filtered && (
+              <Button size="sm" onClick={() => setMany({ entity: '', entityId: '', actorId: '', from: '', to: '' })}>
+                Clear filters
+              </Button>
+            )}
+            <span className="ml-auto">
+              <Button onClick={onExport} disabled={exporting || !data?.total} aria-busy={exporting} icon="download">
+                Export CSV
+              </Button>
+            </span>
+          </div>
         </form>
         {events.error && (
           <div className="px-5 pt-4">

@@ -6,22 +6,25 @@ import { DataTable } from '../../../components/data-table';
 import { Icon } from '../../../components/ui/icon';
 import { formatWhen } from '../../../lib/format';
 import { AuditChange } from './audit-change';
-import { ACTION_LABELS, recordName } from './filter';
+import { actionWords, recordName } from './words';
 
 const col = createColumnHelper<AuditEvent>();
 
-/** "Core CR-…" with the id in the serial's type; the words come from recordName. */
-function RecordName({ entity, entityId }: { entity: string; entityId: string }) {
-  const name = recordName(entity, entityId);
-  const words = name.slice(0, name.length - entityId.length);
+/** "Core CR-…" with the id in the serial's type; a person or a result by its name where the server gives one. */
+function RecordName({ event: e }: { event: AuditEvent }) {
+  if (e.recordLabel) return <>{e.recordLabel}</>;
+  const name = recordName(e.entity, e.entityId);
+  const words = name.slice(0, name.length - e.entityId.length);
+  // one span: inside the flex button a bare trailing space between the words and the id would collapse
   return (
-    <>
+    <span>
       {words}
-      <span className="font-mono">{entityId}</span>
-    </>
+      <span className="font-mono">{e.entityId}</span>
+    </span>
   );
 }
-const linkCls = 'text-left text-accent underline-offset-4 hover:underline';
+const linkCls =
+  'inline-flex min-h-8 items-center text-left text-accent underline-offset-4 hover:underline floor:min-h-12';
 
 type AuditTableProps = {
   rows: AuditEvent[];
@@ -72,25 +75,13 @@ export function AuditTable({ rows, busy, onActor, onRecord }: AuditTableProps) {
         },
       }),
       col.accessor('action', {
-        header: 'Action',
-        cell: (c) => {
-          const code = c.getValue();
-          const words = ACTION_LABELS[code];
-          // the words where known, with the code once, small, for searching the export
-          return words ? (
-            <span className="flex flex-col leading-tight">
-              <span>{words}</span>
-              <span className="font-mono text-xs text-ink-soft">{code}</span>
-            </span>
-          ) : (
-            <span className="font-mono text-sm">{code}</span>
-          );
-        },
+        header: 'What happened',
+        // the code stays in the CSV export, for searching; the screen says it in words
+        cell: (c) => actionWords(c.getValue()),
       }),
       col.display({
         id: 'record',
         header: 'Record',
-        meta: { nowrap: true },
         cell: (c) => {
           const e = c.row.original;
           return (
@@ -98,9 +89,9 @@ export function AuditTable({ rows, busy, onActor, onRecord }: AuditTableProps) {
               type="button"
               className={linkCls}
               onClick={() => onRecord(e.entity, e.entityId)}
-              aria-label={`Only events of ${recordName(e.entity, e.entityId)}`}
+              aria-label={`Only events of ${e.recordLabel ?? recordName(e.entity, e.entityId)}`}
             >
-              <RecordName entity={e.entity} entityId={e.entityId} />
+              <RecordName event={e} />
             </button>
           );
         },
@@ -117,7 +108,7 @@ export function AuditTable({ rows, busy, onActor, onRecord }: AuditTableProps) {
               type="button"
               aria-expanded={shown}
               onClick={() => toggle(id)}
-              className="inline-flex h-8 items-center gap-1 rounded-control px-2 text-sm text-accent hover:bg-accent-tint floor:h-11"
+              className="inline-flex h-8 items-center gap-1 rounded-control px-2 text-sm text-accent hover:bg-accent-tint floor:h-12"
             >
               <Icon name={shown ? 'chevronDown' : 'chevronRight'} size={16} />
               {shown ? 'Hide change' : 'Show change'}

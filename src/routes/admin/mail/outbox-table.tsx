@@ -53,7 +53,7 @@ export function OutboxTable({
           <button
             type="button"
             onClick={() => onOpen(c.row.original.id)}
-            className="block min-h-11 min-w-48 text-left text-accent underline underline-offset-4"
+            className="block min-h-11 floor:min-h-12 min-w-48 text-left text-accent underline underline-offset-4"
           >
             {c.getValue()}
           </button>
