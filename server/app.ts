@@ -18,6 +18,7 @@ import { setAppUrl } from './mail/links.js';
 import { ncrRoutes } from './routes/ncrs.js';
 import { unitRoutes } from './routes/units.js';
 import { fieldActionRoutes } from './routes/field-actions.js';
+import { lineRoutes } from './routes/line.js';
 import { plantRoutes } from './routes/plant.js';
 import { mailRoutes } from './routes/mail.js';
 import { specRoutes } from './routes/spec.js';
@@ -119,6 +120,7 @@ export function createApp({
   ncrRoutes(api, sequelize);
   unitRoutes(api, sequelize);
   fieldActionRoutes(api, sequelize);
+  lineRoutes(api, sequelize);
   plantRoutes(api, sequelize);
   mailRoutes(api, config);
   router.use((req, res) => {

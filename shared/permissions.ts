@@ -52,6 +52,9 @@ export const PERMISSIONS = {
   'field-actions.read': ['warranty', 'quality', 'supervisor', 'shipping', 'admin'],
   'field-actions.decide': ['quality'],
   'mail.read': ['admin'],
+  // the line in view: work in process and queues on the homes; yields and the NCR Pareto
+  'wip.read': ['operator', 'supervisor', 'quality', 'shipping', 'receiving', 'admin'],
+  'yields.read': ['quality', 'supervisor', 'admin'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof PERMISSIONS;
