@@ -34,6 +34,9 @@ export const paths = {
   plant: '/admin/plant',
   verify: '/verify',
   spc: '/spc',
+  wip: '/wip',
+  yields: '/yields',
+  search: '/search',
 } as const;
 
 /** Why the sign-in page was shown, so it can say so in plain words. */
@@ -126,3 +129,5 @@ export const trailHref = (serial?: string) =>
 export const lotHref = (lotCode: string) => `/lots/${encodeURIComponent(lotCode)}`;
 export const buildRecordHref = (serial: string) => `/api/units/${encodeURIComponent(serial)}/build-record.pdf`;
 export const fieldActionHref = (number: string) => `/field-actions/${encodeURIComponent(number)}`;
+
+export const searchHref = (q: string) => `${paths.search}?${new URLSearchParams({ q })}`;

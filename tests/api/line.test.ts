@@ -251,15 +251,12 @@ describe('the homes, the board and search', () => {
     expect(byStation.body.items.every((i: { stageCode: string }) => i.stageCode === 'block-clean')).toBe(true);
 
     // a concern holds the crankshaft: on hold, with its NCR
-    const ncr = await request(t.app)
-      .post('/api/ncrs')
-      .set('Cookie', cookies.operator!)
-      .send({
-        serial: parts.crankshaft,
-        severity: 'minor',
-        defectCode: 'OOT',
-        description: 'Scored journal seen at wash',
-      });
+    const ncr = await request(t.app).post('/api/ncrs').set('Cookie', cookies.operator!).send({
+      serial: parts.crankshaft,
+      severity: 'minor',
+      defectCode: 'OOT',
+      description: 'Scored journal seen at wash',
+    });
     expect(ncr.status).toBe(201);
     const held = (
       (await request(t.app).get('/api/line/wip').query({ kind: 'crankshaft' }).set('Cookie', cookies.supervisor!))
