@@ -1,3 +1,4 @@
+import { lazy, Suspense } from 'react';
 import { Link, NavLink, Outlet, redirect, useLocation, useNavigate, useNavigation } from 'react-router';
 import type { LoaderFunctionArgs } from 'react-router';
 import type { QueryClient } from '@tanstack/react-query';
@@ -10,7 +11,9 @@ import { paths, signInHref } from '../../lib/paths';
 import { plantQueryOptions, usePlant } from '../../api/plant/plant';
 import { FLOOR_ROLES, requireSignedIn } from '../../lib/session';
 import { navAreasFor } from './areas';
-import { SearchBox } from '../../components/search-box';
+
+// its own chunk: the station screen, which does not show it, downloads none of it
+const SearchBox = lazy(async () => ({ default: (await import('../../components/search-box')).SearchBox }));
 
 export const layoutLoader =
   (queryClient: QueryClient) =>
@@ -64,7 +67,11 @@ export function AppLayout() {
           </Link>
           <span className="hidden border-l border-rule pl-4 text-sm text-ink-soft lg:inline">{plantName}</span>
           <div className="ml-auto flex items-center gap-3">
-            {location.pathname !== paths.station && <SearchBox key={location.search} />}
+            {location.pathname !== paths.station && (
+              <Suspense fallback={null}>
+                <SearchBox key={location.search} />
+              </Suspense>
+            )}
             <p className="text-right leading-tight">
               <span className="block font-medium">{user.name}</span>
               <span className="block text-sm text-ink-soft">{ROLE_LABELS[user.role]}</span>
