@@ -230,17 +230,17 @@ function FloorSummary() {
         ) : (
           <ul className="divide-y divide-rule">
             {stages.map((s) => (
-              <li key={s.stageCode} className="py-2">
-                <h3 className="font-semibold">
+              <li key={s.stageCode} className="flex flex-wrap items-center gap-x-4 py-1">
+                <h3 className="min-w-52 font-semibold">
                   {s.stageName}{' '}
-                  <span className="font-normal text-ink-soft">
-                    · {s.waiting} waiting · {s.inWork} in work · {s.onHold} on hold
+                  <span className="block text-sm font-normal text-ink-soft">
+                    {s.waiting} waiting · {s.inWork} in work · {s.onHold} on hold
                   </span>
                 </h3>
-                <ul>
+                <ul className="flex flex-wrap gap-x-4">
                   {items
                     .filter((i) => i.stageCode === s.stageCode)
-                    .slice(0, 4)
+                    .slice(0, 2)
                     .map((i) => (
                       <li key={i.serial}>
                         <PartLine item={i} />
