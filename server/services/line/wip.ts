@@ -10,7 +10,7 @@ import { plantSettings } from '../plant.js';
  * NCR holds it. Its age runs from when it reached the stage (its last result, or when it was made);
  * a hold's from the oldest open NCR on it.
  */
-const ITEMS_SQL = `
+export const ITEMS_SQL = `
   SELECT i.serial, i.kind, f.code AS family_code, s.code AS stage_code, s.name AS stage_name,
          CASE WHEN i.status = 'on_hold' THEN 'on_hold'
               WHEN EXISTS (SELECT 1 FROM stage_results r WHERE r.item_id = i.id AND r.stage_id = i.current_stage_id)
@@ -34,7 +34,7 @@ const ITEMS_SQL = `
    ORDER BY age_hours DESC, i.serial`;
 
 // every stage of the families' routes, so an empty stage still shows as empty
-const STAGES_SQL = `
+export const STAGES_SQL = `
   SELECT s.code AS stage_code, s.name AS stage_name, s.part_kind,
          coalesce(array_agg(DISTINCT st.code) FILTER (WHERE st.code IS NOT NULL AND st.active), '{}') AS stations,
          min(rs.position) AS position
@@ -50,7 +50,7 @@ const STAGES_SQL = `
             min(rs.position), s.code`;
 
 // results recorded in the last seven plant days, per day and shift (06–14, 14–22, 22–06 local)
-const THROUGHPUT_SQL = `
+export const THROUGHPUT_SQL = `
   SELECT to_char(((r.finished_at AT TIME ZONE :tz) - interval '6 hours')::date, 'YYYY-MM-DD') AS day,
          CASE WHEN extract(hour FROM r.finished_at AT TIME ZONE :tz) >= 6 AND extract(hour FROM r.finished_at AT TIME ZONE :tz) < 14 THEN 1
               WHEN extract(hour FROM r.finished_at AT TIME ZONE :tz) >= 14 AND extract(hour FROM r.finished_at AT TIME ZONE :tz) < 22 THEN 2

@@ -38,6 +38,29 @@ export const YIELD_SQL = `
    GROUP BY s.code, s.name, s.part_kind, st.code, fam.code
    ORDER BY fam.code, s.part_kind, position, s.code, st.code`;
 
+export const LOSSES_SQL = `SELECT count(*) FILTER (WHERE n.disposition = 'scrap')::int AS scrapped,
+              count(*) FILTER (WHERE n.disposition IN ('rework','repair'))::int AS reworked,
+              count(*) FILTER (WHERE n.disposition = 'use_as_is')::int AS used_as_is,
+              count(*) FILTER (WHERE n.disposition = 'return_to_supplier')::int AS returned
+         FROM nonconformances n LEFT JOIN items i ON i.id = n.item_id
+        WHERE n.state IN ('decided','closed')
+          AND n.decided_at >= (CAST(:from AS date)::timestamp AT TIME ZONE :tz)
+          AND n.decided_at < ((CAST(:to AS date) + 1)::timestamp AT TIME ZONE :tz)
+          AND (CAST(:family AS int) IS NULL OR i.engine_family_id = :family)`;
+
+export const SALVAGE_SQL = `SELECT cr.source, cr.casting_number, count(*)::int AS cores,
+              sum(jsonb_array_length(coalesce(i.attributes->'teardown'->'kept', '[]'::jsonb)))::int AS kept,
+              sum(jsonb_array_length(coalesce(i.attributes->'teardown'->'scrapped', '[]'::jsonb)))::int AS scrapped_at_teardown,
+              sum((SELECT count(*) FROM item_links l JOIN items p ON p.id = l.child_item_id
+                    WHERE l.parent_item_id = i.id AND l.link_type = 'harvested_from' AND p.status = 'scrapped'))::int
+                AS scrapped_later
+         FROM core_receipts cr JOIN items i ON i.id = cr.item_id
+        WHERE cr.received_on BETWEEN CAST(:from AS date) AND CAST(:to AS date) AND i.status = 'torn_down'
+          AND (CAST(:family AS int) IS NULL OR i.engine_family_id = :family)
+        GROUP BY cr.source, cr.casting_number
+        ORDER BY count(*) DESC, cr.source, cr.casting_number
+        LIMIT 100`;
+
 type Counted = {
   stage_code: string;
   stage_name: string;
@@ -73,15 +96,7 @@ export async function yieldReport(sequelize: Sequelize, q: YieldQuery): Promise<
     readQuery<Counted>(sequelize, YIELD_SQL, params),
     readQuery<{ scrapped: number; reworked: number; used_as_is: number; returned: number }>(
       sequelize,
-      `SELECT count(*) FILTER (WHERE n.disposition = 'scrap')::int AS scrapped,
-              count(*) FILTER (WHERE n.disposition IN ('rework','repair'))::int AS reworked,
-              count(*) FILTER (WHERE n.disposition = 'use_as_is')::int AS used_as_is,
-              count(*) FILTER (WHERE n.disposition = 'return_to_supplier')::int AS returned
-         FROM nonconformances n LEFT JOIN items i ON i.id = n.item_id
-        WHERE n.state IN ('decided','closed')
-          AND n.decided_at >= (CAST(:from AS date)::timestamp AT TIME ZONE :tz)
-          AND n.decided_at < ((CAST(:to AS date) + 1)::timestamp AT TIME ZONE :tz)
-          AND (CAST(:family AS int) IS NULL OR i.engine_family_id = :family)`,
+      LOSSES_SQL,
       params,
     ),
     readQuery<{
@@ -91,22 +106,7 @@ export async function yieldReport(sequelize: Sequelize, q: YieldQuery): Promise<
       kept: number;
       scrapped_at_teardown: number;
       scrapped_later: number;
-    }>(
-      sequelize,
-      `SELECT cr.source, cr.casting_number, count(*)::int AS cores,
-              sum(jsonb_array_length(coalesce(i.attributes->'teardown'->'kept', '[]'::jsonb)))::int AS kept,
-              sum(jsonb_array_length(coalesce(i.attributes->'teardown'->'scrapped', '[]'::jsonb)))::int AS scrapped_at_teardown,
-              sum((SELECT count(*) FROM item_links l JOIN items p ON p.id = l.child_item_id
-                    WHERE l.parent_item_id = i.id AND l.link_type = 'harvested_from' AND p.status = 'scrapped'))::int
-                AS scrapped_later
-         FROM core_receipts cr JOIN items i ON i.id = cr.item_id
-        WHERE cr.received_on BETWEEN CAST(:from AS date) AND CAST(:to AS date) AND i.status = 'torn_down'
-          AND (CAST(:family AS int) IS NULL OR i.engine_family_id = :family)
-        GROUP BY cr.source, cr.casting_number
-        ORDER BY count(*) DESC, cr.source, cr.casting_number
-        LIMIT 100`,
-      params,
-    ),
+    }>(sequelize, SALVAGE_SQL, params),
   ]);
 
   const byStation = sumBy(counted, (r) => `${r.stage_code}|${r.station ?? ''}`, true);
