@@ -16,7 +16,7 @@ export function SearchBox() {
       <input
         type="search"
         aria-label="Search serials, lots, references, NCRs, casting numbers"
-        placeholder="Serial, lot, reference, NCR, casting…"
+        placeholder="Search serials, lots, NCRs…"
         value={q}
         maxLength={60}
         onChange={(e) => setQ(e.target.value)}

@@ -126,6 +126,53 @@ describe('yields from a hand-counted fixture', () => {
     expect(csv.text).toContain('2001-03-01,2001-03-31,bore-hone,all,5,3,60.0');
   });
 
+  it('when a core gives three parts, scraps one at teardown and one later, then its casting number salvages half', async () => {
+    const casting = `SV ${unique('').slice(0, 8).toUpperCase()}`;
+    const core = await request(t.app)
+      .post('/api/cores')
+      .set('Cookie', cookies.demoReceiving!)
+      .send({
+        familyId: (await q<{ id: number }>(`SELECT id FROM engine_families WHERE code = 'TARN-6'`))[0]!.id,
+        castingNumber: casting,
+        source: 'customer_return',
+        customerId: (await q<{ id: number }>(`SELECT min(id) AS id FROM customers`))[0]!.id,
+        sourceReference: unique('RMA-'),
+        receivedOn: '2003-04-14',
+        complete: true,
+        grade: 'sound',
+        accepted: true,
+        creditDecision: 'full',
+      });
+    expect(core.status).toBe(201);
+    const td = await request(t.app)
+      .post(`/api/cores/${core.body.serial}/teardown`)
+      .set('Cookie', cookies.demoOperator!)
+      .send({
+        kept: [{ kind: 'block' }, { kind: 'crankshaft' }, { kind: 'cylinder_head' }],
+        scrapped: [{ kind: 'camshaft', reason: 'Lobes worn through' }],
+      });
+    expect(td.status).toBe(201);
+    // the crankshaft scrapped later (its NCR's disposition, written here directly as the fixture)
+    const crank = td.body.teardown.kept.find((k: { kind: string }) => k.kind === 'crankshaft').serial;
+    await q(`UPDATE items SET status = 'scrapped' WHERE serial = :s`, { s: crank });
+    const y = (
+      await request(t.app)
+        .get('/api/yields')
+        .query({ from: '2003-04-01', to: '2003-04-30' })
+        .set('Cookie', cookies.quality!)
+    ).body as YieldJson;
+    const row = y.salvage.find((r) => r.castingNumber === casting)!;
+    expect(row).toMatchObject({
+      source: 'customer_return',
+      cores: 1,
+      kept: 3,
+      scrappedAtTeardown: 1,
+      scrappedLater: 1,
+    });
+    // (kept − scrapped later) / (kept + scrapped at teardown) = (3 − 1) / (3 + 1), counted by hand
+    expect(row.salvageRate).toBe(0.5);
+  });
+
   it('when the period ends before it starts, then 400 and the field named', async () => {
     const res = await request(t.app)
       .get('/api/yields')
@@ -285,7 +332,7 @@ describe('the homes, the board and search', () => {
       .set('Cookie', cookies.demoReceiving!)
       .send({
         familyId: (await q<{ id: number }>(`SELECT id FROM engine_families WHERE code = 'TARN-6'`))[0]!.id,
-        castingNumber: 'CX 7Q',
+        castingNumber: `CQ ${unique('').slice(0, 8).toUpperCase()}`,
         source: 'customer_return',
         customerId: (await q<{ id: number }>(`SELECT min(id) AS id FROM customers`))[0]!.id,
         sourceReference: unique('RMA-'),

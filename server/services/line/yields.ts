@@ -49,7 +49,8 @@ export const LOSSES_SQL = `SELECT count(*) FILTER (WHERE n.disposition = 'scrap'
           AND (CAST(:family AS int) IS NULL OR i.engine_family_id = :family)`;
 
 export const SALVAGE_SQL = `SELECT cr.source, cr.casting_number, count(*)::int AS cores,
-              sum(jsonb_array_length(coalesce(i.attributes->'teardown'->'kept', '[]'::jsonb)))::int AS kept,
+              sum((SELECT count(*) FROM item_links l
+                    WHERE l.parent_item_id = i.id AND l.link_type = 'harvested_from'))::int AS kept,
               sum(jsonb_array_length(coalesce(i.attributes->'teardown'->'scrapped', '[]'::jsonb)))::int AS scrapped_at_teardown,
               sum((SELECT count(*) FROM item_links l JOIN items p ON p.id = l.child_item_id
                     WHERE l.parent_item_id = i.id AND l.link_type = 'harvested_from' AND p.status = 'scrapped'))::int

@@ -188,9 +188,12 @@ export function Alerts() {
           <ul className="divide-y divide-rule">
             {list.slice(0, 10).map((a) => (
               <li key={a.link}>
-                <Link to={a.link} className={linkRow}>
-                  <Icon name="alert" size={18} />
-                  <span>{a.message}</span>
+                <Link
+                  to={a.link}
+                  className="flex min-h-11 items-start gap-x-2 py-1.5 text-accent underline-offset-4 hover:underline"
+                >
+                  <Icon name="alert" size={18} className="mt-0.5 shrink-0" />
+                  <span className="min-w-0">{a.message}</span>
                 </Link>
               </li>
             ))}

@@ -35,7 +35,7 @@ export function BarChart({
           splits: () => labels.map((_, i) => i),
           values: (_u, splits) => splits.map((i) => labels[i] ?? ''),
           rotate: labels.length > 8 ? -40 : 0,
-          size: labels.length > 8 ? 70 : 40,
+          size: labels.length > 8 ? 110 : 40,
         },
         {
           stroke: INK_SOFT,
