@@ -351,6 +351,53 @@ describe('the homes, the board and search', () => {
     expect(queue.body.rows.map((r: { serial: string }) => r.serial)).not.toContain(parts.core);
   });
 
+  it('when the plant lowers its hold threshold, then a three-hour hold becomes an alert, and the change is audited', async () => {
+    const admin = await cookieFor(await makeUser('admin'), t.config);
+    const parts = await tornDownCore(
+      t,
+      { receiving: cookies.demoReceiving!, operator: cookies.demoOperator! },
+      'TARN-6',
+    );
+    const ncr = await request(t.app)
+      .post('/api/ncrs')
+      .set('Cookie', cookies.operator!)
+      .send({
+        serial: parts.block,
+        severity: 'minor',
+        defectCode: 'CRK',
+        description: 'Hairline crack at a freeze plug',
+      });
+    expect(ncr.status).toBe(201);
+    await q(`UPDATE nonconformances SET created_at = now() - interval '3 hours' WHERE number = :n`, {
+      n: ncr.body.number,
+    });
+    const links = async () =>
+      (
+        (await request(t.app).get('/api/line/alerts').set('Cookie', cookies.supervisor!)).body.alerts as {
+          link: string;
+        }[]
+      ).map((a) => a.link);
+    const before = (await request(t.app).get('/api/plant')).body;
+    try {
+      if (before.holdAlertHours <= 3) {
+        await request(t.app).patch('/api/plant').set('Cookie', admin).send({ holdAlertHours: 48 });
+      }
+      expect(await links()).not.toContain(`/items/${parts.block}`);
+      const bad = await request(t.app).patch('/api/plant').set('Cookie', admin).send({ holdAlertHours: 0 });
+      expect(bad.status).toBe(400);
+      const ok = await request(t.app).patch('/api/plant').set('Cookie', admin).send({ holdAlertHours: 2 });
+      expect(ok.status).toBe(200);
+      expect(ok.body.holdAlertHours).toBe(2);
+      expect(await links()).toContain(`/items/${parts.block}`);
+      const [event] = await q<{ before: { holdAlertHours: number }; after: { holdAlertHours: number } }>(
+        `SELECT before, after FROM audit_events WHERE action = 'plant.updated' ORDER BY id DESC LIMIT 1`,
+      );
+      expect(event!.after.holdAlertHours).toBe(2);
+    } finally {
+      await request(t.app).patch('/api/plant').set('Cookie', admin).send({ holdAlertHours: before.holdAlertHours });
+    }
+  });
+
   it('when a part of a serial is typed in any case, then search finds it, grouped by kind, and only the kinds the role may open', async () => {
     const parts = await tornDownCore(
       t,
