@@ -358,15 +358,12 @@ describe('the homes, the board and search', () => {
       { receiving: cookies.demoReceiving!, operator: cookies.demoOperator! },
       'TARN-6',
     );
-    const ncr = await request(t.app)
-      .post('/api/ncrs')
-      .set('Cookie', cookies.operator!)
-      .send({
-        serial: parts.block,
-        severity: 'minor',
-        defectCode: 'CRK',
-        description: 'Hairline crack at a freeze plug',
-      });
+    const ncr = await request(t.app).post('/api/ncrs').set('Cookie', cookies.operator!).send({
+      serial: parts.block,
+      severity: 'minor',
+      defectCode: 'CRK',
+      description: 'Hairline crack at a freeze plug',
+    });
     expect(ncr.status).toBe(201);
     await q(`UPDATE nonconformances SET created_at = now() - interval '3 hours' WHERE number = :n`, {
       n: ncr.body.number,
