@@ -51,6 +51,8 @@ const ROUTES: { route: string; path: string; module: string }[] = [
   { route: 'release', path: paths.release, module: 'src/routes/release/release-page.tsx' },
   { route: 'spec-book', path: paths.specBook, module: 'src/routes/spec/spec-book-page.tsx' },
   { route: 'control-charts', path: paths.spc, module: 'src/routes/spc/spc-page.tsx' },
+  { route: 'wip-board', path: paths.wip, module: 'src/routes/line/wip-page.tsx' },
+  { route: 'yields', path: paths.yields, module: 'src/routes/line/yields-page.tsx' },
 ];
 
 // Level 9, as for files compressed once at build or deploy time. The server's compression

@@ -1,6 +1,7 @@
 import type { BundleRow } from './client.js';
 import type { Side, WritePath } from './measure.js';
 import type { SpcFigures } from './spc.js';
+import type { LineFigures } from './line.js';
 import { round } from './stats.js';
 
 export type Figures = {
@@ -20,6 +21,7 @@ export type Figures = {
   lots: Side;
   ncrs: Side;
   spc: SpcFigures;
+  line?: LineFigures;
   write: WritePath;
   client: { bundles: BundleRow[]; scan: { p50: number; p95: number; max: number; samples: number[] } };
   wallSeconds: number;
@@ -143,6 +145,19 @@ export function printReport(f: Figures) {
       [read('control chart and capability', f.spc.chart), read('rule rehearsal (stored)', f.spc.rehearsal)],
     ),
   );
+  if (f.line) {
+    out.push(`\nThe line's reads at ${f.line.wip.api.target}/s, ${f.line.from} to ${f.line.to}`);
+    out.push(
+      table(
+        ['read', 'API', 'PostgreSQL alone', 'p95 ratio', 'errors'],
+        [
+          read('work-in-process board', f.line.wip),
+          read('yield report over a year', f.line.yields),
+          read('NCR Pareto over a year', f.line.pareto),
+        ],
+      ),
+    );
+  }
   out.push('\nClient: JavaScript a cold load fetches per route (gzip)');
   out.push(
     table(

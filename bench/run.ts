@@ -16,6 +16,7 @@ import { prepareDatabase } from './prep.js';
 import { printReport } from './report.js';
 import { startApi } from './server.js';
 import { measureSpc } from './spc.js';
+import { measureLine } from './line.js';
 
 const url = process.env.DATABASE_URL!;
 const pgBin = process.env.PG_BIN!;
@@ -24,6 +25,7 @@ const SECONDS = Number(process.env.BENCH_SECONDS ?? 10);
 const WRITE_RATES = (process.env.BENCH_WRITE_RATES ?? '10,20,30,40,50,60').split(',').map(Number);
 const READ_RATE = Number(process.env.BENCH_READ_RATE ?? 20);
 const SPC_RATE = Number(process.env.BENCH_SPC_RATE ?? 2);
+const LINE_RATE = Number(process.env.BENCH_LINE_RATE ?? 5);
 const STATION = 'BH-1';
 const POOL_BASE = 10_000_000; // copy numbers of parts waiting at the station, apart from shipped units
 const BATCH = 2_500;
@@ -201,6 +203,7 @@ try {
   const lots = await measureLots(c, READ_RATE);
   const ncrs = await measureNcrList(c, READ_RATE);
   const spc = await measureSpc(c, SPC_RATE);
+  const line = await measureLine(c, LINE_RATE);
 
   const form = (await (
     await fetch(`${server.url}/api/stations/${STATION}/form?serial=${apiParts[0]!.serial}`, {
@@ -239,6 +242,7 @@ try {
     lots,
     ncrs,
     spc,
+    line,
     write,
     client: { bundles, scan },
     wallSeconds: (Date.now() - started) / 1000,

@@ -22,6 +22,7 @@ import { fieldActionRoutes } from './routes/field-actions.js';
 import { warrantyRoutes } from './routes/warranty.js';
 import { correctiveActionRoutes } from './routes/corrective-actions.js';
 import { gaugeRoutes } from './routes/gauges.js';
+import { lineRoutes } from './routes/line.js';
 import { plantRoutes } from './routes/plant.js';
 import { mailRoutes } from './routes/mail.js';
 import { specRoutes } from './routes/spec.js';
@@ -129,6 +130,7 @@ export function createApp({
   warrantyRoutes(api, sequelize);
   correctiveActionRoutes(api, sequelize);
   gaugeRoutes(api, sequelize);
+  lineRoutes(api, sequelize);
   plantRoutes(api, sequelize);
   mailRoutes(api, config);
   router.use((req, res) => {

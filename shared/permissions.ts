@@ -68,6 +68,9 @@ export const PERMISSIONS = {
   'containment.read': ['quality', 'supervisor', 'warranty'],
   'containment.act': ['quality'],
   'mail.read': ['admin'],
+  // the line in view: work in process and queues on the homes; yields and the NCR Pareto
+  'wip.read': ['operator', 'supervisor', 'quality', 'shipping', 'receiving', 'admin'],
+  'yields.read': ['quality', 'supervisor', 'admin'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof PERMISSIONS;

@@ -155,6 +155,27 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.wip,
+              lazy: async () => {
+                const m = await import('./routes/line/wip-page');
+                return { Component: m.WipPage, loader: m.wipLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.yields,
+              lazy: async () => {
+                const m = await import('./routes/line/yields-page');
+                return { Component: m.YieldsPage, loader: m.yieldsLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.search,
+              lazy: async () => {
+                const m = await import('./routes/line/search-page');
+                return { Component: m.SearchPage, loader: m.searchLoader(queryClient) };
+              },
+            },
+            {
               path: paths.station,
               lazy: async () => {
                 const m = await import('./routes/station/station-page');

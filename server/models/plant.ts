@@ -14,6 +14,10 @@ export class PlantSettings extends Model<InferAttributes<PlantSettings>, InferCr
   declare address: string;
   /** An IANA zone such as `America/Chicago`: ship dates, due dates and "today" are the plant's days. */
   declare timeZone: string;
+  /** An open NCR older than this many days is shown as overdue on the homes. */
+  declare ncrOverdueDays: CreationOptional<number>;
+  /** A part on hold longer than this many hours is shown as an alert. */
+  declare holdAlertHours: CreationOptional<number>;
   declare updatedAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize) {
@@ -23,6 +27,8 @@ export class PlantSettings extends Model<InferAttributes<PlantSettings>, InferCr
         name: { type: DataTypes.STRING(120), allowNull: false },
         address: { type: DataTypes.STRING(300), allowNull: false },
         timeZone: { type: DataTypes.STRING(60), allowNull: false },
+        ncrOverdueDays: { type: DataTypes.SMALLINT, allowNull: false, defaultValue: 7 },
+        holdAlertHours: { type: DataTypes.SMALLINT, allowNull: false, defaultValue: 48 },
         updatedAt: DataTypes.DATE,
       },
       { sequelize, tableName: 'plant_settings', underscored: true, createdAt: false },

@@ -21,7 +21,11 @@ export const presentPlant = (p: PlantSettings): PlantJson => ({
   address: p.address,
   timeZone: p.timeZone,
   today: todayIn(p.timeZone),
+  ncrOverdueDays: p.ncrOverdueDays ?? 7,
+  holdAlertHours: p.holdAlertHours ?? 48,
 });
+
+const settingsOf = ({ today: _today, ...rest }: PlantJson) => rest;
 
 export async function updatePlant(sequelize: Sequelize, ctx: Ctx, body: PlantBody): Promise<PlantJson> {
   return sequelize.transaction(async (transaction) => {
@@ -33,8 +37,8 @@ export async function updatePlant(sequelize: Sequelize, ctx: Ctx, body: PlantBod
       action: 'plant.updated',
       entity: 'plant',
       entityId: 1,
-      before: { name: before.name, address: before.address, timeZone: before.timeZone },
-      after: { name: after.name, address: after.address, timeZone: after.timeZone },
+      before: settingsOf(before),
+      after: settingsOf(after),
     });
     return after;
   });

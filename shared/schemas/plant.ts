@@ -12,9 +12,19 @@ export const plantBody = z
       .min(1, 'Choose the plant’s time zone.')
       .max(60)
       .refine(isTimeZone, 'Not a time zone this server knows; use a name like America/Chicago.'),
+    ncrOverdueDays: z.number().int('Use a whole number of days.').min(1).max(365, 'At most 365 days.'),
+    holdAlertHours: z.number().int('Use a whole number of hours.').min(1).max(8760, 'At most 8760 hours (a year).'),
   })
   .partial()
   .refine((b) => Object.keys(b).length > 0, 'Change at least one field.');
 export type PlantBody = z.output<typeof plantBody>;
 
-export type PlantJson = { name: string; address: string; timeZone: string; today: string };
+export type PlantJson = {
+  name: string;
+  address: string;
+  timeZone: string;
+  today: string;
+  /** Alerts on the homes: an open NCR older than this is overdue; a hold older than this is shown. */
+  ncrOverdueDays: number;
+  holdAlertHours: number;
+};

@@ -46,6 +46,9 @@ export const paths = {
   gauges: '/gauges',
   gauge: '/gauges/:code',
   blastRadius: '/blast-radius',
+  wip: '/wip',
+  yields: '/yields',
+  search: '/search',
 } as const;
 
 /** Why the sign-in page was shown, so it can say so in plain words. */
@@ -152,3 +155,5 @@ export function openCaHref(from: { claims?: string[]; ncrs?: string[] } = {}): s
   const s = q.toString();
   return s ? `${paths.openCa}?${s}` : paths.openCa;
 }
+
+export const searchHref = (q: string) => `${paths.search}?${new URLSearchParams({ q })}`;

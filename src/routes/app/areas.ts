@@ -154,6 +154,18 @@ export const AREAS: Area[] = [
     summary: 'Control charts and capability of measured characteristics; freeze limits, see run-rule signals.',
   },
   {
+    label: 'Work in process',
+    to: paths.wip,
+    permission: 'wip.read',
+    summary: 'Every part on the floor by stage and station: waiting, in work, on hold, with ages; throughput.',
+  },
+  {
+    label: 'Yields',
+    to: paths.yields,
+    permission: 'yields.read',
+    summary: 'First-pass and rolled throughput yield, scrap, rework, salvage and the NCR Pareto, with CSV.',
+  },
+  {
     label: 'Defect codes',
     to: paths.defectCodes,
     permission: 'defects.manage',

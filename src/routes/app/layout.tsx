@@ -1,4 +1,5 @@
-import { Link, NavLink, Outlet, redirect, useNavigate, useNavigation } from 'react-router';
+import { lazy, Suspense } from 'react';
+import { Link, NavLink, Outlet, redirect, useLocation, useNavigate, useNavigation } from 'react-router';
 import type { LoaderFunctionArgs } from 'react-router';
 import type { QueryClient } from '@tanstack/react-query';
 import { ROLE_LABELS } from '../../../shared/roles';
@@ -10,6 +11,9 @@ import { paths, signInHref } from '../../lib/paths';
 import { plantQueryOptions, usePlant } from '../../api/plant/plant';
 import { requireSignedIn } from '../../lib/session';
 import { navAreasFor } from './areas';
+
+// its own chunk: the station screen, which does not show it, downloads none of it
+const SearchBox = lazy(async () => ({ default: (await import('../../components/search-box')).SearchBox }));
 
 export const layoutLoader =
   (queryClient: QueryClient) =>
@@ -38,6 +42,7 @@ export function AppLayout() {
   const signOut = useSignOut();
   const navigate = useNavigate();
   const navigation = useNavigation();
+  const location = useLocation();
   const plantName = usePlant().data?.name ?? '';
   // between a sign-out and the sign-in page there is nobody to show
   if (!me) return null;
@@ -62,6 +67,11 @@ export function AppLayout() {
           </Link>
           <span className="hidden border-l border-rule pl-4 text-sm text-ink-soft lg:inline">{plantName}</span>
           <div className="ml-auto flex items-center gap-3">
+            {location.pathname !== paths.station && (
+              <Suspense fallback={null}>
+                <SearchBox key={location.search} />
+              </Suspense>
+            )}
             <p className="text-right leading-tight">
               <span className="block font-medium">{user.name}</span>
               <span className="block text-sm text-ink-soft">{ROLE_LABELS[user.role]}</span>

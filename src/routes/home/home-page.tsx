@@ -8,6 +8,7 @@ import { Icon } from '../../components/ui/icon';
 import { paths } from '../../lib/paths';
 import { areasFor, comingFor } from '../app/areas';
 import { WaitingForYou } from './waiting-for-you';
+import { LineHome } from './line-home';
 
 type Tile = { label: string; to: string; summary: string };
 
@@ -57,6 +58,7 @@ export function HomePage() {
           </Card>
         </section>
       )}
+      <LineHome me={me} />
       <WaitingForYou me={me} />
       <section aria-labelledby="now-heading" className="mb-8">
         <h2 id="now-heading" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-soft">

@@ -5,7 +5,7 @@ import { plantBody } from '../../../../shared/schemas/plant';
 import { plantQueryOptions, usePlant } from '../../../api/plant/plant';
 import { useUpdatePlant } from '../../../api/plant/update-plant';
 import { Form, SubmitButton } from '../../../components/form';
-import { TextField } from '../../../components/form-fields';
+import { NumberField, TextField } from '../../../components/form-fields';
 import { PageHeader } from '../../../components/page-header';
 import { Card, CardBody, CardHeader } from '../../../components/ui/card';
 import { Notice } from '../../../components/ui/notice';
@@ -41,7 +41,13 @@ export function PlantPage() {
           )}
           <Form
             schema={plantBody}
-            defaultValues={{ name: plant.data.name, address: plant.data.address, timeZone: plant.data.timeZone }}
+            defaultValues={{
+              name: plant.data.name,
+              address: plant.data.address,
+              timeZone: plant.data.timeZone,
+              ncrOverdueDays: plant.data.ncrOverdueDays,
+              holdAlertHours: plant.data.holdAlertHours,
+            }}
             onSubmit={async (body) => {
               await update.mutateAsync(body);
               setSaved(true);
@@ -55,6 +61,14 @@ export function PlantPage() {
               mono
               hint="A time zone name such as America/Chicago or Europe/Berlin."
             />
+            <NumberField
+              name="ncrOverdueDays"
+              label="An open NCR is overdue after"
+              unit="days"
+              integer
+              hint="The homes of quality and supervisors show an alert for it."
+            />
+            <NumberField name="holdAlertHours" label="A hold is shown as an alert after" unit="hours" integer />
             <div className="flex justify-end">
               <SubmitButton>Save</SubmitButton>
             </div>
