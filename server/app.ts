@@ -117,7 +117,7 @@ export function createApp({
   specRoutes(api, sequelize);
   spcRoutes(api, sequelize);
   ncrRoutes(api, sequelize);
-  unitRoutes(api, sequelize);
+  unitRoutes(api, sequelize, config);
   fieldActionRoutes(api, sequelize);
   plantRoutes(api, sequelize);
   mailRoutes(api, config);

@@ -10,6 +10,7 @@ import * as m20261203100000 from './20261203100000-gate-integrity.js';
 import * as m20261203110000 from './20261203110000-office-screens.js';
 import * as m20261203120000 from './20261203120000-sessions-and-second-factor.js';
 import * as m20261203140000 from './20261203140000-spc.js';
+import * as m20261203160000 from './20261203160000-issued-documents.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -28,4 +29,5 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261203110000-office-screens', ...m20261203110000 },
   { name: '20261203120000-sessions-and-second-factor', ...m20261203120000 },
   { name: '20261203140000-spc', ...m20261203140000 },
+  { name: '20261203160000-issued-documents', ...m20261203160000 },
 ];

@@ -4,6 +4,7 @@ import { EngineFamily } from './engine-family.js';
 import { Gauge, GaugeCalibration } from './gauges.js';
 import { IdempotencyKey, MailOutbox } from './infra.js';
 import { CoreReceipt, Item, ItemLink } from './items.js';
+import { IssuedDocument } from './issued-document.js';
 import { PartLot, UnitLot } from './lots.js';
 import { DefectCode, Nonconformance, NonconformanceTransition, Signature } from './nonconformances.js';
 import { Customer, Supplier } from './parties.js';
@@ -30,6 +31,7 @@ export {
   Gauge,
   GaugeCalibration,
   IdempotencyKey,
+  IssuedDocument,
   Item,
   ItemLink,
   LabelPrint,
@@ -89,6 +91,7 @@ const MODELS = [
   Attachment,
   LabelPrint,
   Shipment,
+  IssuedDocument,
   WarrantyClaim,
   IdempotencyKey,
   MailOutbox,

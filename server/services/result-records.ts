@@ -1,6 +1,7 @@
 import { Op, type Sequelize } from 'sequelize';
 import type { AttachmentJson } from '../../shared/schemas/attachments.js';
 import { describePosition, expandPositions } from '../../shared/domain/positions.js';
+import type { RuleShape } from '../../shared/documents/format.js';
 import { limitsOf } from '../../shared/domain/tolerance.js';
 import { Attachment, Characteristic, Item, Reading, StageResult, ToleranceRule, User } from '../models/index.js';
 import { presentAttachment } from './attachments.js';
@@ -38,6 +39,8 @@ export type RecordedReading = {
   ruleVersion: number | null;
   lower: number | null;
   upper: number | null;
+  /** The rule version's limits and resolution as written, for printed documents. */
+  rule: RuleShape | null;
   location: string | null;
 };
 
@@ -88,6 +91,23 @@ export async function loadResultRecords(
   const limitsByRule = new Map(
     rules.map((r) => [r.id, r.limitType === 'attribute' ? { lower: null, upper: null } : limitsOf(toRuleInForce(r))]),
   );
+  const shapeByRule = new Map<number, RuleShape>(
+    rules.map((r) => {
+      const f = toRuleInForce(r);
+      return [
+        r.id,
+        {
+          limitType: f.limitType,
+          nominal: f.nominal ?? null,
+          minusTol: f.minusTol ?? null,
+          plusTol: f.plusTol ?? null,
+          lowerLimit: f.lowerLimit ?? null,
+          upperLimit: f.upperLimit ?? null,
+          resolution: f.resolution ?? null,
+        },
+      ];
+    }),
+  );
   const nameById = new Map(users.map((u) => [u.id, u.name]));
   const readingsOf = groupBy(readings, (r) => r.stageResultId);
   const photosOf = groupBy(photos, (p) => p.entityId);
@@ -131,6 +151,7 @@ export async function loadResultRecords(
           ruleVersion: x.ruleVersion,
           lower: limits.lower,
           upper: limits.upper,
+          rule: (x.toleranceRuleId && shapeByRule.get(x.toleranceRuleId)) || null,
           location: x.locationNote,
         };
       }),
