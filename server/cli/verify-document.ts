@@ -72,9 +72,7 @@ export async function runVerify(argv: string[]): Promise<{ result: VerifyResult;
   const bytes = fs.readFileSync(file);
   const pdf = isPdf(bytes);
   try {
-    doc = pdf
-      ? await attachedDocument(bytes, async (d) => inflateSync(d))
-      : JSON.parse(bytes.toString('utf8'));
+    doc = pdf ? await attachedDocument(bytes, async (d) => inflateSync(d)) : JSON.parse(bytes.toString('utf8'));
     if (doc === null) throw new Error('it carries no Coretrail document data (a draft, or not issued by Coretrail)');
   } catch (err) {
     const result: VerifyResult = {

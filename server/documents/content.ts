@@ -13,7 +13,13 @@ import {
   type PackingSlipContent,
 } from '../../shared/documents/content.js';
 import { limitsText, readingText } from '../../shared/documents/format.js';
-import { LOT_KIND_LABELS, RELEASE_MEANING, type LotKind, type TrailJson, type TrailNode } from '../../shared/schemas/build.js';
+import {
+  LOT_KIND_LABELS,
+  RELEASE_MEANING,
+  type LotKind,
+  type TrailJson,
+  type TrailNode,
+} from '../../shared/schemas/build.js';
 import { DISPOSITION_LABELS, NCR_STATE_LABELS, type Disposition } from '../../shared/schemas/ncr.js';
 import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.js';
 import { invalid } from '../errors.js';
@@ -46,7 +52,13 @@ const signatureOf = (
   s: { printedName: string; meaning: string; reason: string; signedAt: string | Date },
 ): DocSignature => {
   const at = new Date(s.signedAt).toISOString();
-  return { signer: s.printedName, meaning: s.meaning, reason: s.reason, signedAt: at, signedAtLocal: localTime(tz, at) };
+  return {
+    signer: s.printedName,
+    meaning: s.meaning,
+    reason: s.reason,
+    signedAt: at,
+    signedAtLocal: localTime(tz, at),
+  };
 };
 
 const kindLabel = (kind: string) => PART_KIND_LABELS[kind as PartKind] ?? kind.replace(/_/g, ' ');
@@ -79,17 +91,15 @@ function stagesOf(trail: TrailJson, kinds: Map<string, string>, tz: string): Doc
         : r.reentryReason
           ? `re-entry: ${r.reentryReason}`
           : null,
-      readings: r.readings.map(
-        (x): DocReading => ({
-          characteristic: x.name,
-          position: x.positionLabel,
-          value: x.value === null ? (x.passed ? 'pass' : 'fail') : readingText(x.value, x.rule?.resolution ?? null),
-          unit: x.unit ?? '',
-          limits: limitsText(x.rule, x.lower, x.upper),
-          verdict: x.verdict,
-          rule: x.ruleVersion ? `v${x.ruleVersion}` : '—',
-        }),
-      ),
+      readings: r.readings.map((x): DocReading => ({
+        characteristic: x.name,
+        position: x.positionLabel,
+        value: x.value === null ? (x.passed ? 'pass' : 'fail') : readingText(x.value, x.rule?.resolution ?? null),
+        unit: x.unit ?? '',
+        limits: limitsText(x.rule, x.lower, x.upper),
+        verdict: x.verdict,
+        rule: x.ruleVersion ? `v${x.ruleVersion}` : '—',
+      })),
     }));
 }
 
@@ -137,7 +147,9 @@ async function commonOf(trail: TrailJson, issue: IssueContext | null, prefix: st
 async function unitTrail(sequelize: Sequelize, serial: string) {
   const trail = await trailOf(sequelize, serial);
   if (trail.item.kind !== 'long_block') {
-    throw invalid(`${trail.item.serial} is not a long block: build records, certificates and slips are kept for units.`);
+    throw invalid(
+      `${trail.item.serial} is not a long block: build records, certificates and slips are kept for units.`,
+    );
   }
   return trail;
 }

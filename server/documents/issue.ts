@@ -74,7 +74,8 @@ async function checksAtRelease(serial: string) {
 export async function issueReleaseDocuments(sequelize: Sequelize, ctx: Ctx, serial: string) {
   const unit = await findBySerial(serial);
   const shipment = await currentShipment(unit.id);
-  if (!shipment) throw new AppError(409, 'not_released', `${unit.serial} has not been released: documents are issued at release.`);
+  if (!shipment)
+    throw new AppError(409, 'not_released', `${unit.serial} has not been released: documents are issued at release.`);
   const have = await IssuedDocument.count({ where: { shipmentId: shipment.id } });
   if (have === 0) {
     const trail = await unitTrail(sequelize, unit.serial);
@@ -138,9 +139,7 @@ export async function documentPdf(
 ): Promise<{ pdf: Buffer; fileName: string }> {
   const unit = await findBySerial(serial);
   const shipment = await currentShipment(unit.id);
-  const issued = shipment
-    ? await IssuedDocument.findOne({ where: { shipmentId: shipment.id, kind } })
-    : null;
+  const issued = shipment ? await IssuedDocument.findOne({ where: { shipmentId: shipment.id, kind } }) : null;
   const size = paper === 'LETTER' ? 'letter' : 'a4';
   if (!issued) {
     if (kind !== 'build_record') {

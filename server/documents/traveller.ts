@@ -29,9 +29,7 @@ const STATE_WORDS = { done: 'done', current: 'HERE NOW', todo: 'to do', skipped:
 export async function travellerPdf(serial: string, paper: PaperSize): Promise<{ pdf: Buffer; fileName: string }> {
   const item = await findBySerial(serial);
   const [card, plant, results] = await Promise.all([presentItem(item), plantSettings(), resultsOf(item.serial)]);
-  const current = new Map(
-    results.filter((r) => r.supersededBy === null).map((r) => [r.stage.code, r] as const),
-  );
+  const current = new Map(results.filter((r) => r.supersededBy === null).map((r) => [r.stage.code, r] as const));
   const now = new Date();
   const sheet = newSheet(paper, {
     title: `Traveller ${card.serial}`,
@@ -45,17 +43,18 @@ export async function travellerPdf(serial: string, paper: PaperSize): Promise<{ 
   sheet.qr(card.serial, left + width - qr, top, qr);
   sheet.font('sans', 10, SOFT).text('Traveller', left, top, { width: width - qr - 16 });
   sheet.font('monoBold', 30).text(card.serial, left, doc.y + 2, { width: width - qr - 16 });
-  sheet.font('sansBold', 14, ACCENT).text(
-    `${card.kindLabel}${card.positionLabel ? ` · ${card.positionLabel}` : ''}`,
-    left,
-    doc.y + 4,
-    { width: width - qr - 16 },
-  );
+  sheet
+    .font('sansBold', 14, ACCENT)
+    .text(`${card.kindLabel}${card.positionLabel ? ` · ${card.positionLabel}` : ''}`, left, doc.y + 4, {
+      width: width - qr - 16,
+    });
   sheet.font('sans', 11).text(`${card.family.code} · ${card.family.name}`, left, doc.y + 2, { width: width - qr - 16 });
   const statusLabel = STATUS_LABELS[card.status] ?? card.status.replace(/_/g, ' ');
-  sheet.font('sans', 10).text(`Status: ${statusLabel}${card.currentStage ? ` · at ${card.currentStage.name}` : ''}`, left, doc.y + 2, {
-    width: width - qr - 16,
-  });
+  sheet
+    .font('sans', 10)
+    .text(`Status: ${statusLabel}${card.currentStage ? ` · at ${card.currentStage.name}` : ''}`, left, doc.y + 2, {
+      width: width - qr - 16,
+    });
   if (card.harvestedFrom) sheet.font('sans', 9.5, SOFT).text(`From core ${card.harvestedFrom.serial}`, left, doc.y + 2);
   if (card.installedIn) sheet.font('sans', 9.5, SOFT).text(`Fitted in ${card.installedIn.serial}`, left, doc.y + 2);
   doc.y = Math.max(doc.y, top + qr) + 14;
@@ -63,7 +62,7 @@ export async function travellerPdf(serial: string, paper: PaperSize): Promise<{ 
   sheet.heading('Route');
   sheet.table(
     [
-      { header: '#', width: 22, align: 'right', mono: true },
+      { header: '#', width: 22, numeric: true },
       { header: 'Stage', width: width - 22 - 70 - 150 - 60 },
       { header: 'Status', width: 70 },
       { header: 'Last result', width: 150 },
@@ -76,7 +75,9 @@ export async function travellerPdf(serial: string, paper: PaperSize): Promise<{ 
           String(i + 1),
           `${s.name}${s.required ? '' : ' (optional)'}${s.hazard ? ' ⚠' : ''}`,
           STATE_WORDS[s.state],
-          r ? `${r.verdict === 'pass' ? 'pass' : 'FAIL'} · ${localTime(plant.timeZone, r.finishedAt)} · ${r.operator}` : '',
+          r
+            ? `${r.verdict === 'pass' ? 'pass' : 'FAIL'} · ${localTime(plant.timeZone, r.finishedAt)} · ${r.operator}`
+            : '',
           '',
         ],
         bold: s.state === 'current' ? [1, 2] : [],

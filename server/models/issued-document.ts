@@ -33,7 +33,13 @@ export class IssuedDocument extends Model<InferAttributes<IssuedDocument>, Infer
         content: { type: DataTypes.JSONB, allowNull: false },
         contentHash: { type: DataTypes.CHAR(64), allowNull: false },
         // bigint, read back as a number (ids stay far below 2^53)
-        auditEventId: { type: DataTypes.BIGINT, allowNull: false, get() { return Number(this.getDataValue('auditEventId')); } },
+        auditEventId: {
+          type: DataTypes.BIGINT,
+          allowNull: false,
+          get() {
+            return Number(this.getDataValue('auditEventId'));
+          },
+        },
         issuedById: { type: DataTypes.INTEGER, allowNull: true },
         createdAt: DataTypes.DATE,
       },

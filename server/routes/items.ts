@@ -20,7 +20,8 @@ export function itemRoutes(api: Api, sequelize: Sequelize) {
     method: 'get',
     path: '/items/:serial/traveller.pdf',
     access: 'items.read',
-    summary: "A part's traveller: its serial as QR code and in large type, family, and its route with each stage's status.",
+    summary:
+      "A part's traveller: its serial as QR code and in large type, family, and its route with each stage's status.",
     params: serialParam,
     query: paperQuery,
     handler: async ({ params, query, res }) => {

@@ -97,7 +97,8 @@ export function unitRoutes(api: Api, sequelize: Sequelize, config: Config) {
     method: 'get',
     path: '/units/:serial/documents',
     access: 'trail.read',
-    summary: 'The documents issued at release (build record, certificate of conformance, packing slip), with their hashes.',
+    summary:
+      'The documents issued at release (build record, certificate of conformance, packing slip), with their hashes.',
     params: serialParam,
     handler: ({ params }) => listDocuments(params.serial),
   });
@@ -105,7 +106,8 @@ export function unitRoutes(api: Api, sequelize: Sequelize, config: Config) {
     method: 'post',
     path: '/units/:serial/documents',
     access: 'release.ship',
-    summary: "Issue a released unit's documents if its release did not (each logged with its content hash); else list them.",
+    summary:
+      "Issue a released unit's documents if its release did not (each logged with its content hash); else list them.",
     params: serialParam,
     handler: ({ ctx, params }) => issueReleaseDocuments(sequelize, ctx, params.serial),
   });

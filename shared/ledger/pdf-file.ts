@@ -29,7 +29,13 @@ export async function attachedFiles(bytes: Uint8Array, inflate: Inflate): Promis
     const start = m.index + m[0].length;
     const direct = /\/Length\s+(\d+)(?!\s+\d+\s+R)/.exec(dict);
     let end = direct ? start + Number(direct[1]) : -1;
-    if (end < 0 || text.slice(end, end + 12).trimStart().slice(0, 9) !== 'endstream') {
+    if (
+      end < 0 ||
+      text
+        .slice(end, end + 12)
+        .trimStart()
+        .slice(0, 9) !== 'endstream'
+    ) {
       end = text.indexOf('endstream', start);
       if (end < 0) break;
       while (end > start && (text[end - 1] === '\n' || text[end - 1] === '\r')) end--;
@@ -48,7 +54,12 @@ export async function attachedDocument(bytes: Uint8Array, inflate: Inflate): Pro
   for (const body of await attachedFiles(bytes, inflate)) {
     try {
       const json = JSON.parse(new TextDecoder().decode(body)) as { format?: unknown };
-      if (json && typeof json === 'object' && typeof json.format === 'string' && json.format.startsWith('coretrail-document/')) {
+      if (
+        json &&
+        typeof json === 'object' &&
+        typeof json.format === 'string' &&
+        json.format.startsWith('coretrail-document/')
+      ) {
         return json;
       }
     } catch {

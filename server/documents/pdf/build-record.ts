@@ -2,8 +2,7 @@ import type { BuildRecordContent, DocSignature, DocTreeNode } from '../../../sha
 import { BAD, INK, RULE, SOFT, newSheet, type Column, type PaperSize, type Sheet } from './kit.js';
 import { checkableFile, receiptBlock, titleBlock, type DocumentReceipt } from './receipt.js';
 
-export const signedLine = (s: DocSignature) =>
-  `${s.signer} — “${s.meaning}” — ${s.reason} — ${s.signedAtLocal}`;
+export const signedLine = (s: DocSignature) => `${s.signer} — “${s.meaning}” — ${s.reason} — ${s.signedAtLocal}`;
 
 /** The plant's identity, then the unit, its customer and its shipment. */
 export function identity(sheet: Sheet, c: BuildRecordContent | Omit<BuildRecordContent, 'layout'>) {
@@ -11,7 +10,12 @@ export function identity(sheet: Sheet, c: BuildRecordContent | Omit<BuildRecordC
     ['Plant', `${c.plant.name}${c.plant.address ? `\n${c.plant.address}` : ''}`],
     ['Unit', `${c.unit.serial}\n${c.unit.familyCode} · ${c.unit.familyName}`],
     ['Customer', c.customer ? `${c.customer.name} (${c.customer.code})` : 'not shipped'],
-    ['Shipment', c.shipment ? `Order ${c.shipment.reference}, shipped ${c.shipment.shipDate}${c.shipment.carrier ? ` by ${c.shipment.carrier}` : ''}` : 'not shipped'],
+    [
+      'Shipment',
+      c.shipment
+        ? `Order ${c.shipment.reference}, shipped ${c.shipment.shipDate}${c.shipment.carrier ? ` by ${c.shipment.carrier}` : ''}`
+        : 'not shipped',
+    ],
     ['Warranty', c.shipment?.warranty ?? '—'],
     ['Issued', `${c.issuedAtLocal} (${c.plant.timeZone})`],
   ]);
@@ -58,15 +62,15 @@ function tree(sheet: Sheet, root: DocTreeNode) {
 }
 
 const READING_COLUMNS = (width: number): Column[] => {
-  const fixedW = 70 + 58 + 34 + 100 + 38 + 30;
+  const fixedW = 112 + 50 + 30 + 92 + 36 + 26;
   return [
     { header: 'Characteristic', width: width - fixedW },
-    { header: 'Position', width: 70 },
-    { header: 'Value', width: 58, align: 'right', mono: true },
-    { header: 'Unit', width: 34 },
-    { header: 'Limits', width: 100, align: 'right', mono: true },
-    { header: 'Verdict', width: 38 },
-    { header: 'Rule', width: 30, align: 'right', mono: true },
+    { header: 'Position', width: 112 },
+    { header: 'Value', width: 50, numeric: true },
+    { header: 'Unit', width: 30 },
+    { header: 'Limits', width: 92, numeric: true },
+    { header: 'Verdict', width: 36 },
+    { header: 'Rule', width: 26, numeric: true },
   ];
 };
 
@@ -85,7 +89,10 @@ export async function drawBuildRecord(
   titleBlock(
     sheet,
     `Build record — ${c.unit.serial}`,
-    [`${c.documentNumber}${receipt ? '' : ' · DRAFT, not released'}`, `${c.unit.familyCode} ${c.unit.familyName} · remanufactured long block`],
+    [
+      `${c.documentNumber}${receipt ? '' : ' · DRAFT, not released'}`,
+      `${c.unit.familyCode} ${c.unit.familyName} · remanufactured long block`,
+    ],
     c.links.trail,
   );
   if (!receipt) {
@@ -103,25 +110,28 @@ export async function drawBuildRecord(
   sheet.heading('Purchased lots');
   if (!c.lots.length) sheet.para('None recorded.');
   else {
-    const fixedW = 90 + 80 + 28 + 64;
+    const fixedW = 76 + 108 + 104 + 26 + 50;
     sheet.table(
       [
-        { header: 'Part', width: 90 },
-        { header: 'Supplier', width: width - fixedW - 80 },
-        { header: 'Part number', width: 80, mono: true },
-        { header: 'Lot', width: 80, mono: true },
-        { header: 'Qty', width: 28, align: 'right', mono: true },
-        { header: 'Size', width: 64, align: 'right', mono: true },
+        { header: 'Part', width: 76 },
+        { header: 'Supplier', width: width - fixedW },
+        { header: 'Part number', width: 108, mono: true },
+        { header: 'Lot', width: 104, mono: true },
+        { header: 'Qty', width: 26, numeric: true },
+        { header: 'Size', width: 50, numeric: true },
       ],
       c.lots.map((l) => ({ cells: [l.kind, l.supplier, l.partNumber, l.lotCode, String(l.quantity), l.note] })),
     );
   }
 
   sheet.heading('Stage results and readings');
-  sheet.para('Current results only; a corrected result is shown as corrected. Values are rounded to the resolution of the rule that judged them.', {
-    size: 7.5,
-    color: SOFT,
-  });
+  sheet.para(
+    'Current results only; a corrected result is shown as corrected. Values are rounded to the resolution of the rule that judged them.',
+    {
+      size: 7.5,
+      color: SOFT,
+    },
+  );
   const cols = READING_COLUMNS(width);
   for (const s of c.stages) {
     const caption = `${s.part} ${s.serial} · ${s.stage} — ${s.verdict === 'pass' ? 'pass' : 'FAIL'}`;
@@ -138,11 +148,19 @@ export async function drawBuildRecord(
     sheet.table(
       cols,
       s.readings.map((r) => ({
-        cells: [r.characteristic, r.position, r.value, r.unit, r.limits, r.verdict === 'pass' ? 'pass' : 'FAIL', r.rule],
+        cells: [
+          r.characteristic,
+          r.position,
+          r.value,
+          r.unit,
+          r.limits,
+          r.verdict === 'pass' ? 'pass' : 'FAIL',
+          r.rule,
+        ],
         bold: r.verdict === 'fail' ? [2, 5] : [],
         color: r.verdict === 'fail' ? [null, null, BAD, null, null, BAD, null] : [],
       })),
-      { size: 8 },
+      { size: 7.8, continued: caption },
     );
   }
 
@@ -165,7 +183,10 @@ export async function drawBuildRecord(
         ['Signed by', c.release.signer],
         ['Meaning', c.release.meaning],
         ['Reason', c.release.reason],
-        ['Time', `${c.release.signedAtLocal} (${c.plant.timeZone}) · ${c.release.signedAt.replace('T', ' ').slice(0, 19)} UTC`],
+        [
+          'Time',
+          `${c.release.signedAtLocal} (${c.plant.timeZone}) · ${c.release.signedAt.replace('T', ' ').slice(0, 19)} UTC`,
+        ],
       ],
       1,
     );

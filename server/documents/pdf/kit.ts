@@ -50,12 +50,13 @@ export type Sheet = {
   para(text: string, opts?: { size?: number; color?: string; font?: FontName }): void;
   /** Label–value pairs in two columns. */
   fields(pairs: [string, string][], columns?: number): void;
-  table(columns: Column[], rows: Row[], opts?: { size?: number; caption?: string }): void;
+  table(columns: Column[], rows: Row[], opts?: { size?: number; caption?: string; continued?: string }): void;
   qr(text: string, x: number, y: number, size: number): void;
   finish(header: HeaderInfo): Promise<Buffer>;
 };
 
-export type Column = { header: string; width: number; align?: 'left' | 'right'; mono?: boolean };
+/** `mono` for one-word codes (serials, lots); `numeric` for figures, in Plex Sans' tabular figures. */
+export type Column = { header: string; width: number; align?: 'left' | 'right'; mono?: boolean; numeric?: boolean };
 export type Row = { cells: string[]; bold?: number[]; color?: (string | null)[] };
 export type HeaderInfo = { left: string; right: string; footer: string };
 
@@ -64,7 +65,13 @@ export function newSheet(size: PaperSize, meta: { title: string; author: string;
     size,
     margins: MARGIN,
     bufferPages: true,
-    info: { Title: meta.title, Author: meta.author, Subject: meta.subject, Creator: 'Coretrail', CreationDate: meta.at },
+    info: {
+      Title: meta.title,
+      Author: meta.author,
+      Subject: meta.subject,
+      Creator: 'Coretrail',
+      CreationDate: meta.at,
+    },
     lang: 'en',
   });
   for (const [name, file] of Object.entries(fontPaths)) doc.registerFont(name, file);
@@ -76,7 +83,8 @@ export function newSheet(size: PaperSize, meta: { title: string; author: string;
     rawText(mono && typeof t === 'string' ? t.replace(/[ \u00a0]/g, '\u2007') : t, ...(rest as []))) as typeof doc.text;
   const fix = (t: string) => (mono ? t.replace(/[ \u00a0]/g, '\u2007') : t);
   const rawHeight = doc.heightOfString.bind(doc);
-  doc.heightOfString = ((t: string, o?: PDFKit.Mixins.TextOptions) => rawHeight(fix(t), o)) as typeof doc.heightOfString;
+  doc.heightOfString = ((t: string, o?: PDFKit.Mixins.TextOptions) =>
+    rawHeight(fix(t), o)) as typeof doc.heightOfString;
   const rawWidth = doc.widthOfString.bind(doc);
   doc.widthOfString = ((t: string, o?: PDFKit.Mixins.TextOptions) => rawWidth(fix(t), o)) as typeof doc.widthOfString;
   const chunks: Buffer[] = [];
@@ -141,11 +149,20 @@ export function newSheet(size: PaperSize, meta: { title: string; author: string;
         let x = left;
         sheet.font('sansMedium', size - 0.5, SOFT);
         for (const c of columns) {
-          doc.text(c.header, x + pad, y, { width: c.width - 2 * pad, align: c.align ?? 'left', lineBreak: false });
+          doc.text(c.header, x + pad, y, {
+            width: c.width - 2 * pad,
+            align: c.align ?? (c.numeric ? 'right' : 'left'),
+            lineBreak: false,
+          });
           x += c.width;
         }
         const ly = y + size + 4;
-        doc.moveTo(left, ly).lineTo(left + total, ly).lineWidth(0.6).strokeColor(INK).stroke();
+        doc
+          .moveTo(left, ly)
+          .lineTo(left + total, ly)
+          .lineWidth(0.6)
+          .strokeColor(INK)
+          .stroke();
         doc.y = ly + 3;
       };
       const total = columns.reduce((s, c) => s + c.width, 0);
@@ -153,7 +170,7 @@ export function newSheet(size: PaperSize, meta: { title: string; author: string;
         Math.max(
           ...columns.map((c, i) => {
             sheet.font(c.mono ? 'mono' : 'sans', c.mono ? size - 0.5 : size);
-            return doc.heightOfString(r.cells[i] || ' ', { width: c.width - 2 * pad });
+            return doc.heightOfString(r.cells[i] || 'x', { width: c.width - 2 * pad });
           }),
         );
       if (opts.caption) {
@@ -166,8 +183,9 @@ export function newSheet(size: PaperSize, meta: { title: string; author: string;
         const h = heightOf(r);
         if (doc.y + h + 3 > bottom) {
           doc.addPage();
-          if (opts.caption) {
-            sheet.font('sans', 8, SOFT).text(`${opts.caption} (continued)`, left, doc.y, { width });
+          const label = opts.continued ?? opts.caption;
+          if (label) {
+            sheet.font('sans', 8, SOFT).text(`${label} (continued)`, left, doc.y, { width });
             doc.y += 2;
           }
           drawHeader();
@@ -178,16 +196,30 @@ export function newSheet(size: PaperSize, meta: { title: string; author: string;
           const bold = r.bold?.includes(i);
           const font: FontName = c.mono ? (bold ? 'monoBold' : 'mono') : bold ? 'sansBold' : 'sans';
           sheet.font(font, c.mono ? size - 0.5 : size, r.color?.[i] ?? INK);
-          doc.text(r.cells[i] ?? '', x + pad, y + (c.mono ? 0.5 : 0), { width: c.width - 2 * pad, align: c.align ?? 'left' });
+          doc.text(r.cells[i] ?? '', x + pad, y, {
+            width: c.width - 2 * pad,
+            align: c.align ?? (c.numeric ? 'right' : 'left'),
+            features: c.numeric ? ['tnum'] : [],
+          });
           x += c.width;
         });
         const ly = y + h + 1.5;
         if (ri < rows.length - 1) {
-          doc.moveTo(left, ly).lineTo(left + total, ly).lineWidth(0.25).strokeColor(RULE).stroke();
+          doc
+            .moveTo(left, ly)
+            .lineTo(left + total, ly)
+            .lineWidth(0.25)
+            .strokeColor(RULE)
+            .stroke();
         }
         doc.y = ly + 2;
       });
-      doc.moveTo(left, doc.y - 1).lineTo(left + total, doc.y - 1).lineWidth(0.6).strokeColor(INK).stroke();
+      doc
+        .moveTo(left, doc.y - 1)
+        .lineTo(left + total, doc.y - 1)
+        .lineWidth(0.6)
+        .strokeColor(INK)
+        .stroke();
       doc.y += 6;
     },
     qr(text, x, y, size) {
@@ -221,7 +253,12 @@ export function newSheet(size: PaperSize, meta: { title: string; author: string;
           .strokeColor(INK)
           .stroke();
         const fy = doc.page.height - 40;
-        doc.moveTo(left, fy - 5).lineTo(right, fy - 5).lineWidth(0.4).strokeColor(RULE).stroke();
+        doc
+          .moveTo(left, fy - 5)
+          .lineTo(right, fy - 5)
+          .lineWidth(0.4)
+          .strokeColor(RULE)
+          .stroke();
         sheet.font('sans', 7.5, SOFT).text(header.footer, left, fy, { width: width * 0.75, lineBreak: false });
         sheet.font('sans', 8, INK).text(`Page ${i - range.start + 1} of ${range.count}`, left + width * 0.75, fy, {
           width: width * 0.25,

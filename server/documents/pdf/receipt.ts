@@ -46,9 +46,9 @@ export function receiptBlock(sheet: Sheet, r: DocumentReceipt | null, verifyUrl:
   sheet.font('sans', 6.5, SOFT).text('Log code (QR)', left, top + qr + 2, { width: qr, align: 'center' });
   const x = left + qr + 14;
   const w = width - qr - 14;
-  const line = (label: string, value: string) => {
+  const line = (label: string, value: string, face: 'mono' | 'sans' = 'mono') => {
     sheet.font('sans', 7.5, SOFT).text(`${label}  `, x, doc.y, { width: w, continued: true });
-    sheet.font('mono', 7.2).text(value, { width: w });
+    sheet.font(face, 7.2).text(value, { width: w });
   };
   doc.y = top;
   sheet
@@ -61,9 +61,9 @@ export function receiptBlock(sheet: Sheet, r: DocumentReceipt | null, verifyUrl:
     );
   doc.y += 3;
   line('Content SHA-256', r.contentHash);
-  line('Log entry', `${r.leafIndex + 1} of ${r.treeSize}`);
+  line('Log entry', `${r.leafIndex + 1} of ${r.treeSize}`, 'sans');
   line('Log root', r.rootHash);
-  line('Head signed', `${new Date(r.head.timestamp).toISOString().replace('T', ' ').slice(0, 19)} UTC`);
+  line('Head signed', `${new Date(r.head.timestamp).toISOString().replace('T', ' ').slice(0, 19)} UTC`, 'sans');
   line('Plant key', r.head.keyId);
   sheet.font('sans', 7.5, SOFT).text('Code', x, doc.y + 2, { width: w });
   sheet.font('mono', 6.2).text(r.code ?? '', x, doc.y, { width: w });

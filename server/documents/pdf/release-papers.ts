@@ -1,5 +1,5 @@
 import type { CertificateContent, PackingSlipContent } from '../../../shared/documents/content.js';
-import { attach, signedLine } from './build-record.js';
+import { attach } from './build-record.js';
 import { ACCENT, BAD, SOFT, newSheet, type PaperSize, type Sheet } from './kit.js';
 import { checkableFile, receiptBlock, titleBlock, type DocumentReceipt } from './receipt.js';
 
@@ -15,7 +15,10 @@ function signatureBlock(sheet: Sheet, c: CertificateContent | PackingSlipContent
       ['Signed by', c.release.signer],
       ['Meaning', c.release.meaning],
       ['Reason', c.release.reason],
-      ['Time', `${c.release.signedAtLocal} (${c.plant.timeZone}) · ${c.release.signedAt.replace('T', ' ').slice(0, 19)} UTC`],
+      [
+        'Time',
+        `${c.release.signedAtLocal} (${c.plant.timeZone}) · ${c.release.signedAt.replace('T', ' ').slice(0, 19)} UTC`,
+      ],
     ],
     1,
   );
@@ -44,7 +47,12 @@ export async function drawCertificate(c: CertificateContent, receipt: DocumentRe
     at: new Date(c.issuedAt),
   });
   const { width } = sheet;
-  titleBlock(sheet, 'Certificate of conformance', [c.documentNumber, `Unit ${c.unit.serial} · ${c.unit.familyCode} ${c.unit.familyName}`], c.links.trail);
+  titleBlock(
+    sheet,
+    'Certificate of conformance',
+    [c.documentNumber, `Unit ${c.unit.serial} · ${c.unit.familyCode} ${c.unit.familyName}`],
+    c.links.trail,
+  );
   parties(sheet, c, 'Manufacturer', 'Customer');
   sheet.heading('Statement');
   sheet.para(c.statement, { size: 10 });
@@ -92,7 +100,7 @@ export async function drawPackingSlip(c: PackingSlipContent, receipt: DocumentRe
   sheet.heading('Contents');
   sheet.table(
     [
-      { header: 'Qty', width: 36, align: 'right', mono: true },
+      { header: 'Qty', width: 36, numeric: true },
       { header: 'Description', width: width - 36 - 150 },
       { header: 'Serial', width: 150, mono: true },
     ],
@@ -105,7 +113,12 @@ export async function drawPackingSlip(c: PackingSlipContent, receipt: DocumentRe
   sheet.para('Name, signature and date on receipt:', { size: 8.5, color: SOFT });
   const { doc, left } = sheet;
   doc.y += 22;
-  doc.moveTo(left, doc.y).lineTo(left + width * 0.6, doc.y).lineWidth(0.5).strokeColor(ACCENT).stroke();
+  doc
+    .moveTo(left, doc.y)
+    .lineTo(left + width * 0.6, doc.y)
+    .lineWidth(0.5)
+    .strokeColor(ACCENT)
+    .stroke();
   doc.y += 8;
   receiptBlock(sheet, receipt, c.links.verify);
   if (receipt) attach(sheet.doc, c.documentNumber, checkableFile(c, receipt), new Date(c.issuedAt));
