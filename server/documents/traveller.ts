@@ -63,17 +63,17 @@ export async function travellerPdf(serial: string, paper: PaperSize): Promise<{ 
   sheet.table(
     [
       { header: '#', width: 22, numeric: true },
-      { header: 'Stage', width: width - 22 - 70 - 150 - 60 },
-      { header: 'Status', width: 70 },
-      { header: 'Last result', width: 150 },
-      { header: 'Initials', width: 60 },
+      { header: 'Stage', width: width - 22 - 64 - 200 - 56 },
+      { header: 'Status', width: 64 },
+      { header: 'Last result', width: 200 },
+      { header: 'Initials', width: 56 },
     ],
     card.route.map((s, i) => {
       const r = current.get(s.code);
       return {
         cells: [
           String(i + 1),
-          `${s.name}${s.required ? '' : ' (optional)'}${s.hazard ? ' ⚠' : ''}`,
+          `${s.name}${s.required ? '' : ' (optional)'}${s.hazard ? ' — caution' : ''}`,
           STATE_WORDS[s.state],
           r
             ? `${r.verdict === 'pass' ? 'pass' : 'FAIL'} · ${localTime(plant.timeZone, r.finishedAt)} · ${r.operator}`
@@ -87,7 +87,7 @@ export async function travellerPdf(serial: string, paper: PaperSize): Promise<{ 
     { size: 10 },
   );
   sheet.para(
-    '⚠ marks a stage with a hazard: follow the plant’s own procedure, local codes and licensed practice there. Results are recorded in Coretrail at each station; this sheet only travels with the part.',
+    '“Caution” marks a stage with a hazard: follow the plant’s own procedure, local codes and licensed practice there. Results are recorded in Coretrail at each station; this sheet only travels with the part.',
     { size: 8, color: SOFT },
   );
   const pdf = await sheet.finish({

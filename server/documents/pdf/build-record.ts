@@ -79,10 +79,11 @@ export async function drawBuildRecord(
   receipt: DocumentReceipt | null,
   size: PaperSize,
 ): Promise<Buffer> {
+  const draft = c.documentNumber.endsWith('-DRAFT');
   const sheet = newSheet(size, {
     title: `Build record ${c.unit.serial}`,
     author: c.plant.name,
-    subject: `${c.documentNumber}${receipt ? '' : ' (draft)'}`,
+    subject: `${c.documentNumber}${draft ? ' (draft)' : ''}`,
     at: new Date(c.issuedAt),
   });
   const { doc, left, width } = sheet;
@@ -90,12 +91,12 @@ export async function drawBuildRecord(
     sheet,
     `Build record — ${c.unit.serial}`,
     [
-      `${c.documentNumber}${receipt ? '' : ' · DRAFT, not released'}`,
+      `${c.documentNumber}${draft ? ' · DRAFT, not released' : ''}`,
       `${c.unit.familyCode} ${c.unit.familyName} · remanufactured long block`,
     ],
     c.links.trail,
   );
-  if (!receipt) {
+  if (draft) {
     sheet.para('DRAFT — printed before release. Not a signed record; not for the customer.', {
       font: 'sansBold',
       color: BAD,
@@ -192,7 +193,7 @@ export async function drawBuildRecord(
     );
   } else sheet.para('Not released.');
 
-  receiptBlock(sheet, receipt, c.links.verify);
+  receiptBlock(sheet, receipt, c.links.verify, draft);
   if (receipt) attach(doc, c.documentNumber, checkableFile(c, receipt), new Date(c.issuedAt));
   void left;
   return sheet.finish({
@@ -200,7 +201,9 @@ export async function drawBuildRecord(
     right: `${c.unit.serial} · ${c.documentNumber}`,
     footer: receipt
       ? `Issued ${c.issuedAtLocal} ${c.plant.timeZone} · content SHA-256 ${receipt.contentHash.slice(0, 16)}…`
-      : 'Draft — not a signed record',
+      : draft
+        ? 'Draft — not a signed record'
+        : `Issued ${c.issuedAtLocal} ${c.plant.timeZone} · not yet covered by a signed log head`,
   });
 }
 

@@ -27,12 +27,16 @@ export function titleBlock(sheet: Sheet, title: string, lines: string[], trailUr
 }
 
 /** The closing block: how to check this document, with the code as text and as a QR code. */
-export function receiptBlock(sheet: Sheet, r: DocumentReceipt | null, verifyUrl: string) {
+export function receiptBlock(sheet: Sheet, r: DocumentReceipt | null, verifyUrl: string, draft: boolean) {
   const { doc, left, width } = sheet;
+  // the heading stays with its block: the QR code and the lines beside it
+  if (r) sheet.ensure(170);
   sheet.heading('Checking this document');
   if (!r) {
     sheet.para(
-      'This is a draft printed before release. It is not in the plant’s log and cannot be checked: ask for the issued record.',
+      draft
+        ? 'This is a draft printed before release. It is not in the plant’s log and cannot be checked: ask for the issued record.'
+        : 'This document is logged, but no signed head of the plant’s log covers it yet (the server signs none without its key), so this copy cannot be checked. Print it again once the plant signs its log.',
       { color: SOFT },
     );
     return;

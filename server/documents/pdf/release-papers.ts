@@ -78,7 +78,7 @@ export async function drawCertificate(c: CertificateContent, receipt: DocumentRe
     c.parts.map((p) => ({ cells: [p.kind, p.serial] })),
   );
   signatureBlock(sheet, c);
-  receiptBlock(sheet, receipt, c.links.verify);
+  receiptBlock(sheet, receipt, c.links.verify, false);
   if (receipt) attach(sheet.doc, c.documentNumber, checkableFile(c, receipt), new Date(c.issuedAt));
   return sheet.finish({
     left: `${c.plant.name} · Certificate of conformance`,
@@ -120,7 +120,7 @@ export async function drawPackingSlip(c: PackingSlipContent, receipt: DocumentRe
     .strokeColor(ACCENT)
     .stroke();
   doc.y += 8;
-  receiptBlock(sheet, receipt, c.links.verify);
+  receiptBlock(sheet, receipt, c.links.verify, false);
   if (receipt) attach(sheet.doc, c.documentNumber, checkableFile(c, receipt), new Date(c.issuedAt));
   return sheet.finish({
     left: `${c.plant.name} · Packing slip`,
