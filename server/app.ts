@@ -125,7 +125,7 @@ export function createApp({
   specRoutes(api, sequelize);
   spcRoutes(api, sequelize);
   ncrRoutes(api, sequelize);
-  unitRoutes(api, sequelize, read);
+  unitRoutes(api, sequelize, config, read);
   fieldActionRoutes(api, sequelize);
   warrantyRoutes(api, sequelize);
   correctiveActionRoutes(api, sequelize);

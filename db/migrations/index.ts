@@ -12,6 +12,7 @@ import * as m20261203120000 from './20261203120000-sessions-and-second-factor.js
 import * as m20261203140000 from './20261203140000-spc.js';
 import * as m20261203150000m from './20261203150000-measurement.js';
 import * as m20261203150000 from './20261203150000-warranty-and-corrective-action.js';
+import * as m20261203160000 from './20261203160000-issued-documents.js';
 import * as m20261203170000 from './20261203170000-line-view.js';
 import * as m20261203180000 from './20261203180000-readings-by-month.js';
 
@@ -34,6 +35,7 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261203140000-spc', ...m20261203140000 },
   { name: '20261203150000-measurement', ...m20261203150000m },
   { name: '20261203150000-warranty-and-corrective-action', ...m20261203150000 },
+  { name: '20261203160000-issued-documents', ...m20261203160000 },
   { name: '20261203170000-line-view', ...m20261203170000 },
   { name: '20261203180000-readings-by-month', ...m20261203180000 },
 ];

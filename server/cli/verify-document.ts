@@ -1,10 +1,18 @@
 // `npm run verify -- FILE [--key KEY]… [--heads HEADS.json]`: checks a document offline against the
-// plant's signed log head it carries. KEY is the plant's public key: 64 hex digits, base64, a PEM
+// plant's signed log head it carries. FILE is the checkable JSON or a PDF Coretrail issued: the PDF's
+// attached data is checked, then its pages are drawn again from that data and must be the same bytes. KEY is the plant's public key: 64 hex digits, base64, a PEM
 // file (public or private key) or the JSON of GET /api/audit/log/head; without one, the key in
 // .data/audit-signing-key.pem. HEADS is the plant's exported head history (GET /api/audit/log/heads):
 // the document's head must be in it. Exit 0 intact, 1 altered or not in the log, 3 unknown, 2 unreadable.
 import { createPublicKey } from 'node:crypto';
 import fs from 'node:fs';
+import { inflateSync } from 'node:zlib';
+import type { DocumentContent } from '../../shared/documents/content.js';
+import { contentHash } from '../../shared/ledger/entry.js';
+import { attachedDocument, isPdf } from '../../shared/ledger/pdf-file.js';
+import type { CheckableDocument } from '../../shared/ledger/document.js';
+import { KNOWN_LAYOUTS, drawDocument } from '../documents/pdf/draw.js';
+import { PAPER_SIZES } from '../documents/pdf/kit.js';
 import { verifyDocument, type VerifyResult } from '../../shared/ledger/document.js';
 import { fromBase64, keyIdOf, toBase64, type PublishedKey } from '../../shared/ledger/head.js';
 import { fromHex } from '../../shared/ledger/merkle.js';
@@ -29,7 +37,24 @@ function keyFrom(text: string): PublishedKey {
   return { keyId: keyIdOf(raw), publicKey: toBase64(raw) };
 }
 
-export function runVerify(argv: string[]): { result: VerifyResult; lines: string[]; exit: number } {
+/**
+ * Do a PDF's pages say what its checked data says? They are drawn again from the data, on each
+ * paper size, and compared byte for byte: an edited page, or a page from other data, differs.
+ */
+export async function pagesMatch(pdf: Buffer, doc: CheckableDocument): Promise<VerifyResult | null> {
+  const content = doc.content as DocumentContent;
+  if (!KNOWN_LAYOUTS.includes(content.layout)) {
+    return { verdict: 'unknown', reason: `its layout ${String(content.layout)} is not one this checker can draw` };
+  }
+  const receipt = { ...doc, contentHash: contentHash(doc.content) };
+  for (const size of PAPER_SIZES) {
+    const again = await drawDocument(content, receipt, size);
+    if (again.equals(pdf)) return null;
+  }
+  return { verdict: 'altered', reason: 'its logged data is intact, but its pages are not the ones that data prints' };
+}
+
+export async function runVerify(argv: string[]): Promise<{ result: VerifyResult; lines: string[]; exit: number }> {
   const lines: string[] = [];
   const keys: PublishedKey[] = [];
   let file: string | undefined;
@@ -44,13 +69,24 @@ export function runVerify(argv: string[]): { result: VerifyResult; lines: string
   if (!keys.length && fs.existsSync('.data/audit-signing-key.pem')) keys.push(keyFrom('.data/audit-signing-key.pem'));
   if (!keys.length) throw new Error("no plant key: pass --key with the plant's public key");
   let doc: unknown;
+  const bytes = fs.readFileSync(file);
+  const pdf = isPdf(bytes);
   try {
-    doc = JSON.parse(fs.readFileSync(file, 'utf8'));
+    doc = pdf ? await attachedDocument(bytes, async (d) => inflateSync(d)) : JSON.parse(bytes.toString('utf8'));
+    if (doc === null) throw new Error('it carries no Coretrail document data (a draft, or not issued by Coretrail)');
   } catch (err) {
-    const result: VerifyResult = { verdict: 'unreadable', reason: `${file} is not JSON: ${(err as Error).message}` };
+    const result: VerifyResult = {
+      verdict: 'unreadable',
+      reason: `${file} is not ${pdf ? 'a checkable PDF' : 'JSON'}: ${(err as Error).message}`,
+    };
     return { result, lines: [`UNREADABLE: ${result.reason}`], exit: 2 };
   }
   let result = verifyDocument(doc, keys);
+  if (pdf && result.verdict === 'intact') {
+    const pages = await pagesMatch(bytes, doc as CheckableDocument);
+    if (pages) result = { ...result, ...pages };
+    else lines.push('its pages are the ones its logged data prints');
+  }
   if (result.verdict === 'intact' && headsFile) {
     const history = JSON.parse(fs.readFileSync(headsFile, 'utf8')) as {
       heads?: { treeSize: number; rootHash: string }[];
@@ -81,7 +117,7 @@ export function runVerify(argv: string[]): { result: VerifyResult; lines: string
 
 if (process.argv[1]?.endsWith('verify-document.ts')) {
   try {
-    const { lines, exit } = runVerify(process.argv.slice(2));
+    const { lines, exit } = await runVerify(process.argv.slice(2));
     for (const l of lines) console.log(l);
     process.exitCode = exit;
   } catch (err) {

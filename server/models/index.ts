@@ -4,6 +4,7 @@ import { EngineFamily } from './engine-family.js';
 import { Containment, ContainmentItem, Gauge, GaugeCalibration, GaugeStudy } from './gauges.js';
 import { IdempotencyKey, MailOutbox } from './infra.js';
 import { CoreReceipt, Item, ItemLink } from './items.js';
+import { IssuedDocument } from './issued-document.js';
 import { PartLot, UnitLot } from './lots.js';
 import { DefectCode, Nonconformance, NonconformanceTransition, Signature } from './nonconformances.js';
 import { Customer, Supplier } from './parties.js';
@@ -48,6 +49,7 @@ export {
   GaugeCalibration,
   GaugeStudy,
   IdempotencyKey,
+  IssuedDocument,
   Item,
   ItemLink,
   LabelPrint,
@@ -111,6 +113,7 @@ const MODELS = [
   Attachment,
   LabelPrint,
   Shipment,
+  IssuedDocument,
   WarrantyClaim,
   IdempotencyKey,
   MailOutbox,

@@ -1,5 +1,7 @@
 import type { Sequelize } from 'sequelize';
+import { paperQuery } from '../../shared/schemas/build.js';
 import { labelsPrintedBody, serialParam } from '../../shared/schemas/intake.js';
+import { travellerPdf } from '../documents/traveller.js';
 import type { Api } from '../http/api.js';
 import { fileDisposition } from '../http/files.js';
 import { findBySerial, presentItem } from '../services/items.js';
@@ -13,6 +15,22 @@ export function itemRoutes(api: Api, sequelize: Sequelize) {
     summary: 'Resolve a scanned or typed serial: kind, family, status and where it is on its route.',
     params: serialParam,
     handler: async ({ params }) => presentItem(await findBySerial(params.serial)),
+  });
+  api.define({
+    method: 'get',
+    path: '/items/:serial/traveller.pdf',
+    access: 'items.read',
+    summary:
+      "A part's traveller: its serial as QR code and in large type, family, and its route with each stage's status.",
+    params: serialParam,
+    query: paperQuery,
+    handler: async ({ params, query, res }) => {
+      const { pdf, fileName } = await travellerPdf(params.serial, query.paper === 'letter' ? 'LETTER' : 'A4');
+      res.setHeader('Content-Type', 'application/pdf');
+      res.setHeader('Content-Disposition', fileDisposition(fileName, 'inline'));
+      res.send(pdf);
+      return undefined;
+    },
   });
   api.define({
     method: 'get',

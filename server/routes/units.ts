@@ -1,20 +1,55 @@
 import type { Sequelize } from 'sequelize';
 import { z } from 'zod';
 import { parseRunCsv } from '../../shared/domain/run-csv.js';
-import { buildBody, lotCodeParam, releaseBody, replacePartBody, runCsvBody } from '../../shared/schemas/build.js';
+import {
+  buildBody,
+  lotCodeParam,
+  paperQuery,
+  releaseBody,
+  replacePartBody,
+  runCsvBody,
+} from '../../shared/schemas/build.js';
 import { serialParam } from '../../shared/schemas/intake.js';
 import { AppError } from '../errors.js';
 import type { Api } from '../http/api.js';
 import { fileDisposition } from '../http/files.js';
 import { EngineFamily } from '../models/index.js';
 import { buildUnit, replacePart } from '../services/build.js';
-import { buildRecordPdf } from '../services/build-record.js';
+import type { Config } from '../config.js';
+import { documentPdf, issueAfterRelease, issueReleaseDocuments, listDocuments } from '../documents/issue.js';
+import type { DocumentKind } from '../models/issued-document.js';
+import { signerFor } from '../ledger/signer.js';
 import { findBySerial } from '../services/items.js';
 import { checkUnit, releaseUnit } from '../services/release.js';
 import { lotLookup, trailOf } from '../services/trail.js';
 import type { ReadSide } from '../read-side.js';
 
-export function unitRoutes(api: Api, sequelize: Sequelize, read: ReadSide) {
+export function unitRoutes(api: Api, sequelize: Sequelize, config: Config, read: ReadSide) {
+  const ledger = { signer: signerFor(config.AUDIT_SIGNING_KEY), headIntervalMs: config.AUDIT_HEAD_INTERVAL_S * 1000 };
+  const pdfRoute = (kind: DocumentKind, path: string, summary: string) =>
+    api.define({
+      method: 'get',
+      path,
+      access: 'trail.read',
+      summary,
+      params: serialParam,
+      query: paperQuery,
+      handler: async ({ params, query, res }) => {
+        const { pdf, fileName } = await documentPdf(
+          sequelize,
+          params.serial,
+          kind,
+          query.paper === 'letter' ? 'LETTER' : 'A4',
+          ledger,
+        );
+        res.setHeader('Content-Type', 'application/pdf');
+        // named by the serial as stored, not as typed (an en dash or a line break cannot go in a header)
+        res.setHeader('Content-Disposition', fileDisposition(fileName, 'inline'));
+        res.send(pdf);
+        return undefined;
+      },
+    });
+
   api.define({
     method: 'post',
     path: '/units',
@@ -54,24 +89,44 @@ export function unitRoutes(api: Api, sequelize: Sequelize, read: ReadSide) {
     body: releaseBody,
     limit: 'signature',
     status: 201,
-    handler: ({ ctx, params, body }) => releaseUnit(sequelize, ctx, params.serial, body),
+    handler: async ({ ctx, params, body }) => {
+      const released = await releaseUnit(sequelize, ctx, params.serial, body);
+      return { ...released, documents: await issueAfterRelease(sequelize, ctx, params.serial) };
+    },
   });
   api.define({
     method: 'get',
-    path: '/units/:serial/build-record.pdf',
+    path: '/units/:serial/documents',
     access: 'trail.read',
-    summary: "The unit's build record as a PDF: genealogy, lots, key measurements with limits, NCRs, release.",
+    summary:
+      'The documents issued at release (build record, certificate of conformance, packing slip), with their hashes.',
     params: serialParam,
-    handler: async ({ params, res }) => {
-      const pdf = await buildRecordPdf(sequelize, params.serial);
-      // named by the serial as stored, not as typed (an en dash or a line break cannot go in a header)
-      const { serial } = await findBySerial(params.serial);
-      res.setHeader('Content-Type', 'application/pdf');
-      res.setHeader('Content-Disposition', fileDisposition(`build-record-${serial}.pdf`, 'inline'));
-      res.send(pdf);
-      return undefined;
-    },
+    handler: ({ params }) => listDocuments(params.serial),
   });
+  api.define({
+    method: 'post',
+    path: '/units/:serial/documents',
+    access: 'release.ship',
+    summary:
+      "Issue a released unit's documents if its release did not (each logged with its content hash); else list them.",
+    params: serialParam,
+    handler: ({ ctx, params }) => issueReleaseDocuments(sequelize, ctx, params.serial),
+  });
+  pdfRoute(
+    'certificate',
+    '/units/:serial/certificate.pdf',
+    'The certificate of conformance issued at release, with the release signature and its log receipt (A4 or Letter).',
+  );
+  pdfRoute(
+    'packing_slip',
+    '/units/:serial/packing-slip.pdf',
+    'The packing slip issued at release, with the release signature and its log receipt (A4 or Letter).',
+  );
+  pdfRoute(
+    'build_record',
+    '/units/:serial/build-record.pdf',
+    "The unit's build record (A4 or Letter): as issued at release with its log receipt, or a draft before.",
+  );
   api.define({
     method: 'get',
     path: '/trail/:serial',

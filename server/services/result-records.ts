@@ -2,6 +2,7 @@ import { Op, QueryTypes, type Sequelize } from 'sequelize';
 import { selectModels, type ReadSide } from '../read-side.js';
 import type { AttachmentJson } from '../../shared/schemas/attachments.js';
 import { describePosition, expandPositions } from '../../shared/domain/positions.js';
+import type { RuleShape } from '../../shared/documents/format.js';
 import { limitsOf } from '../../shared/domain/tolerance.js';
 import { Attachment, Characteristic, Item, Reading, StageResult, ToleranceRule, User } from '../models/index.js';
 import { presentAttachment } from './attachments.js';
@@ -40,6 +41,8 @@ export type RecordedReading = {
   ruleVersion: number | null;
   lower: number | null;
   upper: number | null;
+  /** The rule version's limits and resolution as written, for printed documents. */
+  rule: RuleShape | null;
   location: string | null;
   /** The gauge this reading was taken with (a characteristic may be read with its own). */
   gauge: string | null;
@@ -105,6 +108,23 @@ export async function loadResultRecords(
   const limitsByRule = new Map(
     rules.map((r) => [r.id, r.limitType === 'attribute' ? { lower: null, upper: null } : limitsOf(toRuleInForce(r))]),
   );
+  const shapeByRule = new Map<number, RuleShape>(
+    rules.map((r) => {
+      const f = toRuleInForce(r);
+      return [
+        r.id,
+        {
+          limitType: f.limitType,
+          nominal: f.nominal ?? null,
+          minusTol: f.minusTol ?? null,
+          plusTol: f.plusTol ?? null,
+          lowerLimit: f.lowerLimit ?? null,
+          upperLimit: f.upperLimit ?? null,
+          resolution: f.resolution ?? null,
+        },
+      ];
+    }),
+  );
   const nameById = new Map(users.map((u) => [u.id, u.name]));
   const readingsOf = groupBy(readings, (r) => r.stageResultId);
   const photosOf = groupBy(photos, (p) => p.entityId);
@@ -148,6 +168,7 @@ export async function loadResultRecords(
           ruleVersion: x.ruleVersion,
           lower: limits.lower,
           upper: limits.upper,
+          rule: (x.toleranceRuleId && shapeByRule.get(x.toleranceRuleId)) || null,
           location: x.locationNote,
           gauge: x.gaugeId ? (ref.gauge(x.gaugeId)?.code ?? null) : null,
         };

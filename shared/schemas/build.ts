@@ -5,6 +5,7 @@ import type { FieldActionJson } from './field-actions.js';
 import type { NcrSignature, NcrState, NcrTimelineEntry } from './ncr.js';
 import type { ItemJson } from './items.js';
 import type { AttachmentJson } from './attachments.js';
+import type { RuleShape } from '../documents/format.js';
 
 /** Building a long block, the release gate, shipping, the trail and lot lookup. */
 
@@ -110,6 +111,9 @@ export type ReleaseBody = z.output<typeof releaseBody>;
 
 export const lotCodeParam = z.strictObject({ lotCode: text().trim().min(1).max(60) });
 
+/** Which paper a printed document is laid out for. */
+export const paperQuery = z.strictObject({ paper: z.enum(['a4', 'letter']).default('a4') });
+
 export const runCsvBody = z.strictObject({
   csv: text('Attach the test stand export.').min(1, 'The file is empty.').max(200_000, 'At most 200 kB.'),
 });
@@ -189,6 +193,8 @@ export type TrailReading = {
   ruleVersion: number | null;
   lower: number | null;
   upper: number | null;
+  /** The rule version's limits and resolution as written, for printed documents. */
+  rule: RuleShape | null;
   location: string | null;
 };
 

@@ -142,6 +142,17 @@ export const trailHref = (serial?: string) =>
   serial ? `${paths.trail}?serial=${encodeURIComponent(serial)}` : paths.trail;
 export const lotHref = (lotCode: string) => `/lots/${encodeURIComponent(lotCode)}`;
 export const buildRecordHref = (serial: string) => `/api/units/${encodeURIComponent(serial)}/build-record.pdf`;
+export type Paper = 'a4' | 'letter';
+const DOCUMENT_FILES = {
+  build_record: 'build-record',
+  certificate: 'certificate',
+  packing_slip: 'packing-slip',
+} as const;
+/** An issued document's PDF on A4 or Letter. */
+export const documentHref = (serial: string, kind: keyof typeof DOCUMENT_FILES, paper: Paper) =>
+  `/api/units/${encodeURIComponent(serial)}/${DOCUMENT_FILES[kind]}.pdf?paper=${paper}`;
+export const travellerHref = (serial: string, paper: Paper) =>
+  `/api/items/${encodeURIComponent(serial)}/traveller.pdf?paper=${paper}`;
 export const fieldActionHref = (number: string) => `/field-actions/${encodeURIComponent(number)}`;
 export const claimHref = (number: string) => `/warranty/claims/${encodeURIComponent(number)}`;
 export const logClaimHref = (serial?: string) =>

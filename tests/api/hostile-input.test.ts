@@ -179,7 +179,7 @@ describe('the build record is named by the stored serial', () => {
       expect(res.headers['content-type']).toBe('application/pdf');
       // RFC 6266 §4.1: a file name that is a token needs no quotes
       expect(res.headers['content-disposition']).toMatch(
-        new RegExp(`^inline; filename="?build-record-${serial}\\.pdf"?$`),
+        new RegExp(`^inline; filename="?build-record-${serial}-draft-a4\\.pdf"?$`),
       );
     }
     // a serial no unit has is a JSON 404, without the PDF's headers

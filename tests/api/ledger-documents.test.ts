@@ -56,9 +56,9 @@ const write = (name: string, body: unknown) => {
 const plantKeyArg = ['--key', Buffer.from(signer.raw).toString('hex')];
 
 describe('a document checked offline against the signed log', () => {
-  it('when the document is as issued, then npm run verify says intact (exit 0)', () => {
+  it('when the document is as issued, then npm run verify says intact (exit 0)', async () => {
     const file = write('intact.json', doc);
-    const r = runVerify([file, ...plantKeyArg]);
+    const r = await runVerify([file, ...plantKeyArg]);
     expect(r.result.verdict).toBe('intact');
     expect(r.exit).toBe(0);
     // the command itself, as a person runs it
@@ -67,19 +67,19 @@ describe('a document checked offline against the signed log', () => {
     expect(cli.stdout).toMatch(/^INTACT: entry \d+ of a log of \d+/);
   });
 
-  it('when one reading value in a copy of its data is changed, then verify says altered (exit 1)', () => {
+  it('when one reading value in a copy of its data is changed, then verify says altered (exit 1)', async () => {
     const copy = JSON.parse(JSON.stringify(doc)) as typeof doc & { content: typeof content };
     const reading = copy.content.results.flatMap((r) => r.readings).find((x) => typeof x.value === 'number')!;
     reading.value = reading.value! + 0.001;
-    const r = runVerify([write('altered.json', copy), ...plantKeyArg]);
+    const r = await runVerify([write('altered.json', copy), ...plantKeyArg]);
     expect(r.result.verdict).toBe('altered');
     expect(r.exit).toBe(1);
     expect(r.lines[0]).toMatch(/^ALTERED: its content differs/);
   });
 
-  it("when the record's head is signed with another plant's key, then verify says unknown (exit 3)", () => {
+  it("when the record's head is signed with another plant's key, then verify says unknown (exit 3)", async () => {
     const foreign = { ...doc, head: stranger.signHead(doc.treeSize, doc.head.timestamp, fromHex(doc.rootHash)) };
-    const r = runVerify([write('foreign.json', foreign), ...plantKeyArg]);
+    const r = await runVerify([write('foreign.json', foreign), ...plantKeyArg]);
     expect(r.result.verdict).toBe('unknown');
     expect(r.exit).toBe(3);
   });

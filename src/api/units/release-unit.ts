@@ -16,6 +16,7 @@ export function useReleaseUnit() {
   const refresh = (serial: string) =>
     Promise.all([
       queryClient.invalidateQueries({ queryKey: unitKeys.releaseCheck(serial) }),
+      queryClient.invalidateQueries({ queryKey: unitKeys.documents(serial) }),
       queryClient.invalidateQueries({ queryKey: itemKeys.one(serial) }),
       queryClient.invalidateQueries({ queryKey: trailKeys.all }),
       queryClient.invalidateQueries({ queryKey: auditKeys.all }),

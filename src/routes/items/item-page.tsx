@@ -7,11 +7,11 @@ import { itemResultsQueryOptions } from '../../api/items/results';
 import type { RouteStep } from '../../api/items/types';
 import { StatusBadge } from '../../components/item-status';
 import { RouteProgress } from '../../components/route-progress';
-import { ButtonLink } from '../../components/ui/button';
+import { ButtonLink, buttonClass } from '../../components/ui/button';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Notice } from '../../components/ui/notice';
 import { partName } from '../../lib/item-status';
-import { coreHref, labelsHref, serialHref, stationHref, teardownHref } from '../../lib/paths';
+import { coreHref, labelsHref, serialHref, stationHref, teardownHref, travellerHref } from '../../lib/paths';
 import { canonicalSerial, requireSerial } from '../../lib/serial';
 import { requirePermission } from '../../lib/session';
 import { PartList } from '../cores/core-sections';
@@ -74,6 +74,26 @@ export function ItemPage() {
             <ButtonLink to={labelsHref([item.serial])} icon="print" size="lg">
               Print label
             </ButtonLink>
+          )}
+          {item.kind !== 'core' && item.route.length > 0 && (
+            <>
+              <a
+                href={travellerHref(item.serial, 'a4')}
+                target="_blank"
+                rel="noopener"
+                className={buttonClass('secondary', 'lg')}
+              >
+                Traveller, A4 (PDF)
+              </a>
+              <a
+                href={travellerHref(item.serial, 'letter')}
+                target="_blank"
+                rel="noopener"
+                className={buttonClass('secondary', 'lg')}
+              >
+                Traveller, Letter (PDF)
+              </a>
+            </>
           )}
         </div>
       </div>

@@ -9,6 +9,7 @@ import { customersQueryOptions } from '../../api/reference/customers';
 import { trailQueryOptions, useTrail } from '../../api/trail/trail';
 import { releaseCheckQueryOptions, useReleaseCheck } from '../../api/units/release-check';
 import type { ReleaseReply } from '../../api/units/release-unit';
+import { ReleaseDocuments } from './release-documents';
 import { ItemSummary } from '../../components/item-summary';
 import { PageHeader } from '../../components/page-header';
 import { ScanBox } from '../../components/scan-box';
@@ -42,6 +43,7 @@ export const releaseLoader =
   };
 
 function Shipped({ serial, reply }: { serial: string; reply: Pick<ReleaseReply, 'shipment'> }) {
+  const canIssue = useSignedIn()?.can('release.ship') ?? false;
   return (
     <Card labelledBy="shipment-heading">
       <CardHeader
@@ -58,6 +60,7 @@ function Shipped({ serial, reply }: { serial: string; reply: Pick<ReleaseReply, 
         <div className="flex flex-col gap-4">
           <WarrantyStatus warranty={reply.shipment.warranty} />
           <ShipmentFacts shipment={reply.shipment} />
+          <ReleaseDocuments serial={serial} canIssue={canIssue} />
         </div>
       </CardBody>
     </Card>

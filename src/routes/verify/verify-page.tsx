@@ -1,11 +1,18 @@
 import { useId, useState } from 'react';
 import { decodeInclusionCode } from '../../../shared/ledger/code';
 import { headExtendsTo, verifyCode, verifyDocument, type VerifyResult } from '../../../shared/ledger/document';
+import { attachedDocument, isPdf } from '../../../shared/ledger/pdf-file';
 import { fetchConsistency, usePublishedHead } from '../../api/audit/published-head';
 import { Button } from '../../components/ui/button';
 import { Notice } from '../../components/ui/notice';
 import { Wordmark } from '../../components/wordmark';
 import { usePlant } from '../../api/plant/plant';
+
+/** zlib data (a PDF's FlateDecode stream) through the browser's own decompressor. */
+async function inflate(data: Uint8Array): Promise<Uint8Array> {
+  const stream = new Blob([data as BlobPart]).stream().pipeThrough(new DecompressionStream('deflate'));
+  return new Uint8Array(await new Response(stream).arrayBuffer());
+}
 
 const VERDICT: Record<VerifyResult['verdict'], { tone: 'ok' | 'bad' | 'hold'; title: string }> = {
   intact: { tone: 'ok', title: 'Intact: this record is in the plant’s log, as issued' },
@@ -39,10 +46,20 @@ export function VerifyPage() {
     try {
       if (file) {
         let doc: unknown;
+        const bytes = new Uint8Array(await file.arrayBuffer());
+        const pdf = isPdf(bytes);
         try {
-          doc = JSON.parse(await file.text());
+          doc = pdf ? await attachedDocument(bytes, inflate) : JSON.parse(new TextDecoder().decode(bytes));
         } catch {
-          setResult({ verdict: 'unreadable', reason: `${file.name} is not a JSON document` });
+          doc = null;
+        }
+        if (doc === null) {
+          setResult({
+            verdict: 'unreadable',
+            reason: pdf
+              ? `${file.name} carries no checkable data (a draft, or not issued by this plant)`
+              : `${file.name} is not a JSON document`,
+          });
           return;
         }
         let r = verifyDocument(doc, [key]);
@@ -56,6 +73,13 @@ export function VerifyPage() {
               reason: 'the plant’s log no longer agrees with the head this document carries',
             };
           } else r = { ...r, reason: `${r.reason}; the log has only grown since (now ${head.treeSize} entries)` };
+        }
+        // the pages themselves are compared with the data by npm run verify, which can draw them again
+        if (pdf && r.verdict === 'intact') {
+          r = {
+            ...r,
+            reason: `${r.reason}. This checks the data attached to the PDF; npm run verify also checks its pages`,
+          };
         }
         setResult(r);
       } else {
@@ -129,12 +153,12 @@ export function VerifyPage() {
             </div>
             <div className="flex flex-col gap-1">
               <label htmlFor={fileId} className="text-sm font-medium">
-                Or the document’s file (JSON)
+                Or the document’s file (PDF or JSON)
               </label>
               <input
                 id={fileId}
                 type="file"
-                accept="application/json,.json"
+                accept="application/pdf,.pdf,application/json,.json"
                 onChange={(e) => setFile(e.target.files?.[0] ?? null)}
                 className="text-sm"
               />
