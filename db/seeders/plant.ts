@@ -325,6 +325,8 @@ export const GAUGES = [
   g('BG-021', 'Dial bore gauge 2–3.5 in, 0.0001 in', 'bore gauge', 0.0001, 'in', [2, 3.5], 210, 'Line hone', 365),
   g('OM-022', 'Outside micrometer 2–3 in, 0.0001 in', 'micrometer', 0.0001, 'in', [2, 3], 150, 'Crank grinding', 365),
   g('OM-035', 'Outside micrometer 3–5 in, 0.0001 in', 'micrometer', 0.0001, 'in', [3, 5], 160, 'Assembly', 365),
+  // for a bore rule tightened to ± 0.0003 in: ten to one needs 0.00006 in or finer
+  g('BG-032', 'Dial bore gauge 3–5 in, 0.00005 in', 'bore gauge', 0.00005, 'in', [3, 5], 185, 'Bore & hone cell', 180),
   g('BG-030', 'Dial bore gauge 2–3 in, 0.00005 in', 'bore gauge', 0.00005, 'in', [2, 3], 175, 'Assembly', 180),
   g(
     'DI-031',
