@@ -9,6 +9,7 @@ import { pagesMatch, runVerify } from '../../server/cli/verify-document.js';
 import { drawDocument } from '../../server/documents/pdf/draw.js';
 import { signerFromPem } from '../../server/ledger/signer.js';
 import { AuditEvent, Customer, IssuedDocument } from '../../server/models/index.js';
+import { plantSettings } from '../../server/services/plant.js';
 import type { BuildRecordContent, DocumentContent } from '../../shared/documents/content.js';
 import { readingText } from '../../shared/documents/format.js';
 import type { CheckableDocument } from '../../shared/ledger/document.js';
@@ -143,7 +144,16 @@ describe('documents issued at release', () => {
       });
       expect(pages.length).toBeGreaterThan(1);
       // the plant's identity, customer, shipment, lots, genealogy and the release signature
-      for (const s of ['Coretrail', 'SO-DOC-1', 'Ridgeway Haulage', 'Released for shipment', 'DOC', 'Genealogy']) {
+      const plant = await plantSettings();
+      for (const s of [
+        plant.name,
+        plant.address,
+        'SO-DOC-1',
+        'Ridgeway Haulage',
+        'Released for shipment',
+        'DOC',
+        'Genealogy',
+      ]) {
         expect(text).toContain(s);
       }
       // limits in a drawing's signs; nothing written the ASCII way
