@@ -38,7 +38,10 @@ async function insertMany(
 
 /** Seeds the demo plant when the database has no users yet. Returns whether it seeded. */
 /** `history`: also a year of shipped units with a few claims (demo-history.ts); the benchmark writes its own. */
-export async function seedDemoIfEmpty(sequelize: Sequelize, { bcryptCost = 12, history = true } = {}): Promise<boolean> {
+export async function seedDemoIfEmpty(
+  sequelize: Sequelize,
+  { bcryptCost = 12, history = true } = {},
+): Promise<boolean> {
   const seeded = await sequelize.transaction(async (transaction) => {
     await sequelize.query('SELECT pg_advisory_xact_lock(:k)', { replacements: { k: SEED_LOCK }, transaction });
     const [row] = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM users', {
