@@ -179,6 +179,8 @@ describe('a warranty claim from the field back to the core, and the corrective a
     await op.getByLabel('Characteristic').selectOption(char.code);
     await op.getByLabel('Position').selectOption(position.code);
     await op.getByLabel(/^Value/).fill(String(worn));
+    // a value typed in clears the note that the row's other fields left on it
+    await expect.poll(() => op.getByText('Enter the value measured.').count()).toBe(0);
     await shot(op, 'warranty-teardown-1024');
     await sign(op, 'Sign the teardown', demo('operator').password);
     await op.getByRole('heading', { name: 'Teardown findings beside the build records' }).waitFor();
@@ -266,6 +268,7 @@ describe('a warranty claim from the field back to the core, and the corrective a
     // the owner on the floor sees the action on their home and marks it done
     await op.goto(`${served.base}/`);
     await op.getByRole('heading', { name: /^Your corrective-action actions/ }).waitFor();
+    await shot(op, 'warranty-home-actions-1024');
     await op.getByRole('link', { name: new RegExp(ca) }).click();
     await op.getByRole('button', { name: 'Mark done: Replace the honing stones every 40 bores' }).click();
     await op.getByLabel('What was done').fill('Stone change logged on the hone, every 40 bores');
@@ -287,6 +290,11 @@ describe('a warranty claim from the field back to the core, and the corrective a
     await sign(q, 'Sign and close', demo('quality').password, 'warranty-ca-sign-1440');
     await q.getByRole('region', { name: 'Closure' }).getByText('Closed', { exact: true }).waitFor();
     await shot(q, 'warranty-ca-closed-1440');
+    await q.goto(`${served.base}/corrective-actions?state=all`);
+    await q.getByRole('link', { name: ca }).waitFor();
+    await shot(q, 'warranty-ca-list-1440');
+    await q.goto(`${served.base}/corrective-actions/${ca}`);
+    await q.getByRole('region', { name: 'Closure' }).waitFor();
     await q.setViewportSize({ width: 1024, height: 768 });
     await shot(q, 'warranty-ca-closed-1024');
 

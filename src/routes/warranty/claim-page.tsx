@@ -1,5 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { Link, useLocation, useParams, type LoaderFunctionArgs } from 'react-router';
+import { useEffect, useState } from 'react';
+import { Link, useLocation, useNavigate, useParams, type LoaderFunctionArgs } from 'react-router';
 import { CLAIM_NUMBER, type ClaimJson } from '../../../shared/schemas/warranty';
 import { useSignedIn, type SignedIn } from '../../api/auth/me';
 import { causeCodesQueryOptions } from '../../api/warranty/cause-codes';
@@ -110,7 +111,16 @@ function NextStep({ c, me }: { c: ClaimJson; me: SignedIn }) {
 export function ClaimPage() {
   const me = useSignedIn();
   const { data: c } = useClaim(canonical(useParams().number));
-  const logged = (useLocation().state as { logged?: boolean } | null)?.logged === true;
+  const location = useLocation();
+  const navigate = useNavigate();
+  // "logged" is said once: kept for this visit, taken out of the history entry so a reload or a
+  // later visit does not say it again
+  const [logged] = useState((location.state as { logged?: boolean } | null)?.logged === true);
+  useEffect(() => {
+    if ((location.state as { logged?: boolean } | null)?.logged) {
+      void navigate(location.pathname, { replace: true, state: null });
+    }
+  }, [location.state, location.pathname, navigate]);
   if (!me || !c) return null;
   return (
     <div className="mx-auto max-w-page">

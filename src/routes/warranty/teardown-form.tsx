@@ -1,3 +1,4 @@
+import { useEffect } from 'react';
 import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
 import { z } from 'zod';
 import { measurementBody, signaturePassword, type ClaimJson } from '../../../shared/schemas/warranty';
@@ -37,17 +38,25 @@ type TeardownForm = z.output<typeof teardownForm>;
 const blank = { subject: '', causeCode: '', description: '', measurements: [], photoIds: [] };
 
 function Measurements({ claim, index }: { claim: ClaimJson; index: number }) {
-  const { control } = useFormContext<TeardownForm>();
+  const { control, trigger, getFieldState } = useFormContext<TeardownForm>();
   const subject = useWatch({ control, name: `findings.${index}.subject` });
   const rows = useFieldArray({ control, name: `findings.${index}.measurements` });
-  const chosen = useWatch({ control, name: `findings.${index}.measurements` }) ?? [];
+  const chosen = useWatch({ control, name: `findings.${index}.measurements` });
+  // leaving a row's other fields checks the whole row, the still-empty value too; once a value is
+  // typed, that note goes at once rather than when the value field is left
+  useEffect(() => {
+    (chosen ?? []).forEach((m, j) => {
+      const name = `findings.${index}.measurements.${j}.value` as const;
+      if (Number.isFinite(m?.value) && getFieldState(name).error) void trigger(name);
+    });
+  }, [chosen, index, trigger, getFieldState]);
   const part = subject?.startsWith('part:') ? claim.parts.find((p) => p.serial === subject.slice(5)) : undefined;
   if (!part || part.characteristics.length === 0) return null;
   return (
     <fieldset className="flex flex-col gap-2">
       <legend className="text-sm font-medium">Measured again at teardown (optional)</legend>
       {rows.fields.map((row, j) => {
-        const c = part.characteristics.find((x) => x.code === chosen[j]?.characteristic);
+        const c = part.characteristics.find((x) => x.code === chosen?.[j]?.characteristic);
         return (
           <div key={row.id} className="grid grid-cols-1 items-end gap-2 sm:grid-cols-[2fr_2fr_1fr_auto]">
             <SelectField
