@@ -13,6 +13,7 @@ import type { SequencerOptions } from '../ledger/sequencer.js';
 import { AuditEvent, IssuedDocument, Shipment } from '../models/index.js';
 import type { DocumentKind } from '../models/issued-document.js';
 import { findBySerial } from '../services/items.js';
+import { lockUnitsReachedBy } from '../services/unit-locks.js';
 import { buildRecordContent, certificateContent, packingSlipContent, unitTrail } from './content.js';
 import { drawDocument } from './pdf/draw.js';
 import type { PaperSize } from './pdf/kit.js';
@@ -91,7 +92,11 @@ export async function issueReleaseDocuments(sequelize: Sequelize, ctx: Ctx, seri
     );
     const ps = await packingSlipContent(sequelize, unit.serial, issue, { documentNumber: coc.documentNumber }, trail);
     await sequelize.transaction(async (transaction) => {
-      // the shipment's row is the lock: two requests issuing at once take turns, the second finds the first's
+      // the unit's row first, as every path that can stop a unit takes it (the lock protocol,
+      // services/unit-locks.ts): an NCR holding it may be opening a field action on this shipment,
+      // so taking the shipment first deadlocks with it. Two requests issuing at once take turns;
+      // the second finds the first's documents.
+      await lockUnitsReachedBy(sequelize, { itemId: unit.id }, transaction);
       await Shipment.findByPk(shipment.id, { transaction, lock: transaction.LOCK.UPDATE });
       if (await IssuedDocument.count({ where: { shipmentId: shipment.id }, transaction })) return;
       const docs: [DocumentKind, DocumentContent][] = [

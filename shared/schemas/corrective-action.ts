@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import type { AttachmentJson } from './attachments.js';
-import { paging } from './common.js';
+import { id, idText, paging, text } from './common.js';
 import { isoDate, signaturePassword } from './warranty.js';
 
 /**
@@ -20,34 +20,30 @@ export const TASK_KIND_LABELS: Record<TaskKind, string> = {
 };
 
 const said = (min: number, what: string, max = 4000) =>
-  z
-    .string(`Say ${what}.`)
+  text(`Say ${what}.`)
     .trim()
     .min(min, `Say ${what}, in at least ${min} characters.`)
     .max(max, `At most ${max} characters.`);
-const words = (max: number) => z.string().trim().max(max, `At most ${max} characters.`);
-const ncrNumber = z
-  .string()
+const words = (max: number) => text().trim().max(max, `At most ${max} characters.`);
+const ncrNumber = text()
   .trim()
   .toUpperCase()
   .regex(/^NC-\d{4}-\d{5,}$/, 'An NCR number looks like NC-2026-00007.');
-const claimNumber = z
-  .string()
+const claimNumber = text()
   .trim()
   .toUpperCase()
   .regex(/^WC-\d{4}-\d{5,}$/, 'A claim number looks like WC-2026-00007.');
-const faNumber = z
-  .string()
+const faNumber = text()
   .trim()
   .toUpperCase()
   .regex(/^FA-\d{4}-\d{5,}$/, 'A field action number looks like FA-2026-00007.');
-const member = z.strictObject({ userId: z.number().int().positive(), role: words(80).default('') });
+const member = z.strictObject({ userId: id(), role: words(80).default('') });
 
 export const CA_NUMBER = /^CA-\d{4}-\d{5,}$/;
 export const caParam = z.strictObject({
-  number: z.string().trim().toUpperCase().regex(CA_NUMBER, 'A corrective action number looks like CA-2026-00007.'),
+  number: text().trim().toUpperCase().regex(CA_NUMBER, 'A corrective action number looks like CA-2026-00007.'),
 });
-export const taskParam = caParam.extend({ id: z.coerce.number().int().positive() });
+export const taskParam = caParam.extend({ id: idText() });
 
 export const openCaBody = z
   .strictObject({
@@ -85,7 +81,7 @@ export const containmentLinkBody = z
   .refine((b) => !b.ncr !== !b.fieldAction, { message: 'Link one hold (its NCR) or one field action.', path: ['ncr'] });
 export type ContainmentLinkBody = z.input<typeof containmentLinkBody>;
 export const evidenceBody = z.strictObject({
-  attachmentIds: z.array(z.number().int().positive()).min(1, 'Upload a photo or PDF first.').max(12),
+  attachmentIds: z.array(id()).min(1, 'Upload a photo or PDF first.').max(12),
 });
 export type EvidenceBody = z.input<typeof evidenceBody>;
 export const taskBody = z.strictObject({

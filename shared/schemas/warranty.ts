@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import type { AttachmentJson } from './attachments.js';
 import type { TrailReading } from './build.js';
-import { paging } from './common.js';
+import { id, idText, isoDate as commonIsoDate, paging, text } from './common.js';
 import { CREDIT_DECISIONS } from './intake.js';
 
 /**
@@ -33,19 +33,15 @@ export type ClaimNext = 'return' | 'teardown' | 'decide' | 'close' | null;
 /** A month in service, as the analysis counts it: a 365.25-day year over 12 (from memory, the usual average). */
 export const DAYS_PER_MONTH = 365.25 / 12;
 
-export const isoDate = z.iso.date('Use a date like 2026-12-01.');
-const text = (max: number) => z.string().trim().max(max, `At most ${max} characters.`);
+export const isoDate = commonIsoDate();
+const limited = (max: number) => text().trim().max(max, `At most ${max} characters.`);
 const said = (min: number, what: string, max = 2000) =>
-  z
-    .string(`Say ${what}.`)
+  text(`Say ${what}.`)
     .trim()
     .min(min, `Say ${what}, in at least ${min} characters.`)
     .max(max, `At most ${max} characters.`);
-export const signaturePassword = z
-  .string('Enter your password to sign.')
-  .min(1, 'Enter your password to sign.')
-  .max(200);
-const serial = z.string('Scan or type the unit’s serial.').trim().min(1, 'Scan or type the unit’s serial.').max(30);
+export const signaturePassword = text('Enter your password to sign.').min(1, 'Enter your password to sign.').max(200);
+const serial = text('Scan or type the unit’s serial.').trim().min(1, 'Scan or type the unit’s serial.').max(30);
 const kilometres = z
   .number('Enter the distance in kilometres.')
   .int('Whole kilometres.')
@@ -55,12 +51,11 @@ const hoursRun = z
   .number('Enter the hours run.')
   .min(0, 'Not below zero.')
   .max(1_000_000, 'Check the hours: over 1,000,000.');
-const ids = (max: number, what: string) =>
-  z.array(z.number().int().positive()).max(max, `At most ${max} ${what}.`).default([]);
+const ids = (max: number, what: string) => z.array(id()).max(max, `At most ${max} ${what}.`).default([]);
 
 export const CLAIM_NUMBER = /^WC-\d{4}-\d{5,}$/;
 export const claimParam = z.strictObject({
-  number: z.string().trim().toUpperCase().regex(CLAIM_NUMBER, 'A claim number looks like WC-2026-00007.'),
+  number: text().trim().toUpperCase().regex(CLAIM_NUMBER, 'A claim number looks like WC-2026-00007.'),
 });
 
 export const coverageQuery = z.strictObject({
@@ -73,8 +68,8 @@ export type CoverageQuery = z.output<typeof coverageQuery>;
 export const logClaimBody = z
   .strictObject({
     serial,
-    customerId: z.number('Choose the customer.').int().positive('Choose the customer.'),
-    customerReference: text(60).default(''),
+    customerId: id('Choose the customer.'),
+    customerReference: limited(60).default(''),
     failedOn: isoDate,
     distanceKm: kilometres.nullable().default(null),
     hours: hoursRun.nullable().default(null),
@@ -94,25 +89,25 @@ export const claimListQuery = z.strictObject({
   state: z.enum([...CLAIM_STATES, 'open']).optional(),
   /** The claims waiting for the caller's kind of step: the unit to take back, or to tear down. */
   waiting: z.enum(['return', 'teardown', 'decision']).optional(),
-  q: text(40).optional(),
+  q: limited(40).optional(),
 });
 export type ClaimListQuery = z.output<typeof claimListQuery>;
 
-export const returnUnitBody = z.strictObject({ note: text(500).default(''), password: signaturePassword });
+export const returnUnitBody = z.strictObject({ note: limited(500).default(''), password: signaturePassword });
 export type ReturnUnitBody = z.input<typeof returnUnitBody>;
 
 export const measurementBody = z.strictObject({
-  characteristic: z.string('Choose the characteristic.').trim().min(1, 'Choose the characteristic.').max(40),
-  position: z.string().trim().max(40).default(''),
+  characteristic: text('Choose the characteristic.').trim().min(1, 'Choose the characteristic.').max(40),
+  position: text().trim().max(40).default(''),
   value: z.number('Enter the value measured.').finite(),
 });
 
 export const findingBody = z
   .strictObject({
     /** The serial of the part (or of the unit itself), or a purchased lot's code. */
-    part: z.string().trim().max(30).optional(),
-    lotCode: z.string().trim().max(60).optional(),
-    causeCode: z.string('Choose a cause code.').trim().toUpperCase().min(1, 'Choose a cause code.').max(20),
+    part: text().trim().max(30).optional(),
+    lotCode: text().trim().max(60).optional(),
+    causeCode: text('Choose a cause code.').trim().toUpperCase().min(1, 'Choose a cause code.').max(20),
     description: said(5, 'what was found'),
     measurements: z.array(measurementBody).max(30, 'At most 30 measurements per finding.').default([]),
     photoIds: ids(8, 'photos'),
@@ -132,7 +127,7 @@ export const findingBody = z
 
 export const teardownClaimBody = z.strictObject({
   findings: z.array(findingBody).min(1, 'Record at least one finding.').max(20, 'At most 20 findings.'),
-  notes: text(2000).default(''),
+  notes: limited(2000).default(''),
   password: signaturePassword,
 });
 export type TeardownClaimBody = z.input<typeof teardownClaimBody>;
@@ -144,12 +139,12 @@ export const decideClaimBody = z.strictObject({
 });
 export type DecideClaimBody = z.input<typeof decideClaimBody>;
 
-export const closeClaimBody = z.strictObject({ note: text(1000).default(''), password: signaturePassword });
+export const closeClaimBody = z.strictObject({ note: limited(1000).default(''), password: signaturePassword });
 export type CloseClaimBody = z.input<typeof closeClaimBody>;
 
 export const CAUSE_CODE_PATTERN = /^[A-Z0-9][A-Z0-9-]{1,19}$/;
 export const causeCodeBody = z.strictObject({
-  code: z.string('Enter a code.').trim().toUpperCase().regex(CAUSE_CODE_PATTERN, 'Use 2–20 letters, digits or dashes.'),
+  code: text('Enter a code.').trim().toUpperCase().regex(CAUSE_CODE_PATTERN, 'Use 2–20 letters, digits or dashes.'),
   description: said(3, 'what the cause is', 200),
   countsAsFailure: z.boolean('Say whether it counts as a failure of the product.'),
 });
@@ -162,7 +157,7 @@ export const updateCauseCodeBody = z
   })
   .refine((b) => Object.keys(b).length > 0, { message: 'Change something.' });
 export const causeCodeParam = z.strictObject({
-  code: z.string().trim().toUpperCase().regex(CAUSE_CODE_PATTERN, 'Not a cause code.'),
+  code: text().trim().toUpperCase().regex(CAUSE_CODE_PATTERN, 'Not a cause code.'),
 });
 export type CauseCodeJson = { code: string; description: string; countsAsFailure: boolean; active: boolean };
 
@@ -182,7 +177,7 @@ export type CreditRevisionJson = {
 };
 
 export const analysisQuery = z.strictObject({
-  family: z.coerce.number().int().positive().optional(),
+  family: idText().optional(),
   /** Ship dates from … to, inclusive. */
   from: isoDate.optional(),
   to: isoDate.optional(),

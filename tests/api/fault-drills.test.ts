@@ -93,7 +93,8 @@ describe('fault drills', () => {
         () => 'refused' as const,
       ),
     );
-    await new Promise((r) => setTimeout(r, 40));
+    // long enough for some to reach the handlers on a loaded machine, short enough to catch others on the way
+    await new Promise((r) => setTimeout(r, 150));
     server.child.kill('SIGTERM');
     const statuses = await Promise.all(inFlight);
     expect(await server.exited).toBe(0);
