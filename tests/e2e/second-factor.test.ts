@@ -145,7 +145,8 @@ describe('a second factor, set up and used in a real browser', () => {
     const operator = await makeUser('operator');
     const other = await browser.newContext({ viewport: VIEWPORTS[0] });
     await fillSignIn(await other.newPage(), operator.email);
-    const context = await browser.newContext({ viewport: VIEWPORTS[0] });
+    // a tablet: a touch screen, where every control is sized for a finger (pointer: coarse)
+    const context = await browser.newContext({ viewport: VIEWPORTS[0], hasTouch: true });
     const page = await context.newPage();
     await fillSignIn(page, operator.email);
     await page.getByRole('heading', { level: 1, name: / home$/ }).waitFor();
