@@ -10,7 +10,7 @@ import type { Ctx } from '../audit.js';
 import { AppError, notFound } from '../errors.js';
 import { receiptFor, recordDocument } from '../ledger/receipts.js';
 import type { SequencerOptions } from '../ledger/sequencer.js';
-import { AuditEvent, IssuedDocument, Shipment } from '../models/index.js';
+import { AuditEvent, IssuedDocument, Item, Shipment } from '../models/index.js';
 import type { DocumentKind } from '../models/issued-document.js';
 import { findBySerial } from '../services/items.js';
 import { buildRecordContent, certificateContent, packingSlipContent, unitTrail } from './content.js';
@@ -91,8 +91,10 @@ export async function issueReleaseDocuments(sequelize: Sequelize, ctx: Ctx, seri
     );
     const ps = await packingSlipContent(sequelize, unit.serial, issue, { documentNumber: coc.documentNumber }, trail);
     await sequelize.transaction(async (transaction) => {
-      // the shipment's row is the lock: two requests issuing at once take turns, the second finds the first's
-      await Shipment.findByPk(shipment.id, { transaction, lock: transaction.LOCK.UPDATE });
+      // the unit's row first, as the lock protocol has it (unit-locks.ts): an NCR or hold on the shipped
+      // unit locks it before it adds a field action on the shipment, so locking the shipment first here
+      // would deadlock with it. Two requests issuing at once take turns; the second finds the first's.
+      await Item.findByPk(unit.id, { transaction, lock: transaction.LOCK.UPDATE });
       if (await IssuedDocument.count({ where: { shipmentId: shipment.id }, transaction })) return;
       const docs: [DocumentKind, DocumentContent][] = [
         ['build_record', br],
