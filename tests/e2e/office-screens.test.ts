@@ -354,10 +354,10 @@ describe('the trail and the audit trail read in the page and in words', () => {
       expect(text.match(/\b[a-z]+_?[a-z]*\.[a-z_]+\b|\b[a-z]+_[a-z_]+\b/g)).toBeNull();
       const today = await page.evaluate(() => new Date().toISOString().slice(0, 10));
       const tomorrow = await page.evaluate(() => new Date(Date.now() + 2 * 86_400_000).toISOString().slice(0, 10));
-      await page.getByLabel('From').fill(tomorrow);
+      await page.getByLabel('From', { exact: true }).fill(tomorrow);
       await page.getByText('No events match these filters.').waitFor();
-      await page.getByLabel('From').fill('');
-      await page.getByLabel('To').fill(today);
+      await page.getByLabel('From', { exact: true }).fill('');
+      await page.getByLabel('To', { exact: true }).fill(today);
       await page
         .getByRole('button', { name: `Only events of NCR ${ncr}` })
         .first()

@@ -224,8 +224,8 @@ describe('a warranty claim from the field back to the core, and the corrective a
     await shot(q, 'warranty-claim-1440');
     await q.getByRole('link', { name: 'Open a corrective action' }).click();
     await q.getByRole('heading', { level: 1, name: 'Open a corrective action' }).waitFor();
-    expect(await q.getByLabel('Claims').inputValue()).toBe(number);
-    await q.getByLabel('NCRs').fill(ncr.body.number);
+    expect(await q.getByLabel('Claims', { exact: true }).inputValue()).toBe(number);
+    await q.getByLabel('NCRs', { exact: true }).fill(ncr.body.number);
     await q.getByLabel('The problem in a line').fill('Bore scuffing on CORRIE-8 blocks after honing');
     await q.getByLabel('Problem statement').fill('One unit back from the field and one block on the line scuffed.');
     await q.getByRole('checkbox', { name: new RegExp(demo('operator').name) }).check();

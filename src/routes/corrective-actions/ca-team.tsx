@@ -25,7 +25,7 @@ function Rows() {
     <ul className="flex max-h-[55vh] flex-col divide-y divide-rule overflow-auto">
       {rows.fields.map((p, i) => (
         <li key={p.id} className="grid grid-cols-1 items-center gap-2 py-2 sm:grid-cols-[minmax(0,1fr)_14rem]">
-          <label className="flex min-h-11 items-center gap-2.5">
+          <label className="flex min-h-11 floor:min-h-12 items-center gap-2.5">
             <input type="checkbox" className="size-5 accent-accent" {...register(`people.${i}.on`)} />
             {p.name}
           </label>

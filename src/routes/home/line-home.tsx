@@ -13,7 +13,7 @@ import { coreHref, itemHref, paths } from '../../lib/paths';
 import { WIP_STATE_WORDS, formatAge } from '../line/words';
 
 const linkRow =
-  'flex min-h-11 flex-wrap items-center gap-x-3 gap-y-0.5 py-1.5 text-accent underline-offset-4 hover:underline';
+  'flex min-h-11 floor:min-h-12 flex-wrap items-center gap-x-3 gap-y-0.5 py-1.5 text-accent underline-offset-4 hover:underline';
 
 function Count({ n, label }: { n: number | undefined; label: string }) {
   return (
@@ -190,7 +190,7 @@ export function Alerts() {
               <li key={a.link}>
                 <Link
                   to={a.link}
-                  className="flex min-h-11 items-start gap-x-2 py-1.5 text-accent underline-offset-4 hover:underline"
+                  className="flex min-h-11 floor:min-h-12 items-start gap-x-2 py-1.5 text-accent underline-offset-4 hover:underline"
                 >
                   <Icon name="alert" size={18} className="mt-0.5 shrink-0" />
                   <span className="min-w-0">{a.message}</span>

@@ -43,7 +43,7 @@ export function ClaimsWaiting({ waiting }: { waiting: Waiting }) {
               <li key={c.number} className="py-1">
                 <Link
                   to={claimHref(c.number)}
-                  className="flex min-h-11 flex-wrap items-center gap-x-3 text-accent underline-offset-4 hover:underline"
+                  className="flex min-h-11 floor:min-h-12 flex-wrap items-center gap-x-3 text-accent underline-offset-4 hover:underline"
                 >
                   <Icon name="arrowRight" size={18} />
                   <span className="font-mono font-semibold">{c.number}</span>
@@ -90,7 +90,7 @@ export function ActionsWaiting({ everyone }: { everyone: boolean }) {
             <li key={t.id} className="py-1">
               <Link
                 to={caHref(t.correctiveAction.number)}
-                className="flex min-h-11 flex-wrap items-center gap-x-3 text-accent underline-offset-4 hover:underline"
+                className="flex min-h-11 floor:min-h-12 flex-wrap items-center gap-x-3 text-accent underline-offset-4 hover:underline"
               >
                 {t.overdue ? (
                   <Badge tone="bad">Overdue since {t.dueOn}</Badge>

@@ -60,7 +60,7 @@ export function ChartNumbers({ children, numbers }: { children: ReactNode; numbe
     <>
       {children}
       <details className="mt-2">
-        <summary className="min-h-11 cursor-pointer py-2 text-accent underline-offset-4 hover:underline">
+        <summary className="min-h-11 floor:min-h-12 cursor-pointer py-2 text-accent underline-offset-4 hover:underline">
           Show the numbers
         </summary>
         {numbers}

@@ -47,7 +47,7 @@ export function SearchPage() {
                     <li key={h.link + h.title}>
                       <Link
                         to={h.link}
-                        className="flex min-h-11 flex-wrap items-center gap-x-3 py-1.5 text-accent underline-offset-4 hover:underline"
+                        className="flex min-h-11 floor:min-h-12 flex-wrap items-center gap-x-3 py-1.5 text-accent underline-offset-4 hover:underline"
                       >
                         <span className="font-mono font-semibold">{h.title}</span>
                         <span className="text-ink-soft">{h.detail}</span>

@@ -110,7 +110,7 @@ function ReadyToShip() {
               <li key={u.serial}>
                 <Link
                   to={`${paths.release}?serial=${encodeURIComponent(u.serial)}`}
-                  className="flex min-h-11 items-center gap-3 text-accent underline-offset-4 hover:underline"
+                  className="flex min-h-11 floor:min-h-12 items-center gap-3 text-accent underline-offset-4 hover:underline"
                 >
                   <Badge tone="ok">Ready</Badge>
                   <span className="font-mono font-semibold">{u.serial}</span>

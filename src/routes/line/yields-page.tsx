@@ -58,7 +58,7 @@ const BY_WORDS = { defect: 'Defect code', stage: 'Stage', family: 'Family' };
 
 function CsvLink({ href, children }: { href: string; children: string }) {
   return (
-    <a href={href} className="inline-flex min-h-11 items-center gap-1.5 text-accent underline" download>
+    <a href={href} className="inline-flex min-h-11 floor:min-h-12 items-center gap-1.5 text-accent underline" download>
       <Icon name="download" size={16} />
       {children}
     </a>

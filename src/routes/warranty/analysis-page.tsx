@@ -188,7 +188,7 @@ export function AnalysisPage() {
                     type="button"
                     aria-pressed={by === d}
                     onClick={() => setMany({ by: d === 'family' ? '' : d })}
-                    className={`min-h-11 rounded-control border px-3 text-sm font-medium ${by === d ? 'border-accent bg-accent text-white' : 'border-rule-strong bg-card text-ink hover:border-accent'}`}
+                    className={`min-h-11 floor:min-h-12 rounded-control border px-3 text-sm font-medium ${by === d ? 'border-accent bg-accent text-white' : 'border-rule-strong bg-card text-ink hover:border-accent'}`}
                   >
                     {RATE_DIMENSION_LABELS[d]}
                   </button>

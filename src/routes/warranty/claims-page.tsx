@@ -78,7 +78,7 @@ export function ClaimsPage() {
               type="button"
               aria-pressed={view === v.value}
               onClick={() => setMany({ view: v.value, page: '' })}
-              className={`min-h-11 rounded-control border px-4 font-medium ${view === v.value ? 'border-accent bg-accent text-white' : 'border-rule-strong bg-card text-ink hover:border-accent'}`}
+              className={`min-h-11 floor:min-h-12 rounded-control border px-4 font-medium ${view === v.value ? 'border-accent bg-accent text-white' : 'border-rule-strong bg-card text-ink hover:border-accent'}`}
             >
               {v.label}
             </button>

@@ -82,7 +82,7 @@ function BuiltResultBlock({ r, f, open }: { r: BuiltResult; f: FindingJson; open
   );
   return (
     <details open={open} className="rounded-control border border-rule bg-card">
-      <summary className="flex min-h-11 cursor-pointer flex-wrap items-center gap-x-3 gap-y-1 px-3 py-2">
+      <summary className="flex min-h-11 floor:min-h-12 cursor-pointer flex-wrap items-center gap-x-3 gap-y-1 px-3 py-2">
         <span className="font-semibold">{r.stage.name}</span>
         {r.verdict === 'pass' ? <Badge tone="ok">Passed</Badge> : <Badge tone="bad">Failed</Badge>}
         {r.superseded && <Badge tone="off">Corrected since</Badge>}
