@@ -130,7 +130,7 @@ export function createApp({
   warrantyRoutes(api, sequelize);
   correctiveActionRoutes(api, sequelize);
   gaugeRoutes(api, sequelize);
-  lineRoutes(api, sequelize);
+  lineRoutes(api, sequelize, read);
   plantRoutes(api, sequelize);
   mailRoutes(api, config);
   router.use((req, res) => {

@@ -1,6 +1,7 @@
 import type { Sequelize } from 'sequelize';
 import { paretoQuery, searchQuery, wipQuery, yieldQuery } from '../../shared/schemas/line.js';
 import type { Api } from '../http/api.js';
+import { freshnessOf, type ReadSide } from '../read-side.js';
 import { csvDocument, sendCsv } from '../http/csv.js';
 import { alerts, ncrAges, shippingBoard, teardownQueue } from '../services/line/homes.js';
 import { search } from '../services/line/search.js';
@@ -9,7 +10,13 @@ import { ncrPareto, yieldReport } from '../services/line/yields.js';
 
 const pct = (n: number | null) => (n === null ? '' : (n * 100).toFixed(1));
 
-export function lineRoutes(api: Api, sequelize: Sequelize) {
+/**
+ * The work-in-process board, search, yields and Pareto read on the read side (a hot standby when one
+ * is set) and say how old their data may be. The homes' short lists (teardown queue, NCR ages,
+ * alerts, the shipping board, which asks the release gate) are what people act on next: the primary.
+ */
+export function lineRoutes(api: Api, sequelize: Sequelize, read: ReadSide) {
+  const db = read.db;
   api.define({
     method: 'get',
     path: '/line/wip',
@@ -17,7 +24,7 @@ export function lineRoutes(api: Api, sequelize: Sequelize) {
     summary:
       'Work in process by stage and station (waiting, in work, on hold, with ages), hold ageing and throughput per shift and day; filter by family, part kind, stage or station.',
     query: wipQuery,
-    handler: ({ query }) => wipBoard(sequelize, query),
+    handler: async ({ query }) => ({ ...(await wipBoard(db, query)), readFrom: await freshnessOf(read) }),
   });
   api.define({
     method: 'get',
@@ -54,7 +61,10 @@ export function lineRoutes(api: Api, sequelize: Sequelize) {
     summary:
       'One search over partial serials, lot codes, customer references, NCR numbers and casting numbers, grouped by kind (only the kinds the role may open).',
     query: searchQuery,
-    handler: ({ user, query }) => search(sequelize, user!.role, query.q),
+    handler: async ({ user, query }) => ({
+      ...(await search(db, user!.role, query.q)),
+      readFrom: await freshnessOf(read),
+    }),
   });
   api.define({
     method: 'get',
@@ -63,7 +73,7 @@ export function lineRoutes(api: Api, sequelize: Sequelize) {
     summary:
       'First-pass yield per stage and station, rolled throughput yield per family, scrap and rework counts, salvage by core source and casting number, over a period.',
     query: yieldQuery,
-    handler: ({ query }) => yieldReport(sequelize, query),
+    handler: async ({ query }) => ({ ...(await yieldReport(db, query)), readFrom: await freshnessOf(read) }),
   });
   api.define({
     method: 'get',
@@ -72,7 +82,7 @@ export function lineRoutes(api: Api, sequelize: Sequelize) {
     summary: 'The first-pass yields per stage and station over the period, as CSV.',
     query: yieldQuery,
     handler: async ({ query, res }) => {
-      const y = await yieldReport(sequelize, query);
+      const y = await yieldReport(db, query);
       const body = csvDocument(
         ['From', 'To', 'Stage', 'Station', 'Entered', 'First pass', 'FPY %'],
         [
@@ -106,7 +116,7 @@ export function lineRoutes(api: Api, sequelize: Sequelize) {
     access: 'yields.read',
     summary: 'NCRs raised in a period counted by defect code, stage or family, most first, and per week or month.',
     query: paretoQuery,
-    handler: ({ query }) => ncrPareto(sequelize, query),
+    handler: async ({ query }) => ({ ...(await ncrPareto(db, query)), readFrom: await freshnessOf(read) }),
   });
   api.define({
     method: 'get',
@@ -115,7 +125,7 @@ export function lineRoutes(api: Api, sequelize: Sequelize) {
     summary: 'The NCR Pareto per week or month, as CSV.',
     query: paretoQuery,
     handler: async ({ query, res }) => {
-      const p = await ncrPareto(sequelize, query);
+      const p = await ncrPareto(db, query);
       const label = new Map(p.rows.map((r) => [r.key, r.label]));
       const body = csvDocument(
         ['Period', query.by === 'defect' ? 'Defect code' : query.by === 'stage' ? 'Stage' : 'Family', 'Name', 'NCRs'],

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { idText, isoDate, text } from './common.js';
 import { PART_KINDS } from './reference.js';
+import type { Freshness } from './build.js';
 
 /** Where a part stands at its current stage on the work-in-process board. */
 export const WIP_STATES = ['waiting', 'in_work', 'on_hold'] as const;
@@ -40,6 +41,8 @@ export type WipStageRow = {
 export type ThroughputRow = { day: string; shift: number; stageCode: string; passed: number; failed: number };
 
 export type WipJson = {
+  /** where it was read and how old it may be */
+  readFrom: Freshness;
   asOf: string;
   stages: WipStageRow[];
   items: WipItem[];
@@ -98,7 +101,12 @@ export type SearchQuery = z.output<typeof searchQuery>;
 export const SEARCH_KINDS = ['item', 'lot', 'ncr', 'shipment', 'core'] as const;
 export type SearchKind = (typeof SEARCH_KINDS)[number];
 export type SearchHit = { kind: SearchKind; title: string; detail: string; link: string };
-export type SearchJson = { q: string; groups: { kind: SearchKind; label: string; hits: SearchHit[]; more: boolean }[] };
+export type SearchJson = {
+  q: string;
+  /** where it was read and how old it may be */
+  readFrom: Freshness;
+  groups: { kind: SearchKind; label: string; hits: SearchHit[]; more: boolean }[];
+};
 
 export const GRAINS = ['week', 'month'] as const;
 export type Grain = (typeof GRAINS)[number];
@@ -144,6 +152,8 @@ export type SalvageRow = {
   salvageRate: number | null;
 };
 export type YieldJson = {
+  /** where it was read and how old it may be */
+  readFrom: Freshness;
   from: string;
   to: string;
   byStage: FpyRow[];
@@ -154,6 +164,8 @@ export type YieldJson = {
 };
 
 export type ParetoJson = {
+  /** where it was read and how old it may be */
+  readFrom: Freshness;
   from: string;
   to: string;
   by: ParetoBy;

@@ -15,6 +15,7 @@ import { createApp } from '../../server/app.js';
 import { createSequelize } from '../../server/db.js';
 import { migrate } from '../../server/migrate.js';
 import type { LotLookupJson, TrailJson } from '../../shared/schemas/build.js';
+import type { WipJson } from '../../shared/schemas/line.js';
 import { cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
 import { firstStageSubmissions, type Submission } from '../support/drills.js';
 
@@ -33,7 +34,7 @@ let standby: Cluster;
 let t: TestApp;
 let readDb: Sequelize;
 let onStandby: ReturnType<typeof createApp>;
-let cookies: { receiving: string; operator: string; warranty: string };
+let cookies: { receiving: string; operator: string; warranty: string; supervisor: string };
 let subs: Submission[];
 
 const one = async <T extends object>(db: Sequelize, sql: string): Promise<T> =>
@@ -66,6 +67,7 @@ beforeAll(async () => {
     receiving: await cookieFor(await makeUser('receiving'), t.config),
     operator: await cookieFor(await makeUser('operator'), t.config),
     warranty: await cookieFor(await makeUser('warranty'), t.config),
+    supervisor: await cookieFor(await makeUser('supervisor'), t.config),
   };
   subs = await firstStageSubmissions(t, cookies, 1);
 }, 180_000);
@@ -96,6 +98,14 @@ describe('reads from a hot standby', () => {
     };
     const before = await trail();
     expect(before.readFrom.source).toBe('standby');
+    const stageOf = async (app: typeof onStandby) => {
+      const res = await request(app).get('/api/line/wip').set('Cookie', cookies.supervisor);
+      expect(res.status).toBe(200);
+      expect((res.body as WipJson).readFrom.source).toBe(app === onStandby ? 'standby' : 'primary');
+      return (res.body as WipJson).items.find((i) => i.serial === sub!.serial)?.stageCode ?? null;
+    };
+    const stageBefore = await stageOf(onStandby);
+    expect(stageBefore).not.toBeNull();
 
     await readDb.query('SELECT pg_wal_replay_pause()');
     try {
@@ -112,6 +122,9 @@ describe('reads from a hot standby', () => {
       expect(behind.results.length).toBe(before.results.length);
       expect(behind.readFrom.lagSeconds).toBeGreaterThanOrEqual(1);
       expect(Date.parse(behind.readFrom.asOf)).toBeLessThan(Date.now() - 1000);
+      // the line's boards read there too: the part still waits at its first stage on the standby
+      expect(await stageOf(onStandby)).toBe(stageBefore);
+      expect(await stageOf(t.app)).not.toBe(stageBefore);
     } finally {
       await readDb.query('SELECT pg_wal_replay_resume()');
     }

@@ -98,7 +98,7 @@ const GROUPS: Group[] = [
   },
 ];
 
-export async function search(sequelize: Sequelize, role: Role, q: string): Promise<SearchJson> {
+export async function search(sequelize: Sequelize, role: Role, q: string): Promise<Omit<SearchJson, 'readFrom'>> {
   const groups = GROUPS.filter((g) => g.allowed(role));
   const found = await Promise.all(
     groups.map((g) =>

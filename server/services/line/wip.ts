@@ -107,7 +107,7 @@ const filters = (q: WipQuery) => ({
   station: q.station ?? null,
 });
 
-export async function wipBoard(sequelize: Sequelize, q: WipQuery): Promise<WipJson> {
+export async function wipBoard(sequelize: Sequelize, q: WipQuery): Promise<Omit<WipJson, 'readFrom'>> {
   const tz = (await plantSettings()).timeZone;
   const [items, stages, throughput] = await Promise.all([
     wipItems(sequelize, q),

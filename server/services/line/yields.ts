@@ -90,7 +90,7 @@ function sumBy(rows: Counted[], key: (r: Counted) => string, withStation = false
   return [...out.values()];
 }
 
-export async function yieldReport(sequelize: Sequelize, q: YieldQuery): Promise<YieldJson> {
+export async function yieldReport(sequelize: Sequelize, q: YieldQuery): Promise<Omit<YieldJson, 'readFrom'>> {
   const tz = (await plantSettings()).timeZone;
   const params = { from: q.from, to: q.to, tz, family: q.family ?? null };
   const [counted, losses, salvage] = await Promise.all([
@@ -169,7 +169,7 @@ export const paretoSql = (by: ParetoQuery['by']) => `
    GROUP BY 1, 3
    ORDER BY 3, 1`;
 
-export async function ncrPareto(sequelize: Sequelize, q: ParetoQuery): Promise<ParetoJson> {
+export async function ncrPareto(sequelize: Sequelize, q: ParetoQuery): Promise<Omit<ParetoJson, 'readFrom'>> {
   const tz = (await plantSettings()).timeZone;
   const rows = await readQuery<{ key: string; label: string; period: string; count: number }>(
     sequelize,

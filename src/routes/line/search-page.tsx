@@ -1,6 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { Link, useSearchParams, type LoaderFunctionArgs } from 'react-router';
 import { searchQueryOptions, useSearch } from '../../api/line/line';
+import { DataAge } from '../../components/data-age';
 import { PageHeader } from '../../components/page-header';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Notice } from '../../components/ui/notice';
@@ -26,6 +27,11 @@ export function SearchPage() {
         title="Search"
         description="Part of a serial, a lot code, a customer’s reference, an NCR number or a casting number, in any case."
       />
+      {found.data && (
+        <div className="mb-3">
+          <DataAge readFrom={found.data.readFrom} />
+        </div>
+      )}
       {q.length < 2 ? (
         <Notice>Type at least two characters in the search box above.</Notice>
       ) : found.error ? (

@@ -6,6 +6,7 @@ import { useSignedIn } from '../../api/auth/me';
 import { useShipping, useWip, wipQueryOptions } from '../../api/line/line';
 import { familiesQueryOptions, useFamilies } from '../../api/reference/families';
 import { FilterSelect } from '../../components/filter-fields';
+import { DataAge } from '../../components/data-age';
 import { PageHeader } from '../../components/page-header';
 import { Badge } from '../../components/ui/badge';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
@@ -161,6 +162,11 @@ export function WipPage() {
           onChange={(v) => set('kind', v)}
         />
       </div>
+      {data && (
+        <div className="mb-3">
+          <DataAge readFrom={data.readFrom} />
+        </div>
+      )}
       <div className="grid grid-cols-1 gap-5">
         <Card labelledBy="board-heading">
           <CardHeader

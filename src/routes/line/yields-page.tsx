@@ -5,6 +5,7 @@ import { PARETO_BY, type ParetoQuery, type YieldQuery } from '../../../shared/sc
 import { csvHref, paretoQueryOptions, usePareto, useYields, yieldsQueryOptions } from '../../api/line/line';
 import { familiesQueryOptions, useFamilies } from '../../api/reference/families';
 import { FilterInput, FilterSelect } from '../../components/filter-fields';
+import { DataAge } from '../../components/data-age';
 import { PageHeader } from '../../components/page-header';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
@@ -98,6 +99,11 @@ export function YieldsPage() {
         />
       </div>
       {error && <Notice tone="bad">{error.message}</Notice>}
+      {data && (
+        <div className="mb-3">
+          <DataAge readFrom={data.readFrom} />
+        </div>
+      )}
       <div className="grid grid-cols-1 gap-5">
         <Card labelledBy="fpy-heading">
           <CardHeader
