@@ -24,6 +24,11 @@ export type MailWorkerOptions = {
   maxAttempts?: number;
   /** Seconds to wait before attempt n+1 (default 2^n, at most an hour). */
   backoff?: (attempts: number) => number;
+  /**
+   * Deliver only these outbox rows (ids), leaving the rest to the plant's own worker: sending chosen
+   * messages again, or a drill that must count only the messages it made.
+   */
+  onlyIds?: string[];
 };
 
 /**
@@ -100,13 +105,22 @@ export class MailWorker {
               claimed_until = now() + make_interval(secs => :lease), attempts = attempts + 1
         WHERE id IN (
           SELECT id FROM mail_outbox
-           WHERE (status = 'pending' AND next_attempt_at <= now())
-              OR (status = 'sending' AND claimed_until < now())
+           WHERE ((status = 'pending' AND next_attempt_at <= now())
+                  OR (status = 'sending' AND claimed_until < now()))
+             AND (CAST(:only AS bigint[]) IS NULL OR id = ANY(CAST(:only AS bigint[])))
            ORDER BY id
            LIMIT :batch
            FOR UPDATE SKIP LOCKED)
         RETURNING id, to_address, subject, body_text, message_id, attempts`,
-      { type: QueryTypes.SELECT, replacements: { worker: this.id, lease, batch: this.opts.batch ?? 20 } },
+      {
+        type: QueryTypes.SELECT,
+        replacements: {
+          worker: this.id,
+          lease,
+          batch: this.opts.batch ?? 20,
+          only: this.opts.onlyIds ? `{${this.opts.onlyIds.map((id) => String(BigInt(id))).join(',')}}` : null,
+        },
+      },
     );
   }
 

@@ -1,8 +1,10 @@
 import type { Server } from 'node:http';
 import path from 'node:path';
+import { QueryTypes, type Sequelize } from 'sequelize';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { sealSecret, totpCode } from '../../server/auth/totp.js';
 import type { Config } from '../../server/config.js';
+import { MailWorker } from '../../server/mail/worker.js';
 import { User } from '../../server/models/index.js';
 import { makeTestApp, type TestApp } from './app.js';
 
@@ -81,4 +83,31 @@ export async function signIn(page: Page, base: string, email: string, password: 
     await page.getByRole('button', { name: 'Sign in' }).click();
   }
   await home.waitFor();
+}
+
+/** The outbox's newest id now: a browser walk later delivers only what was queued after it. */
+export async function newestMailId(sequelize: Sequelize): Promise<string> {
+  const [row] = await sequelize.query<{ id: string }>('SELECT coalesce(max(id), 0)::text AS id FROM mail_outbox', {
+    type: QueryTypes.SELECT,
+  });
+  return row!.id;
+}
+
+/**
+ * Delivers to a sink the messages queued since `after` for these addresses, and only those: the
+ * other suites share the outbox, and each of their steps mails everyone in a role.
+ */
+export async function deliverMailSince(sequelize: Sequelize, port: number, after: string, addresses: string[]) {
+  const ids = await sequelize.query<{ id: string }>(
+    'SELECT id::text AS id FROM mail_outbox WHERE id > CAST(:after AS bigint) AND to_address IN (:addresses)',
+    { type: QueryTypes.SELECT, replacements: { after, addresses } },
+  );
+  if (!ids.length) return;
+  const worker = new MailWorker(sequelize, {
+    smtp: { host: '127.0.0.1', port },
+    from: 'Coretrail <coretrail@larkspur.example>',
+    onlyIds: ids.map((r) => r.id),
+  });
+  await worker.drain();
+  await worker.stop();
 }

@@ -45,17 +45,19 @@ describe('Coretrail serials', () => {
 
   it('catch every single substitution in the sample', () => {
     let tried = 0;
+    const accepted: string[] = []; // one expect for 74,400 cases: an expect each is most of the time
     for (const serial of sample) {
       const compact = serial.replace(/-/g, '');
       for (let i = 2; i < compact.length; i++) {
         for (const ch of SERIAL_ALPHABET) {
           if (ch === compact[i]) continue;
           const wrong = compact.slice(0, i) + ch + compact.slice(i + 1);
-          expect(parseSerial(wrong).ok, wrong).toBe(false);
+          if (parseSerial(wrong).ok) accepted.push(wrong);
           tried++;
         }
       }
     }
+    expect(accepted).toEqual([]);
     expect(tried).toBe(300 * 8 * 31);
   });
 
