@@ -1,6 +1,6 @@
 // `npm test`: the same bootstrap as `npm start`, with a throwaway cluster, then lint, typecheck,
 // client build, unit, API and browser suites. The last line is `tests: N passed, N failed`.
-import { spawnSync } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -15,6 +15,27 @@ const step = (name, passed, failed) => {
   results.push({ name, passed, failed });
   process.stderr.write(`[test] ${name}: ${passed} passed, ${failed} failed\n`);
 };
+
+/**
+ * Runs checks one after another under `nice`, each with its output in a file (printed when it
+ * ends), so they go on while this process waits on the suites; resolves when all have ended.
+ */
+function runChecksBeside(checks) {
+  return (async () => {
+    for (const [name, cmd, args] of checks) {
+      const out = path.join(scratch, `${name}.log`);
+      const fd = fs.openSync(out, 'w');
+      const code = await new Promise((resolve) => {
+        const child = spawn('nice', ['-n', '15', cmd, ...args], { cwd: projectDir, stdio: ['ignore', fd, fd] });
+        child.on('exit', (c) => resolve(c ?? 1));
+        child.on('error', () => resolve(1));
+      });
+      fs.closeSync(fd);
+      process.stderr.write(fs.readFileSync(out, 'utf8'));
+      step(name, code === 0 ? 1 : 0, code === 0 ? 0 : 1);
+    }
+  })();
+}
 
 function runCheck(name, cmd, args, env = process.env) {
   const r = spawnSync(cmd, args, { cwd: projectDir, stdio: 'inherit', env });
@@ -37,10 +58,14 @@ try {
   cluster = await startCluster({ dir, port: await freePort(), bin });
   await ensureDatabase(cluster, 'coretrail_test');
 
-  runCheck('lint', 'npx', ['eslint', '.', '--max-warnings', '0']);
-  runCheck('format', 'npx', ['prettier', '--check', '.']);
-  runCheck('typecheck', 'npx', ['tsc', '-p', 'tsconfig.json', '--noEmit']);
   runCheck('client build', 'npx', ['vite', 'build', '--logLevel', 'warn']);
+  // lint, format and typecheck need nothing the suites make: they run beside them at low priority,
+  // on the cycles the browser suite (one file at a time, mostly waiting on pages) leaves idle
+  const checks = runChecksBeside([
+    ['lint', 'npx', ['eslint', '.', '--max-warnings', '0']],
+    ['format', 'npx', ['prettier', '--check', '.']],
+    ['typecheck', 'npx', ['tsc', '-p', 'tsconfig.json', '--noEmit']],
+  ]);
 
   const report = path.join(os.tmpdir(), `coretrail-vitest-${process.pid}.json`);
   const env = {
@@ -51,11 +76,22 @@ try {
     CLIENT_DIR: path.join(projectDir, 'dist'),
     TMPDIR: scratch,
   };
-  const r = spawnSync(
-    'npx',
-    ['vitest', 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...process.argv.slice(2)],
-    { cwd: projectDir, stdio: 'inherit', env },
-  );
+  const r = await new Promise((resolve) => {
+    const child = spawn(
+      'npx',
+      [
+        'vitest',
+        'run',
+        '--reporter=default',
+        '--reporter=json',
+        `--outputFile.json=${report}`,
+        ...process.argv.slice(2),
+      ],
+      { cwd: projectDir, stdio: 'inherit', env },
+    );
+    child.on('exit', (status) => resolve({ status }));
+    child.on('error', () => resolve({ status: 1 }));
+  });
   if (fs.existsSync(report)) {
     const json = JSON.parse(fs.readFileSync(report, 'utf8'));
     // a file that fails to load counts as a failure even though none of its tests ran
@@ -68,6 +104,7 @@ try {
     step('vitest', 0, 1);
   }
   if (r.status !== 0 && results.every((x) => x.failed === 0)) step('vitest exit status', 0, 1);
+  await checks;
 } catch (err) {
   process.stderr.write(`\n${err instanceof ClusterError ? err.message : (err?.stack ?? err)}\n`);
   step('setup', 0, 1);

@@ -180,7 +180,7 @@ describe('the line, end to end', () => {
     expect(to(demo('operator').email, `NCR ${number} on ${parts.block}: Rework`)).toHaveLength(1);
     expect(to(demo('shipping').email, `${unit} can ship: nothing holds it any more`)).toHaveLength(1);
     expect(to(demo('shipping').email, /can ship/)[0]!.text).toContain(`/release?serial=${unit}`);
-  });
+  }, 180_000);
 
   it('a long block built at the bench from finished parts and lots, released, then looked up by the warranty desk', async () => {
     const parts = await finishedParts(t, cookies, 'TARN-6');
@@ -296,5 +296,5 @@ describe('the line, end to end', () => {
     expect(pdf.headers()['content-type']).toBe('application/pdf');
     const text = (await new PDFParse({ data: new Uint8Array(await pdf.body()) }).getText()).text;
     for (const s of [unit, parts.block, parts.core, 'SO-WD-1', 'Compression', 'WD-PISTONS']) expect(text).toContain(s);
-  });
+  }, 180_000);
 });

@@ -108,6 +108,8 @@ export function AppLayout() {
         id="main"
         tabIndex={-1}
         aria-busy={navigation.state === 'loading'}
+        // the page shown (set once its data has loaded): browser tests wait on it after an in-app move
+        data-location={location.pathname + location.search}
         className="mx-auto w-full max-w-page flex-1 px-6 py-6 outline-none print:m-0 print:max-w-none print:p-0"
       >
         <Outlet />

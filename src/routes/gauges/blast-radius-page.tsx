@@ -192,11 +192,11 @@ export function BlastRadiusPage() {
         title="What it touched"
         description={b.trigger.label}
         actions={
-          <span className="flex gap-2">
-            <a className="text-accent underline" href={exportHref('csv')}>
+          <span className="flex gap-4">
+            <a className="inline-flex min-h-11 items-center text-accent underline floor:min-h-12" href={exportHref('csv')}>
               Export CSV
             </a>
-            <a className="text-accent underline" href={exportHref('pdf')}>
+            <a className="inline-flex min-h-11 items-center text-accent underline floor:min-h-12" href={exportHref('pdf')}>
               Export PDF
             </a>
           </span>
