@@ -193,10 +193,16 @@ export function BlastRadiusPage() {
         description={b.trigger.label}
         actions={
           <span className="flex gap-4">
-            <a className="inline-flex min-h-11 items-center text-accent underline floor:min-h-12" href={exportHref('csv')}>
+            <a
+              className="inline-flex min-h-11 items-center text-accent underline floor:min-h-12"
+              href={exportHref('csv')}
+            >
               Export CSV
             </a>
-            <a className="inline-flex min-h-11 items-center text-accent underline floor:min-h-12" href={exportHref('pdf')}>
+            <a
+              className="inline-flex min-h-11 items-center text-accent underline floor:min-h-12"
+              href={exportHref('pdf')}
+            >
               Export PDF
             </a>
           </span>
