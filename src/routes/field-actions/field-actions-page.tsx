@@ -67,7 +67,7 @@ export function FieldActionsPage() {
                 <TH>Unit</TH>
                 <TH>Customer and order</TH>
                 <TH>Found by</TH>
-                <TH>Opened</TH>
+                <TH wideOnly>Opened</TH>
               </TR>
             </THead>
             <TBody>
@@ -100,7 +100,7 @@ export function FieldActionsPage() {
                       </Link>{' '}
                       on <span className="font-mono">{fa.ncr.subject}</span>
                     </TD>
-                    <TD mono nowrap>
+                    <TD mono nowrap wideOnly>
                       {formatWhen(fa.openedAt)}
                     </TD>
                   </TR>

@@ -233,7 +233,7 @@ export function BlastRadiusPage() {
                 <TH>Unit</TH>
                 <TH>Where now</TH>
                 <TH>Customer</TH>
-                <TH>Shipped</TH>
+                <TH wideOnly>Shipped</TH>
               </TR>
             </THead>
             <TBody>
@@ -257,7 +257,7 @@ export function BlastRadiusPage() {
                     <Badge tone={WHERE_TONES[p.where]}>{WHERE_NOW_LABELS[p.where]}</Badge>
                   </TD>
                   <TD>{p.customer ?? '—'}</TD>
-                  <TD mono nowrap>
+                  <TD mono nowrap wideOnly>
                     {p.shipDate ? `${p.shipDate} (${p.order})` : '—'}
                   </TD>
                 </TR>

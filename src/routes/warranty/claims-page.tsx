@@ -103,8 +103,10 @@ export function ClaimsPage() {
                 <TH>State</TH>
                 <TH>Unit</TH>
                 <TH>Customer</TH>
-                <TH>Failed</TH>
-                <TH align="right">Distance · hours</TH>
+                <TH wideOnly>Failed</TH>
+                <TH align="right" wideOnly>
+                  Distance · hours
+                </TH>
                 <TH>Cover</TH>
                 <TH>Waiting for</TH>
                 <TH wideOnly>Logged</TH>
@@ -140,10 +142,10 @@ export function ClaimsPage() {
                       <span className="text-ink-soft">{c.unit.familyCode}</span>
                     </TD>
                     <TD>{c.customer}</TD>
-                    <TD mono nowrap>
+                    <TD mono nowrap wideOnly>
                       {c.failedOn}
                     </TD>
-                    <TD align="right" nowrap>
+                    <TD align="right" nowrap wideOnly>
                       {distanceWords(c.distanceKm, c.hours)}
                     </TD>
                     <TD nowrap>

@@ -62,13 +62,13 @@ export function OutboxTable({
       col.accessor('reason', {
         header: 'Why it was sent',
         cell: (c) => REASON_WORDS[c.getValue()] ?? c.getValue(),
-        meta: { nowrap: true },
+        meta: { nowrap: true, wideOnly: true },
       }),
       col.accessor('status', {
         header: 'Status',
         cell: (c) => <Badge tone={STATUS_TONES[c.getValue()]}>{OUTBOX_STATUS_LABELS[c.getValue()]}</Badge>,
       }),
-      col.accessor('attempts', { header: 'Attempts', meta: { align: 'right', mono: true } }),
+      col.accessor('attempts', { header: 'Attempts', meta: { align: 'right', mono: true, wideOnly: true } }),
       col.accessor('lastError', {
         header: 'Last error',
         cell: (c) => {
@@ -78,7 +78,7 @@ export function OutboxTable({
       }),
       col.accessor('sentAt', {
         header: 'Sent',
-        meta: { mono: true, nowrap: true },
+        meta: { mono: true, nowrap: true, wideOnly: true },
         cell: (c) => (c.getValue() ? formatWhen(c.getValue()) : none),
       }),
     ],

@@ -52,7 +52,7 @@ export function PeopleTable({ rows, meId, busy }: { rows: Person[]; meId: number
             </span>
           );
         },
-        meta: { mono: true, nowrap: true },
+        meta: { mono: true, nowrap: true, wideOnly: true },
       }),
       col.display({
         id: 'actions',
