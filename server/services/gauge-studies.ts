@@ -24,7 +24,12 @@ const worst = (bands: Band[]): Band =>
 function analyse(body: StudyBody): { result: unknown; verdict: Band } {
   try {
     if (body.method === 'attribute') {
-      const result = attributeAgreement({ ratings: body.ratings, reference: body.reference, nonconforming: 'fail' });
+      // misses and false alarms need the right answer for each part; without one, agreement alone
+      const result = attributeAgreement({
+        ratings: body.ratings,
+        reference: body.reference,
+        nonconforming: body.reference ? 'fail' : null,
+      });
       const bands: Band[] = [];
       if (result.overallKappa) bands.push(attributeBands.kappa(result.overallKappa.kappa));
       for (const a of result.appraisers) {

@@ -122,6 +122,41 @@ describe('a variable gauge study as a record', () => {
   });
 });
 
+describe('an attribute agreement study', () => {
+  it('when a pass/fail check is studied with or without the right answers, then both are recorded with kappa', async () => {
+    const code = await calibratedGauge();
+    // counted from the data: appraiser 2 calls good part 3 bad once; everything else matches
+    const reference = ['pass', 'pass', 'pass', 'fail', 'fail', 'fail'] as const;
+    const ratings = [0, 1].map((a) => reference.map((r, p) => [r, a === 1 && p === 2 ? 'fail' : r]));
+    const known = await post(quality, `/api/gauges/${code}/studies`, {
+      method: 'attribute',
+      characteristic: 'Crack test, block deck',
+      ratings,
+      reference,
+    });
+    expect(known.status, JSON.stringify(known.body)).toBe(201);
+    const r = (known.body as StudyJson).result as {
+      appraisers: { falseAlarms: { count: number; of: number } }[];
+      overallKappa: { kappa: number };
+    };
+    expect(r.appraisers[1]!.falseAlarms).toMatchObject({ count: 1, of: 6 });
+    // 16.7 % false alarms is over the 10 % band (AIAG MSA 4th ed. guideline, from memory)
+    expect((known.body as StudyJson).verdict).toBe('unacceptable');
+    // Fleiss (1971) with the 4 judgements of each part as raters, worked by hand: P̄ = 5.5 / 6,
+    // Pe = (11/24)² + (13/24)² = 290/576, κ = (P̄ − Pe) / (1 − Pe) = 0.8322
+    expect(r.overallKappa.kappa).toBeCloseTo(0.8322, 4);
+
+    const blind = await post(quality, `/api/gauges/${code}/studies`, {
+      method: 'attribute',
+      characteristic: 'Crack test, block deck',
+      ratings,
+      reference: null,
+    });
+    expect(blind.status, JSON.stringify(blind.body)).toBe(201);
+    expect((blind.body as StudyJson).data).toMatchObject({ reference: null });
+  });
+});
+
 describe('approving a gauge study', () => {
   async function recorded() {
     const code = await calibratedGauge();

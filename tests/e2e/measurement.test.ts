@@ -314,6 +314,48 @@ describe('a gauge R&R study on the tablet grid', () => {
     await page.evaluate(() => window.scrollTo(0, 0));
     await page.screenshot({ path: path.join(shots, 'gauge-study-approved-1024-touch.png'), fullPage: true });
 
+    // an attribute agreement study of a pass/fail check: tap once for pass, again for fail
+    await entry.getByLabel('Kind of study').selectOption('attribute');
+    await entry.getByLabel('What was measured').fill('Crack test, block deck');
+    await entry.getByLabel('Appraisers', { exact: true }).selectOption('2');
+    await entry.getByLabel('Parts', { exact: true }).selectOption('6');
+    await entry.getByLabel('Trials', { exact: true }).selectOption('2');
+    const reference = ['pass', 'pass', 'pass', 'fail', 'fail', 'fail'];
+    const tap = async (name: string, to: 'pass' | 'fail') => {
+      const cell = entry.getByRole('button', { name: new RegExp(`^${name}:`) });
+      await cell.click();
+      if (to === 'fail') await cell.click();
+      await expect(cell.getAttribute('aria-label')).resolves.toBe(`${name}: ${to}`);
+    };
+    for (const [p, r] of reference.entries()) {
+      await tap(`Reference, part ${p + 1}`, r as 'pass' | 'fail');
+      for (const a of ['A', 'B']) {
+        for (const t of [1, 2]) {
+          // appraiser B calls good part 3 bad on its second trial; every other judgement matches
+          const call = a === 'B' && p === 2 && t === 2 ? 'fail' : r;
+          await tap(`Appraiser ${a}, part ${p + 1}, trial ${t}`, call as 'pass' | 'fail');
+        }
+      }
+    }
+    await expect(smallTargets(page, 'form[aria-label="Enter a gauge study"] table')).resolves.toBe(0);
+    const agreement = entry.getByRole('region', { name: 'Attribute agreement figures' });
+    const line = (figure: string) =>
+      agreement
+        .getByRole('table', { name: 'Each appraiser' })
+        .getByRole('row')
+        .filter({ hasText: figure })
+        .textContent();
+    // counted from the data: A agrees with itself and the reference on 6 of 6 parts; B on 5 of 6,
+    // with 1 false alarm in the 6 judgements of good parts it made (16.7 %, over the 10 % band)
+    await expect(line('Agrees with self')).resolves.toMatch(/6\/6 \(100\.0 %\).*5\/6 \(83\.3 %\)/);
+    await expect(line('False alarms')).resolves.toMatch(/0\/6 \(0\.0 %\).*1\/6 \(16\.7 %\)/);
+    // nothing runs off the side of a tablet's screen
+    await expect(page.evaluate(() => document.documentElement.scrollWidth)).resolves.toBeLessThanOrEqual(1024);
+    await page.evaluate(() => window.scrollTo(0, 0));
+    await page.screenshot({ path: path.join(shots, 'gauge-study-attribute-1024-touch.png'), fullPage: true });
+    await entry.getByRole('button', { name: 'Record the study' }).click();
+    await page.getByRole('region', { name: /Study \d+: Attribute agreement/ }).waitFor();
+
     await page.setViewportSize({ width: 1440, height: 900 });
     await page.evaluate(() => window.scrollTo(0, 0));
     await page.screenshot({ path: path.join(shots, 'gauge-study-approved-1440.png'), fullPage: true });

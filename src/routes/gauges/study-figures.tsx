@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import type { AttributeStudyResult, AppraiserAgreement } from '../../../shared/domain/attribute-study';
 import type { AnovaResult } from '../../../shared/domain/gauge-rr-anova';
 import type { AverageRangeResult } from '../../../shared/domain/gauge-rr-range';
@@ -5,6 +6,9 @@ import type { Band, GrrFigures } from '../../../shared/domain/gauge-study';
 import type { Proportion } from '../../../shared/domain/kappa';
 import { Badge } from '../../components/ui/badge';
 import { Table, TableFrame, TBody, TD, TH, THead, TR } from '../../components/ui/table';
+import { APPRAISER_NAMES } from './study-grid';
+
+const letter = (i: number) => APPRAISER_NAMES[i] ?? String(i + 1);
 
 /** The study's verdict in a word, a colour and a shape. */
 export const BAND_WORDS: Record<Band, string> = {
@@ -123,7 +127,7 @@ export function RangeDetails({ r }: { r: AverageRangeResult }) {
       <span className="font-mono">{fix(r.partRange, 4)}</span>; K1 {r.constants.k1}, K2 {r.constants.k2}, K3{' '}
       {r.constants.k3}. UCL of the ranges <span className="font-mono">{fix(r.uclR, 4)}</span>
       {r.rangesAboveUcl.length
-        ? `: ${r.rangesAboveUcl.map((c) => `appraiser ${c.appraiser + 1} on part ${c.part + 1}`).join(', ')} above it — repeat those readings before the study is judged.`
+        ? `: ${r.rangesAboveUcl.map((c) => `appraiser ${letter(c.appraiser)} on part ${c.part + 1}`).join(', ')} above it — repeat those readings before the study is judged.`
         : ': no range above it.'}
     </p>
   );
@@ -188,16 +192,28 @@ export function AnovaTable({ r }: { r: AnovaResult }) {
 }
 
 const prop = (p: Proportion | null) =>
-  p === null || p.percent === null
-    ? '—'
-    : `${p.count}/${p.of} (${p.percent.toFixed(1)} %${p.ci95 ? `, 95 % ${p.ci95[0].toFixed(1)}–${p.ci95[1].toFixed(1)}` : ''})`;
+  p === null || p.percent === null ? '—' : `${p.count}/${p.of} (${p.percent.toFixed(1)} %)`;
+
+/** A count with its share, and the exact 95 % interval under it in small type. */
+function Share({ p }: { p: Proportion | null }) {
+  return (
+    <span className="flex flex-col">
+      <span className="whitespace-nowrap">{prop(p)}</span>
+      {p?.ci95 && (
+        <span className="whitespace-nowrap text-xs text-ink-soft">
+          95 % {p.ci95[0].toFixed(1)}–{p.ci95[1].toFixed(1)}
+        </span>
+      )}
+    </span>
+  );
+}
 
 const kappaBand = (k: number): Band => (k > 0.75 ? 'acceptable' : k >= 0.4 ? 'conditional' : 'unacceptable');
 
 function KappaCell({ k }: { k: number | null | undefined }) {
   if (k === null || k === undefined) return <span>—</span>;
   return (
-    <span className="inline-flex items-center gap-2">
+    <span className="inline-flex flex-wrap items-center gap-x-2 gap-y-1">
       <span className="font-mono">{k.toFixed(3)}</span>
       <BandBadge band={kappaBand(k)} />
     </span>
@@ -206,22 +222,16 @@ function KappaCell({ k }: { k: number | null | undefined }) {
 
 /** Agreement within, between and against the reference; Cohen's and Fleiss' kappa; misses and false alarms. */
 export function AttributeFigures({ r }: { r: AttributeStudyResult }) {
-  const row = (a: AppraiserAgreement) => (
-    <TR key={a.appraiser}>
-      <TD>Appraiser {a.appraiser + 1}</TD>
-      <TD mono>{prop(a.within)}</TD>
-      <TD>
-        <KappaCell k={a.withinKappa?.kappa} />
-      </TD>
-      <TD mono>{prop(a.vsReference)}</TD>
-      <TD>
-        <KappaCell k={a.vsReferenceKappa?.kappa} />
-      </TD>
-      <TD mono>{prop(a.effectiveness)}</TD>
-      <TD mono>{prop(a.misses)}</TD>
-      <TD mono>{prop(a.falseAlarms)}</TD>
-    </TR>
-  );
+  // one row per figure, one column per appraiser: five appraisers still fit a tablet's width
+  const lines: [string, (a: AppraiserAgreement) => ReactNode][] = [
+    ['Agrees with self', (a) => <Share p={a.within} />],
+    ['Kappa within (Fleiss’)', (a) => <KappaCell k={a.withinKappa?.kappa} />],
+    ['Agrees with the reference', (a) => <Share p={a.vsReference} />],
+    ['Kappa vs the reference (Cohen’s)', (a) => <KappaCell k={a.vsReferenceKappa?.kappa} />],
+    ['Effectiveness', (a) => <Share p={a.effectiveness} />],
+    ['Misses', (a) => <Share p={a.misses} />],
+    ['False alarms', (a) => <Share p={a.falseAlarms} />],
+  ];
   return (
     <section aria-label="Attribute agreement figures" className="flex flex-col gap-3">
       <dl className="grid grid-cols-1 gap-2 sm:grid-cols-3">
@@ -240,29 +250,36 @@ export function AttributeFigures({ r }: { r: AttributeStudyResult }) {
           <dd className="font-mono">{prop(r.allVsReference)}</dd>
         </div>
       </dl>
-      <TableFrame>
+      <div className="overflow-x-auto">
         <Table caption="Each appraiser">
           <THead>
             <TR>
-              <TH>Appraiser</TH>
-              <TH>Agrees with self</TH>
-              <TH>Kappa within</TH>
-              <TH>Agrees with reference</TH>
-              <TH>Cohen’s kappa vs reference</TH>
-              <TH>Effectiveness</TH>
-              <TH>Misses</TH>
-              <TH>False alarms</TH>
+              <TH>Figure</TH>
+              {r.appraisers.map((a) => (
+                <TH key={a.appraiser}>Appraiser {letter(a.appraiser)}</TH>
+              ))}
             </TR>
           </THead>
-          <TBody>{r.appraisers.map(row)}</TBody>
+          <TBody>
+            {lines.map(([label, cell]) => (
+              <TR key={label}>
+                <TD>{label}</TD>
+                {r.appraisers.map((a) => (
+                  <TD key={a.appraiser} mono>
+                    {cell(a)}
+                  </TD>
+                ))}
+              </TR>
+            ))}
+          </TBody>
         </Table>
-      </TableFrame>
+      </div>
       {r.pairs.length > 0 && (
         <p className="text-sm">
           Cohen’s kappa between appraisers:{' '}
           {r.pairs.map((p) => (
             <span key={`${p.first}-${p.second}`} className="mr-4 inline-flex items-center gap-1">
-              {p.first + 1} and {p.second + 1}: <KappaCell k={p.kappa?.kappa} />
+              {letter(p.first)} and {letter(p.second)}: <KappaCell k={p.kappa?.kappa} />
             </span>
           ))}
         </p>
