@@ -2,6 +2,7 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { randomUUID } from 'node:crypto';
+import AxeBuilder from '@axe-core/playwright';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { Op, QueryTypes } from 'sequelize';
 import request from 'supertest';
@@ -297,6 +298,11 @@ describe('a gauge R&R study on the tablet grid', () => {
     await page.evaluate(() => window.scrollTo(0, 0)); // sticky table headers draw where the window was
     await page.screenshot({ path: path.join(shots, 'gauge-study-grid-1024-touch.png'), fullPage: true });
 
+    // the grid and both methods' figures: no serious or critical accessibility problem, target size included
+    const axe = await new AxeBuilder({ page }).options({ rules: { 'target-size': { enabled: true } } }).analyze();
+    const serious = axe.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
+    expect(serious.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)).toEqual([]);
+
     await entry.getByLabel('Method on record').selectOption('range');
     await entry.getByRole('button', { name: 'Record the study' }).click();
     const detail = page.getByRole('region', { name: /Study \d+: Gauge R&R, average and range/ });
@@ -349,6 +355,10 @@ describe('a gauge R&R study on the tablet grid', () => {
     // with 1 false alarm in the 6 judgements of good parts it made (16.7 %, over the 10 % band)
     await expect(line('Agrees with self')).resolves.toMatch(/6\/6 \(100\.0 %\).*5\/6 \(83\.3 %\)/);
     await expect(line('False alarms')).resolves.toMatch(/0\/6 \(0\.0 %\).*1\/6 \(16\.7 %\)/);
+    const axeAttr = await new AxeBuilder({ page }).options({ rules: { 'target-size': { enabled: true } } }).analyze();
+    expect(
+      axeAttr.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => v.id),
+    ).toEqual([]);
     // nothing runs off the side of a tablet's screen
     await expect(page.evaluate(() => document.documentElement.scrollWidth)).resolves.toBeLessThanOrEqual(1024);
     await page.evaluate(() => window.scrollTo(0, 0));
