@@ -320,6 +320,30 @@ describe('a gauge R&R study on the tablet grid', () => {
     await page.evaluate(() => window.scrollTo(0, 0));
     await page.screenshot({ path: path.join(shots, 'gauge-study-approved-1024-touch.png'), fullPage: true });
 
+    // the grid is empty again; a block copied from a spreadsheet fills right across the trials and
+    // appraisers and down the parts from the cell it is pasted into
+    const target = entry.getByRole('textbox', { name: 'Appraiser A, part 2, trial 3' });
+    await expect(target.inputValue()).resolves.toBe('');
+    await target.evaluate((el) => {
+      const data = new DataTransfer();
+      data.setData('text/plain', '1.01\t1.02\t1.03\n2.01\t2.02\t2.03\n');
+      el.dispatchEvent(new ClipboardEvent('paste', { clipboardData: data, bubbles: true, cancelable: true }));
+    });
+    const cell = (a: string, p: number, t: number) =>
+      entry.getByRole('textbox', { name: `Appraiser ${a}, part ${p}, trial ${t}` }).inputValue();
+    await expect(cell('A', 2, 3)).resolves.toBe('1.01');
+    await expect(cell('B', 2, 1)).resolves.toBe('1.02');
+    await expect(cell('B', 3, 2)).resolves.toBe('2.03');
+    await expect(cell('A', 1, 3)).resolves.toBe('');
+    // what falls outside the grid is said, not silently dropped
+    await entry.getByRole('textbox', { name: 'Appraiser C, part 10, trial 3' }).evaluate((el) => {
+      const data = new DataTransfer();
+      data.setData('text/plain', '3.01\t3.02\n');
+      el.dispatchEvent(new ClipboardEvent('paste', { clipboardData: data, bubbles: true, cancelable: true }));
+    });
+    await expect(cell('C', 10, 3)).resolves.toBe('3.01');
+    await entry.getByText('1 pasted value fell outside the grid and was left out').waitFor();
+
     // an attribute agreement study of a pass/fail check: tap once for pass, again for fail
     await entry.getByLabel('Kind of study').selectOption('attribute');
     await entry.getByLabel('What was measured').fill('Crack test, block deck');

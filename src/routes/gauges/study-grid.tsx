@@ -1,4 +1,4 @@
-import type { ClipboardEvent, KeyboardEvent } from 'react';
+import { useState, type ClipboardEvent, type KeyboardEvent } from 'react';
 import { Icon } from '../../components/ui/icon';
 
 /**
@@ -86,6 +86,7 @@ export function VariableGrid({
       ),
     );
 
+  const [leftOut, setLeftOut] = useState(0);
   const onKey = (e: KeyboardEvent<HTMLInputElement>, a: number, p: number, t: number) => {
     if (e.key !== 'Enter') return;
     e.preventDefault();
@@ -99,11 +100,14 @@ export function VariableGrid({
     const text = e.clipboardData.getData('text');
     if (!/[\t\n]/.test(text.trim())) return;
     e.preventDefault();
+    // only the trailing line break goes: a leading tab is an empty first cell, not padding
     const rows = text
-      .trim()
+      .replace(/(\r?\n)+$/, '')
       .split(/\r?\n/)
-      .map((r) => r.split(/\t|;|,(?=\s*[-\d.])/));
+      // tabs only: a comma may be a decimal comma, and splitting on it would change the readings
+      .map((r) => r.split('\t'));
     const next = cells.map((byPart) => byPart.map((byTrial) => [...byTrial]));
+    let outside = 0;
     rows.forEach((row, dr) => {
       row.forEach((value, dc) => {
         const col = a * trials + t + dc;
@@ -111,51 +115,61 @@ export function VariableGrid({
         const tr = col % trials;
         const pp = p + dr;
         if (pa < appraisers && pp < parts) next[pa]![pp]![tr] = value.trim();
+        else outside += 1;
       });
     });
+    setLeftOut(outside);
     onChange(next);
   };
 
   return (
-    <div className="overflow-x-auto rounded-control border border-rule">
-      <table className="w-full border-collapse">
-        <caption className="sr-only">
-          Readings in {unit}: one row per part, one column per trial of each appraiser
-        </caption>
-        <GridHead appraisers={appraisers} trials={trials} />
-        <tbody>
-          {Array.from({ length: parts }, (_, p) => (
-            <tr key={p} className="odd:bg-sunk/40">
-              <th scope="row" className="px-2 text-left font-mono text-sm">
-                {p + 1}
-              </th>
-              {Array.from({ length: appraisers }, (_, a) =>
-                Array.from({ length: trials }, (_, t) => {
-                  const v = cells[a]![p]![t]!;
-                  const bad = v.trim() !== '' && !isReading(v);
-                  return (
-                    <td key={`${a}-${t}`} className={`p-1 ${t === 0 ? 'border-l-2 border-l-rule-strong' : ''}`}>
-                      <input
-                        id={cellId('var', a, p, t)}
-                        aria-label={`Appraiser ${APPRAISER_NAMES[a]}, part ${p + 1}, trial ${t + 1}`}
-                        aria-invalid={bad || undefined}
-                        inputMode="decimal"
-                        enterKeyHint="next"
-                        autoComplete="off"
-                        value={v}
-                        onChange={(e) => set(a, p, t, e.target.value)}
-                        onKeyDown={(e) => onKey(e, a, p, t)}
-                        onPaste={(e) => onPaste(e, a, p, t)}
-                        className="h-9 w-full min-w-[4.75rem] rounded-control border border-rule-strong bg-field px-1.5 text-right font-mono tabular-nums aria-[invalid=true]:border-2 aria-[invalid=true]:border-bad floor:h-12 floor:text-base"
-                      />
-                    </td>
-                  );
-                }),
-              )}
-            </tr>
-          ))}
-        </tbody>
-      </table>
+    <div className="flex flex-col gap-2">
+      {leftOut > 0 && (
+        <p role="status" className="font-semibold text-hold">
+          {leftOut} pasted value{leftOut === 1 ? '' : 's'} fell outside the grid and {leftOut === 1 ? 'was' : 'were'}{' '}
+          left out: add parts, appraisers or trials first, then paste again.
+        </p>
+      )}
+      <div className="overflow-x-auto rounded-control border border-rule">
+        <table className="w-full border-collapse">
+          <caption className="sr-only">
+            Readings in {unit}: one row per part, one column per trial of each appraiser
+          </caption>
+          <GridHead appraisers={appraisers} trials={trials} />
+          <tbody>
+            {Array.from({ length: parts }, (_, p) => (
+              <tr key={p} className="odd:bg-sunk/40">
+                <th scope="row" className="px-2 text-left font-mono text-sm">
+                  {p + 1}
+                </th>
+                {Array.from({ length: appraisers }, (_, a) =>
+                  Array.from({ length: trials }, (_, t) => {
+                    const v = cells[a]![p]![t]!;
+                    const bad = v.trim() !== '' && !isReading(v);
+                    return (
+                      <td key={`${a}-${t}`} className={`p-1 ${t === 0 ? 'border-l-2 border-l-rule-strong' : ''}`}>
+                        <input
+                          id={cellId('var', a, p, t)}
+                          aria-label={`Appraiser ${APPRAISER_NAMES[a]}, part ${p + 1}, trial ${t + 1}`}
+                          aria-invalid={bad || undefined}
+                          inputMode="decimal"
+                          enterKeyHint="next"
+                          autoComplete="off"
+                          value={v}
+                          onChange={(e) => set(a, p, t, e.target.value)}
+                          onKeyDown={(e) => onKey(e, a, p, t)}
+                          onPaste={(e) => onPaste(e, a, p, t)}
+                          className="h-9 w-full min-w-[4.75rem] rounded-control border border-rule-strong bg-field px-1.5 text-right font-mono tabular-nums aria-[invalid=true]:border-2 aria-[invalid=true]:border-bad floor:h-12 floor:text-base"
+                        />
+                      </td>
+                    );
+                  }),
+                )}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
     </div>
   );
 }
