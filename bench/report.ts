@@ -2,6 +2,7 @@ import type { BundleRow } from './client.js';
 import type { Side, WritePath } from './measure.js';
 import type { SpcFigures } from './spc.js';
 import type { LineFigures } from './line.js';
+import type { BlastFigures } from './blast.js';
 import { round } from './stats.js';
 
 export type Figures = {
@@ -22,6 +23,7 @@ export type Figures = {
   ncrs: Side;
   spc: SpcFigures;
   line?: LineFigures;
+  blast?: BlastFigures;
   write: WritePath;
   client: { bundles: BundleRow[]; scan: { p50: number; p95: number; max: number; samples: number[] } };
   wallSeconds: number;
@@ -158,6 +160,13 @@ export function printReport(f: Figures) {
       ),
     );
   }
+  if (f.blast) {
+    const b = f.blast;
+    out.push(
+      `\nBlast radius of ${b.gauge} at ${b.api.target}/s: ${b.readings.toLocaleString('en')} readings since ${b.since} (${round(100 * b.share, 1)} % of six months'), ${b.parts} parts, ${b.units} units, ${b.shipped} shipped`,
+    );
+    out.push(table(['read', 'API', 'PostgreSQL alone', 'p95 ratio', 'errors'], [read('blast radius of a gauge', b)]));
+  }
   out.push('\nClient: JavaScript a cold load fetches per route (gzip)');
   out.push(
     table(
@@ -207,6 +216,16 @@ export function printReport(f: Figures) {
           '≤ 1 s, ≤ 2 ×',
           ok(f.spc.rehearsal.api.latency.p95 <= 1000 && v.spcRehearsalRatio <= 2),
         ],
+        ...(f.blast
+          ? [
+              [
+                'blast radius of a gauge on 5 % of six months, p95',
+                `${ms(f.blast.api.latency.p95)} (${round(f.blast.api.latency.p95 / f.blast.raw.latency.p95, 2)} × SQL)`,
+                '≤ 1 s, ≤ 2 ×',
+                ok(f.blast.api.latency.p95 <= 1000 && f.blast.api.latency.p95 / f.blast.raw.latency.p95 <= 2),
+              ],
+            ]
+          : []),
         [
           'station route JavaScript, with the part form',
           `${round(v.stationFormKb, 1)} KB gzip (first screen ${round(v.stationKb, 1)} KB)`,

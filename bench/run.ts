@@ -17,6 +17,7 @@ import { printReport } from './report.js';
 import { startApi } from './server.js';
 import { measureSpc } from './spc.js';
 import { measureLine } from './line.js';
+import { measureBlast } from './blast.js';
 
 const url = process.env.DATABASE_URL!;
 const pgBin = process.env.PG_BIN!;
@@ -26,6 +27,7 @@ const WRITE_RATES = (process.env.BENCH_WRITE_RATES ?? '10,20,30,40,50,60').split
 const READ_RATE = Number(process.env.BENCH_READ_RATE ?? 20);
 const SPC_RATE = Number(process.env.BENCH_SPC_RATE ?? 2);
 const LINE_RATE = Number(process.env.BENCH_LINE_RATE ?? 5);
+const BLAST_RATE = Number(process.env.BENCH_BLAST_RATE ?? 2);
 const STATION = 'BH-1';
 const POOL_BASE = 10_000_000; // copy numbers of parts waiting at the station, apart from shipped units
 const BATCH = 2_500;
@@ -204,6 +206,7 @@ try {
   const ncrs = await measureNcrList(c, READ_RATE);
   const spc = await measureSpc(c, SPC_RATE);
   const line = await measureLine(c, LINE_RATE);
+  const blast = await measureBlast(c, BLAST_RATE);
 
   const form = (await (
     await fetch(`${server.url}/api/stations/${STATION}/form?serial=${apiParts[0]!.serial}`, {
@@ -243,6 +246,7 @@ try {
     ncrs,
     spc,
     line,
+    blast,
     write,
     client: { bundles, scan },
     wallSeconds: (Date.now() - started) / 1000,

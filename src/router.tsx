@@ -141,6 +141,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.gaugeStudies,
+              lazy: async () => {
+                const m = await import('./routes/gauges/studies-page');
+                return { Component: m.StudiesPage, loader: m.studiesLoader(queryClient) };
+              },
+            },
+            {
               path: paths.blastRadius,
               lazy: async () => {
                 const m = await import('./routes/gauges/blast-radius-page');

@@ -2,6 +2,7 @@ import type { Sequelize } from 'sequelize';
 import { z } from 'zod';
 import { idParam } from '../../shared/schemas/common.js';
 import {
+  approveStudyBody,
   blastQuery,
   calibrationBody,
   containBody,
@@ -18,7 +19,7 @@ import { fileDisposition } from '../http/files.js';
 import { blastCsv, blastPdf } from '../services/blast-export.js';
 import { blastRadius } from '../services/blast-radius.js';
 import { contain, containmentDetail, draftCustomerNotice } from '../services/containment.js';
-import { listStudies, recordStudy } from '../services/gauge-studies.js';
+import { approveStudy, listStudies, recordStudy } from '../services/gauge-studies.js';
 import {
   gaugeDetail,
   listGauges,
@@ -93,6 +94,16 @@ export function gaugeRoutes(api: Api, sequelize: Sequelize) {
     body: studyBody,
     status: 201,
     handler: ({ ctx, params, body }) => recordStudy(sequelize, ctx, params.code, body),
+  });
+  api.define({
+    method: 'post',
+    path: '/gauge-studies/:id/approval',
+    access: 'gauges.manage',
+    summary: 'Approve a gauge study as a record: quality’s signature with its meaning, reason and time.',
+    params: idParam,
+    body: approveStudyBody,
+    limit: 'signature',
+    handler: ({ ctx, params, body }) => approveStudy(sequelize, ctx, params.id, body),
   });
   api.define({
     method: 'post',

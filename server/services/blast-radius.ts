@@ -172,7 +172,7 @@ export const judgedSql = (s: Scope) => `
    WHERE ${s.where}`;
 
 /** The parts in scope and where each is now: its unit (if built into one), that unit's shipment. */
-const partsSql = (s: Scope) => `
+export const partsSql = (s: Scope) => `
   WITH ${
     s.lotId
       ? `parts AS (SELECT ul.unit_item_id AS item_id, 0 AS readings, 0 AS could_change FROM unit_lots ul
@@ -227,6 +227,23 @@ export async function blastParts(sequelize: Sequelize, s: Scope, transaction?: T
   });
 }
 
+/** The readings in scope with their names, most doubtful first (`:limit` of them unless `limit` is null). */
+export const readingsSql = (s: Scope, limit: number | null) => `
+  SELECT i.serial, st.name AS stage, c.name AS characteristic, j.position, j.value, j.unit, j.verdict,
+         j.lower, j.upper, j.could_change, j.created_at, u.name AS operator, g.code AS gauge
+    FROM (${judgedSql(s)}) j
+    JOIN items i ON i.id = j.item_id
+    JOIN stages st ON st.id = j.stage_id
+    JOIN characteristics c ON c.id = j.characteristic_id
+    JOIN users u ON u.id = j.operator_id
+    LEFT JOIN gauges g ON g.id = j.gauge_id
+   ORDER BY j.could_change DESC, j.created_at DESC, j.id DESC
+   ${limit === null ? '' : 'LIMIT :limit'}`;
+
+/** How many readings are in scope, and how many of their verdicts the guard band could change. */
+export const totalsSql = (s: Scope) =>
+  `SELECT count(*)::int AS readings, (count(*) FILTER (WHERE could_change))::int AS could_change FROM (${judgedSql(s)}) j`;
+
 type ReadingRow = {
   serial: string;
   stage: string;
@@ -248,19 +265,10 @@ const n = (v: string | number | null) => (v === null ? null : Number(v));
 /** The readings in scope with names, most doubtful first; `limit` null for all (the CSV). */
 export async function blastReadings(sequelize: Sequelize, s: Scope, limit: number | null): Promise<BlastReadingJson[]> {
   if (!s.where) return [];
-  const rows = await sequelize.query<ReadingRow>(
-    `SELECT i.serial, st.name AS stage, c.name AS characteristic, j.position, j.value, j.unit, j.verdict,
-            j.lower, j.upper, j.could_change, j.created_at, u.name AS operator, g.code AS gauge
-       FROM (${judgedSql(s)}) j
-       JOIN items i ON i.id = j.item_id
-       JOIN stages st ON st.id = j.stage_id
-       JOIN characteristics c ON c.id = j.characteristic_id
-       JOIN users u ON u.id = j.operator_id
-       LEFT JOIN gauges g ON g.id = j.gauge_id
-      ORDER BY j.could_change DESC, j.created_at DESC, j.id DESC
-      ${limit === null ? '' : 'LIMIT :limit'}`,
-    { type: QueryTypes.SELECT, replacements: { ...s.replacements, limit } },
-  );
+  const rows = await sequelize.query<ReadingRow>(readingsSql(s, limit), {
+    type: QueryTypes.SELECT,
+    replacements: { ...s.replacements, limit },
+  });
   return rows.map((r) => ({
     serial: r.serial,
     stage: r.stage,
@@ -298,10 +306,10 @@ export async function blastRadius(sequelize: Sequelize, q: BlastQuery, readingLi
     blastParts(sequelize, s),
     blastReadings(sequelize, s, readingLimit),
     s.where
-      ? sequelize.query<{ readings: number; could_change: number }>(
-          `SELECT count(*)::int AS readings, (count(*) FILTER (WHERE could_change))::int AS could_change FROM (${judgedSql(s)}) j`,
-          { type: QueryTypes.SELECT, replacements: s.replacements },
-        )
+      ? sequelize.query<{ readings: number; could_change: number }>(totalsSql(s), {
+          type: QueryTypes.SELECT,
+          replacements: s.replacements,
+        })
       : Promise.resolve([{ readings: 0, could_change: 0 }]),
   ]);
   const shown = parts.map(presentPart);

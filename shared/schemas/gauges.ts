@@ -303,7 +303,17 @@ export type StudyJson = {
   characteristic: string;
   tolerance: number | null;
   verdict: 'acceptable' | 'conditional' | 'unacceptable';
+  /** What was entered: the readings of a variable study, or the ratings and reference of an attribute one. */
+  data: { readings: number[][][] } | { ratings: ('pass' | 'fail')[][][]; reference: ('pass' | 'fail')[] | null };
   result: unknown;
   recordedBy: string;
   recordedAt: string;
+  /** Quality's signature approving the study as a record; null until then. */
+  approval: { printedName: string; meaning: string; reason: string; signedAt: string } | null;
 };
+
+export const approveStudyBody = z.strictObject({
+  reason: text('Say why.').trim().min(5, 'Say why, in at least 5 characters.').max(500, 'At most 500 characters.'),
+  password: enteredPassword('Enter your password to sign.'),
+});
+export type ApproveStudyBody = z.output<typeof approveStudyBody>;

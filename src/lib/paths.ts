@@ -45,6 +45,7 @@ export const paths = {
   ca: '/corrective-actions/:number',
   gauges: '/gauges',
   gauge: '/gauges/:code',
+  gaugeStudies: '/gauges/:code/studies',
   blastRadius: '/blast-radius',
   wip: '/wip',
   yields: '/yields',
@@ -78,6 +79,7 @@ export function safeNext(raw: string | null | undefined): string {
 }
 
 export const gaugeHref = (code: string) => `/gauges/${encodeURIComponent(code)}`;
+export const gaugeStudiesHref = (code: string) => `/gauges/${encodeURIComponent(code)}/studies`;
 export const blastHref = (q: Record<string, string>) => `/blast-radius?${new URLSearchParams(q).toString()}`;
 export const coreHref = (serial: string) => `/cores/${encodeURIComponent(serial)}`;
 export const itemHref = (serial: string) => `/items/${encodeURIComponent(serial)}`;

@@ -12,7 +12,7 @@ import { Input } from '../../components/ui/input';
 import { Notice } from '../../components/ui/notice';
 import { Table, TableFrame, TBody, TD, TH, THead, TR } from '../../components/ui/table';
 import { ApiError } from '../../lib/http';
-import { blastHref } from '../../lib/paths';
+import { blastHref, gaugeStudiesHref } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
 import { GaugeStateBadge } from './gauge-state-badge';
 
@@ -207,11 +207,16 @@ export function GaugePage() {
         }
         description={g.description}
         actions={
-          me.can('containment.read') ? (
-            <ButtonLink to={blastHref({ gauge: g.code })} icon="arrowRight">
-              What did it measure?
+          <>
+            <ButtonLink to={gaugeStudiesHref(g.code)} icon="chain">
+              Gauge studies
             </ButtonLink>
-          ) : undefined
+            {me.can('containment.read') && (
+              <ButtonLink to={blastHref({ gauge: g.code })} icon="arrowRight">
+                What did it measure?
+              </ButtonLink>
+            )}
+          </>
         }
       />
       <div className="flex flex-col gap-5">

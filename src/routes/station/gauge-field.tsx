@@ -76,6 +76,12 @@ export function GaugeField({ gauges, unit, first, problem, onChange }: GaugeFiel
             {g.why}
           </p>
         ) : null}
+        {g?.studyFailed && (
+          <p className="flex items-start gap-1.5 font-semibold text-hold">
+            <Icon name="hold" size={18} className="mt-0.5 shrink-0" />
+            Its last gauge study failed: its readings may not tell good parts from bad. Ask quality before using it.
+          </p>
+        )}
         {unusable.length > 0 && (
           <p className="flex items-start gap-1.5 text-ink-soft">
             <Icon name="off" size={18} className="mt-0.5 shrink-0" />
