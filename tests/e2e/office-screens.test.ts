@@ -127,6 +127,7 @@ const routes = (): { name: string; path: string; permission: Permission | null }
   { name: 'field-action', path: `/field-actions/${fieldAction}`, permission: 'field-actions.read' },
   { name: 'gauges', path: '/gauges', permission: 'gauges.read' },
   { name: 'gauge', path: `/gauges/${gauge}`, permission: 'gauges.read' },
+  { name: 'gauge-studies', path: `/gauges/${gauge}/studies`, permission: 'gauges.read' },
   { name: 'blast-radius', path: `/blast-radius?gauge=${gauge}`, permission: 'containment.read' },
   { name: 'wip', path: '/wip', permission: 'wip.read' },
   { name: 'yields', path: '/yields', permission: 'yields.read' },
