@@ -4,6 +4,9 @@ import { defineConfig } from 'vitest/config';
 // PostgreSQL) and e2e (real Chromium against the built client). `npm test` provides DATABASE_URL.
 export default defineConfig({
   test: {
+    // two files at a time (the default on two cores is one): a file spends much of its time
+    // waiting on PostgreSQL or a browser. The browser suite still runs its files one by one.
+    maxWorkers: 2,
     projects: [
       {
         test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' },

@@ -98,7 +98,8 @@ describe('a variable gauge study as a record', () => {
 
   it('when a study’s grid is ragged or the method cannot take its shape, then a 400 names the problem and nothing is written', async () => {
     const code = await calibratedGauge();
-    const before = await GaugeStudy.count();
+    const gaugeId = (await Gauge.findOne({ where: { code } }))!.id;
+    const before = await GaugeStudy.count({ where: { gaugeId } });
     const ragged = AIAG_READINGS.map((byPart, a) => (a === 1 ? byPart.slice(0, 9) : byPart));
     const r1 = await post(quality, `/api/gauges/${code}/studies`, { ...aiagStudy('range', 6), readings: ragged });
     expect(r1.status).toBe(400);
@@ -117,7 +118,7 @@ describe('a variable gauge study as a record', () => {
       reference: null,
     });
     expect(r4.status).toBe(400);
-    expect(await GaugeStudy.count()).toBe(before);
+    expect(await GaugeStudy.count({ where: { gaugeId } })).toBe(before);
     expect((await Gauge.findOne({ where: { code } }))!.studyVerdict).toBeNull();
   });
 });
