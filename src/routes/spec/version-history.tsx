@@ -96,7 +96,7 @@ export function VersionHistory({ history }: { history: RuleHistoryJson }) {
               <TH>Limits</TH>
               <TH align="right">Resolution</TH>
               <TH>Effective from</TH>
-              <TH>Superseded at</TH>
+              <TH wideOnly>Superseded at</TH>
               <TH wideOnly>Drafted by</TH>
               <TH>Approved by</TH>
             </tr>
@@ -140,7 +140,7 @@ export function VersionHistory({ history }: { history: RuleHistoryJson }) {
                   <TD mono nowrap>
                     {formatWhen(v.effectiveFrom)}
                   </TD>
-                  <TD mono nowrap>
+                  <TD mono nowrap wideOnly>
                     {formatWhen(v.supersededAt)}
                   </TD>
                   <TD wideOnly>{v.createdBy}</TD>

@@ -66,7 +66,7 @@ export function FamiliesPage() {
         meta: { align: 'right', mono: true },
         cell: (c) => c.getValue().toFixed(2),
       }),
-      col.accessor('headsPerEngine', { header: 'Heads', meta: { align: 'right', mono: true } }),
+      col.accessor('headsPerEngine', { header: 'Heads', meta: { align: 'right', mono: true, wideOnly: true } }),
       col.display({
         id: 'warranty',
         header: 'Warranty',

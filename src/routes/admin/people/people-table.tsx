@@ -38,6 +38,7 @@ export function PeopleTable({ rows, meId, busy }: { rows: Person[]; meId: number
       col.accessor('secondFactor', {
         header: 'Second factor',
         cell: (c) => (c.getValue() ? <Badge tone="ok">On</Badge> : <span className="text-ink-soft">Off</span>),
+        meta: { wideOnly: true },
       }),
       col.accessor('lastSignInAt', {
         header: 'Last sign-in',
