@@ -29,6 +29,7 @@ import { specRoutes } from './routes/spec.js';
 import { spcRoutes } from './routes/spc.js';
 import { stationRoutes } from './routes/station.js';
 import { unitPreferenceRoutes } from './routes/unit-preferences.js';
+import { receivingRoutes } from './routes/receiving.js';
 import { auditRoutes } from './routes/audit.js';
 import { coreRoutes } from './routes/cores.js';
 import { itemRoutes } from './routes/items.js';
@@ -124,6 +125,7 @@ export function createApp({
   attachmentRoutes(api, sequelize, store, config);
   stationRoutes(api, sequelize);
   unitPreferenceRoutes(api, sequelize);
+  receivingRoutes(api, sequelize);
   specRoutes(api, sequelize);
   spcRoutes(api, sequelize);
   ncrRoutes(api, sequelize);
