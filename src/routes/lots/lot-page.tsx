@@ -44,9 +44,8 @@ function Fact({ label, children }: { label: string; children: React.ReactNode })
   );
 }
 
-function InspectionForm({ id, current }: { id: number; current: string }) {
+function InspectionForm({ id, current, onDone }: { id: number; current: string; onDone: (text: string) => void }) {
   const set = useSetInspection(id);
-  const [done, setDone] = useState<string | null>(null);
   const options = INSPECTION_STATES.filter((s) => s !== current).map((s) => ({
     value: s,
     label: INSPECTION_LABELS[s],
@@ -57,7 +56,7 @@ function InspectionForm({ id, current }: { id: number; current: string }) {
       defaultValues={{ reason: '' }}
       onSubmit={async (body: InspectionBody) => {
         const lot = await set.mutateAsync(body);
-        setDone(`Inspection set to ${INSPECTION_LABELS[lot.inspection].toLowerCase()}.`);
+        onDone(`Inspection set to ${INSPECTION_LABELS[lot.inspection].toLowerCase()}.`);
       }}
     >
       <div className="grid grid-cols-1 gap-4 md:grid-cols-[16rem_minmax(0,1fr)]">
@@ -68,13 +67,8 @@ function InspectionForm({ id, current }: { id: number; current: string }) {
           hint="Kept with the lot and its audit trail; a builder refused the lot reads it."
         />
       </div>
-      <div className="flex flex-wrap items-center gap-3">
+      <div>
         <SubmitButton>Change inspection</SubmitButton>
-        {done && (
-          <p role="status" className="text-ok">
-            {done}
-          </p>
-        )}
       </div>
     </Form>
   );
@@ -87,6 +81,8 @@ export function LotPage() {
   const location = useLocation();
   const id = idOf(params.id);
   const lot = useLot(id ?? 0);
+  // said outside the form, which starts afresh for the lot's new state
+  const [done, setDone] = useState<string | null>(null);
   if (!me) return null;
   if (!id || lot.error) {
     return (
@@ -169,7 +165,15 @@ export function LotPage() {
               description="Accept the lot, put it on hold or refuse it. A lot on hold or refused cannot go into a unit."
             />
             <CardBody>
-              <InspectionForm key={l.inspection} id={l.id} current={l.inspection} />
+              <div className="flex flex-col gap-3">
+                {done && (
+                  <p role="status" className="flex items-center gap-2 text-ok">
+                    <Icon name="ok" size={18} />
+                    {done}
+                  </p>
+                )}
+                <InspectionForm key={l.inspection} id={l.id} current={l.inspection} onDone={setDone} />
+              </div>
             </CardBody>
           </Card>
         )}

@@ -31,13 +31,11 @@ export const stationLoader =
     const stations = await queryClient.ensureQueryData(stationsQueryOptions());
     const code = readTabletStation();
     const parsed = parseSerial(new URL(request.url).searchParams.get('serial') ?? '');
+    // the units this person types in, there before the first scan opens a form
+    void queryClient.prefetchQuery(unitPreferencesQueryOptions());
     // a part that cannot be recorded here is said on the page, beside the scan box, not as an error page
     if (code && parsed.ok && recordingStations(stations).some((s) => s.code === code)) {
-      await Promise.all([
-        queryClient.prefetchQuery(stationFormQueryOptions(code, parsed.serial)),
-        queryClient.prefetchQuery(unitPreferencesQueryOptions()),
-        loadPartAtStation(),
-      ]);
+      await Promise.all([queryClient.prefetchQuery(stationFormQueryOptions(code, parsed.serial)), loadPartAtStation()]);
     }
     return null;
   };
