@@ -128,6 +128,41 @@ describe('receiving a purchased lot', () => {
     );
   });
 
+  it('when a concern names a lot code one supplier uses on two part numbers, then it asks which, naming both; with the part number it holds that lot alone', async () => {
+    const lotCode = code('SH');
+    const rods = await post(receiving, '/api/receiving/lots', lotBody({ lotCode }));
+    const mains = await post(
+      receiving,
+      '/api/receiving/lots',
+      lotBody({ lotCode, kind: 'main_bearings', partNumber: 'MB-7700' }),
+    );
+    expect([rods.status, mains.status]).toEqual([201, 201]);
+    const supplier = (await Supplier.findByPk(supplierId))!;
+    const concern = {
+      lotCode,
+      description: 'Scored shells straight out of the box',
+      severity: 'major',
+      defectCode: 'LOT',
+    };
+    const before = await AuditEvent.count({ where: { entity: 'nonconformance' } });
+    const ask = await post(operator, '/api/ncrs', concern);
+    expect(ask.status).toBe(400);
+    expect(ask.body.error.message).toBe(
+      `Lot code ${lotCode} is on more than one part number (part number RB-2210 from ${supplier.name}; part number MB-7700 from ${supplier.name}): give the part number.`,
+    );
+    expect(ask.body.error.fields.partNumber).toBe('One of RB-2210, MB-7700.');
+    expect(await AuditEvent.count({ where: { entity: 'nonconformance' } })).toBe(before);
+    const raised = await post(operator, '/api/ncrs', { ...concern, partNumber: 'mb-7700' });
+    expect(raised.status).toBe(201);
+    expect(raised.body.lot).toMatchObject({ lotCode, partNumber: 'MB-7700' });
+    const held = await get(receiving, `/api/receiving/lots/${mains.body.id}`);
+    expect(held.body.drawable).toEqual({
+      ok: false,
+      why: `Lot ${lotCode} (part number MB-7700) is held by ${raised.body.number}.`,
+    });
+    expect((await get(receiving, `/api/receiving/lots/${rods.body.id}`)).body.drawable).toEqual({ ok: true });
+  });
+
   it('when the input is wrong, then each problem is a 400 on its field and nothing is written', async () => {
     const before = await writes();
     const cases: [Record<string, unknown>, string][] = [
