@@ -28,6 +28,8 @@ import { mailRoutes } from './routes/mail.js';
 import { specRoutes } from './routes/spec.js';
 import { spcRoutes } from './routes/spc.js';
 import { stationRoutes } from './routes/station.js';
+import { unitPreferenceRoutes } from './routes/unit-preferences.js';
+import { receivingRoutes } from './routes/receiving.js';
 import { auditRoutes } from './routes/audit.js';
 import { coreRoutes } from './routes/cores.js';
 import { itemRoutes } from './routes/items.js';
@@ -122,6 +124,8 @@ export function createApp({
   itemRoutes(api, sequelize);
   attachmentRoutes(api, sequelize, store, config);
   stationRoutes(api, sequelize);
+  unitPreferenceRoutes(api, sequelize);
+  receivingRoutes(api, sequelize);
   specRoutes(api, sequelize);
   spcRoutes(api, sequelize);
   ncrRoutes(api, sequelize);

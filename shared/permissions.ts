@@ -43,6 +43,11 @@ export const PERMISSIONS = {
   'ncr.disposition': ['quality'],
   'defects.manage': ['quality', 'admin'],
 
+  // purchased lots: receiving logs them and inspects them, quality may hold or accept them too; the
+  // floor reads them to build
+  'lots.read': ['receiving', 'operator', 'quality', 'supervisor', 'shipping', 'warranty', 'admin'],
+  'lots.receive': ['receiving'],
+  'lots.inspect': ['receiving', 'quality'],
   'assembly.record': ['operator', 'supervisor'],
   'release.check': ['shipping', 'quality', 'supervisor'],
   'release.ship': ['shipping'],

@@ -127,6 +127,27 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.receivedLots,
+              lazy: async () => {
+                const m = await import('./routes/lots/lots-page');
+                return { Component: m.LotsPage, loader: m.lotsLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.receiveLot,
+              lazy: async () => {
+                const m = await import('./routes/lots/receive-lot-page');
+                return { Component: m.ReceiveLotPage, loader: m.receiveLotLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.receivedLot,
+              lazy: async () => {
+                const m = await import('./routes/lots/lot-page');
+                return { Component: m.LotPage, loader: m.lotLoader(queryClient) };
+              },
+            },
+            {
               path: paths.gauges,
               lazy: async () => {
                 const m = await import('./routes/gauges/gauges-page');

@@ -15,6 +15,8 @@ import * as m20261203150000 from './20261203150000-warranty-and-corrective-actio
 import * as m20261203160000 from './20261203160000-issued-documents.js';
 import * as m20261203170000 from './20261203170000-line-view.js';
 import * as m20261203180000 from './20261203180000-readings-by-month.js';
+import * as m20261203190000 from './20261203190000-reading-units.js';
+import * as m20261203200000 from './20261203200000-received-lots.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -38,4 +40,6 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261203160000-issued-documents', ...m20261203160000 },
   { name: '20261203170000-line-view', ...m20261203170000 },
   { name: '20261203180000-readings-by-month', ...m20261203180000 },
+  { name: '20261203190000-reading-units', ...m20261203190000 },
+  { name: '20261203200000-received-lots', ...m20261203200000 },
 ];

@@ -9,6 +9,8 @@ import { tearDownCore } from '../../server/services/teardown.js';
 import { buildBody, LOT_KINDS } from '../../shared/schemas/build.js';
 import { receiveCoreBody, teardownBody } from '../../shared/schemas/intake.js';
 import { buildUnit } from '../../server/services/build.js';
+import { receiveLot } from '../../server/services/lots.js';
+import { receiveLotBody } from '../../shared/schemas/lots.js';
 import { releaseUnit } from '../../server/services/release.js';
 import { todayIn } from '../../shared/domain/warranty.js';
 import { DEMO_USERS, PLANT } from './plant.js';
@@ -205,6 +207,23 @@ export async function seedDemoPartsIfEmpty(sequelize: Sequelize): Promise<number
         quantity: kind === 'pistons' || kind === 'lifters' ? family.cylinders * (kind === 'lifters' ? 2 : 1) : 1,
         ...(kind === 'pistons' ? { oversizeIn: family.code === 'CORRIE-8' ? 0.03 : 0.0197 } : {}),
       }));
+      // receiving logged each lot first, with a few more parts than this unit takes
+      for (const l of lots) {
+        await receiveLot(
+          sequelize,
+          receiving,
+          receiveLotBody.parse({
+            supplierId: l.supplierId,
+            kind: l.kind,
+            partNumber: l.partNumber,
+            lotCode: l.lotCode,
+            quantity: l.quantity * 4,
+            receivedOn: todayIn(PLANT.timeZone),
+            inspection: 'accepted',
+            ...(l.oversizeIn !== undefined ? { oversizeIn: l.oversizeIn } : {}),
+          }),
+        );
+      }
       const unit = await buildUnit(
         sequelize,
         operator,

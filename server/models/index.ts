@@ -6,6 +6,7 @@ import { IdempotencyKey, MailOutbox } from './infra.js';
 import { CoreReceipt, Item, ItemLink } from './items.js';
 import { IssuedDocument } from './issued-document.js';
 import { PartLot, UnitLot } from './lots.js';
+import { UnitPreference } from './preferences.js';
 import { DefectCode, Nonconformance, NonconformanceTransition, Signature } from './nonconformances.js';
 import { Customer, Supplier } from './parties.js';
 import { FieldAction, PlantSettings } from './plant.js';
@@ -75,6 +76,7 @@ export {
   Supplier,
   ToleranceRule,
   UnitLot,
+  UnitPreference,
   User,
   WarrantyClaim,
   WarrantyFinding,
@@ -131,6 +133,7 @@ const MODELS = [
   CorrectiveActionMember,
   CorrectiveActionContainment,
   CorrectiveActionTask,
+  UnitPreference,
 ] as const;
 
 export function initModels(sequelize: Sequelize) {

@@ -17,6 +17,15 @@ export class PartLot extends Model<InferAttributes<PartLot>, InferCreationAttrib
   declare description: CreationOptional<string>;
   declare attributes: CreationOptional<Record<string, unknown>>;
   declare status: CreationOptional<string>;
+  /** What receiving logged, and how much builds have drawn of it (never more than received). */
+  declare quantityReceived: CreationOptional<number>;
+  declare quantityDrawn: CreationOptional<number>;
+  declare receivedOn: CreationOptional<string>;
+  declare receivedById: CreationOptional<number | null>;
+  /** Receiving inspection: only an accepted lot can be drawn. */
+  declare inspection: CreationOptional<'pending' | 'accepted' | 'on_hold' | 'refused'>;
+  declare inspectionReason: CreationOptional<string | null>;
+  declare certificateAttachmentId: CreationOptional<number | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -31,6 +40,14 @@ export class PartLot extends Model<InferAttributes<PartLot>, InferCreationAttrib
         description: { type: DataTypes.STRING(200), allowNull: false, defaultValue: '' },
         attributes: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
         status: { type: DataTypes.STRING(20), allowNull: false, defaultValue: 'usable' },
+        quantityReceived: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        quantityDrawn: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        // NOT NULL in the table, whose default (CURRENT_DATE) fills it when left out
+        receivedOn: { type: DataTypes.DATEONLY, allowNull: true },
+        receivedById: { type: DataTypes.INTEGER, allowNull: true },
+        inspection: { type: DataTypes.STRING(12), allowNull: false, defaultValue: 'pending' },
+        inspectionReason: { type: DataTypes.STRING(500), allowNull: true },
+        certificateAttachmentId: { type: DataTypes.INTEGER, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -72,6 +72,9 @@ export class Reading extends Model<InferAttributes<Reading>, InferCreationAttrib
   declare passed: boolean | null;
   declare locationNote: string | null;
   declare unit: string | null;
+  /** What was typed, when it was typed in another unit than the characteristic's (both or neither). */
+  declare enteredValue: CreationOptional<number | null>;
+  declare enteredUnit: CreationOptional<string | null>;
   declare verdict: Verdict;
   declare toleranceRuleId: number | null;
   declare ruleVersion: number | null;
@@ -89,6 +92,8 @@ export class Reading extends Model<InferAttributes<Reading>, InferCreationAttrib
         passed: { type: DataTypes.BOOLEAN, allowNull: true },
         locationNote: { type: DataTypes.STRING(200), allowNull: true },
         unit: { type: DataTypes.STRING(20), allowNull: true },
+        enteredValue: { type: DataTypes.DECIMAL(14, 6), allowNull: true },
+        enteredUnit: { type: DataTypes.STRING(20), allowNull: true },
         verdict: { type: DataTypes.STRING(10), allowNull: false },
         toleranceRuleId: { type: DataTypes.INTEGER, allowNull: true },
         ruleVersion: { type: DataTypes.INTEGER, allowNull: true },

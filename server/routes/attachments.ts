@@ -77,6 +77,24 @@ export function attachmentRoutes(api: Api, sequelize: Sequelize, store: BlobStor
   });
 
   api.define({
+    method: 'post',
+    path: '/receiving/certificates',
+    access: 'lots.receive',
+    summary:
+      'Upload a lot\'s certificate of conformance (multipart field "file"), a PDF by its bytes; receiving the lot claims it.',
+    file: true,
+    before: upload,
+    status: 201,
+    handler: async ({ req, ctx }) => {
+      if (!req.file) throw invalid('Choose the certificate to upload.', { file: 'No file was sent.' });
+      return storeUpload(sequelize, store, ctx, req.file, {
+        types: CERTIFICATE_TYPES,
+        code: 'not_a_pdf',
+        message: 'A certificate of conformance is attached as a PDF. This file is not one.',
+      });
+    },
+  });
+  api.define({
     method: 'get',
     path: '/attachments/:id',
     access: 'items.read',

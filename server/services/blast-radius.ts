@@ -1,5 +1,5 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
-import { conversionFactor } from '../../shared/domain/gauge-fit.js';
+import { conversionFactor } from '../../shared/domain/units.js';
 import type {
   BlastPartJson,
   BlastQuery,

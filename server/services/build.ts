@@ -1,4 +1,4 @@
-import { Op, QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import {
   LOT_KIND_LABELS,
   OVERSIZE_MATCH_IN,
@@ -9,9 +9,10 @@ import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.
 import { mmToIn } from '../../shared/domain/units.js';
 import { recordAudit, type Ctx } from '../audit.js';
 import { AppError, conflict, invalid } from '../errors.js';
-import { EngineFamily, Item, ItemLink, Nonconformance, PartLot, Stage, Supplier, UnitLot } from '../models/index.js';
+import { EngineFamily, Item, ItemLink, PartLot, Stage, Supplier, UnitLot } from '../models/index.js';
 import { findBySerial, newSerial, presentItem, routeFor } from './items.js';
-import { blockingNcrsOf, OPEN_NCR_STATES } from './nonconformances.js';
+import { drawableOf, holdingNcrs } from './lots.js';
+import { blockingNcrsOf } from './nonconformances.js';
 import { familyByCode } from './spec.js';
 import { lockUnitsReachedBy } from './unit-locks.js';
 
@@ -21,12 +22,6 @@ import { lockUnitsReachedBy } from './unit-locks.js';
  * unit) and every problem is reported at once; the pistons' oversize must agree with the block's
  * finished bores. The unit gets its serial and its route; each part an "installed in" link.
  */
-
-const LOT_STATUS_WORDS: Record<string, string> = {
-  returned: 'returned to its supplier',
-  scrapped: 'scrapped',
-  on_hold: 'on hold',
-};
 
 /** Why a part cannot go into a unit of this family in this slot, in words; null when it can. */
 async function fitProblem(item: Item, kind: PartKind, family: EngineFamily, transaction: Transaction) {
@@ -141,41 +136,54 @@ export async function buildUnit(sequelize: Sequelize, ctx: Ctx, body: BuildBody)
       if (mismatch) problems['lots.pistons'] = mismatch;
     }
 
-    // purchased lots: reused across units; one that is held or returned cannot go in
+    // purchased lots: received first (receiving logs them), then drawn from; a lot waiting for its
+    // inspection, on hold, refused, returned, held by an NCR or used up cannot go in. Locked in id
+    // order, so two builds drawing from the same lots take turns and never draw past what came in.
     const lots: { lot: PartLot; quantity: number }[] = [];
+    const wanted: { i: number; l: (typeof body.lots)[number]; lot: PartLot; supplier: Supplier }[] = [];
     for (const [i, l] of body.lots.entries()) {
       const supplier = await Supplier.findByPk(l.supplierId, { transaction });
       if (!supplier) {
         problems[`lots.${i}.supplierId`] = 'Unknown supplier.';
         continue;
       }
-      const [lot] = await PartLot.findOrCreate({
-        where: { supplierId: supplier.id, partNumber: l.partNumber.toUpperCase(), lotCode: l.lotCode.toUpperCase() },
-        defaults: {
-          supplierId: supplier.id,
-          partKind: l.kind,
-          partNumber: l.partNumber.toUpperCase(),
-          lotCode: l.lotCode.toUpperCase(),
-          description: LOT_KIND_LABELS[l.kind],
-          attributes: l.oversizeIn !== undefined ? { oversizeIn: l.oversizeIn } : {},
-        },
-        transaction,
-      });
+      const partNumber = l.partNumber.toUpperCase();
+      const lotCode = l.lotCode.toUpperCase();
+      const lot = await PartLot.findOne({ where: { supplierId: supplier.id, partNumber, lotCode }, transaction });
+      if (!lot) {
+        const elsewhere = await PartLot.findAll({
+          attributes: ['partNumber'],
+          where: { supplierId: supplier.id, lotCode },
+          transaction,
+        });
+        problems[`lots.${i}.lotCode`] = elsewhere.length
+          ? `Lot ${lotCode} from ${supplier.name} was received for part number ${elsewhere.map((x) => x.partNumber).join(', ')}, not ${partNumber}.`
+          : `No lot ${lotCode} of part number ${partNumber} from ${supplier.name} has been received: receiving logs it before it can be built in.`;
+        continue;
+      }
       if (lot.partKind !== l.kind) {
         problems[`lots.${i}.lotCode`] =
-          `Lot ${lot.lotCode} from ${supplier.name} is ${lot.partKind.replace(/_/g, ' ')}, not ${LOT_KIND_LABELS[l.kind].toLowerCase()}.`;
+          `Lot ${lot.lotCode} (part number ${lot.partNumber}) from ${supplier.name} is ${lot.partKind.replace(/_/g, ' ')}, not ${LOT_KIND_LABELS[l.kind].toLowerCase()}.`;
         continue;
       }
-      const held = await Nonconformance.findOne({
-        where: { partLotId: lot.id, state: { [Op.in]: OPEN_NCR_STATES } },
-        transaction,
-      });
-      if (lot.status !== 'usable' || held) {
-        const why = held ? `held by ${held.number}` : (LOT_STATUS_WORDS[lot.status] ?? lot.status);
-        problems[`lots.${i}.lotCode`] = `Lot ${lot.lotCode} is ${why}: use another lot.`;
+      wanted.push({ i, l, lot, supplier });
+    }
+    const lockedLots = new Map<number, PartLot>();
+    for (const id of [...new Set(wanted.map((w) => w.lot.id))].sort((a, b) => a - b)) {
+      lockedLots.set(id, (await PartLot.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE }))!);
+    }
+    const held = await holdingNcrs([...lockedLots.keys()], transaction);
+    // the same lot named twice draws both quantities
+    const drawing = new Map<number, number>();
+    for (const w of wanted) drawing.set(w.lot.id, (drawing.get(w.lot.id) ?? 0) + w.l.quantity);
+    for (const w of wanted) {
+      const lot = lockedLots.get(w.lot.id)!;
+      const can = drawableOf(lot, held.get(lot.id) ?? null, drawing.get(lot.id)!);
+      if (!can.ok) {
+        problems[`lots.${w.i}.lotCode`] = `${can.why} Use another lot.`;
         continue;
       }
-      lots.push({ lot, quantity: l.quantity });
+      lots.push({ lot, quantity: w.l.quantity });
     }
 
     const count = Object.keys(problems).length;
@@ -231,6 +239,21 @@ export async function buildUnit(sequelize: Sequelize, ctx: Ctx, body: BuildBody)
         { unitItemId: unit.id, partLotId: lot.id, quantity, createdById: ctx.actor!.id },
         { transaction },
       );
+      const before = { quantityDrawn: lot.quantityDrawn, quantityLeft: lot.quantityReceived - lot.quantityDrawn };
+      await lot.increment('quantityDrawn', { by: quantity, transaction });
+      await lot.reload({ transaction });
+      await recordAudit(ctx, transaction, {
+        action: 'lot.drawn',
+        entity: 'part_lot',
+        entityId: lot.id,
+        before,
+        after: {
+          quantityDrawn: lot.quantityDrawn,
+          quantityLeft: lot.quantityReceived - lot.quantityDrawn,
+          unit: unit.serial,
+          quantity,
+        },
+      });
     }
     await recordAudit(ctx, transaction, {
       action: 'unit.built',

@@ -269,15 +269,34 @@ async function raiseLotConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNcrBod
       where: {
         lotCode: body.lotCode!.toUpperCase(),
         ...(body.supplierId ? { supplierId: body.supplierId } : {}),
+        ...(body.partNumber ? { partNumber: body.partNumber.toUpperCase() } : {}),
       },
       include: [{ model: Supplier, as: 'supplier' }],
+      order: [['id', 'ASC']],
       transaction,
     });
     if (!lots.length) throw invalid(`No lot ${body.lotCode} is on record.`, { lotCode: 'Unknown lot code.' });
     if (lots.length > 1) {
-      throw invalid(`Lot code ${body.lotCode} is used by more than one supplier: choose the supplier.`, {
-        supplierId: 'Choose the supplier.',
-      });
+      // a code alone does not name one lot: say which part numbers and suppliers share it
+      const named = lots
+        .map(
+          (l) =>
+            `part number ${l.partNumber} from ${(l as PartLot & { supplier?: Supplier }).supplier?.name ?? 'a supplier'}`,
+        )
+        .join('; ');
+      const suppliers = new Set(lots.map((l) => l.supplierId));
+      if (suppliers.size > 1) {
+        throw invalid(
+          `Lot code ${body.lotCode!.toUpperCase()} is on more than one lot (${named}): choose the supplier.`,
+          {
+            supplierId: 'Choose the supplier.',
+          },
+        );
+      }
+      throw invalid(
+        `Lot code ${body.lotCode!.toUpperCase()} is on more than one part number (${named}): give the part number.`,
+        { partNumber: `One of ${lots.map((l) => l.partNumber).join(', ')}.` },
+      );
     }
     // every unit the lot went into, then the lot itself
     await lockUnitsReachedBy(sequelize, { lotId: lots[0]!.id }, transaction);

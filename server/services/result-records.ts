@@ -18,6 +18,8 @@ const READING_COLUMNS = [
   'value',
   'passed',
   'unit',
+  'enteredValue',
+  'enteredUnit',
   'verdict',
   'toleranceRuleId',
   'ruleVersion',
@@ -36,6 +38,8 @@ export type RecordedReading = {
   value: number | null;
   passed: boolean | null;
   unit: string | null;
+  /** What was typed, when it was typed in another unit of the same quantity. */
+  entered: { value: number; unit: string } | null;
   verdict: 'pass' | 'fail';
   ruleId: number | null;
   ruleVersion: number | null;
@@ -163,6 +167,10 @@ export async function loadResultRecords(
           value: x.value === null ? null : Number(x.value),
           passed: x.passed,
           unit: x.unit,
+          entered:
+            x.enteredValue === null || x.enteredUnit === null
+              ? null
+              : { value: Number(x.enteredValue), unit: x.enteredUnit },
           verdict: x.verdict,
           ruleId: x.toleranceRuleId,
           ruleVersion: x.ruleVersion,

@@ -11,6 +11,7 @@ import type {
   SubmitResultBody,
 } from '../../shared/schemas/results.js';
 import { PART_KIND_LABELS } from '../../shared/schemas/reference.js';
+import { convertDecimal, unitOf } from '../../shared/domain/units.js';
 import { recordAudit, type Ctx } from '../audit.js';
 import { AppError, conflict, invalid, notFound } from '../errors.js';
 import {
@@ -189,6 +190,32 @@ const hashBody = (body: SubmitResultBody) =>
     .update(canonicalize(body) ?? '')
     .digest('hex');
 
+/** A reading as typed, when it was typed in another unit than its characteristic's. */
+type Entered = { value: number; unit: string };
+
+/** The largest magnitude a reading column (numeric(14, 6)) holds. */
+const READING_MAX = 1e8;
+
+/**
+ * A typed value in the characteristic's unit: as is when sent in that unit (or with none), else
+ * converted with the NIST SP 811 factors (shared/domain/units) and kept to the column's 6 decimals,
+ * the same figure that is stored and judged. null when the unit is not of the same quantity.
+ */
+function inUnitOf(
+  c: Pick<FormChar, 'unit'>,
+  value: number,
+  unit: string | undefined,
+): { ok: true; value: number; entered: Entered | null } | { ok: false; message: string } | null {
+  if (unit === undefined || unit === c.unit) return { ok: true, value, entered: null };
+  const symbol = unitOf(unit)?.symbol;
+  if (symbol === c.unit) return { ok: true, value, entered: null };
+  const converted = convertDecimal(value, symbol, c.unit);
+  if (!converted || !symbol) return null;
+  const v = converted.toDecimalPlaces(6).toNumber();
+  if (!(Math.abs(v) < READING_MAX)) return { ok: false, message: `beyond what a reading in ${c.unit} can hold` };
+  return { ok: true, value: v, entered: { value, unit: symbol } };
+}
+
 /**
  * Checks what was typed against the form: every position present once, numbers for measured
  * characteristics in their unit and physical range, pass/fail for checks. All problems at once,
@@ -197,10 +224,11 @@ const hashBody = (body: SubmitResultBody) =>
 function checkReadings(
   chars: FormChar[],
   body: SubmitResultBody,
-): { entries: Entries; locations: Map<string, string> } {
+): { entries: Entries; locations: Map<string, string>; entered: Map<string, Entered> } {
   const fields: Record<string, string> = {};
   const entries: Entries = {};
   const locations = new Map<string, string>();
+  const entered = new Map<string, Entered>();
   const byCode = new Map(chars.map((c) => [c.code, c]));
   body.readings.forEach((r, i) => {
     const key = `${r.characteristic}@${r.position}`;
@@ -223,17 +251,28 @@ function checkReadings(
       fields[key] = `${pos.label}: ${lower(c.name)} was sent twice.`;
       return;
     }
+    let value = r.value ?? null;
     if (c.kind === 'variable') {
+      const converted = r.value === undefined ? null : inUnitOf(c, r.value, r.unit);
       if (r.passed !== undefined) fields[key] = `${c.name} is measured: send a value, not pass/fail.`;
       else if (r.value === undefined) fields[key] = `${pos.label}: enter the ${lower(c.name)}.`;
-      else if (r.unit !== undefined && r.unit !== c.unit) {
-        fields[key] = `${c.name} is recorded in ${c.unit}, not ${r.unit || 'no unit'}.`;
-      } else if (!physicallyPossible(c, r.value)) {
+      else if (!converted) {
         fields[key] =
-          `${r.value} ${c.unit ?? ''} is not a possible ${lower(c.name)} (${c.physicalMin}–${c.physicalMax} ${c.unit ?? ''}): check the reading.`.replace(
+          `${c.name} is recorded in ${c.unit}: ${r.unit || 'no unit'} is not a unit of the same quantity, so it cannot be converted.`;
+      } else if (!converted.ok) {
+        fields[key] = `${r.value} ${r.unit} is ${converted.message}: check the reading.`;
+      } else if (!physicallyPossible(c, converted.value)) {
+        const shown = converted.entered
+          ? `${r.value} ${r.unit} (${converted.value} ${c.unit})`
+          : `${r.value} ${c.unit ?? ''}`;
+        fields[key] =
+          `${shown} is not a possible ${lower(c.name)} (${c.physicalMin}–${c.physicalMax} ${c.unit ?? ''}): check the reading.`.replace(
             /\s+/g,
             ' ',
           );
+      } else {
+        value = converted.value;
+        if (converted.entered) entered.set(key, converted.entered);
       }
     } else {
       if (r.value !== undefined) fields[key] = `${c.name} is a pass/fail check: send pass or fail, not a value.`;
@@ -242,7 +281,7 @@ function checkReadings(
         fields[key] = `${c.name} failed: say where (the location field).`;
       }
     }
-    (entries[c.code] ??= {})[r.position] = { value: r.value ?? null, passed: r.passed ?? null };
+    (entries[c.code] ??= {})[r.position] = { value, passed: r.passed ?? null };
     if (r.location) locations.set(key, r.location);
   });
   for (const c of chars) {
@@ -257,7 +296,7 @@ function checkReadings(
   if (problems) {
     throw invalid(`${problems} reading${problems > 1 ? 's need' : ' needs'} attention. Nothing was recorded.`, fields);
   }
-  return { entries, locations };
+  return { entries, locations, entered };
 }
 
 type Outcome = { status: number; body: ResultJson; replay: boolean };
@@ -400,7 +439,7 @@ export async function submitResult(
       );
     }
 
-    const { entries, locations } = checkReadings(chars, body);
+    const { entries, locations, entered } = checkReadings(chars, body);
     const judged = evaluateForm(chars, entries);
     const verdict = judged.verdict === 'pass' ? 'pass' : 'fail';
 
@@ -437,6 +476,8 @@ export async function submitResult(
           passed: r.passed,
           location_note: locations.get(`${r.characteristic}@${r.position}`) ?? null,
           unit: c.kind === 'attribute' ? null : c.unit,
+          entered_value: entered.get(`${r.characteristic}@${r.position}`)?.value ?? null,
+          entered_unit: entered.get(`${r.characteristic}@${r.position}`)?.unit ?? null,
           verdict: r.verdict ?? 'fail',
           tolerance_rule_id: r.ruleId,
           rule_version: r.ruleVersion,
@@ -458,6 +499,7 @@ export async function submitResult(
         name: c.name,
         positionLabel: c.positions.find((p) => p.code === r.position)?.label ?? describePosition(r.position),
         unit: c.unit,
+        entered: entered.get(`${r.characteristic}@${r.position}`) ?? null,
         kind: c.kind,
         location: locations.get(`${r.characteristic}@${r.position}`) ?? null,
       };

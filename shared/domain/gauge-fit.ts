@@ -1,5 +1,5 @@
 import Decimal from 'decimal.js';
-import { FACTORS } from './units.js';
+import { conversionFactor } from './units.js';
 
 /**
  * Whether a gauge can measure a characteristic: its unit converts to the characteristic's, the
@@ -8,32 +8,8 @@ import { FACTORS } from './units.js';
  * recorded reason). Pure: the station form, the submission and the tests run the same code.
  */
 
-/** Units that convert into each other, with the factor from the first to the second (NIST SP 811). */
-const PAIRS: [string, string, number][] = [
-  ['in', 'mm', FACTORS.inToMm],
-  ['µin', 'µm', FACTORS.microinToMicrom],
-  ['lbf·ft', 'N·m', FACTORS.lbfFtToNm],
-  ['psi', 'kPa', FACTORS.psiToKPa],
-  ['inHg', 'kPa', FACTORS.inHgToKPa],
-];
-
-/** The factor that takes a value in `from` to `to`, or null when the units do not convert. */
-export function conversionFactor(from: string | null, to: string | null): number | null {
-  if (from === null || to === null) return from === to ? 1 : null;
-  if (from === to) return 1;
-  for (const [a, b, f] of PAIRS) {
-    if (a === from && b === to) return f;
-    if (b === from && a === to) return 1 / f;
-  }
-  // both through a common third unit (psi → kPa → inHg)
-  for (const [a, b, f] of PAIRS) {
-    for (const [c, d, g] of PAIRS) {
-      if (a === from && d === to && b === c) return f * g;
-      if (a === from && c === to && b === d) return f / g;
-    }
-  }
-  return null;
-}
+/** The factor between two units now lives with the units themselves; kept here for older callers. */
+export { conversionFactor };
 
 export type FitGauge = {
   code: string;

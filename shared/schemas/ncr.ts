@@ -41,11 +41,13 @@ const reasonText = (min: number, what: string) =>
     .min(min, `Say ${what}, in at least ${min} characters.`)
     .max(2000, 'At most 2000 characters.');
 
-/** About a part (its serial) or a purchased lot (its code, and the supplier when two share a code). */
+/** About a part (its serial) or a purchased lot (its code, and the supplier or part number when a code is shared). */
 export const raiseNcrBody = z.strictObject({
   serial: text().trim().max(24).optional(),
   lotCode: text().trim().max(60).optional(),
   supplierId: id().optional(),
+  /** When one supplier uses the lot code on more than one part number. */
+  partNumber: text().trim().max(60).optional(),
   description: reasonText(10, 'what was seen'),
   severity: z.enum(SEVERITIES, 'Choose how serious it is.'),
   defectCode: text('Choose a defect code.').trim().min(1, 'Choose a defect code.').max(20),

@@ -13,6 +13,7 @@ export const readingInput = z.strictObject({
   // JSON has no NaN; 1e999 parses to Infinity, which z.number() refuses; stored as numeric(14, 6)
   value: decimal(14, 6, 'Enter a number.').optional(),
   passed: z.boolean('Choose pass or fail.').optional(),
+  /** The unit the value was typed in; another unit of the characteristic's quantity is converted. */
   unit: text().trim().max(20).optional(),
   location: text().trim().max(200, 'At most 200 characters.').optional(),
 });
@@ -92,6 +93,8 @@ export type ReadingJson = EvaluatedReading & {
   name: string;
   positionLabel: string;
   unit: string | null;
+  /** What the operator typed, when it was in another unit of the same quantity (value and rounded are in \`unit\`). */
+  entered: { value: number; unit: string } | null;
   kind: 'variable' | 'attribute' | 'derived';
   location: string | null;
 };

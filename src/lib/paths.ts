@@ -29,6 +29,9 @@ export const paths = {
   release: '/release',
   trail: '/trail',
   lot: '/lots/:lotCode',
+  receivedLots: '/receiving/lots',
+  receiveLot: '/receiving/lots/new',
+  receivedLot: '/receiving/lots/:id',
   fieldActions: '/field-actions',
   fieldAction: '/field-actions/:number',
   plant: '/admin/plant',
@@ -78,6 +81,7 @@ export function safeNext(raw: string | null | undefined): string {
   return raw;
 }
 
+export const receivedLotHref = (id: number) => `/receiving/lots/${id}`;
 export const gaugeHref = (code: string) => `/gauges/${encodeURIComponent(code)}`;
 export const gaugeStudiesHref = (code: string) => `/gauges/${encodeURIComponent(code)}/studies`;
 export const blastHref = (q: Record<string, string>) => `/blast-radius?${new URLSearchParams(q).toString()}`;

@@ -243,7 +243,13 @@ describe('bad readings are refused field by field and nothing is stored', () => 
       'bore@c3/top/axial',
       /Missing: Cylinder 3, top, axial/,
     ],
-    ['a wrong unit', () => replace('c1/top/thrust', { unit: 'mm' }), 'bore@c1/top/thrust', /recorded in in, not mm/],
+    // mm converts now (issue 16, tests/api/reading-units.test.ts); a unit of another quantity cannot
+    [
+      'a unit of another quantity',
+      () => replace('c1/top/thrust', { unit: 'psi' }),
+      'bore@c1/top/thrust',
+      /recorded in in: psi is not a unit of the same quantity/,
+    ],
     [
       'a value far outside the physical range',
       () => replace('c1/top/thrust', { value: 40.3 }),

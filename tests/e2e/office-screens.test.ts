@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_USERS } from '../../db/seeders/plant.js';
 import { can, type Permission } from '../../shared/permissions.js';
 import { ROLES, type Role } from '../../shared/roles.js';
-import { Customer, EngineFamily, Gauge, ToleranceRule, User, WarrantyClaim } from '../../server/models/index.js';
+import { Customer, EngineFamily, Gauge, PartLot, ToleranceRule, User, WarrantyClaim } from '../../server/models/index.js';
 import { cookieFor, makeUser, TEST_PASSWORD } from '../support/app.js';
 import { givenSecondFactor, launch, serveApp, type Served } from '../support/browser.js';
 import { plantToday, releasableUnit } from '../support/parts.js';
@@ -36,6 +36,7 @@ let crankshaft: string;
 let core: string;
 let ncr: string;
 let lot: string;
+let lotId: number;
 let fieldAction: string;
 let rule: string;
 let gauge: string;
@@ -58,6 +59,7 @@ beforeAll(async () => {
   crankshaft = built.parts.crankshaft;
   core = built.parts.core;
   lot = `${tag}-PISTONS`;
+  lotId = (await PartLot.findOne({ where: { lotCode: lot } }))!.id;
   const shipping = await cookieFor(await makeUser('shipping'), t.config);
   const customer = (await Customer.findOne({ order: [['id', 'ASC']] }))!;
   const shipped = await request(t.app)
@@ -123,6 +125,9 @@ const routes = (): { name: string; path: string; permission: Permission | null }
   { name: 'release', path: `/release?serial=${unit}`, permission: 'release.check' },
   { name: 'trail', path: `/trail?serial=${unit}`, permission: 'trail.read' },
   { name: 'lot', path: `/lots/${lot}`, permission: 'trail.read' },
+  { name: 'received-lots', path: '/receiving/lots', permission: 'lots.read' },
+  { name: 'receive-lot', path: '/receiving/lots/new', permission: 'lots.receive' },
+  { name: 'received-lot', path: `/receiving/lots/${lotId}`, permission: 'lots.read' },
   { name: 'field-actions', path: '/field-actions', permission: 'field-actions.read' },
   { name: 'field-action', path: `/field-actions/${fieldAction}`, permission: 'field-actions.read' },
   { name: 'gauges', path: '/gauges', permission: 'gauges.read' },

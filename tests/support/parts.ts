@@ -111,18 +111,40 @@ export async function finishedParts(t: TestApp, cookies: { receiving: string; op
   return parts;
 }
 
-/** The nine purchased lots a long block takes; pistons at the given oversize. */
+/**
+ * The nine purchased lots a long block takes, pistons at the given oversize, as the build form
+ * names them; each is on record as received and accepted, as receiving would have logged it
+ * (tests/api/receiving.test.ts drives receiving itself). A lot code shared by several tests (the
+ * default tag) is topped up when fewer than 200 parts are left, so no test runs another's lot dry.
+ */
 export async function lotsFor(oversizeIn: number, tag = 'T') {
-  const { Supplier } = await import('../../server/models/index.js');
+  const { PartLot, Supplier } = await import('../../server/models/index.js');
   const suppliers = await Supplier.findAll({ order: [['id', 'ASC']] });
-  return LOT_KINDS.map((kind, i) => ({
+  const lots = LOT_KINDS.map((kind, i) => ({
     kind,
     supplierId: suppliers[i % suppliers.length]!.id,
     partNumber: `PN-${kind.toUpperCase().replace(/_/g, '')}-${i}`,
-    lotCode: `${tag}-${kind.toUpperCase().replace(/_/g, '')}`,
+    lotCode: `${tag}-${kind.toUpperCase().replace(/_/g, '')}`.toUpperCase(),
     quantity: kind === 'pistons' ? 8 : 1,
     ...(kind === 'pistons' ? { oversizeIn } : {}),
   }));
+  for (const l of lots) {
+    await PartLot.sequelize!.query(
+      `INSERT INTO part_lots (supplier_id, part_kind, part_number, lot_code, description, attributes,
+                              quantity_received, received_on, inspection)
+       VALUES (:supplierId, :kind, :partNumber, :lotCode, :kind, :attributes, 1000, CURRENT_DATE, 'accepted')
+       ON CONFLICT (supplier_id, part_number, lot_code) DO UPDATE
+         SET quantity_received = part_lots.quantity_received + 1000
+       WHERE part_lots.quantity_received - part_lots.quantity_drawn < 200`,
+      {
+        replacements: {
+          ...l,
+          attributes: JSON.stringify(l.oversizeIn !== undefined ? { oversizeIn: l.oversizeIn } : {}),
+        },
+      },
+    );
+  }
+  return lots;
 }
 
 /** A long block built from finished parts, through assembly, run test and final inspection. */

@@ -5,6 +5,8 @@ export const stationKeys = {
   /** Every station form of every part: the prefix to refresh when what a station asks for may have changed. */
   forms: ['station', 'form'] as const,
   form: (station: string, serial: string) => ['station', 'form', station, serial] as const,
+  /** The signed-in person's units to type readings in (cleared with the rest of the cache at sign-out). */
+  unitPreferences: ['station', 'unit-preferences'] as const,
 };
 
 /**

@@ -73,6 +73,12 @@ export const AREAS: Area[] = [
     summary: 'Layout, cylinders, bore and stroke, heads and warranty term for each family.',
   },
   {
+    label: 'Purchased lots',
+    to: paths.receivedLots,
+    permission: 'lots.read',
+    summary: 'Lots of new parts as received: what is left, the certificate, and whether a build may draw from them.',
+  },
+  {
     label: 'Build',
     to: paths.build,
     permission: 'assembly.record',

@@ -34,7 +34,9 @@ function valueText(r: ReadingJson, decimals?: number): string {
   const n = r.value
     .toLocaleString('en-US', { minimumFractionDigits: d, maximumFractionDigits: d, useGrouping: false })
     .replace('-', '−');
-  return r.unit ? `${n} ${r.unit}` : n;
+  const shown = r.unit ? `${n} ${r.unit}` : n;
+  // typed in another unit: what was typed stays beside the judged value
+  return r.entered ? `${shown} (typed ${String(r.entered.value).replace('-', '−')} ${r.entered.unit})` : shown;
 }
 
 function VerdictWord({ r }: { r: ReadingJson }) {

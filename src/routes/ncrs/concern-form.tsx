@@ -45,6 +45,13 @@ function LotFields() {
         numeric
         hint="Only when two suppliers use the same lot code: Coretrail asks for it if so."
       />
+      <TextField
+        name="partNumber"
+        label="Part number (optional)"
+        mono
+        optional
+        hint="Only when the supplier uses the lot code on more than one part number: Coretrail asks for it if so."
+      />
     </div>
   );
 }

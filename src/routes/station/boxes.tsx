@@ -58,7 +58,13 @@ export function ReadingBox({ slot, label }: { slot: Slot; label?: string }) {
   const resolution = slot.char.rule?.resolution ?? slot.char.resolution;
   const problem = problems[slot.key] ?? (typed ? (unreadableMessage(slot.char, typed) ?? undefined) : undefined);
   const missing = attempted && typed?.state === 'empty' && !slot.char.optional;
-  const cue = cueOf(standing, resolution, problem, missing);
+  let cue = cueOf(standing, resolution, problem, missing);
+  // typed in another unit: the cue says what it reads in the rule's unit, which is what is judged
+  if (!problem && typed && 'entered' in typed && typed.entered && slot.char.unit) {
+    const inRule = `${formatValue(reading?.rounded ?? typed.value, resolution)} ${slot.char.unit}`;
+    const by = standing.kind === 'high' || standing.kind === 'low' ? ` ${slot.char.unit}` : '';
+    cue = { ...cue, text: cue.text ? `${cue.text}${by} · ${inRule}` : `= ${inRule}` };
+  }
   const bad = !!problem || standing.kind === 'high' || standing.kind === 'low' || standing.kind === 'fail';
   const look = bad ? 'bad' : standing.kind === 'pass' ? 'pass' : missing ? 'missing' : 'idle';
   const name = readingName(slot.char, slot.position);

@@ -1,5 +1,5 @@
 import { createContext, useContext } from 'react';
-import type { Judged, SlotValue } from './readings';
+import type { EntryUnits, Judged, SlotValue } from './readings';
 
 /** What every box of the form reads while the operator types: the live verdicts and the notes on each box. */
 export type FormState = {
@@ -10,6 +10,10 @@ export type FormState = {
   /** A submit was tried: empty boxes now say they are missing. */
   attempted: boolean;
   clearProblem: (key: string) => void;
+  /** The unit each measured characteristic is being typed in (its own unless the operator chose another). */
+  units: EntryUnits;
+  /** Types a characteristic in another unit of its quantity (remembered for the person). */
+  setUnit: (code: string, unit: string) => void;
 };
 
 export const FormStateContext = createContext<FormState | null>(null);

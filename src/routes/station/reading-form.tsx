@@ -1,6 +1,7 @@
 import { useId, useMemo, useRef, useState, type KeyboardEvent, type RefObject } from 'react';
 import { FormProvider, useForm, useWatch } from 'react-hook-form';
 import { SUBMIT_RETRIES, useRecordResult } from '../../api/station/record-result';
+import { useSetUnitPreference, useUnitPreferences } from '../../api/station/unit-preferences';
 import type { StationFormJson } from '../../api/station/types';
 import { PhotoField } from '../../components/photo-field';
 import { Button } from '../../components/ui/button';
@@ -23,7 +24,7 @@ import { FormStateContext, type FormState } from './form-state';
 import { GaugeField, preselectedGauge } from './gauge-field';
 import { sectionsOf } from './layout';
 import { ReadingSection } from './reading-section';
-import { judge, slotsOf } from './readings';
+import { entryUnitOf, judge, slotsOf, type EntryUnits } from './readings';
 import { RunTestImport } from './run-test-import';
 import { useFirstReading } from './use-first-reading';
 import { useInView } from './use-in-view';
@@ -90,7 +91,21 @@ export function ReadingForm({
     },
   });
   const values = useWatch({ control: methods.control, name: 'slots' });
-  const judged = useMemo(() => judge(form.characteristics, slots, values), [form.characteristics, slots, values]);
+  const preferred = useUnitPreferences().data?.preferences;
+  const remember = useSetUnitPreference();
+  const [chosenUnits, setChosenUnits] = useState<EntryUnits>({});
+  const units = useMemo(() => {
+    const out: EntryUnits = {};
+    for (const c of form.characteristics) {
+      const u = entryUnitOf(c, chosenUnits, preferred ?? {});
+      if (u) out[c.code] = u;
+    }
+    return out;
+  }, [form.characteristics, chosenUnits, preferred]);
+  const judged = useMemo(
+    () => judge(form.characteristics, slots, values, units),
+    [form.characteristics, slots, values, units],
+  );
   const [problems, setProblems] = useState<Problem[]>([]);
   const [attempted, setAttempted] = useState(false);
   const [summaryTitle, setSummaryTitle] = useState('');
@@ -113,6 +128,14 @@ export function ReadingForm({
     problems: problemMap,
     attempted,
     clearProblem: (key) => setProblems((ps) => (ps.some((p) => p.key === key) ? ps.filter((p) => p.key !== key) : ps)),
+    units,
+    setUnit: (code, unit) => {
+      const char = form.characteristics.find((c) => c.code === code);
+      if (!char?.unit) return;
+      setChosenUnits((u) => ({ ...u, [code]: unit }));
+      // remembered for this person's next form; a failure to remember changes nothing on this one
+      remember.mutate({ unit: char.unit, enteredUnit: unit === char.unit ? null : unit });
+    },
   };
   const unruled = form.characteristics.filter((c) => c.kind !== 'attribute' && !c.rule);
 
@@ -130,7 +153,7 @@ export function ReadingForm({
   const send = async (draft: Draft, confirmed = false) => {
     setAttempted(true);
     setRefusal(null);
-    const now = judge(form.characteristics, slots, draft.slots);
+    const now = judge(form.characteristics, slots, draft.slots, units);
     const local = [
       ...problemsBeforeSending(slots, now, draft, needsGauge, form.gauges),
       ...charGaugeProblems(measured, form.gauges, draft),

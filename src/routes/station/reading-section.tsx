@@ -12,6 +12,9 @@ import {
   type GroupCard,
   type Section,
 } from './layout';
+import { alternativesOf, convertDecimal } from '../../../shared/domain/units';
+import { limitsOf } from '../../../shared/domain/tolerance';
+import { useFormState } from './form-state';
 import { limitsText, nominalText, type Slot } from './readings';
 
 function Limits({ char }: { char: FormCharacteristic }) {
@@ -29,6 +32,64 @@ function Limits({ char }: { char: FormCharacteristic }) {
     <span>
       <span className="font-mono text-lg font-semibold text-ink">{limitsText(char)}</span>
       {nominal && <span className="ml-2 font-mono text-sm text-ink-soft">({nominal})</span>}
+      <LimitsIn char={char} />
+    </span>
+  );
+}
+
+/**
+ * The limits again in the unit being typed, for reading the gauge against: judged still in the
+ * rule's unit, after conversion (NIST SP 811 factors), so these are a guide, not the limits.
+ */
+function LimitsIn({ char }: { char: FormCharacteristic }) {
+  const { units } = useFormState();
+  const unit = units[char.code];
+  if (!char.rule || !unit || unit === char.unit) return null;
+  const { lower, upper } = limitsOf(char.rule);
+  const f = (v: number) =>
+    convertDecimal(v, char.rule?.unit ?? char.unit, unit)
+      ?.toSignificantDigits(7)
+      .toString();
+  const text =
+    lower !== null && upper !== null
+      ? `${f(lower)}–${f(upper)}`
+      : lower !== null
+        ? `≥ ${f(lower)}`
+        : upper !== null
+          ? `≤ ${f(upper)}`
+          : null;
+  if (!text) return null;
+  return (
+    <span className="ml-2 font-mono text-base text-ink-soft">
+      (≈ {text} {unit})
+    </span>
+  );
+}
+
+/** Which unit the readings of a measured characteristic are typed in: its own, or another of its quantity. */
+function UnitChoice({ char }: { char: FormCharacteristic }) {
+  const id = useId();
+  const { units, setUnit } = useFormState();
+  const others = alternativesOf(char.unit);
+  if (char.kind !== 'variable' || !char.unit || !others.length) return null;
+  return (
+    <span className="inline-flex items-center gap-2">
+      <label htmlFor={id} className="text-base text-ink-soft">
+        Type in
+      </label>
+      <select
+        id={id}
+        value={units[char.code] ?? char.unit}
+        onChange={(e) => setUnit(char.code, e.target.value)}
+        className="h-11 rounded-control border-2 border-rule-strong bg-field px-2 font-mono text-lg text-ink hover:border-ink-soft floor:h-12"
+      >
+        <option value={char.unit}>{char.unit} (the rule’s)</option>
+        {others.map((u) => (
+          <option key={u.symbol} value={u.symbol}>
+            {u.symbol}
+          </option>
+        ))}
+      </select>
     </span>
   );
 }
@@ -161,7 +222,9 @@ function GroupCardView({ card, source }: { card: GroupCard; source: FormCharacte
   );
 }
 
-function RowView({ slots, unit }: { slots: Slot[]; unit: string | null }) {
+function RowView({ slots, unit: own }: { slots: Slot[]; unit: string | null }) {
+  const { units } = useFormState();
+  const unit = (slots[0] && units[slots[0].char.code]) ?? own;
   if (slots.length === 1 && slots[0]!.position.code === '') {
     return (
       <div className="flex max-w-xs items-start gap-2">
@@ -251,6 +314,7 @@ export function ReadingSection({ section, slots, gauge }: { section: Section; sl
           </h3>
           <div className="flex flex-wrap items-center gap-x-6 gap-y-2">
             <Limits char={char} />
+            <UnitChoice char={char} />
             {gauge}
           </div>
         </div>

@@ -1,5 +1,6 @@
 import { evaluateForm, physicallyPossible, type Entries } from '../../../shared/domain/evaluate';
 import { limitsOf } from '../../../shared/domain/tolerance';
+import { alternativesOf, convertDecimal } from '../../../shared/domain/units';
 import type { EvaluatedReading, FormCharacteristic, Position } from '../../api/station/types';
 import { formatValue } from './numbers';
 
@@ -35,20 +36,55 @@ export const readingName = (char: Pick<FormCharacteristic, 'name'>, position: Pi
 
 const DECIMAL = /^[+-]?(\d+([.,]\d*)?|[.,]\d+)$/;
 
+/** What was typed, when it was typed in another unit than the characteristic's. */
+export type EnteredAs = { value: number; unit: string };
+
 export type Typed =
   | { state: 'empty' }
-  | { state: 'number'; value: number }
+  | { state: 'number'; value: number; entered?: EnteredAs }
   | { state: 'not-a-number' }
-  | { state: 'impossible'; value: number };
+  | { state: 'impossible'; value: number; entered?: EnteredAs };
 
-/** A typed reading: a decimal point or comma both read as the decimal separator; nothing else is a number. */
-export function readTyped(char: FormCharacteristic, text: string): Typed {
+/** The unit each measured characteristic is typed in, by characteristic code; absent: its own unit. */
+export type EntryUnits = Record<string, string>;
+
+/**
+ * The unit to type `char` in: the one chosen on this form, else the person's remembered one for
+ * the characteristic's unit when it converts, else the characteristic's own.
+ */
+export function entryUnitOf(char: FormCharacteristic, chosen: EntryUnits, preferred: Record<string, string>) {
+  const own = char.unit;
+  if (char.kind !== 'variable' || !own) return own;
+  const ok = (u: string | undefined) => !!u && (u === own || alternativesOf(own).some((a) => a.symbol === u));
+  const pick = chosen[char.code];
+  if (ok(pick)) return pick!;
+  const pref = preferred[own];
+  return ok(pref) ? pref! : own;
+}
+
+/**
+ * A typed reading: a decimal point or comma both read as the decimal separator; nothing else is a
+ * number. Typed in another unit (`unit`), it is converted to the characteristic's and kept to 6
+ * decimals, as the server converts and stores it, so the verdict on the tablet is the server's.
+ */
+export function readTyped(char: FormCharacteristic, text: string, unit?: string | null): Typed {
   const t = text.trim();
   if (t === '') return { state: 'empty' };
   if (!DECIMAL.test(t)) return { state: 'not-a-number' };
-  const value = Number(t.replace(',', '.'));
-  if (!Number.isFinite(value)) return { state: 'not-a-number' };
-  return physicallyPossible(char, value) ? { state: 'number', value } : { state: 'impossible', value };
+  const typed = Number(t.replace(',', '.'));
+  if (!Number.isFinite(typed)) return { state: 'not-a-number' };
+  let value = typed;
+  let entered: EnteredAs | undefined;
+  if (unit && char.unit && unit !== char.unit) {
+    const converted = convertDecimal(typed, unit, char.unit);
+    if (!converted) return { state: 'not-a-number' };
+    value = converted.toDecimalPlaces(6).toNumber();
+    entered = { value: typed, unit };
+  }
+  const extra = entered ? { entered } : {};
+  return physicallyPossible(char, value)
+    ? { state: 'number', value, ...extra }
+    : { state: 'impossible', value, ...extra };
 }
 
 const withUnit = (s: string, unit: string | null) => (unit ? `${s} ${unit}` : s);
@@ -113,7 +149,12 @@ export type Judged = {
 };
 
 /** Runs the shared evaluator over what is typed so far; unreadable text counts as not there yet. */
-export function judge(characteristics: FormCharacteristic[], slots: Slot[], values: SlotValue[]): Judged {
+export function judge(
+  characteristics: FormCharacteristic[],
+  slots: Slot[],
+  values: SlotValue[],
+  units: EntryUnits = {},
+): Judged {
   const entries: Entries = {};
   const typed: Typed[] = [];
   const missing: Slot[] = [];
@@ -129,7 +170,7 @@ export function judge(characteristics: FormCharacteristic[], slots: Slot[], valu
       at[slot.position.code] = { passed: choice === '' ? null : choice === 'pass' };
       continue;
     }
-    const t = readTyped(slot.char, v?.text ?? '');
+    const t = readTyped(slot.char, v?.text ?? '', units[slot.char.code]);
     typed.push(t);
     if (t.state === 'empty' && needed) missing.push(slot);
     if (t.state === 'not-a-number' || t.state === 'impossible') unreadable.push(slot);

@@ -1,5 +1,6 @@
 import type { RunCsvReading } from '../../api/station/run-test-parse';
-import { slotKey, type Slot, type SlotValue } from './readings';
+import { convertDecimal } from '../../../shared/domain/units';
+import { slotKey, type EntryUnits, type Slot, type SlotValue } from './readings';
 
 /**
  * Where each reading of a test stand export goes on the run-test form, apart from the screen: the
@@ -18,7 +19,11 @@ export type FillPlan = {
 const asTyped = (value: number) =>
   Number.isInteger(value) ? String(value) : value.toFixed(6).replace(/0+$/, '').replace(/\.$/, '');
 
-export function planFill(slots: Slot[], readings: RunCsvReading[]): FillPlan {
+/**
+ * `units`: the unit each box is being typed in (the operator's choice); a stand reading in another
+ * unit of the same quantity is converted into it, as if typed so.
+ */
+export function planFill(slots: Slot[], readings: RunCsvReading[], units: EntryUnits = {}): FillPlan {
   const byKey = new Map(slots.map((s) => [s.key, s]));
   const fills: Fill[] = [];
   const unused: FillPlan['unused'] = [];
@@ -35,9 +40,15 @@ export function planFill(slots: Slot[], readings: RunCsvReading[]): FillPlan {
     }
     if (typeof r.value !== 'number') {
       unused.push({ reading: r, why: 'a measured value, but PASS or FAIL came' });
-    } else if (r.unit && slot.char.unit && r.unit !== slot.char.unit) {
-      unused.push({ reading: r, why: `in ${r.unit}, but this form records ${slot.char.unit}` });
-    } else fills.push({ slot, text: asTyped(r.value), choice: '' });
+    } else {
+      const target = units[slot.char.code] ?? slot.char.unit;
+      const value = r.unit && target && r.unit !== target ? convertDecimal(r.value, r.unit, target) : null;
+      if (r.unit && target && r.unit !== target && !value) {
+        unused.push({ reading: r, why: `in ${r.unit}, but this form records ${target}` });
+      } else {
+        fills.push({ slot, text: asTyped(value ? value.toDecimalPlaces(6).toNumber() : r.value), choice: '' });
+      }
+    }
   }
   return { fills, unused };
 }

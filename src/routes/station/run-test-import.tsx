@@ -35,7 +35,7 @@ type RunTestImportProps = { serial: string; slots: Slot[]; characteristics: Form
 export function RunTestImport({ serial, slots, characteristics }: RunTestImportProps) {
   const id = useId();
   const { getValues, setValue } = useFormContext<Draft>();
-  const { clearProblem } = useFormState();
+  const { clearProblem, units } = useFormState();
   const parse = useParseRunTestCsv();
   const [file, setFile] = useState<File | null>(null);
   const [outcome, setOutcome] = useState<Outcome | null>(null);
@@ -71,7 +71,7 @@ export function RunTestImport({ serial, slots, characteristics }: RunTestImportP
       return;
     }
     const before = getValues('slots');
-    const plan = planFill(slots, readings);
+    const plan = planFill(slots, readings, units);
     let replaced = 0;
     for (const f of plan.fills) {
       if (replaces(f, before[f.slot.index])) replaced++;
@@ -81,7 +81,7 @@ export function RunTestImport({ serial, slots, characteristics }: RunTestImportP
       clearProblem(f.slot.key);
     }
     const after = getValues('slots');
-    const judged = judge(characteristics, slots, after);
+    const judged = judge(characteristics, slots, after, units);
     const empty = slots.filter((s) =>
       s.char.kind === 'attribute' ? !after[s.index]?.choice : judged.typed[s.index]?.state === 'empty',
     );

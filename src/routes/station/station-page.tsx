@@ -5,6 +5,7 @@ import { parseSerial } from '../../../shared/domain/serial';
 import { useSignedIn } from '../../api/auth/me';
 import { stationsQueryOptions, useStations } from '../../api/reference/stations';
 import { stationFormQueryOptions, useStationForm } from '../../api/station/station-form';
+import { unitPreferencesQueryOptions } from '../../api/station/unit-preferences';
 import { PageHeader } from '../../components/page-header';
 import { ScanBox } from '../../components/scan-box';
 import { Button } from '../../components/ui/button';
@@ -30,6 +31,8 @@ export const stationLoader =
     const stations = await queryClient.ensureQueryData(stationsQueryOptions());
     const code = readTabletStation();
     const parsed = parseSerial(new URL(request.url).searchParams.get('serial') ?? '');
+    // the units this person types in, there before the first scan opens a form
+    void queryClient.prefetchQuery(unitPreferencesQueryOptions());
     // a part that cannot be recorded here is said on the page, beside the scan box, not as an error page
     if (code && parsed.ok && recordingStations(stations).some((s) => s.code === code)) {
       await Promise.all([queryClient.prefetchQuery(stationFormQueryOptions(code, parsed.serial)), loadPartAtStation()]);

@@ -49,6 +49,10 @@ export function readingsOf(slots: Slot[], judged: Judged, values: SlotValue[]): 
       };
     }
     const t = judged.typed[s.index];
+    // typed in another unit: sent as typed, with its unit; the server converts it the same way
+    if (t?.state === 'number' && t.entered) {
+      return { characteristic: s.char.code, position: s.position.code, value: t.entered.value, unit: t.entered.unit };
+    }
     return {
       characteristic: s.char.code,
       position: s.position.code,

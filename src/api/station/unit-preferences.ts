@@ -1,0 +1,29 @@
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { UnitPreferenceBody, UnitPreferencesJson } from '../../../shared/schemas/units';
+import { http } from '../../lib/http';
+import { stationKeys } from './keys';
+
+export const fetchUnitPreferences = (signal?: AbortSignal) =>
+  http<UnitPreferencesJson>('/api/auth/unit-preferences', { signal });
+
+/** The signed-in person's units to type in: theirs alone, and changed only by them, so kept a while. */
+export const unitPreferencesQueryOptions = () =>
+  queryOptions({
+    queryKey: stationKeys.unitPreferences,
+    queryFn: ({ signal }) => fetchUnitPreferences(signal),
+    staleTime: 10 * 60_000,
+  });
+
+export const useUnitPreferences = () => useQuery(unitPreferencesQueryOptions());
+
+export const setUnitPreference = (body: UnitPreferenceBody) =>
+  http<UnitPreferencesJson>('/api/auth/unit-preferences', { method: 'PUT', body });
+
+/** Remembers the unit chosen at a station for the next form; the reply is the whole set. */
+export function useSetUnitPreference() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: setUnitPreference,
+    onSuccess: (prefs) => queryClient.setQueryData(stationKeys.unitPreferences, prefs),
+  });
+}
