@@ -11,6 +11,7 @@ import { LocalDiskStore } from './storage/blob-store.js';
 import { LedgerWorker } from './ledger/sequencer.js';
 import { signerFor } from './ledger/signer.js';
 import { OverdueReminderJob } from './services/corrective-action/reminders.js';
+import { YieldDayCounter } from './services/line/yield-days.js';
 import { DEMO_USERS, seedDemoIfEmpty } from '../db/seeders/demo.js';
 
 async function main() {
@@ -41,6 +42,9 @@ async function main() {
   sweeper.start();
   const partitions = new PartitionKeeper(sequelize);
   partitions.start();
+  // the yield report sums closed plant days from yield_days: count them now and every ten minutes
+  const yieldDays = new YieldDayCounter(sequelize);
+  yieldDays.start();
   const signer = signerFor(config.AUDIT_SIGNING_KEY);
   if (!signer) console.log('[ledger] no AUDIT_SIGNING_KEY: the audit log is integrated but its heads are not signed');
   const ledger =
@@ -90,6 +94,7 @@ async function main() {
       await worker?.stop();
       await sweeper.stop();
       await partitions.stop();
+      await yieldDays.stop();
       await ledger?.stop();
       await sink?.close();
       await readDb?.close();

@@ -1,11 +1,10 @@
-import { randomUUID } from 'node:crypto';
-import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_USERS } from '../../db/seeders/plant.js';
 import type { ParetoJson, SearchJson, ShippingJson, WipJson, YieldJson } from '../../shared/schemas/line.js';
 import { cookieFor, makeTestApp, makeUser, signInCookie, unique, type TestApp } from '../support/app.js';
 import { releasableUnit, tornDownCore } from '../support/parts.js';
+import { resultFixtures } from '../support/results.js';
 
 let t: TestApp;
 const cookies: Record<string, string> = {};
@@ -13,6 +12,7 @@ const demo = (role: string) => DEMO_USERS.find((u) => u.role === role)!;
 
 beforeAll(async () => {
   t = makeTestApp();
+  ({ q, freshFamily, item, result, station } = resultFixtures(t.sequelize));
   for (const role of ['receiving', 'operator', 'quality', 'supervisor', 'shipping', 'warranty'] as const) {
     cookies[role] = await cookieFor(await makeUser(role), t.config);
   }
@@ -22,55 +22,11 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-const q = <T extends object = Record<string, unknown>>(sql: string, replacements: Record<string, unknown> = {}) =>
-  t.sequelize.query<T>(sql, { type: QueryTypes.SELECT, replacements });
-
-/** A family of its own, so the counts below are this test's alone. */
-async function freshFamily() {
-  const code = unique('F').slice(0, 12).toUpperCase();
-  const [row] = await q<{ id: number }>(
-    `INSERT INTO engine_families (code, name, layout, cylinders, bore_mm, stroke_mm, heads_per_engine, warranty_months)
-     VALUES (:code, :code, 'inline', 4, 90, 90, 1, 12) RETURNING id`,
-    { code },
-  );
-  return { id: row!.id, code };
-}
-
-async function item(familyId: number, kind = 'block') {
-  const serial = unique('Y').toUpperCase();
-  const [row] = await q<{ id: number }>(
-    `INSERT INTO items (serial, kind, engine_family_id, status) VALUES (:serial, :kind, :familyId, 'in_process') RETURNING id`,
-    { serial, kind, familyId },
-  );
-  return row!.id;
-}
-
-async function result(
-  itemId: number,
-  stageCode: string,
-  stationId: number | null,
-  verdict: 'pass' | 'fail',
-  at: string,
-  supersedes: number | null = null,
-) {
-  const [row] = await q<{ id: number }>(
-    `INSERT INTO stage_results (item_id, stage_id, station_id, operator_id, finished_at, verdict, idempotency_key, supersedes_id, correction_reason)
-     SELECT :itemId, s.id, :stationId, (SELECT min(id) FROM users), :at, :verdict, :key, :supersedes,
-            CASE WHEN CAST(:supersedes AS int) IS NULL THEN NULL ELSE 'typing slip' END
-       FROM stages s WHERE s.code = :stageCode RETURNING id`,
-    { itemId, stageCode, stationId, verdict, at, key: randomUUID(), supersedes },
-  );
-  return row!.id;
-}
-
-async function station(stageCode: string) {
-  const code = unique('S').slice(0, 10).toUpperCase();
-  const [row] = await q<{ id: number }>(
-    `INSERT INTO stations (code, name, stage_id) SELECT :code, :code, id FROM stages WHERE code = :stageCode RETURNING id`,
-    { code, stageCode },
-  );
-  return { id: row!.id, code };
-}
+let q: ReturnType<typeof resultFixtures>['q'];
+let freshFamily: ReturnType<typeof resultFixtures>['freshFamily'];
+let item: ReturnType<typeof resultFixtures>['item'];
+let result: ReturnType<typeof resultFixtures>['result'];
+let station: ReturnType<typeof resultFixtures>['station'];
 
 describe('yields from a hand-counted fixture', () => {
   it('when results are first attempts, repeats, corrections and earlier tries, then FPY, RTY and the per-station split are as counted by hand', async () => {

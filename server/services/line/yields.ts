@@ -9,13 +9,17 @@ import { plantSettings } from '../plant.js';
  * when no earlier result of the item at that stage exists; a result replaced by a correction does
  * not count, its correction stands in its place. FPY per stage (and station) = first attempts that
  * passed / first attempts; RTY per family = the product of its stages' FPYs.
+ *
+ * `firstAttemptsSql(fromDay, toDay)`: the first attempts recorded in plant days [fromDay, toDay],
+ * both SQL date expressions.
  */
-export const FIRST_ATTEMPTS_SQL = `
-  SELECT r.stage_id, r.station_id, i.engine_family_id, r.verdict
+export const firstAttemptsSql = (fromDay: string, toDay: string) => `
+  SELECT r.stage_id, r.station_id, i.engine_family_id, r.verdict,
+         (r.finished_at AT TIME ZONE :tz)::date AS day
     FROM stage_results r
     JOIN items i ON i.id = r.item_id
-   WHERE r.finished_at >= (CAST(:from AS date)::timestamp AT TIME ZONE :tz)
-     AND r.finished_at < ((CAST(:to AS date) + 1)::timestamp AT TIME ZONE :tz)
+   WHERE r.finished_at >= ((${fromDay})::timestamp AT TIME ZONE :tz)
+     AND r.finished_at < (((${toDay}) + 1)::timestamp AT TIME ZONE :tz)
      AND (CAST(:family AS int) IS NULL OR i.engine_family_id = :family)
      AND NOT EXISTS (SELECT 1 FROM stage_results x WHERE x.supersedes_id = r.id)
      AND NOT EXISTS (
@@ -24,10 +28,30 @@ export const FIRST_ATTEMPTS_SQL = `
           AND (p.finished_at, p.id) < (r.finished_at, r.id)
           AND NOT EXISTS (SELECT 1 FROM stage_results y WHERE y.supersedes_id = p.id))`;
 
+/**
+ * The days of [:from, :to] counted in `yield_days` (server/services/line/yield-days.ts) are summed
+ * from there; from the first day not counted in the plant's time zone on, results are judged live.
+ * Days before the first result on record have nothing to count.
+ * One statement, so both halves read the same snapshot.
+ */
 export const YIELD_SQL = `
-  WITH f AS (${FIRST_ATTEMPTS_SQL})
+  WITH live AS MATERIALIZED (
+    SELECT coalesce(min(d)::date, CAST(:to AS date) + 1) AS from_day
+      FROM generate_series(CAST(:from AS date), CAST(:to AS date), interval '1 day') d
+     WHERE d >= (SELECT (min(finished_at) AT TIME ZONE :tz)::date FROM stage_results)
+       AND NOT EXISTS (SELECT 1 FROM yield_days_done x WHERE x.day = d::date AND x.time_zone = :tz)
+  ),
+  f AS (
+    SELECT y.stage_id, y.station_id, y.engine_family_id, y.entered, y.first_pass
+      FROM yield_days y
+     WHERE y.day >= CAST(:from AS date) AND y.day < (SELECT from_day FROM live)
+       AND (CAST(:family AS int) IS NULL OR y.engine_family_id = :family)
+    UNION ALL
+    SELECT a.stage_id, a.station_id, a.engine_family_id, 1, (a.verdict = 'pass')::int
+      FROM (${firstAttemptsSql('(SELECT from_day FROM live)', 'CAST(:to AS date)')}) a
+  )
   SELECT s.code AS stage_code, s.name AS stage_name, st.code AS station, fam.code AS family_code,
-         count(*)::int AS entered, count(*) FILTER (WHERE f.verdict = 'pass')::int AS first_pass,
+         sum(f.entered)::int AS entered, sum(f.first_pass)::int AS first_pass,
          min(rs.position) AS position
     FROM f
     JOIN stages s ON s.id = f.stage_id
