@@ -1,6 +1,6 @@
 import { PLANT } from '../db/seeders/plant.js';
 import { createSequelize } from '../server/db.js';
-import { partsSql, readingsSql, scopeOf, totalsSql } from '../server/services/blast-radius.js';
+import { scopeOf, summarySql } from '../server/services/blast-radius.js';
 import { todayIn } from '../shared/domain/warranty.js';
 import type { BlastRadiusJson } from '../shared/schemas/gauges.js';
 import { readBoth, type Ctx, type Side } from './measure.js';
@@ -121,11 +121,7 @@ export async function measureBlast(c: Ctx, rate: number): Promise<BlastFigures> 
   let script: string;
   try {
     const scope = await scopeOf({ gauge: BLAST_GAUGE });
-    script = [
-      inline(partsSql(scope), { ...scope.replacements, lotId: scope.lotId }),
-      inline(readingsSql(scope, 200), { ...scope.replacements, limit: 200 }),
-      inline(totalsSql(scope), scope.replacements),
-    ].join('');
+    script = inline(summarySql(scope), { ...scope.replacements, limit: 200 });
   } finally {
     await sequelize.close();
   }
@@ -135,10 +131,9 @@ export async function measureBlast(c: Ctx, rate: number): Promise<BlastFigures> 
     await fetch(`${c.api}${path}`, { headers: { cookie: c.cookies.quality } })
   ).json()) as BlastRadiusJson;
   // both sides must answer the same question, or the comparison means nothing
-  const [, , totals] = script.split(';\n');
   const {
     rows: [raw],
-  } = await c.db.query<{ readings: number }>(totals!);
+  } = await c.db.query<{ readings: number }>(script);
   if (raw!.readings !== probe.totals.readings) {
     throw new Error(`blast radius: the API counts ${probe.totals.readings} readings, SQL alone ${raw!.readings}`);
   }

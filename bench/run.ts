@@ -18,6 +18,19 @@ import { startApi } from './server.js';
 import { measureSpc } from './spc.js';
 import { measureLine } from './line.js';
 import { measureBlast } from './blast.js';
+import { createSequelize } from '../server/db.js';
+import { countYieldDays } from '../server/services/line/yield-days.js';
+
+async function countAllYieldDays(dbUrl: string) {
+  const sequelize = createSequelize(dbUrl, { poolMax: 1 });
+  try {
+    let days = 0;
+    for (let c = await countYieldDays(sequelize); c.days; c = await countYieldDays(sequelize)) days += c.days;
+    return days;
+  } finally {
+    await sequelize.close();
+  }
+}
 
 const url = process.env.DATABASE_URL!;
 const pgBin = process.env.PG_BIN!;
@@ -93,12 +106,16 @@ async function seedUnits(from: number, to: number) {
   );
 }
 
-/** Blocks waiting at bore and hone (one in twenty on hold with an open NCR instead). */
+/**
+ * Blocks waiting at bore and hone (one in twenty on hold with an open NCR instead). They reached
+ * the line over the last two weeks, as a queue builds, not all today: each copy's history ends on
+ * one of the last 14 days.
+ */
 async function seedPool(count: number) {
   const copies = Array.from({ length: count }, (_, i) => ({
     k: POOL_BASE + i + 1,
     template: corrie,
-    shipAt: new Date(),
+    shipAt: new Date(Date.now() - (i % 14) * 86_400_000),
     customerId: customers[0]!,
     pool: true,
   }));
@@ -200,6 +217,14 @@ try {
     for (const [k, v] of [...seedTimes].sort((a, b) => b[1] - a[1]).slice(0, 15)) log(`  ${v.toFixed(1)} s  ${k}`);
   }
   seeding.push({ phase: '100 %', seconds: (Date.now() - t) / 1000, counts: await counts() });
+  // the history was written with earlier times, so its plant days are not counted for the yield
+  // report yet: count them as the API's job would over its next runs
+  t = Date.now();
+  const yieldDays = await countAllYieldDays(url);
+  log(
+    `counted ${yieldDays.toLocaleString('en')} plant days for the yield report in ${((Date.now() - t) / 1000).toFixed(1)} s`,
+  );
+  const yieldCount = { days: yieldDays, seconds: (Date.now() - t) / 1000 };
 
   const trail100 = await measureTrail(c, READ_RATE);
   const lots = await measureLots(c, READ_RATE);
@@ -241,6 +266,7 @@ try {
     units: UNITS,
     seconds: SECONDS,
     seeding,
+    yieldCount,
     trail: { tenth: trail10, full: trail100 },
     lots,
     ncrs,

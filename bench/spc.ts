@@ -3,6 +3,8 @@ import type { RuleJson } from '../shared/schemas/spec.js';
 import {
   partReadingsSql,
   rehearsalReadingsSql,
+  rehearsalRow,
+  type RehearsalRow,
   SHIPPED_UNITS_SQL,
   type ReadingFilter,
 } from '../server/services/spc/readings.js';
@@ -77,12 +79,12 @@ export async function measureSpc(c: Ctx, rate: number): Promise<SpcFigures> {
   const readSql = rehearsalReadingsSql(filter);
   const {
     rows: [first],
-  } = await c.db.query<{ parts: [number, string, number, number, [string, number | null, 'pass' | 'fail'][]][] }>(
-    inline(readSql.sql, readSql.replacements),
-  );
-  const stored: StoredReading[] = first!.parts.flatMap(([itemId, , , , readings]) =>
-    readings.map(([position, value, verdict]) => ({ partId: String(itemId), position, value, verdict })),
-  );
+  } = await c.db.query<{ parts: RehearsalRow[] }>(inline(readSql.sql, readSql.replacements));
+  const stored: StoredReading[] = first!.parts
+    .map(rehearsalRow)
+    .flatMap(({ itemId, readings }) =>
+      readings.map(([position, value, verdict]) => ({ partId: String(itemId), position, value, verdict })),
+    );
   const r = rehearseRule({ readings: stored, rule: { ...draft, limitType: 'nominal' }, resolution: 0.0001 });
   const flipped = r.parts.filter((p) => p.flip === 'pass-to-fail').map((p) => Number(p.partId));
   const shippedSql = flipped.length ? inline(SHIPPED_UNITS_SQL, { ids: flipped }) : 'SELECT 1';

@@ -154,14 +154,14 @@ export async function scopeOf(q: BlastQuery, transaction?: Transaction): Promise
 /** Readings in scope, each with its limits and whether the guard band could turn its verdict. */
 export const judgedSql = (s: Scope) => `
   SELECT r.id, r.stage_result_id, r.characteristic_id, r.position, r.value, r.unit, r.verdict, r.gauge_id,
-         r.created_at, sr.item_id, sr.operator_id, sr.stage_id, lim.lower, lim.upper,
+         r.created_at, lim.lower, lim.upper,
          CASE WHEN r.value IS NULL OR e.err IS NULL OR e.err <= 0 THEN false
               WHEN r.verdict = 'pass' THEN (lim.lower IS NOT NULL AND abs(r.value - lim.lower) <= e.err)
                                         OR (lim.upper IS NOT NULL AND abs(r.value - lim.upper) <= e.err)
               ELSE (lim.lower IS NULL OR r.value + e.err >= lim.lower) AND (lim.upper IS NULL OR r.value - e.err <= lim.upper)
          END AS could_change
     FROM readings r
-    JOIN stage_results sr ON sr.id = r.stage_result_id
+    ${/\bsr\./.test(s.where ?? '') ? 'JOIN stage_results sr ON sr.id = r.stage_result_id' : ''}
     LEFT JOIN tolerance_rules tr ON tr.id = r.tolerance_rule_id
     CROSS JOIN LATERAL (SELECT
       CASE tr.limit_type WHEN 'nominal' THEN tr.nominal - coalesce(tr.minus_tol, 0)
@@ -171,16 +171,8 @@ export const judgedSql = (s: Scope) => `
     CROSS JOIN LATERAL (SELECT (CAST(:errors AS jsonb) ->> r.unit)::numeric AS err) e
    WHERE ${s.where}`;
 
-/** The parts in scope and where each is now: its unit (if built into one), that unit's shipment. */
-export const partsSql = (s: Scope) => `
-  WITH ${
-    s.lotId
-      ? `parts AS (SELECT ul.unit_item_id AS item_id, 0 AS readings, 0 AS could_change FROM unit_lots ul
-                    WHERE ul.part_lot_id = :lotId GROUP BY ul.unit_item_id)`
-      : `j AS (${judgedSql(s)}),
-         parts AS (SELECT item_id, count(*)::int AS readings, (count(*) FILTER (WHERE could_change))::int AS could_change
-                     FROM j GROUP BY item_id)`
-  }
+/** The parts in scope (a CTE `parts`: item_id, readings, could_change) and where each is now: its unit (if built into one), that unit's shipment. */
+const PARTS_SELECT = `
   SELECT i.id, i.serial, i.kind, i.status, p.readings, p.could_change, u.id AS unit_id, u.serial AS unit_serial,
          u.status AS unit_status, sh.reference, sh.ship_date, c.name AS customer, c.email AS customer_email
     FROM parts p
@@ -195,6 +187,24 @@ export const partsSql = (s: Scope) => `
                         ORDER BY s.id DESC LIMIT 1) sh ON true
     LEFT JOIN customers c ON c.id = sh.customer_id
    ORDER BY p.could_change DESC, i.serial`;
+
+// readings counted by result first, so only the results (not every reading) look up their part
+const PARTS_OF_READINGS = `parts AS (
+    SELECT sr.item_id, sum(g.readings)::int AS readings, sum(g.could_change)::int AS could_change
+      FROM (SELECT stage_result_id, count(*) AS readings, count(*) FILTER (WHERE could_change) AS could_change
+              FROM j GROUP BY stage_result_id) g
+      JOIN stage_results sr ON sr.id = g.stage_result_id
+     GROUP BY sr.item_id)`;
+
+/** The parts in scope and where each is now: its unit (if built into one), that unit's shipment. */
+export const partsSql = (s: Scope) => `
+  WITH ${
+    s.lotId
+      ? `parts AS (SELECT ul.unit_item_id AS item_id, 0 AS readings, 0 AS could_change FROM unit_lots ul
+                    WHERE ul.part_lot_id = :lotId GROUP BY ul.unit_item_id)`
+      : `j AS (${judgedSql(s)}), ${PARTS_OF_READINGS}`
+  }
+  ${PARTS_SELECT}`;
 
 export type PartRow = {
   id: number;
@@ -227,22 +237,39 @@ export async function blastParts(sequelize: Sequelize, s: Scope, transaction?: T
   });
 }
 
-/** The readings in scope with their names, most doubtful first (`:limit` of them unless `limit` is null). */
-export const readingsSql = (s: Scope, limit: number | null) => `
+/** Readings (`from`: judged rows) with their names, most doubtful first (`:limit` of them unless `limit` is null). */
+const readingsSelect = (from: string, limit: number | null) => `
   SELECT i.serial, st.name AS stage, c.name AS characteristic, j.position, j.value, j.unit, j.verdict,
-         j.lower, j.upper, j.could_change, j.created_at, u.name AS operator, g.code AS gauge
-    FROM (${judgedSql(s)}) j
-    JOIN items i ON i.id = j.item_id
-    JOIN stages st ON st.id = j.stage_id
+         j.lower, j.upper, j.could_change, j.created_at, u.name AS operator, g.code AS gauge, j.id
+    FROM ${from} j
+    JOIN stage_results sr ON sr.id = j.stage_result_id
+    JOIN items i ON i.id = sr.item_id
+    JOIN stages st ON st.id = sr.stage_id
     JOIN characteristics c ON c.id = j.characteristic_id
-    JOIN users u ON u.id = j.operator_id
+    JOIN users u ON u.id = sr.operator_id
     LEFT JOIN gauges g ON g.id = j.gauge_id
    ORDER BY j.could_change DESC, j.created_at DESC, j.id DESC
    ${limit === null ? '' : 'LIMIT :limit'}`;
 
-/** How many readings are in scope, and how many of their verdicts the guard band could change. */
-export const totalsSql = (s: Scope) =>
-  `SELECT count(*)::int AS readings, (count(*) FILTER (WHERE could_change))::int AS could_change FROM (${judgedSql(s)}) j`;
+/** The readings in scope with their names, most doubtful first (`:limit` of them unless `limit` is null). */
+export const readingsSql = (s: Scope, limit: number | null) =>
+  readingsSelect(limit === null ? `(${judgedSql(s)})` : firstJudged(`(${judgedSql(s)})`), limit);
+
+// the most doubtful `:limit` judged readings before their names are looked up
+const firstJudged = (from: string) =>
+  `(SELECT * FROM ${from} jj ORDER BY jj.could_change DESC, jj.created_at DESC, jj.id DESC LIMIT :limit)`;
+
+/**
+ * The whole summary of readings in scope in one statement: the readings are judged once (a
+ * materialized CTE), then counted, grouped by part and the most doubtful `:limit` named, each as JSON.
+ */
+export const summarySql = (s: Scope) => `
+  WITH j AS MATERIALIZED (${judgedSql(s)}), ${PARTS_OF_READINGS}
+  SELECT (SELECT count(*)::int FROM j) AS readings,
+         (SELECT (count(*) FILTER (WHERE could_change))::int FROM j) AS could_change,
+         (SELECT coalesce(json_agg(x ORDER BY x.could_change DESC, x.serial), '[]') FROM (${PARTS_SELECT}) x) AS parts,
+         (SELECT coalesce(json_agg(y ORDER BY y.could_change DESC, y.created_at DESC, y.id DESC), '[]')
+            FROM (${readingsSelect(firstJudged('j'), 0)}) y) AS named`;
 
 type ReadingRow = {
   serial: string;
@@ -255,7 +282,8 @@ type ReadingRow = {
   lower: string | number | null;
   upper: string | number | null;
   could_change: boolean;
-  created_at: Date;
+  /** a Date from a row, an ISO string from JSON */
+  created_at: Date | string;
   operator: string;
   gauge: string | null;
 };
@@ -269,7 +297,11 @@ export async function blastReadings(sequelize: Sequelize, s: Scope, limit: numbe
     type: QueryTypes.SELECT,
     replacements: { ...s.replacements, limit },
   });
-  return rows.map((r) => ({
+  return rows.map(presentReading);
+}
+
+function presentReading(r: ReadingRow): BlastReadingJson {
+  return {
     serial: r.serial,
     stage: r.stage,
     characteristic: r.characteristic,
@@ -280,10 +312,10 @@ export async function blastReadings(sequelize: Sequelize, s: Scope, limit: numbe
     lower: n(r.lower),
     upper: n(r.upper),
     couldChange: r.could_change,
-    takenAt: r.created_at.toISOString(),
+    takenAt: new Date(r.created_at).toISOString(),
     operator: r.operator,
     gauge: r.gauge,
-  }));
+  };
 }
 
 const presentPart = (p: PartRow): BlastPartJson => ({
@@ -302,16 +334,23 @@ const presentPart = (p: PartRow): BlastPartJson => ({
 
 export async function blastRadius(sequelize: Sequelize, q: BlastQuery, readingLimit = 200): Promise<BlastRadiusJson> {
   const s = await scopeOf(q);
-  const [parts, readings, totals] = await Promise.all([
-    blastParts(sequelize, s),
-    blastReadings(sequelize, s, readingLimit),
-    s.where
-      ? sequelize.query<{ readings: number; could_change: number }>(totalsSql(s), {
-          type: QueryTypes.SELECT,
-          replacements: s.replacements,
-        })
-      : Promise.resolve([{ readings: 0, could_change: 0 }]),
-  ]);
+  let parts: PartRow[];
+  let readings: BlastReadingJson[] = [];
+  let totals = { readings: 0, could_change: 0 };
+  if (s.where) {
+    // one statement: the readings judged once, then counted, grouped by part and the first named
+    const [row] = await sequelize.query<{
+      readings: number;
+      could_change: number;
+      parts: PartRow[];
+      named: ReadingRow[];
+    }>(summarySql(s), { type: QueryTypes.SELECT, replacements: { ...s.replacements, limit: readingLimit } });
+    parts = row!.parts;
+    readings = row!.named.map(presentReading);
+    totals = { readings: row!.readings, could_change: row!.could_change };
+  } else {
+    parts = await blastParts(sequelize, s);
+  }
   const shown = parts.map(presentPart);
   const units = new Set(parts.map((p) => p.unit_id).filter((v) => v !== null));
   const byCustomer = new Map<string, BlastRadiusJson['customers'][number]>();
@@ -328,8 +367,8 @@ export async function blastRadius(sequelize: Sequelize, q: BlastQuery, readingLi
     trigger: { kind: s.kind, label: s.label, from: s.from?.toISOString() ?? null, to: s.to?.toISOString() ?? null },
     guardBand: s.guardBand,
     totals: {
-      readings: totals[0]!.readings,
-      couldChange: totals[0]!.could_change,
+      readings: totals.readings,
+      couldChange: totals.could_change,
       parts: parts.length,
       units: units.size,
       inPlant: shown.filter((p) => p.where === 'in_plant').length,

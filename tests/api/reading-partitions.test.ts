@@ -116,3 +116,50 @@ describe('readings by month', () => {
     ).rejects.toThrow(/records/);
   });
 });
+
+describe('result values: a result’s readings of one characteristic side by side', () => {
+  it('when a result is recorded, then result_values holds exactly its readings, in the order stored', async () => {
+    const readings = await rows<{ characteristic_id: number; position: string; value: string | null; verdict: string }>(
+      `SELECT characteristic_id, position, value, verdict FROM readings WHERE stage_result_id = $1 ORDER BY id`,
+      [resultId],
+    );
+    const values = await rows<{
+      characteristic_id: number;
+      positions: string[];
+      vals: (number | null)[];
+      verdicts: string[];
+    }>(
+      `SELECT characteristic_id, positions, vals, verdicts FROM result_values WHERE stage_result_id = $1 ORDER BY characteristic_id`,
+      [resultId],
+    );
+    const chars = [...new Set(readings.map((r) => r.characteristic_id))].sort((a, b) => a - b);
+    expect(values.map((v) => v.characteristic_id)).toEqual(chars);
+    for (const v of values) {
+      const mine = readings.filter((r) => r.characteristic_id === v.characteristic_id);
+      expect(v.positions).toEqual(mine.map((r) => r.position));
+      expect(v.vals).toEqual(mine.map((r) => (r.value === null ? null : Number(r.value))));
+      expect(v.verdicts).toEqual(mine.map((r) => r.verdict));
+    }
+  });
+
+  it('when more readings of the same result arrive in a later statement, then they are added after the first', async () => {
+    const [first] = await rows<{ characteristic_id: number; n: number }>(
+      `SELECT characteristic_id, cardinality(positions) AS n FROM result_values WHERE stage_result_id = $1
+        ORDER BY characteristic_id LIMIT 1`,
+      [resultId],
+    );
+    await t.sequelize.query(
+      `INSERT INTO readings (stage_result_id, characteristic_id, position, value, verdict)
+       VALUES ($1, $2, 'late-1', 1.25, 'pass'), ($1, $2, 'late-2', NULL, 'fail')`,
+      { bind: [resultId, first!.characteristic_id] },
+    );
+    const [after] = await rows<{ positions: string[]; vals: (number | null)[]; verdicts: string[] }>(
+      `SELECT positions, vals, verdicts FROM result_values WHERE stage_result_id = $1 AND characteristic_id = $2`,
+      [resultId, first!.characteristic_id],
+    );
+    expect(after!.positions).toHaveLength(first!.n + 2);
+    expect(after!.positions.slice(-2)).toEqual(['late-1', 'late-2']);
+    expect(after!.vals.slice(-2)).toEqual([1.25, null]);
+    expect(after!.verdicts.slice(-2)).toEqual(['pass', 'fail']);
+  });
+});

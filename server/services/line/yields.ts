@@ -51,13 +51,14 @@ export const YIELD_SQL = `
       FROM (${firstAttemptsSql('(SELECT from_day FROM live)', 'CAST(:to AS date)')}) a
   )
   SELECT s.code AS stage_code, s.name AS stage_name, st.code AS station, fam.code AS family_code,
-         sum(f.entered)::int AS entered, sum(f.first_pass)::int AS first_pass,
+         sum(g.entered)::int AS entered, sum(g.first_pass)::int AS first_pass,
          min(rs.position) AS position
-    FROM f
-    JOIN stages s ON s.id = f.stage_id
-    JOIN engine_families fam ON fam.id = f.engine_family_id
-    LEFT JOIN stations st ON st.id = f.station_id
-    LEFT JOIN routes ro ON ro.engine_family_id = f.engine_family_id AND ro.part_kind = s.part_kind AND ro.active
+    FROM (SELECT f.stage_id, f.station_id, f.engine_family_id, sum(f.entered) AS entered, sum(f.first_pass) AS first_pass
+            FROM f GROUP BY f.stage_id, f.station_id, f.engine_family_id) g
+    JOIN stages s ON s.id = g.stage_id
+    JOIN engine_families fam ON fam.id = g.engine_family_id
+    LEFT JOIN stations st ON st.id = g.station_id
+    LEFT JOIN routes ro ON ro.engine_family_id = g.engine_family_id AND ro.part_kind = s.part_kind AND ro.active
     LEFT JOIN route_stages rs ON rs.route_id = ro.id AND rs.stage_id = s.id
    GROUP BY s.code, s.name, s.part_kind, st.code, fam.code
    ORDER BY fam.code, s.part_kind, position, s.code, st.code`;
@@ -72,19 +73,25 @@ export const LOSSES_SQL = `SELECT count(*) FILTER (WHERE n.disposition = 'scrap'
           AND n.decided_at < ((CAST(:to AS date) + 1)::timestamp AT TIME ZONE :tz)
           AND (CAST(:family AS int) IS NULL OR i.engine_family_id = :family)`;
 
-export const SALVAGE_SQL = `SELECT cr.source, cr.casting_number, count(*)::int AS cores,
-              sum((SELECT count(*) FROM item_links l
-                    WHERE l.parent_item_id = i.id AND l.link_type = 'harvested_from'))::int AS kept,
-              sum(jsonb_array_length(coalesce(i.attributes->'teardown'->'scrapped', '[]'::jsonb)))::int AS scrapped_at_teardown,
-              sum((SELECT count(*) FROM item_links l JOIN items p ON p.id = l.child_item_id
-                    WHERE l.parent_item_id = i.id AND l.link_type = 'harvested_from' AND p.status = 'scrapped'))::int
-                AS scrapped_later
-         FROM core_receipts cr JOIN items i ON i.id = cr.item_id
-        WHERE cr.received_on BETWEEN CAST(:from AS date) AND CAST(:to AS date) AND i.status = 'torn_down'
-          AND (CAST(:family AS int) IS NULL OR i.engine_family_id = :family)
-        GROUP BY cr.source, cr.casting_number
-        ORDER BY count(*) DESC, cr.source, cr.casting_number
-        LIMIT 100`;
+/** Salvage per core source and casting number: the cores torn down, the parts they gave, and what was scrapped. */
+export const SALVAGE_SQL = `
+  WITH c AS MATERIALIZED (
+    SELECT cr.source, cr.casting_number, i.id,
+           jsonb_array_length(coalesce(i.attributes->'teardown'->'scrapped', '[]'::jsonb)) AS scrapped_at_teardown
+      FROM core_receipts cr JOIN items i ON i.id = cr.item_id
+     WHERE cr.received_on BETWEEN CAST(:from AS date) AND CAST(:to AS date) AND i.status = 'torn_down'
+       AND (CAST(:family AS int) IS NULL OR i.engine_family_id = :family)),
+  k AS (
+    SELECT l.parent_item_id AS core_id, count(*) AS kept, count(*) FILTER (WHERE p.status = 'scrapped') AS scrapped_later
+      FROM c JOIN item_links l ON l.parent_item_id = c.id AND l.link_type = 'harvested_from'
+      JOIN items p ON p.id = l.child_item_id
+     GROUP BY 1)
+  SELECT c.source, c.casting_number, count(*)::int AS cores, coalesce(sum(k.kept), 0)::int AS kept,
+         sum(c.scrapped_at_teardown)::int AS scrapped_at_teardown, coalesce(sum(k.scrapped_later), 0)::int AS scrapped_later
+    FROM c LEFT JOIN k ON k.core_id = c.id
+   GROUP BY c.source, c.casting_number
+   ORDER BY count(*) DESC, c.source, c.casting_number
+   LIMIT 100`;
 
 type Counted = {
   stage_code: string;

@@ -3,9 +3,11 @@ import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 /**
  * The stored readings SPC works on, read in one statement each and returned as one JSON document
  * (parsed natively, far cheaper than a row per reading). A result a correction superseded is left
- * out: the correction is what was measured. Readings are found through `readings_characteristic_idx`
- * (characteristic, time) and grouped by result before anything else is joined, so the joins see one
- * row per part. The statements are exported so the benchmark runs exactly these in PostgreSQL alone.
+ * out: the correction is what was measured. They are read from `result_values`, one row per result
+ * and characteristic with its readings in arrays (db/migrations/…-result-values), found through
+ * (characteristic, time); only a chart of one gauge reads `readings` themselves, as a result's
+ * readings of one characteristic may come from two gauges. The statements are exported so the
+ * benchmark runs exactly these in PostgreSQL alone.
  */
 
 export type ReadingFilter = {
@@ -38,6 +40,25 @@ function where(f: ReadingFilter) {
  * Time is the reading's stored time, which is the result's transaction time; points are in that order.
  */
 export function partReadingsSql(f: ReadingFilter): Sql {
+  const w = where(f);
+  if (f.gaugeId) return partReadingsByGaugeSql(f);
+  return {
+    replacements: w.replacements,
+    sql: `SELECT coalesce(json_agg(json_build_array(v.stage_result_id, i.serial,
+                                   (extract(epoch FROM v.created_at) * 1000)::bigint, v.station_id, v.gauge_id,
+                                   array_remove(v.vals, NULL))
+                                 ORDER BY v.created_at, v.stage_result_id), '[]') AS parts
+  FROM result_values v
+  JOIN items i ON i.id = v.item_id
+ WHERE v.characteristic_id = :characteristicId AND v.created_at >= :from AND v.created_at < :to
+   AND v.engine_family_id = :familyId ${w.station.replace('sr.', 'v.')}
+   AND array_remove(v.vals, NULL) <> '{}'
+   AND v.stage_result_id NOT IN (SELECT x.supersedes_id FROM stage_results x WHERE x.supersedes_id IS NOT NULL)`,
+  };
+}
+
+/** The same rows for one gauge's readings, from `readings` (a result may mix gauges). */
+function partReadingsByGaugeSql(f: ReadingFilter): Sql {
   const w = where(f);
   return {
     replacements: w.replacements,
@@ -92,13 +113,33 @@ export async function partReadings(
  */
 export function rehearsalReadingsSql(f: ReadingFilter): Sql {
   const w = where(f);
+  if (f.gaugeId) return rehearsalReadingsByGaugeSql(f);
   return {
     replacements: w.replacements,
-    sql: `SELECT coalesce(json_agg(json_build_array(x.item_id, x.serial, x.result_id, x.at, x.readings)
+    sql: `SELECT coalesce(json_agg(json_build_array(x.item_id, x.serial, x.stage_result_id, x.at, x.positions, x.vals, x.verdicts)
+                                 ORDER BY x.at, x.stage_result_id), '[]') AS parts
+  FROM (SELECT DISTINCT ON (v.item_id) v.item_id, i.serial, v.stage_result_id,
+               (extract(epoch FROM v.created_at) * 1000)::bigint AS at, v.positions, v.vals, v.verdicts
+          FROM result_values v
+          JOIN items i ON i.id = v.item_id
+         WHERE v.characteristic_id = :characteristicId AND v.created_at >= :from AND v.created_at < :to
+           AND v.engine_family_id = :familyId ${w.station.replace('sr.', 'v.')}
+           AND v.stage_result_id NOT IN (SELECT s.supersedes_id FROM stage_results s WHERE s.supersedes_id IS NOT NULL)
+         ORDER BY v.item_id, v.created_at DESC, v.stage_result_id DESC) x`,
+  };
+}
+
+/** The same rows for one gauge's readings, from `readings`. */
+function rehearsalReadingsByGaugeSql(f: ReadingFilter): Sql {
+  const w = where(f);
+  return {
+    replacements: w.replacements,
+    sql: `SELECT coalesce(json_agg(json_build_array(x.item_id, x.serial, x.result_id, x.at, x.positions, x.vals, x.verdicts)
                                  ORDER BY x.at, x.result_id), '[]') AS parts
-  FROM (SELECT DISTINCT ON (sr.item_id) sr.item_id, i.serial, p.result_id, p.at, p.readings
+  FROM (SELECT DISTINCT ON (sr.item_id) sr.item_id, i.serial, p.result_id, p.at, p.positions, p.vals, p.verdicts
           FROM (SELECT r.stage_result_id AS result_id, (extract(epoch FROM min(r.created_at)) * 1000)::bigint AS at,
-                       json_agg(json_build_array(r.position, r.value, r.verdict)) AS readings
+                       json_agg(r.position ORDER BY r.id) AS positions, json_agg(r.value ORDER BY r.id) AS vals,
+                       json_agg(r.verdict ORDER BY r.id) AS verdicts
                   FROM readings r
                  WHERE r.characteristic_id = :characteristicId AND r.created_at >= :from AND r.created_at < :to ${w.gauge}
                  GROUP BY r.stage_result_id) p
@@ -124,18 +165,25 @@ export async function rehearsalReadings(
   transaction?: Transaction,
 ): Promise<PartVerdicts[]> {
   const { sql, replacements } = rehearsalReadingsSql(f);
-  const [row] = await sequelize.query<{ parts: [number, string, number, number, PartVerdicts['readings']][] }>(sql, {
+  const [row] = await sequelize.query<{ parts: RehearsalRow[] }>(sql, {
     type: QueryTypes.SELECT,
     replacements,
     transaction,
   });
-  return (row?.parts ?? []).map(([itemId, serial, resultId, at, readings]) => ({
+  return (row?.parts ?? []).map(rehearsalRow);
+}
+
+/** One row of rehearsalReadingsSql: [item id, serial, result id, time (ms), positions, values, verdicts]. */
+export type RehearsalRow = [number, string, number, number, string[], (number | null)[], ('pass' | 'fail')[]];
+
+export function rehearsalRow([itemId, serial, resultId, at, positions, vals, verdicts]: RehearsalRow): PartVerdicts {
+  return {
     itemId,
     serial,
     resultId,
     at: Number(at),
-    readings,
-  }));
+    readings: positions.map((p, k) => [p, vals[k] ?? null, verdicts[k]!]),
+  };
 }
 
 /** Shipped units (a live shipment) that hold one of these parts now, or are these items themselves. */
