@@ -20,7 +20,7 @@ export type Ctx = {
 };
 
 // the API's pool holds 10 connections (server/db.ts): the raw side gets as many clients
-const CLIENTS = 10;
+export const CLIENTS = 10;
 const WARMUP_SECONDS = 2;
 const brief = (r: HttpRun | SqlRun) =>
   `${r.achieved.toFixed(0)}/s, p50 ${r.latency.p50.toFixed(1)} ms, p99 ${r.latency.p99.toFixed(1)} ms, ${r.errors} errors`;
@@ -121,6 +121,8 @@ export async function measureNcrList(c: Ctx, rate: number) {
 export type WriteStep = { rate: number | null; api: HttpRun | null; raw: SqlRun };
 export type WritePath = {
   station: string;
+  /** how many of the waiting parts the runs used (the CPU profile takes the next ones) */
+  partsUsed: number;
   readingsSent: number;
   readingsStored: number;
   statementsApi: number;
@@ -135,19 +137,19 @@ export type WritePath = {
  * limits), and pgbench running the same transaction. The ladder stops climbing for the API once it
  * falls behind its rate; pgbench still runs every step.
  */
-export async function measureWritePath(
-  c: Ctx,
-  opts: {
-    station: string;
-    rates: number[];
-    serials: string[];
-    form: StationFormJson;
-    readings: ReadingInput[];
-    gauge: string | null;
-    gauges: Record<string, string>;
-  },
-): Promise<WritePath> {
-  let used = 0;
+export type WriteOpts = {
+  station: string;
+  rates: number[];
+  serials: string[];
+  form: StationFormJson;
+  readings: ReadingInput[];
+  gauge: string | null;
+  gauges: Record<string, string>;
+};
+
+/** Submissions of station results, each for the next part of `serials` from `from` on, with a new key. */
+export function submissions(opts: Omit<WriteOpts, 'rates'>, from = 0) {
+  let used = from;
   const scatter = (r: ReadingInput): ReadingInput => {
     const rule = opts.form.characteristics.find((x) => x.code === r.characteristic)?.rule;
     if (r.value === undefined || rule?.limitType !== 'nominal' || !rule.minusTol) return r;
@@ -155,21 +157,28 @@ export async function measureWritePath(
     const k = Math.floor(Math.random() * 5) - 2;
     return { ...r, value: Number((Math.round(r.value / step + k) * step).toFixed(6)) };
   };
-  const next = () => {
-    const serial = opts.serials[used++ % opts.serials.length]!;
-    return {
-      method: 'POST' as const,
-      path: '/api/results',
-      body: JSON.stringify({
-        idempotencyKey: randomUUID(),
-        serial,
-        station: opts.station,
-        gauge: opts.gauge,
-        gauges: opts.gauges,
-        readings: opts.readings.map(scatter),
-      }),
-    };
+  return {
+    next: () => {
+      const serial = opts.serials[used++ % opts.serials.length]!;
+      return {
+        method: 'POST' as const,
+        path: '/api/results',
+        body: JSON.stringify({
+          idempotencyKey: randomUUID(),
+          serial,
+          station: opts.station,
+          gauge: opts.gauge,
+          gauges: opts.gauges,
+          readings: opts.readings.map(scatter),
+        }),
+      };
+    },
+    used: () => used,
   };
+}
+
+export async function measureWritePath(c: Ctx, opts: WriteOpts): Promise<WritePath> {
+  const { next, used } = submissions(opts);
   const http = (rate: number | null, seconds: number) =>
     rate
       ? openLoop({ url: c.api, rate, seconds, cookie: c.cookies.operator, next })
@@ -242,6 +251,7 @@ export async function measureWritePath(
   }
   return {
     station: opts.station,
+    partsUsed: used(),
     readingsSent: opts.readings.length,
     readingsStored: Number(sample!.stored),
     statementsApi: Number(count!.calls) / probe,

@@ -3,6 +3,7 @@ import type { Side, WritePath } from './measure.js';
 import type { SpcFigures } from './spc.js';
 import type { LineFigures } from './line.js';
 import type { BlastFigures } from './blast.js';
+import type { WriteProfile } from './write-profile.js';
 import { round } from './stats.js';
 
 export type Figures = {
@@ -25,6 +26,8 @@ export type Figures = {
   line?: LineFigures;
   blast?: BlastFigures;
   write: WritePath;
+  writeProfile?: WriteProfile;
+  yieldCount?: { days: number; seconds: number };
   client: { bundles: BundleRow[]; scan: { p50: number; p95: number; max: number; samples: number[] } };
   wallSeconds: number;
 };
@@ -126,6 +129,24 @@ export function printReport(f: Figures) {
       ]),
     ),
   );
+  if (f.writeProfile) {
+    const w = f.writeProfile;
+    out.push(
+      `\nWrite path flat out under the CPU profiler: ${round(w.run.achieved, 0)}/s; per stored submission the API used ${w.perSubmission.apiCpuMs} ms of CPU and PostgreSQL executed for ${w.perSubmission.dbExecMs} ms (p50 latency ${ms(w.perSubmission.p50Ms)}); the API's CPU by origin:`,
+    );
+    out.push(
+      table(
+        ['where', 'ms', 'share of busy'],
+        w.cpu.byOrigin.slice(0, 14).map((o) => [o.where, `${o.ms}`, `${o.share} %`]),
+      ),
+    );
+    out.push(
+      table(
+        ['hottest functions (self time)', 'ms', 'share'],
+        w.cpu.topFunctions.map((t) => [t.fn, `${t.ms}`, `${t.share} %`]),
+      ),
+    );
+  }
   out.push(`\nReads at ${f.trail.full.api.target}/s (p50 / p95 / p99), ${f.seconds} s each`);
   out.push(
     table(

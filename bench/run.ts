@@ -18,6 +18,7 @@ import { startApi } from './server.js';
 import { measureSpc } from './spc.js';
 import { measureLine } from './line.js';
 import { measureBlast } from './blast.js';
+import { profileWritePath } from './write-profile.js';
 import { createSequelize } from '../server/db.js';
 import { countYieldDays } from '../server/services/line/yield-days.js';
 
@@ -152,7 +153,8 @@ await db.query(`CREATE UNLOGGED TABLE bench_units (k int PRIMARY KEY, serial var
   CREATE SEQUENCE bench_raw_seq;`);
 
 // enough parts for every step, the flat-out run (well under 150/s here) and the probes
-const apiPoolSize = Math.ceil(WRITE_RATES.reduce((a, b) => a + b, 0) * SECONDS * 1.15 + 150 * SECONDS + 500);
+// (flat out twice: once measured, once under the CPU profiler)
+const apiPoolSize = Math.ceil(WRITE_RATES.reduce((a, b) => a + b, 0) * SECONDS * 1.15 + 2 * 150 * SECONDS + 500);
 const rawPoolSize = 2_000;
 const seeding: { phase: string; seconds: number; counts: Record<string, string> }[] = [];
 let t = Date.now();
@@ -260,6 +262,14 @@ try {
     chromiumPath: process.env.CHROMIUM_PATH,
   });
 
+  log('write path flat out once more, the API under the CPU profiler…');
+  const writeProfile = await profileWritePath(
+    c,
+    DIST,
+    { station: STATION, serials: apiParts.map((p) => p.serial), form, readings: passingReadings(form), gauge, gauges },
+    write.partsUsed,
+  );
+
   const figures = {
     at: new Date().toISOString(),
     machine,
@@ -274,6 +284,7 @@ try {
     line,
     blast,
     write,
+    writeProfile,
     client: { bundles, scan },
     wallSeconds: (Date.now() - started) / 1000,
   };

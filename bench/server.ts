@@ -12,10 +12,13 @@ const freePort = () =>
     });
   });
 
-/** The server as `npm start` runs it, in its own process, serving the built client; no mail worker. */
-export async function startApi(databaseUrl: string, clientDir: string) {
+/**
+ * The server as `npm start` runs it, in its own process, serving the built client; no mail worker.
+ * `nodeArgs` go to Node before the script (the write path's CPU profile passes --cpu-prof).
+ */
+export async function startApi(databaseUrl: string, clientDir: string, nodeArgs: string[] = []) {
   const port = await freePort();
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+  const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', 'server/index.ts'], {
     env: {
       ...process.env,
       NODE_ENV: 'production',
