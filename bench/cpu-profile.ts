@@ -45,11 +45,20 @@ export function originOf(url: string, functionName: string): string {
   return 'other';
 }
 
-export function summarizeProfile(profile: CpuProfile, top = 12): CpuSummary {
+/**
+ * `lastUs`: only the samples of the profile's last so many microseconds (the load, not the
+ * process's start, whose module loading would otherwise dominate).
+ */
+export function summarizeProfile(profile: CpuProfile, top = 12, lastUs = Infinity): CpuSummary {
   const byId = new Map(profile.nodes.map((n) => [n.id, n]));
   const self = new Map<number, number>();
   // timeDeltas[i] is the time from the sample before to sample i: it belongs to sample i's frame
-  profile.samples.forEach((id, i) => self.set(id, (self.get(id) ?? 0) + (profile.timeDeltas[i] ?? 0)));
+  const at: number[] = [];
+  profile.timeDeltas.reduce((t, d, i) => (at[i] = t + d), profile.startTime);
+  const from = profile.endTime - lastUs;
+  profile.samples.forEach((id, i) => {
+    if (at[i]! >= from) self.set(id, (self.get(id) ?? 0) + (profile.timeDeltas[i] ?? 0));
+  });
   const origins = new Map<string, number>();
   const fns = new Map<string, number>();
   let wall = 0;
@@ -80,13 +89,13 @@ export function summarizeProfile(profile: CpuProfile, top = 12): CpuSummary {
   };
 }
 
-/** The newest .cpuprofile in `dir`, summarized. */
-export function summarizeNewestProfile(dir: string): CpuSummary {
+/** The newest .cpuprofile in `dir`, summarized (its last `lastUs` microseconds). */
+export function summarizeNewestProfile(dir: string, lastUs = Infinity): CpuSummary {
   const files = fs
     .readdirSync(dir)
     .filter((f) => f.endsWith('.cpuprofile'))
     .map((f) => path.join(dir, f))
     .sort((a, b) => fs.statSync(b).mtimeMs - fs.statSync(a).mtimeMs);
   if (!files.length) throw new Error(`no .cpuprofile in ${dir}`);
-  return summarizeProfile(JSON.parse(fs.readFileSync(files[0]!, 'utf8')) as CpuProfile);
+  return summarizeProfile(JSON.parse(fs.readFileSync(files[0]!, 'utf8')) as CpuProfile, 12, lastUs);
 }

@@ -8,6 +8,7 @@ import { integrateAll } from '../../server/ledger/sequencer.js';
 import { signerFromPem } from '../../server/ledger/signer.js';
 import { verifyAudit } from '../../server/ledger/verify.js';
 import { TEST_PLANT_KEY } from '../support/ledger.js';
+import { adminQuery, databaseUrl } from '../support/own-database.js';
 import { createSequelize } from '../../server/db.js';
 import { migrate } from '../../server/migrate.js';
 import { makeBackupKey, readIdentities, readRecipients } from '../../server/ops/backup-keys.js';
@@ -15,27 +16,13 @@ import { backupDatabase, restoreDatabase, rowCounts } from '../../server/ops/bac
 
 // A seeded plant of its own (not the shared test database, which other files change meanwhile),
 // backed up with pg_dump and restored into a fresh database: same rows, same intact audit log.
-const admin = process.env.ADMIN_DATABASE_URL!;
 const src = `backup_src_${process.pid}`;
 const dst = `backup_dst_${process.pid}`;
 const sealed = `backup_sealed_${process.pid}`;
 const cut = `backup_cut_${process.pid}`;
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'coretrail-backup-'));
-const urlOf = (db: string) => {
-  const u = new URL(admin);
-  u.pathname = `/${db}`;
-  return u.toString();
-};
-
-async function adminQuery(sql: string) {
-  const c = new pg.Client({ connectionString: admin });
-  await c.connect();
-  try {
-    await c.query(sql);
-  } finally {
-    await c.end();
-  }
-}
+const admin = process.env.ADMIN_DATABASE_URL!;
+const urlOf = databaseUrl;
 
 afterAll(async () => {
   await adminQuery(`DROP DATABASE IF EXISTS ${src} WITH (FORCE)`);

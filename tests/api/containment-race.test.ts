@@ -1,14 +1,11 @@
 import { setTimeout as sleep } from 'node:timers/promises';
-import pg from 'pg';
 import request from 'supertest';
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { seedDemoIfEmpty } from '../../db/seeders/demo.js';
-import { createSequelize } from '../../server/db.js';
-import { migrate } from '../../server/migrate.js';
 import { Customer } from '../../server/models/index.js';
 import type { ContainmentJson } from '../../shared/schemas/gauges.js';
-import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
+import { TEST_PASSWORD, cookieFor, makeUser, type TestApp } from '../support/app.js';
+import { expectCommitTimestamps, ownDatabase } from '../support/own-database.js';
 import { cloneUnits, type UnitCopy } from '../support/clone-units.js';
 import { plantToday, releasableUnit } from '../support/parts.js';
 
@@ -21,28 +18,12 @@ import { plantToday, releasableUnit } from '../support/parts.js';
  * database of its own, as the other race drills are: its NCRs and their mail stay out of the
  * shared one.
  */
-const admin = process.env.ADMIN_DATABASE_URL!;
-const database = `containment_race_${process.pid}`;
-const urlOf = (db: string) => {
-  const u = new URL(admin);
-  u.pathname = `/${db}`;
-  return u.toString();
-};
-async function adminQuery(sql: string) {
-  const c = new pg.Client({ connectionString: admin });
-  await c.connect();
-  try {
-    await c.query(sql);
-  } finally {
-    await c.end();
-  }
-}
-
 const PAIRS = 60;
 const TRIGGERS = ['gauge', 'lot'] as const;
 type Trigger = (typeof TRIGGERS)[number];
 
 let t: TestApp;
+let drop: (() => Promise<void>) | undefined;
 let shipping: string;
 let quality: string;
 let customerId: number;
@@ -50,15 +31,7 @@ let copies: UnitCopy[];
 const gaugeOf = new Map<string, string>();
 
 beforeAll(async () => {
-  await adminQuery(`CREATE DATABASE ${database}`);
-  const own = createSequelize(urlOf(database), { poolMax: 2 });
-  try {
-    await migrate(own);
-    await seedDemoIfEmpty(own, { bcryptCost: 4, history: false });
-  } finally {
-    await own.close();
-  }
-  t = makeTestApp({ DATABASE_URL: urlOf(database) });
+  ({ t, drop } = await ownDatabase('containment_race'));
   const cookies = {
     receiving: await cookieFor(await makeUser('receiving'), t.config),
     operator: await cookieFor(await makeUser('operator'), t.config),
@@ -66,12 +39,7 @@ beforeAll(async () => {
   shipping = await cookieFor(await makeUser('shipping', { quickSignature: true }), t.config);
   quality = await cookieFor(await makeUser('quality', { quickSignature: true }), t.config);
   customerId = (await Customer.findOne({ order: [['id', 'ASC']] }))!.id;
-  const [setting] = await t.sequelize.query<{ track_commit_timestamp: string }>('SHOW track_commit_timestamp', {
-    type: QueryTypes.SELECT,
-  });
-  if (setting?.track_commit_timestamp !== 'on') {
-    throw new Error('The race drill judges by commit time: start the cluster with track_commit_timestamp=on.');
-  }
+  await expectCommitTimestamps(t);
   const { unit } = await releasableUnit(t, cookies, 'TARN-6', `CTRACE${Date.now().toString(36).toUpperCase()}`);
   copies = await cloneUnits(t.sequelize, unit, PAIRS);
 
@@ -117,8 +85,7 @@ beforeAll(async () => {
   }
 }, 300_000);
 afterAll(async () => {
-  await t?.close();
-  await adminQuery(`DROP DATABASE IF EXISTS ${database} WITH (FORCE)`);
+  await drop?.();
 });
 
 function contain(trigger: Trigger, copy: UnitCopy, n: number) {

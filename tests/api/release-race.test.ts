@@ -1,13 +1,10 @@
 import { setTimeout as sleep } from 'node:timers/promises';
-import pg from 'pg';
 import request from 'supertest';
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { seedDemoIfEmpty } from '../../db/seeders/demo.js';
-import { createSequelize } from '../../server/db.js';
-import { migrate } from '../../server/migrate.js';
 import { Customer } from '../../server/models/index.js';
-import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
+import { TEST_PASSWORD, cookieFor, makeUser, type TestApp } from '../support/app.js';
+import { expectCommitTimestamps, ownDatabase } from '../support/own-database.js';
 import { cloneUnits, type UnitCopy } from '../support/clone-units.js';
 import { plantToday, releasableUnit } from '../support/parts.js';
 
@@ -20,61 +17,31 @@ import { plantToday, releasableUnit } from '../support/parts.js';
  * The drill runs in a database of its own: its 200 NCRs and their mail would otherwise land in the
  * shared test database that other files read at the same time.
  */
-const admin = process.env.ADMIN_DATABASE_URL!;
-const database = `release_race_${process.pid}`;
-const urlOf = (db: string) => {
-  const u = new URL(admin);
-  u.pathname = `/${db}`;
-  return u.toString();
-};
-async function adminQuery(sql: string) {
-  const c = new pg.Client({ connectionString: admin });
-  await c.connect();
-  try {
-    await c.query(sql);
-  } finally {
-    await c.end();
-  }
-}
-
 const PAIRS = 200;
 const SUBJECTS = ['unit', 'part', 'core', 'lot'] as const;
 type Subject = (typeof SUBJECTS)[number];
 
 let t: TestApp;
+let drop: (() => Promise<void>) | undefined;
 let cookies: { receiving: string; operator: string };
 let shipping: string;
 let customerId: number;
 let copies: UnitCopy[];
 
 beforeAll(async () => {
-  await adminQuery(`CREATE DATABASE ${database}`);
-  const own = createSequelize(urlOf(database), { poolMax: 2 });
-  try {
-    await migrate(own);
-    await seedDemoIfEmpty(own, { bcryptCost: 4, history: false });
-  } finally {
-    await own.close();
-  }
-  t = makeTestApp({ DATABASE_URL: urlOf(database) });
+  ({ t, drop } = await ownDatabase('release_race'));
   cookies = {
     receiving: await cookieFor(await makeUser('receiving'), t.config),
     operator: await cookieFor(await makeUser('operator'), t.config),
   };
   shipping = await cookieFor(await makeUser('shipping', { quickSignature: true }), t.config);
   customerId = (await Customer.findOne({ order: [['id', 'ASC']] }))!.id;
-  const [setting] = await t.sequelize.query<{ track_commit_timestamp: string }>('SHOW track_commit_timestamp', {
-    type: QueryTypes.SELECT,
-  });
-  if (setting?.track_commit_timestamp !== 'on') {
-    throw new Error('The race drill judges by commit time: start the cluster with track_commit_timestamp=on.');
-  }
+  await expectCommitTimestamps(t);
   const { unit } = await releasableUnit(t, cookies, 'TARN-6', `RACE${Date.now().toString(36).toUpperCase()}`);
   copies = await cloneUnits(t.sequelize, unit, PAIRS);
 }, 180_000);
 afterAll(async () => {
-  await t?.close();
-  await adminQuery(`DROP DATABASE IF EXISTS ${database} WITH (FORCE)`);
+  await drop?.();
 });
 
 function raise(subject: Subject, copy: UnitCopy, n: number) {

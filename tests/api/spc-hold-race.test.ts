@@ -1,13 +1,10 @@
 import { setTimeout as sleep } from 'node:timers/promises';
-import pg from 'pg';
 import request from 'supertest';
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { seedDemoIfEmpty } from '../../db/seeders/demo.js';
-import { createSequelize } from '../../server/db.js';
-import { migrate } from '../../server/migrate.js';
 import { Customer } from '../../server/models/index.js';
-import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
+import { TEST_PASSWORD, cookieFor, makeUser, type TestApp } from '../support/app.js';
+import { expectCommitTimestamps, ownDatabase } from '../support/own-database.js';
 import { cloneUnits, type UnitCopy } from '../support/clone-units.js';
 import { plantToday, releasableUnit } from '../support/parts.js';
 
@@ -18,26 +15,10 @@ import { plantToday, releasableUnit } from '../support/parts.js';
  * block at random offsets of −20 to +20 ms; PostgreSQL's commit timestamps judge the order. In a
  * database of its own, as the release race is: its holds and their mail stay out of the shared one.
  */
-const admin = process.env.ADMIN_DATABASE_URL!;
-const database = `spc_hold_race_${process.pid}`;
-const urlOf = (db: string) => {
-  const u = new URL(admin);
-  u.pathname = `/${db}`;
-  return u.toString();
-};
-async function adminQuery(sql: string) {
-  const c = new pg.Client({ connectionString: admin });
-  await c.connect();
-  try {
-    await c.query(sql);
-  } finally {
-    await c.end();
-  }
-}
-
 const PAIRS = 60;
 
 let t: TestApp;
+let drop: (() => Promise<void>) | undefined;
 let shipping: string;
 let supervisor: string;
 let customerId: number;
@@ -45,16 +26,8 @@ let copies: UnitCopy[];
 const signalOf = new Map<string, number>();
 
 beforeAll(async () => {
-  await adminQuery(`CREATE DATABASE ${database}`);
-  const own = createSequelize(urlOf(database), { poolMax: 2 });
-  try {
-    await migrate(own);
-    // the demo's months of history are not needed for a race
-    await seedDemoIfEmpty(own, { bcryptCost: 4, history: false });
-  } finally {
-    await own.close();
-  }
-  t = makeTestApp({ DATABASE_URL: urlOf(database) });
+  ({ t, drop } = await ownDatabase('spc_hold_race'));
+  await expectCommitTimestamps(t);
   const cookies = {
     receiving: await cookieFor(await makeUser('receiving'), t.config),
     operator: await cookieFor(await makeUser('operator'), t.config),
@@ -103,8 +76,7 @@ beforeAll(async () => {
   }
 }, 300_000);
 afterAll(async () => {
-  await t?.close();
-  await adminQuery(`DROP DATABASE IF EXISTS ${database} WITH (FORCE)`);
+  await drop?.();
 });
 
 async function after<T>(ms: number, fn: () => PromiseLike<T>): Promise<T> {
