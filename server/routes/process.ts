@@ -17,7 +17,9 @@ import {
   updatePartKindBody,
   updateStageBody,
 } from '../../shared/schemas/process.js';
+import { processDocument } from '../../shared/schemas/process-document.js';
 import type { Api } from '../http/api.js';
+import { checkProcessDocument, exportProcessDocument } from '../services/process-document.js';
 import {
   addCastingNumber,
   createCharacteristic,
@@ -218,5 +220,20 @@ export function processRoutes(api: Api, sequelize: Sequelize) {
     summary: "Retire a casting number from a family's list.",
     params: idParam,
     handler: ({ ctx, params }) => retireCastingNumber(sequelize, ctx, params.id),
+  });
+  api.define({
+    method: 'get',
+    path: '/process/document',
+    access: 'process.edit',
+    summary: 'The whole process definition as one document (docs/process-document.schema.json).',
+    handler: () => exportProcessDocument(),
+  });
+  api.define({
+    method: 'post',
+    path: '/process/document/check',
+    access: 'process.edit',
+    summary: 'Check a process document against the plant; a bad one gets every problem by its path. Changes nothing.',
+    body: processDocument,
+    handler: ({ body }) => checkProcessDocument(sequelize, body),
   });
 }

@@ -1,6 +1,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { AuditEvent, Customer, Route, Signature } from '../../server/models/index.js';
+import { AuditEvent, Customer, PartKindRow, Route, Signature, Stage } from '../../server/models/index.js';
+import { processDocument } from '../../shared/schemas/process-document.js';
 import type { RouteVersionJson } from '../../shared/schemas/process.js';
 import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, unique, type TestApp } from '../support/app.js';
 
@@ -329,5 +330,67 @@ describe('characteristics and casting numbers', () => {
     expect(wrong.body.error.mismatches).toContain(
       `Casting number ${theirs} is not one ${family.code} accepts; ${other.code} lists it. Check the family chosen.`,
     );
+  });
+});
+
+describe('one process document', () => {
+  it('when admin exports the plant, then the document passes its own schema and checks clean against the plant', async () => {
+    const res = await request(t.app).get('/api/process/document').set('Cookie', admin);
+    expect(res.status).toBe(200);
+    const parsed = processDocument.safeParse(res.body);
+    expect(parsed.success ? [] : parsed.error.issues.slice(0, 5)).toEqual([]);
+    expect(res.body.families.map((f: { code: string }) => f.code)).toEqual(
+      expect.arrayContaining(['TARN-6', 'CORRIE-8']),
+    );
+    const tarnBlock = (res.body.routes as { family: string; partKind: string; steps: { stage: string }[] }[]).find(
+      (r) => r.family === 'TARN-6' && r.partKind === 'block',
+    );
+    expect(tarnBlock!.steps[0]!.stage).toBe('block-clean');
+    // the body limit of the API is 256 kB (server/app.ts): a whole plant must fit in one request
+    expect(Buffer.byteLength(JSON.stringify(res.body))).toBeLessThan(256 * 1024);
+    const check = await request(t.app).post('/api/process/document/check').set('Cookie', quality).send(res.body);
+    expect(check.status).toBe(200);
+    expect(check.body).toMatchObject({ ok: true, new: { partKinds: 0, families: 0, stages: 0 } });
+  });
+
+  it('when a document is bad in shape and in references, then each problem is listed by its path and nothing is written', async () => {
+    const shape = await request(t.app)
+      .post('/api/process/document/check')
+      .set('Cookie', admin)
+      .send({
+        format: 'coretrail-process',
+        version: 1,
+        partKinds: [{ code: 'X' }],
+        families: [],
+        stages: [],
+        characteristics: [],
+        routes: [],
+        castingNumbers: 'none',
+      });
+    expect(shape.status).toBe(400);
+    expect(Object.keys(shape.body.error.fields)).toEqual(
+      expect.arrayContaining(['partKinds.0.code', 'partKinds.0.name', 'castingNumbers']),
+    );
+    const refs = await request(t.app)
+      .post('/api/process/document/check')
+      .set('Cookie', admin)
+      .send({
+        format: 'coretrail-process',
+        version: 1,
+        partKinds: [],
+        families: [],
+        stages: [{ code: 'pump-test', partKind: 'oil_pump', name: 'Pump test' }],
+        characteristics: [],
+        routes: [{ family: 'TARN-6', partKind: 'block', steps: [{ stage: 'crank-grind' }] }],
+        castingNumbers: [],
+      });
+    expect(refs.status).toBe(400);
+    expect(refs.body.error.message).toBe('The document has 2 problems; nothing was changed.');
+    expect(refs.body.error.fields).toEqual({
+      'stages.0.partKind': 'No part kind oil_pump.',
+      'routes.0.steps.0.stage': 'Stage crank-grind is for crankshaft, not block.',
+    });
+    expect(await Stage.count({ where: { code: 'pump-test' } })).toBe(0);
+    expect(await PartKindRow.count({ where: { code: 'oil_pump' } })).toBe(0);
   });
 });
