@@ -38,6 +38,7 @@ import { authRoutes } from './routes/auth.js';
 import { healthRoutes } from './routes/health.js';
 import { peopleRoutes } from './routes/people.js';
 import { referenceRoutes } from './routes/reference.js';
+import { processRoutes } from './routes/process.js';
 import { setBcryptCost } from './services/passwords.js';
 import { LocalDiskStore, type BlobStore } from './storage/blob-store.js';
 
@@ -118,6 +119,7 @@ export function createApp({
   accountRoutes(api, sequelize, config);
   peopleRoutes(api, sequelize);
   referenceRoutes(api, sequelize);
+  processRoutes(api, sequelize);
   auditRoutes(api, sequelize, config);
   partyRoutes(api);
   coreRoutes(api, sequelize);

@@ -30,6 +30,12 @@ export const PERMISSIONS = {
   'results.correct': ['supervisor', 'quality'],
   'stage.reentry': ['supervisor'],
 
+  // the plant's own process: admin and quality set up part kinds, stages, routes, characteristics and
+  // casting numbers; a route change is approved by quality (never its author), who also moves a part
+  // to another version of its route
+  'process.edit': ['admin', 'quality'],
+  'process.approve': ['quality'],
+
   'spec.read': ['quality', 'supervisor', 'operator', 'admin'],
   'spec.edit': ['quality'],
   'spec.approve': ['quality'],

@@ -71,6 +71,20 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.process,
+              lazy: async () => {
+                const m = await import('./routes/admin/process/process-page');
+                return { Component: m.ProcessPage, loader: m.processLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.routes,
+              lazy: async () => {
+                const m = await import('./routes/admin/process/routes-page');
+                return { Component: m.RoutesPage, loader: m.routesLoader(queryClient) };
+              },
+            },
+            {
               path: paths.families,
               lazy: async () => {
                 const m = await import('./routes/admin/families/families-page');

@@ -19,6 +19,7 @@ import * as m20261203190000 from './20261203190000-reading-units.js';
 import * as m20261203200000 from './20261203200000-received-lots.js';
 import * as m20261203210000 from './20261203210000-yield-days.js';
 import * as m20261203220000 from './20261203220000-result-values.js';
+import * as m20261203230000 from './20261203230000-process-definition.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -46,4 +47,5 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261203200000-received-lots', ...m20261203200000 },
   { name: '20261203210000-yield-days', ...m20261203210000 },
   { name: '20261203220000-result-values', ...m20261203220000 },
+  { name: '20261203230000-process-definition', ...m20261203230000 },
 ];

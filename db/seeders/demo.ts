@@ -103,7 +103,9 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
   }
 
   const stageByCode = new Map<string, Stage>();
-  for (const s of STAGES) stageByCode.set(s.code, await Stage.create(s, { transaction }));
+  for (const s of STAGES) {
+    stageByCode.set(s.code, await Stage.create({ ...s, hazardous: s.hazard !== null }, { transaction }));
+  }
 
   for (const family of families) {
     for (const [partKind, steps] of Object.entries(ROUTES)) {

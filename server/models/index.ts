@@ -24,7 +24,7 @@ import { RecoveryCode } from './recovery-code.js';
 import { Session } from './session.js';
 import { RuleRehearsal, SpcLimits, SpcSignal } from './spc.js';
 import { Characteristic, ToleranceRule } from './spec.js';
-import { Route, RouteStage, Stage } from './stage.js';
+import { FamilyCastingNumber, PartKindRow, Route, RouteStage, Stage } from './stage.js';
 import { Station } from './station.js';
 import { User } from './user.js';
 
@@ -45,6 +45,7 @@ export {
   Customer,
   DefectCode,
   EngineFamily,
+  FamilyCastingNumber,
   FieldAction,
   Gauge,
   GaugeCalibration,
@@ -57,6 +58,7 @@ export {
   MailOutbox,
   Nonconformance,
   NonconformanceTransition,
+  PartKindRow,
   PartLot,
   PlantSettings,
   Reading,
@@ -87,6 +89,8 @@ const MODELS = [
   Session,
   RecoveryCode,
   EngineFamily,
+  PartKindRow,
+  FamilyCastingNumber,
   Stage,
   Route,
   RouteStage,

@@ -40,6 +40,10 @@ export class Characteristic extends Model<InferAttributes<Characteristic>, Infer
   declare gaugeRatioReason: CreationOptional<string | null>;
   /** Recorded when the station can (torque on a stand with a dynamometer); not required. */
   declare optional: CreationOptional<boolean>;
+  /** Gauge kinds (as the register names them) that can measure it; empty: any suitable gauge. */
+  declare gaugeKinds: CreationOptional<string[]>;
+  /** Retired: no longer asked for; its readings and rules stay. */
+  declare retiredAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -64,6 +68,8 @@ export class Characteristic extends Model<InferAttributes<Characteristic>, Infer
         gaugeRatio: { type: DataTypes.DECIMAL(6, 2), allowNull: true },
         gaugeRatioReason: { type: DataTypes.STRING(500), allowNull: true },
         optional: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+        gaugeKinds: { type: DataTypes.ARRAY(DataTypes.STRING(40)), allowNull: false, defaultValue: [] },
+        retiredAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

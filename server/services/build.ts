@@ -10,7 +10,7 @@ import { mmToIn } from '../../shared/domain/units.js';
 import { recordAudit, type Ctx } from '../audit.js';
 import { AppError, conflict, invalid } from '../errors.js';
 import { EngineFamily, Item, ItemLink, PartLot, Stage, Supplier, UnitLot } from '../models/index.js';
-import { findBySerial, newSerial, presentItem, routeFor } from './items.js';
+import { findBySerial, newSerial, presentItem, routeFor, routeOfItem } from './items.js';
 import { drawableOf, holdingNcrs } from './lots.js';
 import { blockingNcrsOf } from './nonconformances.js';
 import { familyByCode } from './spec.js';
@@ -69,7 +69,7 @@ async function pistonMismatch(
 async function finishedRoute(item: Item, transaction: Transaction) {
   if (item.status === 'finished') return true;
   if (item.status !== 'in_process') return false;
-  const route = await routeFor(item.engineFamilyId, item.kind, transaction);
+  const route = await routeOfItem(item, transaction);
   const steps = route?.steps ?? [];
   const at = steps.findIndex((s) => s.stageId === item.currentStageId);
   return at >= 0 && steps.slice(at).every((s) => !s.required);
@@ -374,7 +374,7 @@ export async function replacePart(sequelize: Sequelize, ctx: Ctx, serial: string
       before: fitBefore,
       after: { status: 'installed', installedIn: unit.serial },
     });
-    const route = await routeFor(unit.engineFamilyId, 'long_block', transaction);
+    const route = await routeOfItem(unit, transaction);
     const unitBefore = { status: unit.status, currentStage: unit.currentStageId };
     await unit.update(
       {

@@ -14,6 +14,7 @@ import { recordAudit, type Ctx } from '../audit.js';
 import { conflict, invalid, notFound } from '../errors.js';
 import { CoreReceipt, Customer, EngineFamily, Item, Supplier, User } from '../models/index.js';
 import { attachmentsOf, claimUploads } from './attachments.js';
+import { castingNotAccepted } from './process.js';
 import { findBySerial, newSerial, presentItem, routeFor } from './items.js';
 
 type ReceiveCore = z.output<typeof receiveCoreBody>;
@@ -83,7 +84,11 @@ export async function receiveCore(sequelize: Sequelize, ctx: Ctx, body: ReceiveC
       });
     }
   }
-  const mismatches = [...intakeMismatches(body), ...(await castingElsewhere(sequelize, body.castingNumber, family))];
+  const mismatches = [
+    ...intakeMismatches(body),
+    ...(await castingNotAccepted(body.castingNumber, family)),
+    ...(await castingElsewhere(sequelize, body.castingNumber, family)),
+  ];
   if (mismatches.length && !body.mismatchReason) {
     throw conflict(`Check before logging: ${mismatches.join(' ')} Say why it is right to go on.`, {
       reason: 'needs_reason',

@@ -27,6 +27,14 @@ export async function routeFor(
   return (await referenceData(Item.sequelize as Sequelize, transaction)).route(familyId, kind);
 }
 
+/** The route version the part started on (or the one in force, for a part that has none). */
+export async function routeOfItem(
+  item: { routeId: number | null; engineFamilyId: number; kind: string },
+  transaction?: Transaction,
+): Promise<RouteWithSteps | null> {
+  return (await referenceData(Item.sequelize as Sequelize, transaction)).routeOfItem(item);
+}
+
 /** Finds an item by what someone typed or scanned; a malformed serial is a 400 with the reason. */
 export async function findBySerial(input: string, transaction?: Transaction, { lock = false } = {}) {
   const serial = checkedSerial(input);
@@ -69,7 +77,7 @@ export async function presentItem(
 ): Promise<ItemJson> {
   const ref = knownRef ?? (await referenceData(Item.sequelize as Sequelize));
   const family = ref.family(item.engineFamilyId)!;
-  const route = known !== undefined ? known : ref.route(item.engineFamilyId, item.kind);
+  const route = known !== undefined ? known : ref.routeOfItem(item);
   const currentIdx = route?.steps.findIndex((s) => s.stageId === item.currentStageId) ?? -1;
   const finished = ['finished', 'torn_down', 'installed', 'released', 'shipped', 'returned'].includes(item.status);
   // a core exists because it was received: intake is behind it whether it was accepted or not

@@ -35,7 +35,7 @@ import {
 } from '../models/index.js';
 import { attachmentsOf, claimUploads } from './attachments.js';
 import { openFieldActions } from './field-actions.js';
-import { findBySerial, presentItem, routeFor } from './items.js';
+import { findBySerial, presentItem, routeOfItem } from './items.js';
 import { ncrTimeline } from './ncr-timeline.js';
 import { notifyIfReleasable } from './release.js';
 import { presentSignature, signWithPassword } from './signatures.js';
@@ -628,7 +628,7 @@ async function releaseIfClear(ctx: Ctx, transaction: Transaction, item: Item, nc
     ? await StageResult.findOne({ where: { supersedesId: result.id, verdict: 'pass' }, transaction })
     : null;
   if (result && (ncr.disposition === 'use_as_is' || corrected)) {
-    const route = await routeFor(item.engineFamilyId, item.kind, transaction);
+    const route = await routeOfItem(item, transaction);
     const steps = route?.steps ?? [];
     const at = steps.findIndex((s) => s.stageId === result.stageId);
     const following = steps[at + 1];
@@ -838,7 +838,7 @@ export async function disposition(sequelize: Sequelize, ctx: Ctx, number: string
     let reworkStageId: number | null = null;
     if (body.reworkStage && item) {
       const stage = await Stage.findOne({ where: { code: body.reworkStage }, transaction: t });
-      const route = await routeFor(item.engineFamilyId, item.kind, t);
+      const route = await routeOfItem(item, t);
       const steps = route?.steps ?? [];
       const to = stage ? steps.findIndex((s) => s.stageId === stage.id) : -1;
       if (!stage || to < 0) {

@@ -35,7 +35,13 @@ export type Reference = {
   stage: (id: number) => Stage | undefined;
   station: (code: string) => Station | undefined;
   stationById: (id: number) => Station | undefined;
-  route: (familyId: number, kind: PartKind) => RouteWithSteps | null;
+  /** The version in force at `at` (default now) for a family and part kind; new parts start on it. */
+  route: (familyId: number, kind: PartKind | string, at?: Date) => RouteWithSteps | null;
+  /** Any approved version, in force or not: a part keeps the version it started on. */
+  routeById: (id: number) => RouteWithSteps | null;
+  /** The part's own version where it has one, else the one in force. */
+  routeOfItem: (item: { routeId: number | null; engineFamilyId: number; kind: string }) => RouteWithSteps | null;
+  /** The stage's characteristics in use (not retired). */
   characteristics: (stageId: number) => Characteristic[];
   characteristic: (id: number) => Characteristic | undefined;
   rules: (familyId: number, characteristicId: number) => ToleranceRule[];
@@ -86,7 +92,11 @@ export async function referenceData(
   const families = await EngineFamily.findAll({ order: [['id', 'ASC']], ...t });
   const stages = await Stage.findAll(t);
   const stations = await Station.findAll(t);
-  const routes = await Route.findAll({ where: { active: true }, order: [['version', 'DESC']], ...t });
+  const routes = await Route.findAll({
+    where: { status: ['approved', 'superseded', 'retired'] },
+    order: [['version', 'DESC']],
+    ...t,
+  });
   const steps = await RouteStage.findAll({ order: [['position', 'ASC']], ...t });
   const characteristics = await Characteristic.findAll({
     order: [
@@ -100,16 +110,27 @@ export async function referenceData(
   const plant = await PlantSettings.findByPk(1, { attributes: ['timeZone'], ...t });
 
   const stageById = new Map(stages.map((s) => [s.id, s]));
-  const routeOf = new Map<string, RouteWithSteps>();
+  const stepsOf = groupBy(steps, (s) => s.routeId);
+  const routeById = new Map<number, RouteWithSteps>();
   for (const r of routes) {
-    const key = `${r.engineFamilyId}:${r.partKind}`;
-    if (routeOf.has(key)) continue; // the newest active version wins
-    routeOf.set(key, {
+    routeById.set(r.id, {
       route: r,
-      steps: steps.filter((s) => s.routeId === r.id).map((s) => ({ ...s.get(), stage: stageById.get(s.stageId)! })),
+      steps: (stepsOf.get(r.id) ?? []).map((s) => ({ ...s.get(), stage: stageById.get(s.stageId)! })),
     });
   }
-  const charsOf = groupBy(characteristics, (c) => c.stageId);
+  // newest version first, so the first one in force at a time is the one
+  const versionsOf = groupBy([...routeById.values()], (r) => `${r.route.engineFamilyId}:${r.route.partKind}`);
+  const inForce = (familyId: number, kind: string, at = new Date()) =>
+    (versionsOf.get(`${familyId}:${kind}`) ?? []).find(
+      ({ route: r }) =>
+        r.status !== 'retired' &&
+        (r.effectiveFrom === null || r.effectiveFrom <= at) &&
+        (r.supersededAt === null || r.supersededAt > at),
+    ) ?? null;
+  const charsOf = groupBy(
+    characteristics.filter((c) => !c.retiredAt),
+    (c) => c.stageId,
+  );
   const rulesOf = groupBy(rules, (r) => `${r.engineFamilyId}:${r.characteristicId}`);
   const familyById = new Map(families.map((f) => [f.id, f]));
   const stationByCode = new Map(stations.map((s) => [s.code, s]));
@@ -124,7 +145,10 @@ export async function referenceData(
     stage: (id) => stageById.get(id),
     station: (code) => stationByCode.get(code),
     stationById: (id) => stationById.get(id),
-    route: (familyId, kind) => routeOf.get(`${familyId}:${kind}`) ?? null,
+    route: inForce,
+    routeById: (id) => routeById.get(id) ?? null,
+    routeOfItem: (item) =>
+      (item.routeId !== null ? routeById.get(item.routeId) : undefined) ?? inForce(item.engineFamilyId, item.kind),
     characteristics: (stageId) => charsOf.get(stageId) ?? [],
     characteristic: (id) => charById.get(id),
     rules: (familyId, characteristicId) => rulesOf.get(`${familyId}:${characteristicId}`) ?? [],

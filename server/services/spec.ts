@@ -258,6 +258,9 @@ export async function createDraft(
     const family = await familyByCode(familyCode, transaction);
     const c = await Characteristic.findByPk(characteristicId, { transaction });
     if (!c) throw notFound('That characteristic');
+    if (c.retiredAt) {
+      throw conflict(`${c.name} is retired: no rule can be drafted for it.`, { characteristicId: c.id });
+    }
     if (c.kind === 'attribute') {
       throw invalid(`${c.name} is a pass/fail check: it has no limits to set.`, { characteristicId: 'Pass/fail.' });
     }

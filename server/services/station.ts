@@ -27,7 +27,7 @@ import {
 } from '../models/index.js';
 import { claimUploads, presentAttachment } from './attachments.js';
 import { loadResultRecords } from './result-records.js';
-import { checkedSerial, findBySerial, presentItem, routeFor } from './items.js';
+import { checkedSerial, findBySerial, presentItem, routeOfItem } from './items.js';
 import {
   blockingNcrsOf,
   openNcrsOf,
@@ -41,7 +41,7 @@ import { checkControlLimits } from './spc/signals.js';
 import { lockUnitsReachedBy } from './unit-locks.js';
 import { fitOf, gaugeChoices } from './gauge-suitability.js';
 
-type Route = NonNullable<Awaited<ReturnType<typeof routeFor>>>;
+type Route = NonNullable<Awaited<ReturnType<typeof routeOfItem>>>;
 type FormChar = ReturnType<typeof formCharacteristics>[number];
 
 const lower = (s: string) => s.charAt(0).toLowerCase() + s.slice(1);
@@ -143,7 +143,7 @@ export async function stationForm(stationCode: string, serial: string): Promise<
   const { station, stage } = stationByCode(ref, stationCode);
   const item = await findBySerial(serial);
   const family = ref.family(item.engineFamilyId)!;
-  const route = ref.route(item.engineFamilyId, item.kind);
+  const route = ref.routeOfItem(item);
   const [holds, reentry, current] = await Promise.all([
     blockingNcrsOf(item.id, stage.id),
     openReentry(item.id),
@@ -344,7 +344,7 @@ export async function submitResult(
     // the part's row lock: a second tablet submitting the same part waits here, then sees the first
     const item = await findBySerial(serial, transaction, { lock: true });
     const family = ref.family(item.engineFamilyId)!;
-    const route = ref.route(item.engineFamilyId, item.kind);
+    const route = ref.routeOfItem(item);
     const holds = await blockingNcrsOf(item.id, stage.id, transaction);
     const reentry = await openReentry(item.id, transaction);
 
@@ -658,7 +658,7 @@ export async function allowReentry(
     const item = (await Item.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
     const stage = await Stage.findOne({ where: { code: input.stage }, transaction });
     if (!stage) throw invalid('Choose a stage of this part’s route.', { stage: `No stage ${input.stage}.` });
-    const route = await routeFor(item.engineFamilyId, item.kind, transaction);
+    const route = await routeOfItem(item, transaction);
     if (!route?.steps.some((s) => s.stageId === stage.id)) {
       throw invalid(`${stage.name} is not on the route of ${item.serial}.`, { stage: 'Not on this route.' });
     }

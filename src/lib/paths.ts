@@ -10,6 +10,8 @@ export const paths = {
   people: '/admin/people',
   stations: '/admin/stations',
   families: '/admin/families',
+  process: '/admin/process',
+  routes: '/admin/routes',
   audit: '/admin/audit',
   intake: '/intake',
   receiveCore: '/intake/new',

@@ -8,7 +8,15 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_USERS } from '../../db/seeders/plant.js';
 import { can, type Permission } from '../../shared/permissions.js';
 import { ROLES, type Role } from '../../shared/roles.js';
-import { Customer, EngineFamily, Gauge, PartLot, ToleranceRule, User, WarrantyClaim } from '../../server/models/index.js';
+import {
+  Customer,
+  EngineFamily,
+  Gauge,
+  PartLot,
+  ToleranceRule,
+  User,
+  WarrantyClaim,
+} from '../../server/models/index.js';
 import { cookieFor, makeUser, TEST_PASSWORD } from '../support/app.js';
 import { givenSecondFactor, launch, serveApp, type Served } from '../support/browser.js';
 import { plantToday, releasableUnit } from '../support/parts.js';
@@ -104,6 +112,8 @@ const routes = (): { name: string; path: string; permission: Permission | null }
   { name: 'people', path: '/admin/people', permission: 'people.manage' },
   { name: 'stations', path: '/admin/stations', permission: 'stations.manage' },
   { name: 'families', path: '/admin/families', permission: 'families.manage' },
+  { name: 'process', path: '/admin/process', permission: 'process.edit' },
+  { name: 'routes', path: '/admin/routes', permission: 'process.edit' },
   { name: 'plant', path: '/admin/plant', permission: 'plant.manage' },
   { name: 'defect-codes', path: '/admin/defect-codes', permission: 'defects.manage' },
   { name: 'mail', path: '/admin/mail', permission: 'mail.read' },

@@ -67,6 +67,18 @@ export const AREAS: Area[] = [
     summary: 'The plant’s name and address for documents, and its time zone: the calendar dates are kept in.',
   },
   {
+    label: 'Process',
+    to: paths.process,
+    permission: 'process.edit',
+    summary: 'The part kinds, stages and characteristics the plant works with; retired, never deleted.',
+  },
+  {
+    label: 'Routes',
+    to: paths.routes,
+    permission: 'process.edit',
+    summary: "Each family's routes version by version, drafted, approved with a signature, compared side by side.",
+  },
+  {
     label: 'Engine families',
     to: paths.families,
     permission: 'families.manage',

@@ -34,6 +34,10 @@ export const ENTITY_LABELS: Record<string, string> = {
   core_credit_revision: 'Core credit revisions',
   cause_code: 'Cause codes',
   corrective_action: 'Corrective actions',
+  part_kind: 'Part kinds',
+  stage: 'Stages',
+  route: 'Routes',
+  family_casting_number: 'Casting numbers',
 };
 
 /** One record of a kind, as a person would say it before its id. */
@@ -53,6 +57,10 @@ const ONE: Record<string, string> = {
   plant: 'Plant settings',
   address: 'Address',
   sign_in: 'Sign-in as',
+  part_kind: 'Part kind',
+  stage: 'Stage',
+  route: 'Route version',
+  family_casting_number: 'Casting number',
 };
 
 /** The kind of item a serial names, from its prefix (shared/domain/serial.ts). */
@@ -70,6 +78,22 @@ export function recordName(entity: string, entityId: string): string {
 
 /** Plain words for every action Coretrail writes. */
 export const ACTION_LABELS: Record<string, string> = {
+  'part_kind.created': 'Part kind added',
+  'part_kind.updated': 'Part kind changed',
+  'part_kind.retired': 'Part kind retired',
+  'stage.created': 'Stage added',
+  'stage.updated': 'Stage changed',
+  'stage.retired': 'Stage retired',
+  'route.drafted': 'Route version drafted',
+  'route.discarded': 'Route draft discarded',
+  'route.approved': 'Route version approved and signed',
+  'route.superseded': 'Route version superseded',
+  'route.retired': 'Route version retired',
+  'item.route_moved': 'Part moved to another route version',
+  'characteristic.created': 'Characteristic added',
+  'characteristic.retired': 'Characteristic retired',
+  'casting_number.added': 'Casting number added to a family',
+  'casting_number.retired': 'Casting number retired',
   'gauge.registered': 'Gauge registered',
   'gauge.calibrated': 'Gauge calibration recorded',
   'gauge.status_changed': 'Gauge status changed',

@@ -19,7 +19,7 @@ import type { OptionGroup } from '../../../components/ui/select';
 function stageGroups(stages: Stage[]): OptionGroup[] {
   const groups = new Map<string, OptionGroup>();
   for (const s of stages) {
-    const label = PART_KIND_LABELS[s.partKind];
+    const label = PART_KIND_LABELS[s.partKind] ?? s.partKind;
     if (!groups.has(label)) groups.set(label, { label, options: [] });
     groups.get(label)!.options.push({ value: s.code, label: s.name });
   }
