@@ -28,6 +28,7 @@ import { mailRoutes } from './routes/mail.js';
 import { specRoutes } from './routes/spec.js';
 import { spcRoutes } from './routes/spc.js';
 import { stationRoutes } from './routes/station.js';
+import { qualificationRoutes } from './routes/qualifications.js';
 import { unitPreferenceRoutes } from './routes/unit-preferences.js';
 import { receivingRoutes } from './routes/receiving.js';
 import { auditRoutes } from './routes/audit.js';
@@ -125,6 +126,7 @@ export function createApp({
   attachmentRoutes(api, sequelize, store, config);
   stationRoutes(api, sequelize);
   unitPreferenceRoutes(api, sequelize);
+  qualificationRoutes(api, sequelize);
   receivingRoutes(api, sequelize);
   specRoutes(api, sequelize);
   spcRoutes(api, sequelize);

@@ -29,6 +29,9 @@ export const PERMISSIONS = {
   'results.record': ['operator', 'supervisor'],
   'results.correct': ['supervisor', 'quality'],
   'stage.reentry': ['supervisor'],
+  // who may record which stage: supervisors and admins sign qualifications off, quality reads them
+  'qualifications.read': ['supervisor', 'admin', 'quality'],
+  'qualifications.manage': ['supervisor', 'admin'],
 
   'spec.read': ['quality', 'supervisor', 'operator', 'admin'],
   'spec.edit': ['quality'],

@@ -64,6 +64,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.qualifications,
+              lazy: async () => {
+                const m = await import('./routes/admin/qualifications/qualifications-page');
+                return { Component: m.QualificationsPage, loader: m.qualificationsLoader(queryClient) };
+              },
+            },
+            {
               path: paths.stations,
               lazy: async () => {
                 const m = await import('./routes/admin/stations/stations-page');

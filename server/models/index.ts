@@ -7,6 +7,7 @@ import { CoreReceipt, Item, ItemLink } from './items.js';
 import { IssuedDocument } from './issued-document.js';
 import { PartLot, UnitLot } from './lots.js';
 import { UnitPreference } from './preferences.js';
+import { Qualification } from './qualification.js';
 import { DefectCode, Nonconformance, NonconformanceTransition, Signature } from './nonconformances.js';
 import { Customer, Supplier } from './parties.js';
 import { FieldAction, PlantSettings } from './plant.js';
@@ -59,6 +60,7 @@ export {
   NonconformanceTransition,
   PartLot,
   PlantSettings,
+  Qualification,
   Reading,
   RecoveryCode,
   Route,
@@ -134,6 +136,7 @@ const MODELS = [
   CorrectiveActionContainment,
   CorrectiveActionTask,
   UnitPreference,
+  Qualification,
 ] as const;
 
 export function initModels(sequelize: Sequelize) {

@@ -40,6 +40,7 @@ import { formCharacteristics } from './spec.js';
 import { checkControlLimits } from './spc/signals.js';
 import { lockUnitsReachedBy } from './unit-locks.js';
 import { fitOf, gaugeChoices } from './gauge-suitability.js';
+import { requireQualified } from './qualifications.js';
 
 type Route = NonNullable<Awaited<ReturnType<typeof routeFor>>>;
 type FormChar = ReturnType<typeof formCharacteristics>[number];
@@ -338,6 +339,9 @@ export async function submitResult(
 
     const ref = await referenceData(sequelize, transaction, versionRead(version));
     const { station, stage } = stationByCode(ref, body.station);
+    // a new result needs its operator's qualification for the stage in force today (a correction is
+    // a supervisor's or quality's record of what was measured, not a new measurement)
+    if (!correction) await requireQualified(sequelize, transaction, ctx.actor!, stage);
     const serial = checkedSerial(body.serial);
     // the units the part reaches first, as the release gate takes them (no NCR slips past a release)
     await lockUnitsReachedBy(sequelize, { serial }, transaction);

@@ -9,6 +9,7 @@ export const paths = {
   secondFactor: '/second-factor',
   people: '/admin/people',
   stations: '/admin/stations',
+  qualifications: '/admin/qualifications',
   families: '/admin/families',
   audit: '/admin/audit',
   intake: '/intake',
