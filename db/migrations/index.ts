@@ -18,6 +18,7 @@ import * as m20261203180000 from './20261203180000-readings-by-month.js';
 import * as m20261203190000 from './20261203190000-reading-units.js';
 import * as m20261203200000 from './20261203200000-received-lots.js';
 import * as m20261203210000 from './20261203210000-qualifications.js';
+import * as m20261203220000 from './20261203220000-station-tablets.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -44,4 +45,5 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261203190000-reading-units', ...m20261203190000 },
   { name: '20261203200000-received-lots', ...m20261203200000 },
   { name: '20261203210000-qualifications', ...m20261203210000 },
+  { name: '20261203220000-station-tablets', ...m20261203220000 },
 ];

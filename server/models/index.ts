@@ -8,6 +8,7 @@ import { IssuedDocument } from './issued-document.js';
 import { PartLot, UnitLot } from './lots.js';
 import { UnitPreference } from './preferences.js';
 import { Qualification } from './qualification.js';
+import { StationTablet } from './station-tablet.js';
 import { DefectCode, Nonconformance, NonconformanceTransition, Signature } from './nonconformances.js';
 import { Customer, Supplier } from './parties.js';
 import { FieldAction, PlantSettings } from './plant.js';
@@ -75,6 +76,7 @@ export {
   StageReentry,
   StageResult,
   Station,
+  StationTablet,
   Supplier,
   ToleranceRule,
   UnitLot,
@@ -137,6 +139,7 @@ const MODELS = [
   CorrectiveActionTask,
   UnitPreference,
   Qualification,
+  StationTablet,
 ] as const;
 
 export function initModels(sequelize: Sequelize) {

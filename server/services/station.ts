@@ -315,7 +315,13 @@ export async function submitResult(
   {
     path = '/api/results',
     correction = null,
-  }: { path?: string; correction?: { resultId: number; reason: string } | null } = {},
+    tablet = null,
+  }: {
+    path?: string;
+    correction?: { resultId: number; reason: string } | null;
+    /** The shared station tablet the person identified on (badge and PIN), kept with the result. */
+    tablet?: { id: number; label: string } | null;
+  } = {},
 ): Promise<Outcome> {
   const requestHash = hashBody(body);
   return sequelize.transaction(async (transaction) => {
@@ -463,6 +469,7 @@ export async function submitResult(
         reentryReason: reentry && reentry.stageId === stage.id && !supersedes ? reentry.reason : null,
         reentryById: reentry && reentry.stageId === stage.id && !supersedes ? reentry.allowedById : null,
         notes: body.notes,
+        tabletId: tablet?.id ?? null,
       },
       { transaction },
     );
@@ -632,6 +639,7 @@ export async function submitResult(
           r.ruleVersion,
         ]),
         nonconformance: ncr?.number ?? null,
+        ...(tablet ? { tablet: { id: tablet.id, label: tablet.label } } : {}),
       },
     });
     if (before.status !== item.status || before.currentStage !== item.currentStageId) {

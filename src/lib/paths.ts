@@ -19,6 +19,7 @@ export const paths = {
   teardown: '/teardown',
   labels: '/labels',
   station: '/station',
+  tablet: '/tablet',
   specBook: '/spec',
   specRule: '/spec/:family/:characteristicId',
   ncrs: '/ncrs',
