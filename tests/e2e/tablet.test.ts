@@ -95,8 +95,19 @@ describe('a shared tablet at a station', () => {
       [first, ana],
       [second, ben],
     ] as const) {
-      await identify(page, who);
-      await scanAndFill(page, serial);
+      if (who === ana) {
+        // a mistyped PIN: refused in plain words, nothing stored, and the tablet asks for badge and PIN again
+        await identify(page, { badge: who.badge, pin: who.pin === '482915' ? '482916' : '482915' });
+        await scanAndFill(page, serial);
+        await page.getByRole('button', { name: 'Record result' }).click();
+        await page.getByText('That badge and PIN do not match anyone who may record here.').first().waitFor();
+        await page.getByLabel('Badge').waitFor();
+        expect(await StageResult.count({ where: { itemId: (await Item.findOne({ where: { serial } }))!.id } })).toBe(0);
+        await identify(page, who);
+      } else {
+        await identify(page, who);
+        await scanAndFill(page, serial);
+      }
       await page.getByRole('button', { name: 'Record result' }).click();
       const passed = page.getByRole('status').filter({ has: page.getByRole('heading', { level: 2, name: 'Passed' }) });
       await passed.waitFor();

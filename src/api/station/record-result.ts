@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import type { submitResultBody } from '../../../shared/schemas/results';
 import { ApiError, http } from '../../lib/http';
-import { inTabletMode, tabletIdentity } from '../../lib/tablet-mode';
+import { inTabletMode, setTabletIdentity, tabletIdentity } from '../../lib/tablet-mode';
 import { auditKeys } from '../audit/keys';
 import { itemKeys } from '../items/keys';
 import { ncrKeys } from '../ncrs/keys';
@@ -27,7 +27,13 @@ export const recordResult = (body: RecordResultBody) => {
       }),
     );
   }
-  return http<ResultJson>('/api/tablet/results', { method: 'POST', body: { ...body, ...who } });
+  return http<ResultJson>('/api/tablet/results', { method: 'POST', body: { ...body, ...who } }).catch(
+    (err: unknown) => {
+      // a badge and PIN refused (or a badge told to wait) are asked for again, not sent again
+      if (err instanceof ApiError && (err.code === 'pin_refused' || err.code === 'too_many')) setTabletIdentity(null);
+      throw err;
+    },
+  );
 };
 
 /** Retries after the first try, before the operator is asked to press Record result again. */

@@ -1,6 +1,5 @@
 import { useQueryClient } from '@tanstack/react-query';
-import { lazy, Suspense, useEffect, useState } from 'react';
-import { Link } from 'react-router';
+import { lazy, Suspense, useEffect, useState, useSyncExternalStore } from 'react';
 import { stationFormQueryOptions, useStationForm } from '../../api/station/station-form';
 import { useTablet } from '../../api/station/tablet';
 import { PageHeader } from '../../components/page-header';
@@ -8,7 +7,7 @@ import { ScanBox } from '../../components/scan-box';
 import { Card, CardBody } from '../../components/ui/card';
 import { Notice } from '../../components/ui/notice';
 import { paths } from '../../lib/paths';
-import { enterTabletMode, setTabletIdentity } from '../../lib/tablet-mode';
+import { enterTabletMode, setTabletIdentity, subscribeTabletIdentity, tabletIdentity } from '../../lib/tablet-mode';
 import { VerdictPanel, type RecordedResult } from '../station/verdict-panel';
 import { EnrolCard } from './enrol-card';
 import { IdentifyCard } from './identify-card';
@@ -27,7 +26,7 @@ export function TabletPage() {
   const queryClient = useQueryClient();
   const tablet = useTablet();
   const [serial, setSerial] = useState<string | null>(null);
-  const [who, setWho] = useState<{ badge: string } | null>(null);
+  const who = useSyncExternalStore(subscribeTabletIdentity, tabletIdentity);
   const [result, setResult] = useState<RecordedResult | null>(null);
   const [round, setRound] = useState(0);
   const station = tablet.data?.station ?? null;
@@ -43,7 +42,7 @@ export function TabletPage() {
         <div className="flex flex-col gap-5">
           <Notice tone="bad" title="This device is not an enrolled station tablet">
             An administrator enrols it here, signed in on this device. People with their own sign-in use the{' '}
-            <Link to={paths.station}>station screen</Link>.
+            <a href={paths.station}>station screen</a>.
           </Notice>
           <EnrolCard onEnrolled={() => void tablet.refetch()} />
         </div>
@@ -51,14 +50,8 @@ export function TabletPage() {
     );
   }
 
-  const identify = (w: { badge: string; pin: string }) => {
-    setTabletIdentity(w);
-    setWho({ badge: w.badge });
-  };
-  const forget = () => {
-    setTabletIdentity(null);
-    setWho(null);
-  };
+  const identify = (w: { badge: string; pin: string }) => setTabletIdentity(w);
+  const forget = () => setTabletIdentity(null);
   const recorded = (r: RecordedResult) => {
     // one identification, one result: the next reading is named afresh
     forget();
