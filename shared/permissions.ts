@@ -29,6 +29,9 @@ export const PERMISSIONS = {
   'results.record': ['operator', 'supervisor'],
   'results.correct': ['supervisor', 'quality'],
   'stage.reentry': ['supervisor'],
+  // who may record which stage: supervisors and admins sign qualifications off, quality reads them
+  'qualifications.read': ['supervisor', 'admin', 'quality'],
+  'qualifications.manage': ['supervisor', 'admin'],
 
   // the plant's own process: admin and quality set up part kinds, stages, routes, characteristics and
   // casting numbers; a route change is approved by quality (never its author), who also moves a part

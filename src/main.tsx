@@ -1,3 +1,4 @@
+import { inTabletMode } from './lib/tablet-mode';
 import '@fontsource/ibm-plex-sans/400.css';
 import '@fontsource/ibm-plex-sans/500.css';
 import '@fontsource/ibm-plex-sans/600.css';
@@ -16,6 +17,8 @@ import { createRouter } from './router';
 // a session can end under an open page (expiry, password changed elsewhere, deactivation)
 const queryClient = makeQueryClient({
   onSignedOut: () => {
+    // a shared tablet has no person's session to lose: its page says when it is not enrolled
+    if (inTabletMode()) return;
     // called only once requests run, by when `router` below exists
     const going = router.state.navigation.location ?? router.state.location;
     void router.navigate(signInHref({ next: `${going.pathname}${going.search}`, note: 'expired' }), { replace: true });

@@ -32,6 +32,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
       hydrateFallbackElement: <LoadingScreen />,
     },
     {
+      // a shared station tablet: its own sign-in (a device cookie), no person's session
+      path: paths.tablet,
+      lazy: async () => ({ Component: (await import('./routes/tablet/tablet-page')).TabletPage }),
+      errorElement: <RootError />,
+      hydrateFallbackElement: <LoadingScreen />,
+    },
+    {
       // public: anyone holding a document checks it, no sign-in
       path: paths.verify,
       lazy: async () => ({ Component: (await import('./routes/verify/verify-page')).VerifyPage }),
@@ -61,6 +68,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               lazy: async () => {
                 const m = await import('./routes/admin/people/people-page');
                 return { Component: m.PeoplePage, loader: m.peopleLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.qualifications,
+              lazy: async () => {
+                const m = await import('./routes/admin/qualifications/qualifications-page');
+                return { Component: m.QualificationsPage, loader: m.qualificationsLoader(queryClient) };
               },
             },
             {

@@ -20,6 +20,8 @@ import * as m20261203200000 from './20261203200000-received-lots.js';
 import * as m20261203210000 from './20261203210000-yield-days.js';
 import * as m20261203220000 from './20261203220000-result-values.js';
 import * as m20261203230000 from './20261203230000-process-definition.js';
+import * as m20261203233000 from './20261203233000-qualifications.js';
+import * as m20261203234000 from './20261203234000-station-tablets.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -48,4 +50,6 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261203210000-yield-days', ...m20261203210000 },
   { name: '20261203220000-result-values', ...m20261203220000 },
   { name: '20261203230000-process-definition', ...m20261203230000 },
+  { name: '20261203233000-qualifications', ...m20261203233000 },
+  { name: '20261203234000-station-tablets', ...m20261203234000 },
 ];

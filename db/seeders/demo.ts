@@ -19,6 +19,7 @@ import {
 import { seedDemoClaimsHistory } from './demo-claims-history.js';
 import { seedDemoHistory } from './demo-history.js';
 import { seedDemoPartsIfEmpty } from './demo-parts.js';
+import { seedDemoQualifications } from './demo-qualifications.js';
 import { CHARACTERISTICS, firstRules } from './spec-book.js';
 import { DEFECT_CODES, DEMO_USERS, FAMILIES, GAUGES, PLANT, ROUTES, STAGES, STATIONS } from './plant.js';
 
@@ -139,6 +140,8 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
   }
 
   const now = new Date();
+  // the floor's people are signed off for the stages they record before any part reaches them
+  await seedDemoQualifications(sequelize, transaction, ctx, todayIn(PLANT.timeZone, now), 'valve-seats');
   const stamp = { created_at: now, updated_at: now };
   const customerKinds = ['Fleet Services', 'Truck & Bus', 'Haulage', 'Agri Supply', 'Marine Power', 'Motor Factors'];
   const customers = Array.from({ length: 12 }, (_, i) => ({

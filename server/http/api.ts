@@ -8,8 +8,11 @@ import { personKey, type Limits } from './limits.js';
 
 type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
 
-/** Who may call a route: nobody signed in needed, anyone signed in, or holders of a permission. */
-export type Access = 'public' | 'signed-in' | Permission;
+/**
+ * Who may call a route: nobody signed in needed, anyone signed in, holders of a permission, or an
+ * enrolled station tablet (its device cookie; a person's session is not one).
+ */
+export type Access = 'public' | 'signed-in' | 'tablet' | Permission;
 
 /**
  * A route where a password is typed again: wrong ones are counted per person and, past
@@ -102,7 +105,10 @@ export class Api {
     const limitMessage = `Too many wrong passwords. Wait ${this.limits.windowMin} minutes, then try again, or ask an administrator to lift the lock.`;
     const handler: RequestHandler = async (req: Request, res: Response) => {
       const user = req.user ?? null;
-      if (spec.access !== 'public') {
+      if (spec.access === 'tablet') {
+        if (!req.tablet)
+          throw unauthenticated('This device is not an enrolled station tablet: an administrator enrols it.');
+      } else if (spec.access !== 'public') {
         if (!user) throw unauthenticated();
         if (user.enrolOnly && !spec.enrolment) throw secondFactorRequired();
         if (spec.access !== 'signed-in' && !can(user.role, spec.access)) throw forbidden();

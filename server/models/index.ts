@@ -7,6 +7,8 @@ import { CoreReceipt, Item, ItemLink } from './items.js';
 import { IssuedDocument } from './issued-document.js';
 import { PartLot, UnitLot } from './lots.js';
 import { UnitPreference } from './preferences.js';
+import { Qualification } from './qualification.js';
+import { StationTablet } from './station-tablet.js';
 import { DefectCode, Nonconformance, NonconformanceTransition, Signature } from './nonconformances.js';
 import { Customer, Supplier } from './parties.js';
 import { FieldAction, PlantSettings } from './plant.js';
@@ -61,6 +63,7 @@ export {
   PartKindRow,
   PartLot,
   PlantSettings,
+  Qualification,
   Reading,
   RecoveryCode,
   Route,
@@ -75,6 +78,7 @@ export {
   StageReentry,
   StageResult,
   Station,
+  StationTablet,
   Supplier,
   ToleranceRule,
   UnitLot,
@@ -138,6 +142,8 @@ const MODELS = [
   CorrectiveActionContainment,
   CorrectiveActionTask,
   UnitPreference,
+  Qualification,
+  StationTablet,
 ] as const;
 
 export function initModels(sequelize: Sequelize) {

@@ -31,6 +31,8 @@ export class StageResult extends Model<InferAttributes<StageResult>, InferCreati
   // `…ById` so the association can be called `reentryBy` without colliding with the column
   declare reentryById: number | null;
   declare notes: CreationOptional<string>;
+  /** The shared station tablet the result came from, when the person identified on one. */
+  declare tabletId: CreationOptional<number | null>;
   declare createdAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize) {
@@ -51,6 +53,7 @@ export class StageResult extends Model<InferAttributes<StageResult>, InferCreati
         reentryReason: { type: DataTypes.STRING(500), allowNull: true },
         reentryById: { type: DataTypes.INTEGER, allowNull: true },
         notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+        tabletId: { type: DataTypes.INTEGER, allowNull: true },
         createdAt: DataTypes.DATE,
       },
       { sequelize, tableName: 'stage_results', underscored: true, updatedAt: false },

@@ -24,6 +24,11 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare totpEnrolledAt: CreationOptional<Date | null>;
   /** The time step of the last code accepted: each code signs in once. */
   declare totpLastStep: CreationOptional<number | null>;
+  /** The badge a shared station tablet scans to identify the person; unique. */
+  declare badge: CreationOptional<string | null>;
+  /** The short PIN typed after the badge, bcrypt-hashed as passwords are. */
+  declare pinHash: CreationOptional<string | null>;
+  declare pinSetAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -38,6 +43,9 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         tokenVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
         lastSignInAt: { type: DataTypes.DATE, allowNull: true },
+        badge: { type: DataTypes.STRING(40), allowNull: true },
+        pinHash: { type: DataTypes.STRING(100), allowNull: true },
+        pinSetAt: { type: DataTypes.DATE, allowNull: true },
         totpSecret: { type: DataTypes.STRING(200), allowNull: true, defaultValue: null },
         totpPendingSecret: { type: DataTypes.STRING(200), allowNull: true, defaultValue: null },
         totpEnrolledAt: { type: DataTypes.DATE, allowNull: true, defaultValue: null },

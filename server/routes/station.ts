@@ -9,7 +9,7 @@ import {
   submitResultBody,
 } from '../../shared/schemas/results.js';
 import type { Api } from '../http/api.js';
-import { allowReentry, resultsOf, stationForm, submitResult } from '../services/station.js';
+import { allowReentry, resultsOf, stationForm, stationQueues, submitResult } from '../services/station.js';
 
 export function stationRoutes(api: Api, sequelize: Sequelize) {
   api.define({
@@ -21,6 +21,13 @@ export function stationRoutes(api: Api, sequelize: Sequelize) {
     params: stationParam,
     query: stationFormQuery,
     handler: ({ params, query }) => stationForm(params.code, query.serial),
+  });
+  api.define({
+    method: 'get',
+    path: '/station-queues',
+    access: 'station.form',
+    summary: 'Each station in service with the parts waiting at its stage now, in route order (the station chooser).',
+    handler: () => stationQueues(sequelize),
   });
   api.define({
     method: 'post',

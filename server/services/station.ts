@@ -40,6 +40,7 @@ import { formCharacteristics } from './spec.js';
 import { checkControlLimits } from './spc/signals.js';
 import { lockUnitsReachedBy } from './unit-locks.js';
 import { fitOf, gaugeChoices } from './gauge-suitability.js';
+import { requireQualified } from './qualifications.js';
 
 type Route = NonNullable<Awaited<ReturnType<typeof routeOfItem>>>;
 type FormChar = ReturnType<typeof formCharacteristics>[number];
@@ -314,7 +315,13 @@ export async function submitResult(
   {
     path = '/api/results',
     correction = null,
-  }: { path?: string; correction?: { resultId: number; reason: string } | null } = {},
+    tablet = null,
+  }: {
+    path?: string;
+    correction?: { resultId: number; reason: string } | null;
+    /** The shared station tablet the person identified on (badge and PIN), kept with the result. */
+    tablet?: { id: number; label: string } | null;
+  } = {},
 ): Promise<Outcome> {
   const requestHash = hashBody(body);
   return sequelize.transaction(async (transaction) => {
@@ -338,6 +345,9 @@ export async function submitResult(
 
     const ref = await referenceData(sequelize, transaction, versionRead(version));
     const { station, stage } = stationByCode(ref, body.station);
+    // a new result needs its operator's qualification for the stage in force today (a correction is
+    // a supervisor's or quality's record of what was measured, not a new measurement)
+    if (!correction) await requireQualified(sequelize, transaction, ctx.actor!, stage);
     const serial = checkedSerial(body.serial);
     // the units the part reaches first, as the release gate takes them (no NCR slips past a release)
     await lockUnitsReachedBy(sequelize, { serial }, transaction);
@@ -459,6 +469,7 @@ export async function submitResult(
         reentryReason: reentry && reentry.stageId === stage.id && !supersedes ? reentry.reason : null,
         reentryById: reentry && reentry.stageId === stage.id && !supersedes ? reentry.allowedById : null,
         notes: body.notes,
+        tabletId: tablet?.id ?? null,
       },
       { transaction },
     );
@@ -628,6 +639,7 @@ export async function submitResult(
           r.ruleVersion,
         ]),
         nonconformance: ncr?.number ?? null,
+        ...(tablet ? { tablet: { id: tablet.id, label: tablet.label } } : {}),
       },
     });
     if (before.status !== item.status || before.currentStage !== item.currentStageId) {
@@ -749,4 +761,26 @@ export async function resultsOf(serial: string): Promise<(ResultJson & { superse
       item: { status: item.status, currentStage: null },
     };
   });
+}
+
+export type StationQueueJson = { code: string; waiting: number; rank: number };
+
+/**
+ * Each station in service with how many parts wait at its stage now, in route order: the stage's
+ * earliest place on any route, then the stage's id (the order the line was set up in).
+ */
+export async function stationQueues(sequelize: Sequelize): Promise<StationQueueJson[]> {
+  const rows = await sequelize.query<{ code: string; waiting: number }>(
+    `SELECT s.code, coalesce(q.waiting, 0)::int AS waiting
+       FROM stations s
+       JOIN stages g ON g.id = s.stage_id
+       LEFT JOIN (SELECT stage_id, min(position) AS position FROM route_stages GROUP BY stage_id) r ON r.stage_id = s.stage_id
+       LEFT JOIN (SELECT current_stage_id, count(*) AS waiting FROM items
+                   WHERE current_stage_id IS NOT NULL AND status = 'in_process' GROUP BY current_stage_id) q
+              ON q.current_stage_id = s.stage_id
+      WHERE s.active
+      ORDER BY coalesce(r.position, 2147483647), g.id, s.code`,
+    { type: QueryTypes.SELECT },
+  );
+  return rows.map((r, i) => ({ code: r.code, waiting: r.waiting, rank: i }));
 }

@@ -36,6 +36,7 @@ const cookies = new Map<Role, string>();
 let pool: unknown[] = [];
 const ids: Record<string, string[]> = {};
 let sent = 0;
+let tabletCookie = '';
 // request ids are unique to this run, so an event from an earlier run on the same database never counts
 const RUN = Math.random().toString(36).slice(2, 8);
 
@@ -71,6 +72,15 @@ beforeAll(async () => {
   ids.number = [ncr.body.number as string];
   ids.lotCode = ['T-PISTONS'];
   ids.characteristicId = ['1'];
+  // a shared tablet of this file's own, enrolled by an admin, for the routes only a tablet may call
+  const enrol = await request(t.app)
+    .post('/api/tablets')
+    .set('Cookie', cookies.get('admin')!)
+    .send({ station: 'BH-1', label: 'Fuzz tablet' });
+  if (enrol.status !== 201) throw new Error(`enrol failed: ${JSON.stringify(enrol.body)}`);
+  tabletCookie = (enrol.headers['set-cookie'] as unknown as string[])
+    .find((c) => c.startsWith('coretrail_tablet='))!
+    .split(';')[0]!;
   pool = plausiblePool([...ids.serial, ...ids.code], [family.id, customer.id, 1, 2, 8, 0.0197, 4.03, 25]);
 });
 afterAll(async () => {
@@ -81,7 +91,7 @@ afterAll(async () => {
 type Req = { url: string; query: Record<string, unknown>; body: unknown; contentType?: string; what: string };
 
 function roleFor(access: string): Role | null {
-  if (access === 'public') return null;
+  if (access === 'public' || access === 'tablet') return null;
   if (access === 'signed-in') return 'operator';
   return ROLES.find((r) => can(r, access as never)) ?? 'admin';
 }
@@ -169,7 +179,14 @@ async function send(route: (typeof t.app.apiRoutes)[number], r: Req): Promise<Fi
   const role = roleFor(route.access);
   // routes that end the caller's session get a session of their own each time
   const fresh = /\/auth\/(logout|password)|end-others/.test(route.path);
-  const cookie = role ? (fresh ? await cookieFor(await makeUser(role), t.config) : cookies.get(role)!) : undefined;
+  const cookie =
+    route.access === 'tablet'
+      ? tabletCookie
+      : role
+        ? fresh
+          ? await cookieFor(await makeUser(role), t.config)
+          : cookies.get(role)!
+        : undefined;
   const requestId = `fuzz-${RUN}-${sent++}`;
   const qs = new URLSearchParams();
   for (const [k, v] of Object.entries(r.query)) for (const one of [v].flat()) qs.append(k, String(one));

@@ -24,6 +24,7 @@ import {
   tornDownCore,
 } from '../support/parts.js';
 import { AIAG_READINGS } from '../unit/fixtures/msa-aiag.js';
+import { chooseStation } from '../support/station-ui.js';
 
 /**
  * Measurement in the browser. A bore gauge of this file's own reads the bores of TARN-6 blocks (the
@@ -231,8 +232,7 @@ describe('a bore gauge found out of tolerance, in the browser', () => {
     const op = demo('operator');
     await signIn(floor, served.base, op.email, op.password);
     await floor.goto(`${served.base}/station`);
-    await floor.getByLabel('Station', { exact: true }).selectOption('BH-1');
-    await floor.getByRole('button', { name: 'Use this station' }).click();
+    await chooseStation(floor, 'BH-1');
     await floor.goto(`${served.base}/station?serial=${fresh.block}`);
     const picker = floor.getByLabel('Gauge used');
     await picker.waitFor();

@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_USERS } from '../../db/seeders/plant.js';
 import { PartLot, Reading, StageResult, Supplier, UnitPreference } from '../../server/models/index.js';
 import { cookieFor, makeUser, TEST_PASSWORD, unique } from '../support/app.js';
+import { chooseStation } from '../support/station-ui.js';
 import { launch, serveApp, signIn, type Served } from '../support/browser.js';
 import { passThrough, tornDownCore } from '../support/parts.js';
 import { certificatePdf } from '../support/pdf.js';
@@ -131,8 +132,7 @@ describe('typing a reading in another unit at a station', () => {
     const page = await context.newPage();
     await signIn(page, served.base, operator.email, TEST_PASSWORD);
     await page.goto(`${served.base}/station`);
-    await page.getByLabel('Station', { exact: true }).selectOption('PT-1');
-    await page.getByRole('button', { name: 'Use this station' }).click();
+    await chooseStation(page, 'PT-1');
 
     const scan = async (serial: string) => {
       const box = page.getByRole('textbox', { name: 'Serial' });

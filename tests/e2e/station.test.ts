@@ -8,6 +8,7 @@ import { DEMO_USERS } from '../../db/seeders/plant.js';
 import { Item, Nonconformance } from '../../server/models/index.js';
 import { makeSerial } from '../../shared/domain/serial.js';
 import { cookieFor, makeUser } from '../support/app.js';
+import { chooseStation } from '../support/station-ui.js';
 import { launch, serveApp, signIn, type Served } from '../support/browser.js';
 import { formFor, passThrough, tornDownCore } from '../support/parts.js';
 
@@ -70,8 +71,7 @@ describe('the station screen on a tablet', () => {
     const op = demo('operator');
     await signIn(page, served.base, op.email, op.password);
     await page.goto(`${served.base}/station`);
-    await page.getByLabel('Station', { exact: true }).selectOption('BH-1');
-    await page.getByRole('button', { name: 'Use this station' }).click();
+    await chooseStation(page, 'BH-1');
     await page.getByRole('heading', { level: 1, name: 'Bore and hone cell' }).waitFor();
 
     await scan(page, bad);
@@ -155,8 +155,7 @@ describe('the station screen on a tablet', () => {
     const op = demo('operator');
     await signIn(page, served.base, op.email, op.password);
     await page.goto(`${served.base}/station`);
-    await page.getByLabel('Station', { exact: true }).selectOption('BH-1');
-    await page.getByRole('button', { name: 'Use this station' }).click();
+    await chooseStation(page, 'BH-1');
     const box = page.getByRole('textbox', { name: 'Serial' });
     // a well-formed serial that no item has is said under the box, and selected for the next scan
     const nobody = makeSerial('block', randomInt);

@@ -11,6 +11,7 @@ import { createSequelize } from '../../server/db.js';
 import { Session, User } from '../../server/models/index.js';
 import { SESSION_COOKIE } from '../../server/middleware/authenticate.js';
 import type { Role } from '../../shared/roles.js';
+import { can } from '../../shared/permissions.js';
 
 export const TEST_PASSWORD = 'correct horse battery';
 // hashed once per run at the production cost, so each factory user is cheap to make
@@ -55,9 +56,9 @@ export const unique = (prefix = 't') => `${prefix}${randomBytes(5).toString('hex
  */
 export async function makeUser(
   role: Role,
-  extra: Partial<{ active: boolean; name: string; quickSignature: boolean }> = {},
+  extra: Partial<{ active: boolean; name: string; quickSignature: boolean; qualified: boolean }> = {},
 ) {
-  return User.create({
+  const user = await User.create({
     email: `${unique(role)}@test.example`,
     name: extra.name ?? `Test ${role}`,
     role,
@@ -65,6 +66,46 @@ export async function makeUser(
     active: extra.active ?? true,
     lastSignInAt: null,
   });
+  // people who record results are signed off for every stage, unless a test says otherwise
+  if ((extra.qualified ?? true) && can(role, 'results.record')) await qualify(user);
+  return user;
+}
+
+let trainer: User | null = null;
+
+/**
+ * Signs `user` off for stages (every stage by default) from `trainedOn` to `expiresOn`, as a
+ * supervisor would: one signature row and one qualification per stage, written directly.
+ */
+export async function qualify(user: User, opts: { stages?: string[]; trainedOn?: string; expiresOn?: string } = {}) {
+  const sequelize = User.sequelize!;
+  trainer ??= await User.create({
+    email: `${unique('trainer')}@test.example`,
+    name: 'Test trainer',
+    role: 'supervisor',
+    passwordHash: await hashOnce(),
+    lastSignInAt: null,
+  });
+  const day = (n: number) => new Date(Date.now() + n * 86_400_000).toISOString().slice(0, 10);
+  await sequelize.query(
+    `WITH sig AS (
+       INSERT INTO signatures (user_id, printed_name, meaning, reason, entity, entity_id, signed_at)
+       VALUES (:trainer, 'Test trainer', 'Qualified to record stages', 'test factory', 'qualification', :person, now())
+       RETURNING id)
+     INSERT INTO qualifications (user_id, stage_id, trained_on, expires_on, signed_by_id, signature_id)
+     SELECT :person, s.id, :trainedOn, :expiresOn, :trainer, sig.id FROM stages s, sig
+      WHERE :all OR s.code IN (:codes)`,
+    {
+      replacements: {
+        trainer: trainer.id,
+        person: user.id,
+        trainedOn: opts.trainedOn ?? day(-30),
+        expiresOn: opts.expiresOn ?? day(365),
+        all: !opts.stages,
+        codes: opts.stages?.length ? opts.stages : [''],
+      },
+    },
+  );
 }
 
 /** A session cookie for a user, made directly (no bcrypt), exactly as sign-in makes one. */

@@ -15,3 +15,8 @@ export async function fillPassing(page: Page, form: StationFormJson) {
     }
   }
 }
+
+/** Taps a station's tile in the station chooser (its code is on the tile). */
+export async function chooseStation(page: Page, code: string) {
+  await page.getByRole('button', { name: new RegExp(`\\b${code}\\b`) }).click();
+}

@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import type { submitResultBody } from '../../../shared/schemas/results';
 import { ApiError, http } from '../../lib/http';
+import { inTabletMode, setTabletIdentity, tabletIdentity } from '../../lib/tablet-mode';
 import { auditKeys } from '../audit/keys';
 import { itemKeys } from '../items/keys';
 import { ncrKeys } from '../ncrs/keys';
@@ -14,7 +15,26 @@ export type RecordResultBody = z.input<typeof submitResultBody>;
  * The idempotency key travels in the body: a retry with the same key after a dropped connection
  * gets the stored reply back instead of recording the part twice.
  */
-export const recordResult = (body: RecordResultBody) => http<ResultJson>('/api/results', { method: 'POST', body });
+export const recordResult = (body: RecordResultBody) => {
+  if (!inTabletMode()) return http<ResultJson>('/api/results', { method: 'POST', body });
+  // a shared tablet: the person who took the readings names themselves with badge and PIN
+  const who = tabletIdentity();
+  if (!who) {
+    return Promise.reject(
+      new ApiError(400, {
+        code: 'identify_first',
+        message: 'Scan your badge and enter your PIN (at the top) before recording. Nothing was recorded.',
+      }),
+    );
+  }
+  return http<ResultJson>('/api/tablet/results', { method: 'POST', body: { ...body, ...who } }).catch(
+    (err: unknown) => {
+      // a badge and PIN refused (or a badge told to wait) are asked for again, not sent again
+      if (err instanceof ApiError && (err.code === 'pin_refused' || err.code === 'too_many')) setTabletIdentity(null);
+      throw err;
+    },
+  );
+};
 
 /** Retries after the first try, before the operator is asked to press Record result again. */
 export const SUBMIT_RETRIES = 5;

@@ -1,11 +1,14 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { http } from '../../lib/http';
+import { inTabletMode } from '../../lib/tablet-mode';
 import { stationKeys } from './keys';
 import type { StationFormJson } from './types';
 
 /** `serial` is the checked, printed form (parseSerial), so one part has one cache entry per station. */
 export const fetchStationForm = (station: string, serial: string, signal?: AbortSignal) =>
-  http<StationFormJson>(`/api/stations/${encodeURIComponent(station)}/form`, { query: { serial }, signal });
+  inTabletMode()
+    ? http<StationFormJson>('/api/tablet/form', { query: { serial }, signal })
+    : http<StationFormJson>(`/api/stations/${encodeURIComponent(station)}/form`, { query: { serial }, signal });
 
 /**
  * Kept only briefly: whether a part is due here changes as other stations record it, and a form

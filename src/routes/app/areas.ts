@@ -55,6 +55,12 @@ export const AREAS: Area[] = [
     summary: 'Add people, set their role, reset a password, deactivate someone who has left.',
   },
   {
+    label: 'Qualifications',
+    to: paths.qualifications,
+    permission: 'qualifications.read',
+    summary: 'Who may record which stage: training and expiry days, signed off by a supervisor.',
+  },
+  {
     label: 'Stations',
     to: paths.stations,
     permission: 'stations.manage',

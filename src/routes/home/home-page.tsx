@@ -9,6 +9,7 @@ import { paths } from '../../lib/paths';
 import { areasFor, comingFor } from '../app/areas';
 import { WaitingForYou } from './waiting-for-you';
 import { LineHome } from './line-home';
+import { ExpiringQualifications } from './expiring-qualifications';
 
 type Tile = { label: string; to: string; summary: string };
 
@@ -59,6 +60,7 @@ export function HomePage() {
         </section>
       )}
       <LineHome me={me} />
+      <ExpiringQualifications me={me} />
       <WaitingForYou me={me} />
       <section aria-labelledby="now-heading" className="mb-8">
         <h2 id="now-heading" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-soft">

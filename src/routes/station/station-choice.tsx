@@ -1,10 +1,10 @@
-import { useId, useState } from 'react';
+import { useId } from 'react';
 import type { Station } from '../../../shared/schemas/reference';
+import { useStationQueues, type StationQueue } from '../../api/station/station-queues';
 import { Button } from '../../components/ui/button';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
-import { bigControl, bigLabel } from './controls';
 
 type StationChoiceProps = {
   stations: Station[];
@@ -15,90 +15,86 @@ type StationChoiceProps = {
   onCancel?: () => void;
 };
 
-/** Stations by where they stand on the floor, so the one beside the tablet is quick to find. */
-function byLocation(stations: Station[]) {
-  const m = new Map<string, Station[]>();
-  for (const s of [...stations].sort((a, b) => a.name.localeCompare(b.name))) {
+/**
+ * Stations by the area they stand in, each area and each station in route order (where the part
+ * goes first comes first), so the one beside the tablet is found by walking the line in one's head.
+ * Without the counts (still coming, or refused) the tiles keep the same areas in name order.
+ */
+export function areasInRouteOrder(stations: Station[], queues: StationQueue[] | undefined) {
+  const rank = new Map(queues?.map((q) => [q.code, q.rank]));
+  const sorted = [...stations].sort(
+    (a, b) => (rank.get(a.code) ?? 1e9) - (rank.get(b.code) ?? 1e9) || a.name.localeCompare(b.name),
+  );
+  const areas = new Map<string, Station[]>();
+  for (const s of sorted) {
     const k = s.location || 'Elsewhere';
-    m.set(k, [...(m.get(k) ?? []), s]);
+    areas.set(k, [...(areas.get(k) ?? []), s]);
   }
-  return [...m.entries()].sort(([a], [b]) => a.localeCompare(b));
+  return [...areas.entries()];
 }
 
 export function StationChoice({ stations, current, stale, onChoose, onCancel }: StationChoiceProps) {
   const id = useId();
-  const [code, setCode] = useState(current?.code ?? '');
-  const [tried, setTried] = useState(false);
-  const missing = tried && !code;
+  const queues = useStationQueues();
+  const waiting = new Map(queues.data?.map((q) => [q.code, q.waiting]));
   return (
     <Card labelledBy={`${id}-title`}>
       <CardHeader
         id={`${id}-title`}
         title="Choose this tablet's station"
-        description="The tablet remembers it: every part scanned here is recorded at this station until it is changed."
+        description="Tap the station this tablet stands at. It remembers it: every part scanned here is recorded at this station until it is changed."
+        actions={
+          onCancel &&
+          current && (
+            <Button size="lg" onClick={onCancel}>
+              Keep {current.name}
+            </Button>
+          )
+        }
       />
       <CardBody>
-        <form
-          noValidate
-          className="flex flex-col gap-4"
-          onSubmit={(e) => {
-            e.preventDefault();
-            setTried(true);
-            if (code) onChoose(code);
-          }}
-        >
+        <div className="flex flex-col gap-6">
           {stale && (
             <Notice tone="hold" title={`Station ${stale} is not recording now`}>
               It is out of service or records no stage. Choose where this tablet is now.
             </Notice>
           )}
-          <div className="flex max-w-2xl flex-col gap-1.5">
-            <label htmlFor={id} className={bigLabel}>
-              Station
-            </label>
-            <span className="relative block">
-              <select
-                id={id}
-                value={code}
-                autoFocus
-                onChange={(e) => setCode(e.target.value)}
-                aria-invalid={missing ? true : undefined}
-                aria-describedby={missing ? `${id}-error` : undefined}
-                className={`${bigControl} h-14 appearance-none pr-10`}
-              >
-                <option value="">Choose the station</option>
-                {byLocation(stations).map(([location, group]) => (
-                  <optgroup key={location} label={location}>
-                    {group.map((s) => (
-                      <option key={s.code} value={s.code}>
-                        {s.name} ({s.code}) — {s.stageName}
-                      </option>
-                    ))}
-                  </optgroup>
-                ))}
-              </select>
-              <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-ink-soft">
-                <Icon name="chevronDown" size={20} />
-              </span>
-            </span>
-            {missing && (
-              <p id={`${id}-error`} className="flex items-start gap-1.5 text-base font-semibold text-bad">
-                <Icon name="bad" size={18} className="mt-0.5" />
-                Choose the station this tablet stands at.
-              </p>
-            )}
-          </div>
-          <div className="flex flex-wrap gap-3">
-            <Button type="submit" variant="primary" size="lg">
-              Use this station
-            </Button>
-            {onCancel && current && (
-              <Button size="lg" onClick={onCancel}>
-                Keep {current.name}
-              </Button>
-            )}
-          </div>
-        </form>
+          {areasInRouteOrder(stations, queues.data).map(([area, group]) => (
+            <section key={area} aria-labelledby={`${id}-${area}`}>
+              <h3 id={`${id}-${area}`} className="mb-2 text-lg font-semibold text-ink-soft">
+                {area}
+              </h3>
+              <ul className="grid grid-cols-1 gap-3 sm:grid-cols-2 lg:grid-cols-3">
+                {group.map((s) => {
+                  const n = waiting.get(s.code);
+                  const here = current?.code === s.code;
+                  return (
+                    <li key={s.code}>
+                      <button
+                        type="button"
+                        aria-pressed={here}
+                        onClick={() => onChoose(s.code)}
+                        className={`flex min-h-24 w-full flex-col items-start justify-between gap-2 rounded-card border-2 bg-card p-4 text-left hover:border-accent focus-visible:outline-3 focus-visible:outline-accent ${here ? 'border-accent bg-accent-tint' : 'border-rule-strong'}`}
+                      >
+                        <span className="flex w-full items-start justify-between gap-2">
+                          <span className="text-xl font-semibold leading-tight text-ink">{s.name}</span>
+                          {here && <Icon name="ok" size={22} className="shrink-0 text-accent" label="Chosen now" />}
+                        </span>
+                        <span className="text-base text-ink-soft">{s.stageName}</span>
+                        <span className="flex w-full items-center justify-between gap-2">
+                          <span className="font-mono text-base text-ink">{s.code}</span>
+                          <span className="text-base font-medium text-ink">
+                            {n === undefined ? '' : n === 1 ? '1 waiting' : `${n} waiting`}
+                          </span>
+                        </span>
+                      </button>
+                    </li>
+                  );
+                })}
+              </ul>
+            </section>
+          ))}
+        </div>
       </CardBody>
     </Card>
   );

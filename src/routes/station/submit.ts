@@ -150,6 +150,7 @@ export function serverProblems(err: ApiError, slots: Slot[], sent: Slot[]): Prob
       return { key: field, label: `Gauge for ${name}`, message };
     }
     if (field === 'notes') return { key: 'notes', label: 'Notes', message };
+    if (field === 'badge' || field === 'pin') return { key: field, label: field === 'pin' ? 'PIN' : 'Badge', message };
     if (field.startsWith('photoIds')) return { key: 'photos', label: 'Photos', message };
     return { key: field, label: field, message };
   });
