@@ -1,3 +1,4 @@
+import { fillResultValuesSql } from '../db/migrations/20261203220000-result-values.js';
 import { Faker, en } from '@faker-js/faker';
 import type pg from 'pg';
 import { makeSerial } from '../shared/domain/serial.js';
@@ -227,6 +228,13 @@ export async function writeCopies(
         CROSS JOIN (SELECT c.id FROM characteristics c JOIN stages s ON s.id = c.stage_id
                      WHERE s.code = 'bore-hone' AND c.code = 'bore') b
         WHERE ${inRange} `,
+      k2,
+    );
+    // triggers are off for the load (session_replication_role): result_values is filled as its
+    // trigger would have, from the readings just written
+    await client.query(
+      fillResultValuesSql(`(SELECT r.* FROM bench_result_map m JOIN readings r ON r.stage_result_id = m.new_id
+                             WHERE ${inRange}) copied`),
       k2,
     );
     await writeLots(client, copies, opts.faker);

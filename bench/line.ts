@@ -1,6 +1,6 @@
 import { PLANT } from '../db/seeders/plant.js';
 import { ITEMS_SQL, STAGES_SQL, THROUGHPUT_SQL } from '../server/services/line/wip.js';
-import { LOSSES_SQL, SALVAGE_SQL, YIELD_SQL, paretoSql } from '../server/services/line/yields.js';
+import { LIVE_FROM_SQL, LOSSES_SQL, SALVAGE_SQL, YIELD_SQL, paretoSql } from '../server/services/line/yields.js';
 import { readBoth, type Ctx, type Side } from './measure.js';
 import { sqlText } from './pgbench.js';
 
@@ -42,11 +42,24 @@ export async function measureLine(c: Ctx, rate: number): Promise<LineFigures> {
     },
   );
   const period = { from, to, tz, family: null };
+  const {
+    rows: [live],
+  } = await c.db.query<{ live_from: string }>(inline(LIVE_FROM_SQL, period));
+  const liveFrom = live!.live_from;
+  c.log(`yields: counted days up to ${liveFrom}, judged live from then on`);
   const yields = await readBoth(
     c,
     rate,
     { cookie: c.cookies.quality, path: () => `/api/yields?from=${from}&to=${to}` },
-    { scripts: { 'yields.sql': [YIELD_SQL, LOSSES_SQL, SALVAGE_SQL].map((s) => inline(s, period)).join('') } },
+    {
+      scripts: {
+        // as the API: the first day judged live, then the report with that day as a value
+        'yields.sql': [
+          inline(LIVE_FROM_SQL, period),
+          ...[YIELD_SQL, LOSSES_SQL, SALVAGE_SQL].map((s) => inline(s, { ...period, liveFrom })),
+        ].join(''),
+      },
+    },
   );
   const pareto = await readBoth(
     c,

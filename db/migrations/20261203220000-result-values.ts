@@ -13,7 +13,7 @@ import type { QueryInterface } from 'sequelize';
  * computes in doubles. The family, item and station of the result are copied in, so a chart of one
  * family reads one table.
  */
-const FILL = (source: string) => `
+export const fillResultValuesSql = (source: string) => `
   INSERT INTO result_values (stage_result_id, characteristic_id, created_at, item_id, engine_family_id, station_id,
                              gauge_id, positions, vals, verdicts)
   SELECT g.stage_result_id, g.characteristic_id, g.created_at, sr.item_id, i.engine_family_id, sr.station_id,
@@ -48,14 +48,14 @@ CREATE INDEX result_values_characteristic_idx ON result_values (characteristic_i
 
 CREATE FUNCTION readings_fill_result_values() RETURNS trigger LANGUAGE plpgsql AS $$
 BEGIN
-  ${FILL('new_readings')};
+  ${fillResultValuesSql('new_readings')};
   RETURN NULL;
 END $$;
 CREATE TRIGGER readings_fill_result_values AFTER INSERT ON readings
   REFERENCING NEW TABLE AS new_readings
   FOR EACH STATEMENT EXECUTE FUNCTION readings_fill_result_values();
 
-${FILL('readings')};
+${fillResultValuesSql('readings')};
 ANALYZE result_values;
 `);
 };
