@@ -97,12 +97,12 @@ async function signIn(page: Page, base: string, email: string, password: string)
 /** A fresh browser remembers no station: choose it as an operator does on a new tablet. */
 async function openStation(page: Page, base: string, station: string) {
   await page.goto(`${base}/station`);
+  // the stations are tiles, one tap chooses (the tile's name starts with its code)
   try {
-    await page.getByLabel('Station', { exact: true }).selectOption(station, { timeout: 10_000 });
+    await page.getByRole('button', { name: new RegExp(`\\b${station}\\b`) }).click({ timeout: 10_000 });
   } catch {
     throw new Error(`station ${station} is not offered on the station screen (not recording, or unknown)`);
   }
-  await page.getByRole('button', { name: 'Use this station' }).click();
   await page.getByRole('textbox', { name: 'Serial' }).waitFor();
 }
 
