@@ -37,6 +37,8 @@ export const ENTITY_LABELS: Record<string, string> = {
   part_kind: 'Part kinds',
   stage: 'Stages',
   route: 'Routes',
+  qualification: 'Qualifications',
+  station_tablet: 'Station tablets',
   family_casting_number: 'Casting numbers',
 };
 
@@ -60,6 +62,8 @@ const ONE: Record<string, string> = {
   part_kind: 'Part kind',
   stage: 'Stage',
   route: 'Route version',
+  qualification: 'Qualification',
+  station_tablet: 'Station tablet',
   family_casting_number: 'Casting number',
 };
 
@@ -85,6 +89,12 @@ export const ACTION_LABELS: Record<string, string> = {
   'stage.updated': 'Stage changed',
   'stage.retired': 'Stage retired',
   'route.drafted': 'Route version drafted',
+  'qualification.signed': 'Qualification signed off',
+  'qualification.withdrawn': 'Qualification withdrawn',
+  'tablet.enrolled': 'Tablet enrolled to a station',
+  'tablet.retired': 'Tablet retired',
+  'user.badge_set': 'Badge set',
+  'user.pin_set': 'Station PIN set',
   'route.discarded': 'Route draft discarded',
   'route.approved': 'Route version approved and signed',
   'route.superseded': 'Route version superseded',
