@@ -1,5 +1,5 @@
 import { PLANT } from '../db/seeders/plant.js';
-import { ITEMS_SQL, STAGES_SQL, THROUGHPUT_SQL } from '../server/services/line/wip.js';
+import { BOARD_SQL, STAGES_SQL, THROUGHPUT_SQL, boardValues } from '../server/services/line/wip.js';
 import { LIVE_FROM_SQL, LOSSES_SQL, SALVAGE_SQL, YIELD_SQL, paretoSql } from '../server/services/line/yields.js';
 import { readBoth, type Ctx, type Side } from './measure.js';
 import { sqlText } from './pgbench.js';
@@ -26,7 +26,7 @@ export async function measureLine(c: Ctx, rate: number): Promise<LineFigures> {
   const to = new Date().toISOString().slice(0, 10);
   const from = new Date(Date.now() - 364 * 86_400_000).toISOString().slice(0, 10);
   const tz = PLANT.timeZone;
-  const none = { family: null, kind: null, stage: null, station: null };
+  const none = boardValues({});
   c.log(`line: WIP board, yields and NCR Pareto from ${from} to ${to}, ${rate}/s`);
 
   const wip = await readBoth(
@@ -35,7 +35,7 @@ export async function measureLine(c: Ctx, rate: number): Promise<LineFigures> {
     { cookie: c.cookies.quality, path: () => '/api/line/wip' },
     {
       scripts: {
-        'wip.sql': [inline(ITEMS_SQL, none), inline(STAGES_SQL, none), inline(THROUGHPUT_SQL, { ...none, tz })].join(
+        'wip.sql': [inline(BOARD_SQL, none), inline(STAGES_SQL, none), inline(THROUGHPUT_SQL, { ...none, tz })].join(
           '',
         ),
       },

@@ -12,6 +12,10 @@ export const wipQuery = z.strictObject({
   kind: z.enum(PART_KINDS).optional(),
   stage: text().trim().max(40).optional(),
   station: text().trim().max(20).optional(),
+  /** part of a serial, as typed off a tag */
+  serial: text().trim().min(2).max(40).optional(),
+  /** how many of the oldest parts to send per stage (20 unless asked) */
+  perStage: z.coerce.number().int().min(1).max(500).optional(),
 });
 export type WipQuery = z.output<typeof wipQuery>;
 
@@ -45,7 +49,11 @@ export type WipJson = {
   readFrom: Freshness;
   asOf: string;
   stages: WipStageRow[];
+  /** The oldest `perStage` parts at each stage, oldest first. */
   items: WipItem[];
+  /** Every part that matches, of which `items` are the oldest per stage. */
+  itemCount: number;
+  perStage: number;
   /** Holds by age: under a day, 1–3 days, 3–7 days, over a week. */
   holdAges: { label: string; count: number }[];
   /** The last 7 plant days, per shift (1: 06–14, 2: 14–22, 3: 22–06 in the plant's time zone). */

@@ -229,6 +229,64 @@ describe('the NCR Pareto', () => {
 });
 
 describe('the homes, the board and search', () => {
+  it('when parts of a family of its own wait, work and are held at a stage, then the board counts them as counted by hand and sends the oldest first', async () => {
+    const fam = await freshFamily();
+    const [stage] = await q<{ id: number }>(`SELECT id FROM stages WHERE code = 'block-clean'`);
+    const [who] = await q<{ id: number }>(`SELECT min(id) AS id FROM users`);
+    const ids = await Promise.all([1, 2, 3, 4].map(() => item(fam.id)));
+    const [waitsLong, backAgain, held, justCame] = ids as [number, number, number, number];
+    const hoursAgo = (h: number) => new Date(Date.now() - h * 3_600_000).toISOString();
+    // made 100 h ago (torn down from their core), one of them 30 h ago
+    await q(`UPDATE items SET current_stage_id = :s, created_at = :at WHERE id IN (:ids)`, {
+      s: stage!.id,
+      at: hoursAgo(100),
+      ids,
+    });
+    // waiting 30 h: made 30 h ago, no result anywhere
+    await q(`UPDATE items SET created_at = :at WHERE id = :id`, { at: hoursAgo(30), id: waitsLong });
+    // in work again: its result here was 10 h ago (a rework sent it back)
+    await result(backAgain, 'block-clean', null, 'fail', hoursAgo(10));
+    // on hold for 50 h by an NCR, though its last result was 2 h ago
+    await result(held, 'teardown', null, 'pass', hoursAgo(2));
+    await q(`UPDATE items SET status = 'on_hold' WHERE id = :id`, { id: held });
+    const ncr = unique('N').slice(0, 18).toUpperCase();
+    await q(
+      `INSERT INTO nonconformances (number, item_id, severity, state, description, raised_by_id, created_at)
+       VALUES (:ncr, :id, 'minor', 'raised', 'Fixture hold', :who, :at)`,
+      { ncr, id: held, who: who!.id, at: hoursAgo(50) },
+    );
+    // waiting 5 h: its last result, at another stage, was 5 h ago
+    await result(justCame, 'teardown', null, 'pass', hoursAgo(5));
+
+    const board = (
+      await request(t.app).get('/api/line/wip').query({ family: fam.id }).set('Cookie', cookies.supervisor!)
+    ).body as WipJson;
+    const row = board.stages.find((s) => s.stageCode === 'block-clean')!;
+    // counted by hand from the fixture above
+    expect(row).toMatchObject({ waiting: 2, inWork: 1, onHold: 1 });
+    expect(row.oldestHours).toBeCloseTo(50, 0);
+    expect(board.itemCount).toBe(4);
+    expect(board.holdAges.find((h) => h.label === '1–3 days')!.count).toBe(1);
+    expect(board.holdAges.reduce((n, h) => n + h.count, 0)).toBe(1);
+    expect(board.items.map((i) => [i.state, Math.round(i.ageHours), i.ncr])).toEqual([
+      ['on_hold', 50, ncr],
+      ['waiting', 30, null],
+      ['in_work', 10, null],
+      ['waiting', 5, null],
+    ]);
+
+    // two per stage: the two oldest, and the count still of all four
+    const two = (
+      await request(t.app)
+        .get('/api/line/wip')
+        .query({ family: fam.id, perStage: 2 })
+        .set('Cookie', cookies.supervisor!)
+    ).body as WipJson;
+    expect(two.items.map((i) => Math.round(i.ageHours))).toEqual([50, 30]);
+    expect(two.itemCount).toBe(4);
+    expect(two.stages.find((s) => s.stageCode === 'block-clean')).toMatchObject({ waiting: 2, inWork: 1, onHold: 1 });
+  });
+
   it('when a core is torn down and another waits, then the board shows the parts waiting at their first stage and the queue shows the core', async () => {
     const parts = await tornDownCore(
       t,
@@ -237,7 +295,7 @@ describe('the homes, the board and search', () => {
     );
     const wip = await request(t.app)
       .get('/api/line/wip')
-      .query({ stage: 'block-clean' })
+      .query({ stage: 'block-clean', perStage: 500 })
       .set('Cookie', cookies.supervisor!);
     expect(wip.status).toBe(200);
     const board = wip.body as WipJson;
@@ -246,10 +304,27 @@ describe('the homes, the board and search', () => {
     expect(block.ageHours).toBeGreaterThanOrEqual(0);
     expect(board.stages.find((s) => s.stageCode === 'block-clean')!.waiting).toBeGreaterThanOrEqual(1);
 
+    // the whole board sends only the oldest few per stage, and says how many there are in all
+    const few = (await request(t.app).get('/api/line/wip').query({ perStage: 1 }).set('Cookie', cookies.supervisor!))
+      .body as WipJson;
+    const perStage = new Map<string, number>();
+    for (const i of few.items) perStage.set(i.stageCode, (perStage.get(i.stageCode) ?? 0) + 1);
+    expect([...perStage.values()].every((n) => n === 1)).toBe(true);
+    expect(few.itemCount).toBe(few.stages.reduce((n, s) => n + s.waiting + s.inWork + s.onHold, 0));
+
+    // part of a serial, as typed off a tag, finds it
+    const typed = (
+      await request(t.app)
+        .get('/api/line/wip')
+        .query({ serial: parts.block.slice(-6) })
+        .set('Cookie', cookies.supervisor!)
+    ).body as WipJson;
+    expect(typed.items.map((i) => i.serial)).toContain(parts.block);
+
     // an operator's station queue: the same reads, by station
     const byStation = await request(t.app)
       .get('/api/line/wip')
-      .query({ station: 'CLN-1' })
+      .query({ station: 'CLN-1', perStage: 500 })
       .set('Cookie', cookies.operator!);
     expect(byStation.body.items.map((i: { serial: string }) => i.serial)).toContain(parts.block);
     expect(byStation.body.items.every((i: { stageCode: string }) => i.stageCode === 'block-clean')).toBe(true);
@@ -263,8 +338,12 @@ describe('the homes, the board and search', () => {
     });
     expect(ncr.status).toBe(201);
     const held = (
-      (await request(t.app).get('/api/line/wip').query({ kind: 'crankshaft' }).set('Cookie', cookies.supervisor!))
-        .body as WipJson
+      (
+        await request(t.app)
+          .get('/api/line/wip')
+          .query({ kind: 'crankshaft', serial: parts.crankshaft })
+          .set('Cookie', cookies.supervisor!)
+      ).body as WipJson
     ).items.find((i) => i.serial === parts.crankshaft)!;
     expect(held).toMatchObject({ state: 'on_hold', ncr: ncr.body.number });
 

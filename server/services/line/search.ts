@@ -13,7 +13,7 @@ import { readQuery } from '../../read/read-query.js';
  */
 const PER_KIND = 8;
 
-const escapeLike = (q: string) => `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+export const escapeLike = (q: string) => `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
 
 type Group = {
   kind: SearchKind;

@@ -58,7 +58,7 @@ function StationQueue() {
     <Card labelledBy="queue-heading">
       <CardHeader
         id="queue-heading"
-        title={`Your station’s queue (${code ? items.length : '…'})`}
+        title={`Your station’s queue (${code && wip.data ? wip.data.itemCount : '…'})`}
         description="Parts due at this station, oldest first. Tap one to open it."
         actions={
           <label className="flex items-center gap-2 text-sm">

@@ -5,7 +5,7 @@ import type { WipQuery } from '../../../shared/schemas/line';
 import { useSignedIn } from '../../api/auth/me';
 import { useShipping, useWip, wipQueryOptions } from '../../api/line/line';
 import { familiesQueryOptions, useFamilies } from '../../api/reference/families';
-import { FilterSelect } from '../../components/filter-fields';
+import { FilterInput, FilterSelect } from '../../components/filter-fields';
 import { DataAge } from '../../components/data-age';
 import { PageHeader } from '../../components/page-header';
 import { Badge } from '../../components/ui/badge';
@@ -13,15 +13,21 @@ import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Table, TableFrame, TBody, TD, TH, THead, TR } from '../../components/ui/table';
 import { itemHref, paths } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
-import { useUrlFilter } from '../../lib/use-url-filter';
+import { useDebouncedText, useUrlFilter } from '../../lib/use-url-filter';
 import { BarChart, ChartNumbers } from './bar-chart';
 import { WIP_STATE_WORDS, formatAge } from './words';
 
 const filterFrom = (p: URLSearchParams, familyId: (code: string) => number | undefined): WipQuery => {
   const kind = p.get('kind');
+  const stage = p.get('stage')?.trim();
+  const serial = p.get('serial')?.trim();
   return {
     family: p.get('family') ? familyId(p.get('family')!) : undefined,
     kind: PART_KINDS.includes(kind as never) ? (kind as WipQuery['kind']) : undefined,
+    stage: stage && stage.length <= 40 ? stage : undefined,
+    serial: serial && serial.length >= 2 && serial.length <= 40 ? serial : undefined,
+    // one stage, or a serial typed: every match (up to 500) rather than the oldest few per stage
+    perStage: stage || serial ? 500 : undefined,
   };
 };
 
@@ -131,6 +137,13 @@ function ReadyToShip() {
   );
 }
 
+/** The address with one stage chosen, the other filters kept. */
+const stageSearch = (params: URLSearchParams, stage: string) => {
+  const next = new URLSearchParams(params);
+  next.set('stage', stage);
+  return next.toString();
+};
+
 export function WipPage() {
   const me = useSignedIn();
   const { params, set } = useUrlFilter();
@@ -138,6 +151,9 @@ export function WipPage() {
   const q = filterFrom(params, (c) => families.find((f) => f.code === c)?.id);
   const wip = useWip(q);
   const data = wip.data;
+  const [serial, onSerial] = useDebouncedText(params.get('serial') ?? '', (v) => set('serial', v));
+  const stageName = q.stage ? (data?.stages.find((s) => s.stageCode === q.stage)?.stageName ?? q.stage) : null;
+  const shown = data?.items.length ?? 0;
   return (
     <>
       <PageHeader
@@ -161,6 +177,15 @@ export function WipPage() {
           value={params.get('kind') ?? ''}
           onChange={(v) => set('kind', v)}
         />
+        <FilterInput id="wip-serial" label="Serial contains" value={serial} onChange={onSerial} />
+        {q.stage && (
+          <p className="self-end pb-2">
+            Stage: <strong>{stageName}</strong>{' '}
+            <button type="button" className="ml-2 min-h-11 text-accent underline" onClick={() => set('stage', '')}>
+              All stages
+            </button>
+          </p>
+        )}
       </div>
       {data && (
         <div className="mb-3">
@@ -190,7 +215,11 @@ export function WipPage() {
               <TBody>
                 {(data?.stages ?? []).map((s) => (
                   <TR key={s.stageCode} muted={s.waiting + s.inWork + s.onHold === 0}>
-                    <TD>{s.stageName}</TD>
+                    <TD>
+                      <Link to={`?${stageSearch(params, s.stageCode)}`} className="text-accent underline">
+                        {s.stageName}
+                      </Link>
+                    </TD>
                     <TD>{PART_KIND_LABELS[s.partKind as keyof typeof PART_KIND_LABELS] ?? s.partKind}</TD>
                     <TD mono wideOnly>
                       {s.stations.join(', ')}
@@ -239,8 +268,14 @@ export function WipPage() {
         <Card labelledBy="parts-heading">
           <CardHeader
             id="parts-heading"
-            title={`Parts and units (${data?.items.length ?? '…'})`}
-            description="Oldest first."
+            title={`Parts and units (${data ? data.itemCount.toLocaleString() : '…'})`}
+            description={
+              !data
+                ? 'Oldest first.'
+                : shown < data.itemCount
+                  ? `Oldest first: the ${data.perStage} oldest at each stage, ${shown.toLocaleString()} of ${data.itemCount.toLocaleString()}. Choose a stage or type part of a serial to see the rest.`
+                  : 'Oldest first.'
+            }
           />
           <TableFrame label="Parts in process">
             <Table caption="Parts in process">
