@@ -121,7 +121,7 @@ export async function measureBlast(c: Ctx, rate: number): Promise<BlastFigures> 
   let script: string;
   try {
     const scope = await scopeOf({ gauge: BLAST_GAUGE });
-    script = inline(summarySql(scope), { ...scope.replacements, limit: 200 });
+    script = inline(summarySql(scope), { ...scope.replacements, limit: 200, partLimit: 300 });
   } finally {
     await sequelize.close();
   }

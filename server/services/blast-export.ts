@@ -13,7 +13,7 @@ const cell = (v: unknown) => {
 };
 
 export async function blastCsv(sequelize: Sequelize, q: BlastQuery): Promise<string> {
-  const summary = await blastRadius(sequelize, q, 0);
+  const summary = await blastRadius(sequelize, q, 0, null);
   const where = new Map(summary.parts.map((p) => [p.serial, p]));
   const readings = await blastReadings(sequelize, await scopeOf(q), null);
   const header = [
@@ -91,7 +91,7 @@ export async function blastCsv(sequelize: Sequelize, q: BlastQuery): Promise<str
 const winAnsi = (text: string) => text.replace(/≥/g, '>=').replace(/≤/g, '<=').replace(/−/g, '-').replace(/[–—]/g, '-');
 
 export async function blastPdf(sequelize: Sequelize, q: BlastQuery): Promise<Buffer> {
-  const b = await blastRadius(sequelize, q, 40);
+  const b = await blastRadius(sequelize, q, 40, null);
   const doc = new PDFDocument({ size: 'A4', margin: 48, info: { Title: 'Blast radius', Author: 'Coretrail' } });
   const chunks: Buffer[] = [];
   doc.on('data', (c: Buffer) => chunks.push(c));

@@ -13,6 +13,7 @@ import {
   MailOutbox,
   Signature,
 } from '../../server/models/index.js';
+import { blastRadius } from '../../server/services/blast-radius.js';
 import { gaugeState } from '../../server/services/gauge-suitability.js';
 import { todayIn } from '../../shared/domain/warranty.js';
 import type { StationFormJson } from '../../shared/schemas/results.js';
@@ -361,6 +362,13 @@ describe('the blast radius of a gauge found out of tolerance', () => {
       },
     ]);
     expect(blast.body.guardBand).toEqual({ error: 0.0004, unit: 'in' });
+
+    // the screen names the most doubtful parts only; the counts and customers are still of all of them
+    const first = await blastRadius(t.sequelize, { gauge: g }, 200, 1);
+    expect(first.parts).toHaveLength(1);
+    expect(first.parts[0]!.serial).toBe(blast.body.parts[0].serial);
+    expect(first.totals).toEqual(blast.body.totals);
+    expect(first.customers).toEqual(blast.body.customers);
 
     // the station no longer offers the gauge
     const next = await blockAtBoreHone();

@@ -223,6 +223,12 @@ export function BlastRadiusPage() {
             <Totals b={b} />
           </CardBody>
         </Card>
+        {b.parts.length < b.totals.parts && (
+          <p>
+            The {b.parts.length.toLocaleString()} parts most in doubt of {b.totals.parts.toLocaleString()}; the CSV
+            export has every reading with its part.
+          </p>
+        )}
         <TableFrame label="Parts and where they are">
           <Table caption="Parts measured, and where each is now">
             <THead>
