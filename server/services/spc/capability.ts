@@ -8,7 +8,7 @@ import {
 } from '../../../shared/schemas/spc.js';
 import { partReadings, type PartReadings } from './readings.js';
 import { resolveScope, type Scope } from './scope.js';
-import { buildSeries, computeChart } from './series.js';
+import { allValues, buildSeries, computeChart } from './series.js';
 
 /**
  * Capability of a characteristic over a period: all stations and gauges together, then each
@@ -18,7 +18,7 @@ import { buildSeries, computeChart } from './series.js';
 
 function row(s: Scope, station: string | null, gauge: string | null, parts: PartReadings[]): CapabilityRowJson {
   const series = buildSeries(parts, 'auto');
-  const values = series.parts.flatMap((p) => p.values);
+  const values = allValues(series.parts);
   const empty: CapabilityRowJson = {
     station,
     gauge,

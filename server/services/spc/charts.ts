@@ -22,7 +22,7 @@ import { invalid } from '../../errors.js';
 import { limitsFor, limitsInForce, namesById, presentLimits } from './limits.js';
 import { partReadings, type PartReadings } from './readings.js';
 import { resolveScope } from './scope.js';
-import { buildSeries, computeChart, limitsFit, type Series } from './series.js';
+import { allValues, buildSeries, computeChart, limitsFit, type Series } from './series.js';
 
 /**
  * A control chart of one family's characteristic over a period, with its capability, histogram
@@ -118,7 +118,7 @@ export async function spcChart(sequelize: Sequelize, q: SpcChartQuery): Promise<
     }
   }
   const notes = notesFor(series);
-  const values = series.parts.flatMap((p) => p.values);
+  const values = allValues(series.parts);
   const base = {
     family: { id: s.family.id, code: s.family.code, name: s.family.name },
     characteristic: {

@@ -38,6 +38,16 @@ export type Series = {
 
 export const DEFAULT_PARTS_PER_SUBGROUP = 5;
 
+/** Every reading of the parts, in order: one array filled in a loop (flatMap is slow at 240,000). */
+export function allValues(parts: readonly PartReadings[]): number[] {
+  let total = 0;
+  for (const p of parts) total += p.values.length;
+  const out = new Array<number>(total);
+  let k = 0;
+  for (const p of parts) for (const v of p.values) out[k++] = v;
+  return out;
+}
+
 /** The usual number of readings per part; ties go to the larger (a complete part). */
 function modalCount(parts: PartReadings[]): number {
   const counts = new Map<number, number>();

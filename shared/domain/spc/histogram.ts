@@ -62,7 +62,7 @@ function binWidth(span: number, spec: SpecLimits, target: number, most: number, 
  * (quartiles ∓ 3 × IQR, common practice), so one wild reading does not squeeze the rest into a
  * bin or two; readings beyond the fences fall in stretched end bins.
  */
-function coreSpan(sorted: readonly number[], spec: SpecLimits): { lo: number; hi: number } {
+function coreSpan(sorted: Float64Array, spec: SpecLimits): { lo: number; hi: number } {
   const q = (p: number) => sorted[Math.round(p * (sorted.length - 1))]!;
   const iqr = q(0.75) - q(0.25);
   const inside = sorted.filter((v) => v >= q(0.25) - 3 * iqr && v <= q(0.75) + 3 * iqr);
@@ -95,7 +95,8 @@ export function histogram(values: readonly number[], spec: SpecLimits, opts: His
   if (!Number.isInteger(maxBins) || maxBins < 4 || !Number.isInteger(target) || target < 1) {
     throw new RangeError('bins must be a positive whole number, and maxBins at least 4');
   }
-  const sorted = [...values].sort((a, b) => a - b);
+  // a typed array sorts numerically without a comparator, several times faster on a year of readings
+  const sorted = Float64Array.from(values).sort();
   const core = coreSpan(sorted, spec);
   // room for the anchor's rounding and a stretched bin at each end
   const width = binWidth(core.hi - core.lo, spec, target, maxBins - 3, opts.resolution);
@@ -114,12 +115,19 @@ export function histogram(values: readonly number[], spec: SpecLimits, opts: His
   const to = wide ? Math.min(last, Math.max(from + 1, Math.ceil(pos(core.hi))) + 1) : last;
 
   const counts = new Array<number>(to - from).fill(0);
-  for (const v of values) {
-    const t = pos(v);
-    let j = Math.floor(t);
-    // on an edge a reading belongs to the bin above it, except on the upper limit and the last edge
-    if (Number.isInteger(t) && (t === upperEdge || t === last)) j -= 1;
-    counts[Math.min(to - 1, Math.max(from, j)) - from]! += 1;
+  // in sorted order, so a run of equal readings (they come in resolution steps) is placed once
+  let prev = Number.NaN;
+  let bin = 0;
+  for (const v of sorted) {
+    if (v !== prev) {
+      prev = v;
+      const t = pos(v);
+      let j = Math.floor(t);
+      // on an edge a reading belongs to the bin above it, except on the upper limit and the last edge
+      if (Number.isInteger(t) && (t === upperEdge || t === last)) j -= 1;
+      bin = Math.min(to - 1, Math.max(from, j)) - from;
+    }
+    counts[bin]! += 1;
   }
   const zone = (j: number): BinZone =>
     lowerEdge !== null && j < lowerEdge ? 'below' : upperEdge !== null && j >= upperEdge ? 'above' : 'within';

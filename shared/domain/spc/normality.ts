@@ -38,14 +38,30 @@ export function andersonDarling(values: readonly number[]): number {
   const m = mean(values);
   const s = sampleSd(values);
   if (!(s > 0)) throw new RangeError('the readings do not vary');
-  const z = [...values].map((v) => (v - m) / s).sort((a, b) => a - b);
+  // a typed array sorts numerically without a comparator: a year of bores (240,000 readings) in
+  // a tenth of the time
+  const z = new Float64Array(n);
+  for (let i = 0; i < n; i++) z[i] = (values[i]! - m) / s;
+  z.sort();
+  // readings come in resolution steps, so long runs of equal z: each log F is worked out once a run
+  const logF = runCache((x) => Math.log(Math.max(normalCdf(x), TINY)));
+  const logTail = runCache((x) => Math.log(Math.max(normalCdf(-x), TINY))); // ln(1 − F), kept in the tail
   let sum = 0;
-  for (let i = 0; i < n; i++) {
-    const lower = Math.max(normalCdf(z[i]!), TINY);
-    const upper = Math.max(normalCdf(-z[n - 1 - i]!), TINY); // 1 − F, kept in the tail
-    sum += (2 * i + 1) * (Math.log(lower) + Math.log(upper));
-  }
+  for (let i = 0; i < n; i++) sum += (2 * i + 1) * (logF(z[i]!) + logTail(z[n - 1 - i]!));
   return -n - sum / n;
+}
+
+/** f, remembering its last argument and answer: cheap for runs of equal arguments. */
+function runCache(f: (x: number) => number): (x: number) => number {
+  let last = Number.NaN;
+  let answer = Number.NaN;
+  return (x) => {
+    if (x !== last) {
+      last = x;
+      answer = f(x);
+    }
+    return answer;
+  };
 }
 
 /** Stephens' p-value for the adjusted statistic (D'Agostino & Stephens 1986, Table 4.9). */
