@@ -7,6 +7,7 @@ import {
 } from '../../shared/schemas/process-document.js';
 import type { PositionScheme } from '../../shared/domain/positions.js';
 import { invalid } from '../errors.js';
+import { settleRouteVersions } from './process-routes.js';
 import {
   Characteristic,
   EngineFamily,
@@ -21,6 +22,7 @@ const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
 
 /** The plant's process definition as one document: what is in use, and the route versions in force. */
 export async function exportProcessDocument(): Promise<ProcessDocumentInput> {
+  await settleRouteVersions(Route.sequelize!);
   const [kinds, families, stages, characteristics, routes, castings] = await Promise.all([
     PartKindRow.findAll({ where: { retiredAt: null }, order: [['sortOrder', 'ASC']] }),
     EngineFamily.findAll({ order: [['code', 'ASC']] }),

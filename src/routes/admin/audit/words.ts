@@ -98,6 +98,7 @@ export const ACTION_LABELS: Record<string, string> = {
   'route.discarded': 'Route draft discarded',
   'route.approved': 'Route version approved and signed',
   'route.superseded': 'Route version superseded',
+  'route.took_effect': 'Route version came into force',
   'route.retired': 'Route version retired',
   'item.route_moved': 'Part moved to another route version',
   'characteristic.created': 'Characteristic added',
