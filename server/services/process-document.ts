@@ -6,6 +6,7 @@ import {
   type ProcessDocumentInput,
 } from '../../shared/schemas/process-document.js';
 import type { PositionScheme } from '../../shared/domain/positions.js';
+import type { CharacteristicBody } from '../../shared/schemas/process.js';
 import { invalid } from '../errors.js';
 import { settleRouteVersions } from './process-routes.js';
 import {
@@ -81,6 +82,7 @@ export async function exportProcessDocument(): Promise<ProcessDocumentInput> {
         optional: c.optional,
         defectCode: c.defectCode,
         gaugeKinds: c.gaugeKinds,
+        matesWith: (c.matesWith ?? null) as CharacteristicBody['matesWith'],
         physicalMin: num(c.physicalMin),
         physicalMax: num(c.physicalMax),
         help: c.help,

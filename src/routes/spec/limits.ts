@@ -126,5 +126,12 @@ export function limitsFrom(rule: RuleJson | null, c: Pick<SpecCharacteristicJson
     upperLimit: rule?.upperLimit ?? null,
     resolution: rule?.resolution ?? c.resolution ?? 0,
     sourceNote: rule?.sourceNote ?? '',
+    sizeClasses: (rule?.sizeClasses ?? []).map(({ code, name, nominal, minusTol, plusTol }) => ({
+      code,
+      name,
+      nominal,
+      minusTol,
+      plusTol,
+    })),
   };
 }
