@@ -23,6 +23,7 @@ import * as m20261203230000 from './20261203230000-process-definition.js';
 import * as m20261203233000 from './20261203233000-qualifications.js';
 import * as m20261203234000 from './20261203234000-station-tablets.js';
 import * as m20261204140000 from './20261204140000-size-classes.js';
+import * as m20261204150000 from './20261204150000-process-imports.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -54,4 +55,5 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261203233000-qualifications', ...m20261203233000 },
   { name: '20261203234000-station-tablets', ...m20261203234000 },
   { name: '20261204140000-size-classes', ...m20261204140000 },
+  { name: '20261204150000-process-imports', ...m20261204150000 },
 ];

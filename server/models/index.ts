@@ -27,6 +27,7 @@ import { Session } from './session.js';
 import { RuleRehearsal, SpcLimits, SpcSignal } from './spc.js';
 import { Characteristic, ToleranceRule } from './spec.js';
 import { FamilyCastingNumber, PartKindRow, Route, RouteStage, Stage } from './stage.js';
+import { ProcessImport } from './process-import.js';
 import { Station } from './station.js';
 import { User } from './user.js';
 
@@ -63,6 +64,7 @@ export {
   PartKindRow,
   PartLot,
   PlantSettings,
+  ProcessImport,
   Qualification,
   Reading,
   RecoveryCode,
@@ -90,6 +92,7 @@ export {
 
 const MODELS = [
   User,
+  ProcessImport,
   Session,
   RecoveryCode,
   EngineFamily,

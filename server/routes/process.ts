@@ -17,7 +17,8 @@ import {
   updatePartKindBody,
   updateStageBody,
 } from '../../shared/schemas/process.js';
-import { processDocument } from '../../shared/schemas/process-document.js';
+import { processDocument, processImportQuery } from '../../shared/schemas/process-document.js';
+import { approveImport, discardImport, draftImport, importById, listImports } from '../services/process-import.js';
 import type { Api } from '../http/api.js';
 import { checkProcessDocument, exportProcessDocument } from '../services/process-document.js';
 import {
@@ -235,5 +236,48 @@ export function processRoutes(api: Api, sequelize: Sequelize) {
     summary: 'Check a process document against the plant; a bad one gets every problem by its path. Changes nothing.',
     body: processDocument,
     handler: ({ body }) => checkProcessDocument(sequelize, body),
+  });
+  api.define({
+    method: 'get',
+    path: '/process/imports',
+    access: 'process.edit',
+    summary: 'Process documents imported, newest first: drafts, approved and discarded, with what each adds.',
+    handler: () => listImports(),
+  });
+  api.define({
+    method: 'get',
+    path: '/process/imports/:id',
+    access: 'process.edit',
+    summary: 'One import with its document and what it adds.',
+    params: idParam,
+    handler: ({ params }) => importById(params.id),
+  });
+  api.define({
+    method: 'post',
+    path: '/process/imports',
+    access: 'process.edit',
+    summary: 'Import a process document as a draft; a bad one gets every problem by its path and nothing is kept.',
+    query: processImportQuery,
+    body: processDocument,
+    status: 201,
+    handler: ({ ctx, query, body }) => draftImport(sequelize, ctx, body, query.note),
+  });
+  api.define({
+    method: 'post',
+    path: '/process/imports/:id/discard',
+    access: 'process.edit',
+    summary: 'Discard a draft import; it stays on record as discarded.',
+    params: idParam,
+    handler: ({ ctx, params }) => discardImport(sequelize, ctx, params.id),
+  });
+  api.define({
+    method: 'post',
+    path: '/process/imports/:id/approve',
+    access: 'process.approve',
+    limit: 'signature',
+    summary: "Approve a draft import with a signature (not its author's) and apply it, in force from a time.",
+    params: idParam,
+    body: approveChangeBody,
+    handler: ({ ctx, params, body }) => approveImport(sequelize, ctx, params.id, body),
   });
 }
