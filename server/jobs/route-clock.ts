@@ -1,9 +1,10 @@
 import type { Sequelize } from 'sequelize';
+import { settleCharacteristicVersions } from '../services/characteristic-versions.js';
 import { settleRouteVersions } from '../services/process-routes.js';
 
 /**
- * Every minute, brings route versions approved to take effect later into force when their time
- * comes (settleRouteVersions), so the line reads see the new version without anyone opening it.
+ * Every minute, brings route and characteristic versions approved to take effect later into force
+ * when their time comes, so the line reads and stations see them without anyone opening them.
  */
 export class RouteClock {
   private timer: NodeJS.Timeout | null = null;
@@ -17,7 +18,11 @@ export class RouteClock {
     const tick = () => {
       if (this.running) return;
       this.running = settleRouteVersions(this.sequelize)
-        .then((n) => n && console.log(`[routes] ${n} route version${n > 1 ? 's' : ''} changed state on time`))
+        .then(async (n) => n + (await settleCharacteristicVersions(this.sequelize)))
+        .then(
+          (n) =>
+            n && console.log(`[process] ${n} route or characteristic version${n > 1 ? 's' : ''} changed state on time`),
+        )
         .catch((err: unknown) => console.error('[routes] bringing route versions into force failed:', err))
         .finally(() => (this.running = null));
     };

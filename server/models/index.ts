@@ -28,6 +28,7 @@ import { RuleRehearsal, SpcLimits, SpcSignal } from './spc.js';
 import { Characteristic, ToleranceRule } from './spec.js';
 import { FamilyCastingNumber, PartKindRow, Route, RouteStage, Stage } from './stage.js';
 import { ProcessImport } from './process-import.js';
+import { CharacteristicVersion } from './characteristic-version.js';
 import { Station } from './station.js';
 import { User } from './user.js';
 
@@ -65,6 +66,7 @@ export {
   PartLot,
   PlantSettings,
   ProcessImport,
+  CharacteristicVersion,
   Qualification,
   Reading,
   RecoveryCode,
@@ -93,6 +95,7 @@ export {
 const MODELS = [
   User,
   ProcessImport,
+  CharacteristicVersion,
   Session,
   RecoveryCode,
   EngineFamily,

@@ -18,6 +18,14 @@ import {
   updateStageBody,
 } from '../../shared/schemas/process.js';
 import { processDocument, processImportQuery } from '../../shared/schemas/process-document.js';
+import { characteristicChangeBody } from '../../shared/schemas/characteristic-versions.js';
+import {
+  approveCharacteristicChange,
+  characteristicVersions,
+  compareCharacteristicVersions,
+  discardCharacteristicChange,
+  draftCharacteristicChange,
+} from '../services/characteristic-versions.js';
 import { approveImport, discardImport, draftImport, importById, listImports } from '../services/process-import.js';
 import type { Api } from '../http/api.js';
 import { checkProcessDocument, exportProcessDocument } from '../services/process-document.js';
@@ -195,6 +203,50 @@ export function processRoutes(api: Api, sequelize: Sequelize) {
     params: idParam,
     body: retireBody,
     handler: ({ ctx, params, body }) => retireCharacteristic(sequelize, ctx, params.id, body.reason),
+  });
+  api.define({
+    method: 'get',
+    path: '/process/characteristics/:id/versions',
+    access: 'reference.read',
+    summary: "Every version of a characteristic's definition, newest first, with the one in force.",
+    params: idParam,
+    handler: ({ params }) => characteristicVersions(params.id),
+  });
+  api.define({
+    method: 'post',
+    path: '/process/characteristics/:id/versions',
+    access: 'process.edit',
+    summary: "Draft a change to a characteristic's definition (name, critical, gauge kinds, defect code …).",
+    params: idParam,
+    body: characteristicChangeBody,
+    status: 201,
+    handler: ({ ctx, params, body }) => draftCharacteristicChange(sequelize, ctx, params.id, body),
+  });
+  api.define({
+    method: 'get',
+    path: '/process/characteristic-versions/compare',
+    access: 'reference.read',
+    summary: 'Two versions of one characteristic side by side, field by field, changes marked.',
+    query: z.strictObject({ a: idText(), b: idText() }),
+    handler: ({ query }) => compareCharacteristicVersions(query.a, query.b),
+  });
+  api.define({
+    method: 'post',
+    path: '/process/characteristic-versions/:id/discard',
+    access: 'process.edit',
+    summary: 'Discard a drafted characteristic change; it stays on record as discarded.',
+    params: idParam,
+    handler: ({ ctx, params }) => discardCharacteristicChange(sequelize, ctx, params.id),
+  });
+  api.define({
+    method: 'post',
+    path: '/process/characteristic-versions/:id/approve',
+    access: 'process.approve',
+    limit: 'signature',
+    summary: "Approve a characteristic change with a signature (not its author's), in force from a time.",
+    params: idParam,
+    body: approveChangeBody,
+    handler: ({ ctx, params, body }) => approveCharacteristicChange(sequelize, ctx, params.id, body),
   });
   api.define({
     method: 'get',
