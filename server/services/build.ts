@@ -251,7 +251,7 @@ export async function buildUnit(sequelize: Sequelize, ctx: Ctx, body: BuildBody)
           unitItemId: unit.id,
           partLotId: lot.id,
           quantity,
-          sizeClass: size?.sizeClass ?? body.lots[i]!.sizeClass ?? null,
+          sizeClass: size?.sizeClass ?? (body.lots[i]!.sizeClass || null),
           matchedTo: size?.matchedTo ?? null,
           createdById: ctx.actor!.id,
         },

@@ -27,6 +27,8 @@ export const LOT_KINDS = [
   'timing_set',
 ] as const;
 export type LotKind = (typeof LOT_KINDS)[number];
+/** Purchased parts made in size classes, matched at build to the class a part was finished to. */
+export const SIZED_LOT_KINDS: readonly LotKind[] = ['pistons', 'main_bearings', 'rod_bearings'];
 export const LOT_KIND_LABELS: Record<LotKind, string> = {
   pistons: 'Pistons',
   rings: 'Piston rings',
@@ -55,7 +57,8 @@ export const lotInput = z.strictObject({
   /** Pistons only: how far over the standard bore they are made, in inches (0.030 for "+.030"). */
   oversizeIn: z.number('Enter the oversize in inches (0 for standard).').min(0).max(0.2).optional(),
   /** The size class of the parts (pistons' oversize, bearings' undersize), matched to the part's at build. */
-  sizeClass: sizeClassCode.optional(),
+  /** Left empty ('') when the parts come in one size. */
+  sizeClass: z.union([z.literal(''), sizeClassCode]).optional(),
 });
 export type LotInput = z.output<typeof lotInput>;
 
