@@ -16,13 +16,22 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-/** A characteristic of the test's own at the deck stage. */
+/**
+ * A characteristic of the test's own, at a stage of its own that no route or station uses, so no
+ * other test's parts are asked for it.
+ */
 async function newCharacteristic() {
+  const stage = `cv-stage-${unique('').slice(0, 8)}`;
+  const made = await request(t.app)
+    .post('/api/process/stages')
+    .set('Cookie', author)
+    .send({ code: stage, partKind: 'block', name: 'Deck check of the test' });
+  expect(made.status).toBe(201);
   const res = await request(t.app)
     .post('/api/process/characteristics')
     .set('Cookie', author)
     .send({
-      stage: 'block-deck',
+      stage,
       code: `cv-${unique('').slice(0, 8)}`,
       name: 'Deck height',
       kind: 'variable',
