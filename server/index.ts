@@ -6,6 +6,7 @@ import { migrate } from './migrate.js';
 import { startMailSink } from './mail/sink.js';
 import { MailWorker } from './mail/worker.js';
 import { PartitionKeeper } from './jobs/reading-partitions.js';
+import { RouteClock } from './jobs/route-clock.js';
 import { UploadSweeper } from './jobs/upload-sweeper.js';
 import { LocalDiskStore } from './storage/blob-store.js';
 import { LedgerWorker } from './ledger/sequencer.js';
@@ -42,6 +43,9 @@ async function main() {
   sweeper.start();
   const partitions = new PartitionKeeper(sequelize);
   partitions.start();
+  // a route version approved to take effect later comes into force on time
+  const routeClock = new RouteClock(sequelize);
+  routeClock.start();
   // the yield report sums closed plant days from yield_days: count them now and every ten minutes
   const yieldDays = new YieldDayCounter(sequelize);
   yieldDays.start();
@@ -94,6 +98,7 @@ async function main() {
       await worker?.stop();
       await sweeper.stop();
       await partitions.stop();
+      await routeClock.stop();
       await yieldDays.stop();
       await ledger?.stop();
       await sink?.close();

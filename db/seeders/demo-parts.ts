@@ -93,6 +93,20 @@ export function gaugesFor(form: Form) {
   return { gauge, gauges };
 }
 
+/**
+ * The size class a demo part is finished to, per characteristic with classes: the one whose limits
+ * hold the rule's own nominal (the size the demo readings are taken around).
+ */
+export function demoSizeClasses(form: Form): Record<string, string> {
+  const chosen: Record<string, string> = {};
+  for (const c of form.characteristics) {
+    const nominal = c.rule?.nominal;
+    const fits = c.sizeClasses?.find((k) => nominal != null && k.lower <= nominal && nominal <= k.upper);
+    if (fits) chosen[c.code] = fits.code;
+  }
+  return chosen;
+}
+
 /** Records a passing result for a part due at a station, through the station service, as a tablet would. */
 export async function recordPassingResult(
   sequelize: Sequelize,
@@ -113,6 +127,7 @@ export async function recordPassingResult(
     notes: '',
     readings: passingReadings(form, (c, p, v) => vary(form, c, p, v)),
     photoIds: [],
+    sizeClasses: demoSizeClasses(form),
   });
 }
 
@@ -206,6 +221,9 @@ export async function seedDemoPartsIfEmpty(sequelize: Sequelize): Promise<number
         lotCode: `L${faker.string.numeric(2)}-${faker.string.alpha({ length: 3, casing: 'upper' })}`,
         quantity: kind === 'pistons' || kind === 'lifters' ? family.cylinders * (kind === 'lifters' ? 2 : 1) : 1,
         ...(kind === 'pistons' ? { oversizeIn: family.code === 'CORRIE-8' ? 0.03 : 0.0197 } : {}),
+        // of the size classes the demo's bores and main journals are finished to (spec-book.ts)
+        ...(kind === 'pistons' ? { sizeClass: family.code === 'CORRIE-8' ? '+0.030' : '+0.50' } : {}),
+        ...(kind === 'main_bearings' ? { sizeClass: '-0.010' } : {}),
       }));
       // receiving logged each lot first, with a few more parts than this unit takes
       for (const l of lots) {

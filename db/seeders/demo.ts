@@ -307,6 +307,7 @@ async function seedSpecBook(
         defectCode: c.defectCode,
         help: c.help ?? '',
         optional: c.optional ?? false,
+        matesWith: c.matesWith ?? null,
       },
       { transaction },
     );

@@ -23,6 +23,8 @@ export type SeedCharacteristic = {
   defectCode: string;
   help?: string;
   optional?: boolean;
+  /** The purchased part whose size class must match this characteristic's at build. */
+  matesWith?: 'pistons' | 'main_bearings' | 'rod_bearings';
 };
 
 const once: PositionScheme = { per: 'part' };
@@ -343,6 +345,7 @@ export const CHARACTERISTICS: SeedCharacteristic[] = [
     positions: cylinderBore,
     physical: [2, 6],
     defectCode: 'OOT',
+    matesWith: 'pistons',
     help: 'Dial bore gauge zeroed on the setting ring: top, middle and bottom of ring travel, across (thrust) and along (axial) the crank.',
   },
   {
@@ -392,6 +395,7 @@ export const CHARACTERISTICS: SeedCharacteristic[] = [
     positions: { per: 'main' },
     physical: [1, 5],
     defectCode: 'OOT',
+    matesWith: 'main_bearings',
   },
   {
     stage: 'crank-grind',
@@ -602,7 +606,10 @@ export const CHARACTERISTICS: SeedCharacteristic[] = [
   },
 ];
 
-type Seeded = Omit<RuleLimits, 'sourceNote'> & { sourceNote: string };
+type Seeded = Omit<RuleLimits, 'sourceNote' | 'sizeClasses'> & {
+  sourceNote: string;
+  sizeClasses?: RuleLimits['sizeClasses'];
+};
 const nominal = (n: number, tol: number, resolution: number, sourceNote: string): Seeded => ({
   limitType: 'nominal',
   nominal: n,
@@ -687,6 +694,19 @@ const COMMON: Record<string, Seeded> = {
 };
 
 /**
+ * Size classes in inch steps from a standard size, each ±tol (over for bores, under for journals;
+ * the steps are the trade's usual 0.010 in ones, common practice).
+ */
+const inchSteps = (standard: number, steps: number[], sign: 1 | -1, tol: number) =>
+  [0, ...steps].map((step) => ({
+    code: step === 0 ? 'STD' : `${sign > 0 ? '+' : '-'}${step.toFixed(3)}`,
+    name: step === 0 ? 'Standard' : `${step.toFixed(3)} in ${sign > 0 ? 'over' : 'under'}`,
+    nominal: Number((standard + sign * step).toFixed(4)),
+    minusTol: tol,
+    plusTol: tol,
+  }));
+
+/**
  * Family-specific sizes. Corrie V8: 4.000 in bore bored 0.030 in over; Tarn six: 94 mm
  * (3.7008 in) bored 0.5 mm (0.0197 in) over. Journals and housings are round invented sizes.
  */
@@ -733,14 +753,15 @@ const BY_FAMILY: Record<string, Record<string, Seeded>> = {
       0.0001,
       `Invented piston for the 0.030 in oversize; ${MEMORY}`,
     ),
-    'bore-hone/bore': nominal(
-      4.03,
-      0.0005,
-      0.0001,
-      'Invented family: 4.000 in + 0.030 in oversize; ±0.0005 in from memory',
-    ),
+    'bore-hone/bore': {
+      ...nominal(4.03, 0.0005, 0.0001, 'Invented family: 4.000 in + 0.030 in oversize; ±0.0005 in from memory'),
+      sizeClasses: inchSteps(4, [0.01, 0.02, 0.03], 1, 0.0005),
+    },
     'line-hone/main-bore': nominal(2.6415, 0.0005, 0.0001, `Invented housing size; ${MEMORY}`),
-    'crank-grind/main-journal': nominal(2.449, 0.0005, 0.0001, `Invented journal, 0.010 in under; ${MEMORY}`),
+    'crank-grind/main-journal': {
+      ...nominal(2.449, 0.0005, 0.0001, `Invented journal, 0.010 in under; ${MEMORY}`),
+      sizeClasses: inchSteps(2.459, [0.01, 0.02, 0.03], -1, 0.0005),
+    },
     'crank-grind/rod-journal': nominal(2.099, 0.0005, 0.0001, `Invented journal, 0.010 in under; ${MEMORY}`),
   },
   'TARN-6': {
@@ -783,14 +804,25 @@ const BY_FAMILY: Record<string, Record<string, Seeded>> = {
       0.0001,
       `Invented piston for the 0.5 mm oversize; ${MEMORY}`,
     ),
-    'bore-hone/bore': nominal(
-      3.7205,
-      0.0005,
-      0.0001,
-      'Invented family: 94 mm + 0.5 mm oversize = 3.7205 in; ±0.0005 in from memory',
-    ),
+    'bore-hone/bore': {
+      ...nominal(
+        3.7205,
+        0.0005,
+        0.0001,
+        'Invented family: 94 mm + 0.5 mm oversize = 3.7205 in; ±0.0005 in from memory',
+      ),
+      // metric steps in the rule's inches, 1 in = 25.4 mm exactly (NIST SP 811): 94.00, 94.25, 94.50 mm
+      sizeClasses: [
+        { code: 'STD', name: 'Standard (94.00 mm)', nominal: 3.7008, minusTol: 0.0005, plusTol: 0.0005 },
+        { code: '+0.25', name: '0.25 mm over (94.25 mm)', nominal: 3.7106, minusTol: 0.0005, plusTol: 0.0005 },
+        { code: '+0.50', name: '0.50 mm over (94.50 mm)', nominal: 3.7205, minusTol: 0.0005, plusTol: 0.0005 },
+      ],
+    },
     'line-hone/main-bore': nominal(2.5615, 0.0005, 0.0001, `Invented housing size; ${MEMORY}`),
-    'crank-grind/main-journal': nominal(2.369, 0.0005, 0.0001, `Invented journal, 0.010 in under; ${MEMORY}`),
+    'crank-grind/main-journal': {
+      ...nominal(2.369, 0.0005, 0.0001, `Invented journal, 0.010 in under; ${MEMORY}`),
+      sizeClasses: inchSteps(2.379, [0.01, 0.02], -1, 0.0005),
+    },
     'crank-grind/rod-journal': nominal(2.089, 0.0005, 0.0001, `Invented journal, 0.010 in under; ${MEMORY}`),
   },
 };

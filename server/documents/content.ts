@@ -86,11 +86,20 @@ function stagesOf(trail: TrailJson, kinds: Map<string, string>, tz: string): Doc
       gauge: r.gauge ?? '—',
       finishedAtLocal: localTime(tz, r.finishedAt),
       verdict: r.verdict,
-      note: r.correctionReason
-        ? `correction: ${r.correctionReason}`
-        : r.reentryReason
-          ? `re-entry: ${r.reentryReason}`
-          : null,
+      note:
+        [
+          r.correctionReason
+            ? `correction: ${r.correctionReason}`
+            : r.reentryReason
+              ? `re-entry: ${r.reentryReason}`
+              : '',
+          ...Object.entries(r.sizeClasses).map(
+            ([code, k]) =>
+              `size class ${r.readings.find((x) => x.characteristic === code)?.name ?? code}: ${k.name} (${k.code})`,
+          ),
+        ]
+          .filter(Boolean)
+          .join(' · ') || null,
       readings: r.readings.map((x): DocReading => ({
         characteristic: x.name,
         position: x.positionLabel,
@@ -179,7 +188,12 @@ export async function buildRecordContent(
       partNumber: l.partNumber,
       lotCode: l.lotCode,
       quantity: l.quantity,
-      note: typeof l.attributes.oversizeIn === 'number' ? `+${l.attributes.oversizeIn.toFixed(3)} in` : '',
+      // the size class the lot was matched to; else the pistons' oversize as entered
+      note: l.sizeClass
+        ? l.sizeClass
+        : typeof l.attributes.oversizeIn === 'number'
+          ? `+${l.attributes.oversizeIn.toFixed(3)} in`
+          : '',
     })),
     stages: stagesOf(trail, kinds, tz),
     ncrs: trail.ncrs.map((n) => ({

@@ -27,6 +27,8 @@ import { Session } from './session.js';
 import { RuleRehearsal, SpcLimits, SpcSignal } from './spc.js';
 import { Characteristic, ToleranceRule } from './spec.js';
 import { FamilyCastingNumber, PartKindRow, Route, RouteStage, Stage } from './stage.js';
+import { ProcessImport } from './process-import.js';
+import { CharacteristicVersion } from './characteristic-version.js';
 import { Station } from './station.js';
 import { User } from './user.js';
 
@@ -63,6 +65,8 @@ export {
   PartKindRow,
   PartLot,
   PlantSettings,
+  ProcessImport,
+  CharacteristicVersion,
   Qualification,
   Reading,
   RecoveryCode,
@@ -90,6 +94,8 @@ export {
 
 const MODELS = [
   User,
+  ProcessImport,
+  CharacteristicVersion,
   Session,
   RecoveryCode,
   EngineFamily,

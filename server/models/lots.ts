@@ -62,6 +62,9 @@ export class UnitLot extends Model<InferAttributes<UnitLot>, InferCreationAttrib
   declare unitItemId: number;
   declare partLotId: number;
   declare quantity: CreationOptional<number>;
+  /** The size class of the lot built in, and the part and class it was matched to. */
+  declare sizeClass: CreationOptional<string | null>;
+  declare matchedTo: CreationOptional<string | null>;
   // `…ById` so the association can be called `createdBy` without colliding with the column
   declare createdById: number | null;
   declare createdAt: CreationOptional<Date>;
@@ -73,6 +76,8 @@ export class UnitLot extends Model<InferAttributes<UnitLot>, InferCreationAttrib
         unitItemId: { type: DataTypes.INTEGER, allowNull: false },
         partLotId: { type: DataTypes.INTEGER, allowNull: false },
         quantity: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+        sizeClass: { type: DataTypes.STRING(20), allowNull: true },
+        matchedTo: { type: DataTypes.STRING(200), allowNull: true },
         createdById: { type: DataTypes.INTEGER, allowNull: true },
         createdAt: DataTypes.DATE,
       },

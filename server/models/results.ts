@@ -7,6 +7,8 @@ import {
   type Sequelize,
 } from 'sequelize';
 
+import type { ChosenSizeClass } from '../../shared/schemas/results.js';
+
 export type Verdict = 'pass' | 'fail';
 
 /**
@@ -33,6 +35,8 @@ export class StageResult extends Model<InferAttributes<StageResult>, InferCreati
   declare notes: CreationOptional<string>;
   /** The shared station tablet the result came from, when the person identified on one. */
   declare tabletId: CreationOptional<number | null>;
+  /** The size class chosen per characteristic code, with the rule version it came from. */
+  declare sizeClasses: CreationOptional<Record<string, ChosenSizeClass>>;
   declare createdAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize) {
@@ -54,6 +58,7 @@ export class StageResult extends Model<InferAttributes<StageResult>, InferCreati
         reentryById: { type: DataTypes.INTEGER, allowNull: true },
         notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
         tabletId: { type: DataTypes.INTEGER, allowNull: true },
+        sizeClasses: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
         createdAt: DataTypes.DATE,
       },
       { sequelize, tableName: 'stage_results', underscored: true, updatedAt: false },

@@ -13,6 +13,7 @@ export type LimitType = 'nominal' | 'range' | 'min' | 'max' | 'attribute';
 
 import type { Derivation } from '../../shared/domain/evaluate.js';
 import type { PositionScheme } from '../../shared/domain/positions.js';
+import type { SizeClass } from '../../shared/schemas/spec.js';
 
 /** One thing measured or judged at a stage (main bore diameter, crack found …). */
 export class Characteristic extends Model<InferAttributes<Characteristic>, InferCreationAttributes<Characteristic>> {
@@ -42,6 +43,8 @@ export class Characteristic extends Model<InferAttributes<Characteristic>, Infer
   declare optional: CreationOptional<boolean>;
   /** Gauge kinds (as the register names them) that can measure it; empty: any suitable gauge. */
   declare gaugeKinds: CreationOptional<string[]>;
+  /** The purchased part (a lot kind) whose size must match this characteristic's class at build. */
+  declare matesWith: CreationOptional<string | null>;
   /** Retired: no longer asked for; its readings and rules stay. */
   declare retiredAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
@@ -69,6 +72,7 @@ export class Characteristic extends Model<InferAttributes<Characteristic>, Infer
         gaugeRatioReason: { type: DataTypes.STRING(500), allowNull: true },
         optional: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         gaugeKinds: { type: DataTypes.ARRAY(DataTypes.STRING(40)), allowNull: false, defaultValue: [] },
+        matesWith: { type: DataTypes.STRING(20), allowNull: true },
         retiredAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
@@ -97,6 +101,8 @@ export class ToleranceRule extends Model<InferAttributes<ToleranceRule>, InferCr
   declare unit: string | null;
   declare resolution: number | null;
   declare sourceNote: CreationOptional<string>;
+  /** Size classes of this version, each with its own nominal and tolerances (fixed once approved). */
+  declare sizeClasses: CreationOptional<SizeClass[]>;
   declare effectiveFrom: Date | null;
   declare supersededAt: Date | null;
   // `…ById` because the association aliases (`createdBy`, `approvedBy`) would collide with the column names
@@ -124,6 +130,7 @@ export class ToleranceRule extends Model<InferAttributes<ToleranceRule>, InferCr
         unit: { type: DataTypes.STRING(20), allowNull: true },
         resolution: { type: DataTypes.DECIMAL(12, 6), allowNull: true },
         sourceNote: { type: DataTypes.STRING(300), allowNull: false, defaultValue: '' },
+        sizeClasses: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
         effectiveFrom: { type: DataTypes.DATE, allowNull: true },
         supersededAt: { type: DataTypes.DATE, allowNull: true },
         createdById: { type: DataTypes.INTEGER, allowNull: false },

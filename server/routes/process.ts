@@ -17,7 +17,16 @@ import {
   updatePartKindBody,
   updateStageBody,
 } from '../../shared/schemas/process.js';
-import { processDocument } from '../../shared/schemas/process-document.js';
+import { processDocument, processImportQuery } from '../../shared/schemas/process-document.js';
+import { characteristicChangeBody } from '../../shared/schemas/characteristic-versions.js';
+import {
+  approveCharacteristicChange,
+  characteristicVersions,
+  compareCharacteristicVersions,
+  discardCharacteristicChange,
+  draftCharacteristicChange,
+} from '../services/characteristic-versions.js';
+import { approveImport, discardImport, draftImport, importById, listImports } from '../services/process-import.js';
 import type { Api } from '../http/api.js';
 import { checkProcessDocument, exportProcessDocument } from '../services/process-document.js';
 import {
@@ -197,6 +206,50 @@ export function processRoutes(api: Api, sequelize: Sequelize) {
   });
   api.define({
     method: 'get',
+    path: '/process/characteristics/:id/versions',
+    access: 'reference.read',
+    summary: "Every version of a characteristic's definition, newest first, with the one in force.",
+    params: idParam,
+    handler: ({ params }) => characteristicVersions(params.id),
+  });
+  api.define({
+    method: 'post',
+    path: '/process/characteristics/:id/versions',
+    access: 'process.edit',
+    summary: "Draft a change to a characteristic's definition (name, critical, gauge kinds, defect code …).",
+    params: idParam,
+    body: characteristicChangeBody,
+    status: 201,
+    handler: ({ ctx, params, body }) => draftCharacteristicChange(sequelize, ctx, params.id, body),
+  });
+  api.define({
+    method: 'get',
+    path: '/process/characteristic-versions/compare',
+    access: 'reference.read',
+    summary: 'Two versions of one characteristic side by side, field by field, changes marked.',
+    query: z.strictObject({ a: idText(), b: idText() }),
+    handler: ({ query }) => compareCharacteristicVersions(query.a, query.b),
+  });
+  api.define({
+    method: 'post',
+    path: '/process/characteristic-versions/:id/discard',
+    access: 'process.edit',
+    summary: 'Discard a drafted characteristic change; it stays on record as discarded.',
+    params: idParam,
+    handler: ({ ctx, params }) => discardCharacteristicChange(sequelize, ctx, params.id),
+  });
+  api.define({
+    method: 'post',
+    path: '/process/characteristic-versions/:id/approve',
+    access: 'process.approve',
+    limit: 'signature',
+    summary: "Approve a characteristic change with a signature (not its author's), in force from a time.",
+    params: idParam,
+    body: approveChangeBody,
+    handler: ({ ctx, params, body }) => approveCharacteristicChange(sequelize, ctx, params.id, body),
+  });
+  api.define({
+    method: 'get',
     path: '/process/families/:family/casting-numbers',
     access: 'reference.read',
     summary: 'The casting numbers a family accepts at intake.',
@@ -235,5 +288,48 @@ export function processRoutes(api: Api, sequelize: Sequelize) {
     summary: 'Check a process document against the plant; a bad one gets every problem by its path. Changes nothing.',
     body: processDocument,
     handler: ({ body }) => checkProcessDocument(sequelize, body),
+  });
+  api.define({
+    method: 'get',
+    path: '/process/imports',
+    access: 'process.edit',
+    summary: 'Process documents imported, newest first: drafts, approved and discarded, with what each adds.',
+    handler: () => listImports(),
+  });
+  api.define({
+    method: 'get',
+    path: '/process/imports/:id',
+    access: 'process.edit',
+    summary: 'One import with its document and what it adds.',
+    params: idParam,
+    handler: ({ params }) => importById(params.id),
+  });
+  api.define({
+    method: 'post',
+    path: '/process/imports',
+    access: 'process.edit',
+    summary: 'Import a process document as a draft; a bad one gets every problem by its path and nothing is kept.',
+    query: processImportQuery,
+    body: processDocument,
+    status: 201,
+    handler: ({ ctx, query, body }) => draftImport(sequelize, ctx, body, query.note),
+  });
+  api.define({
+    method: 'post',
+    path: '/process/imports/:id/discard',
+    access: 'process.edit',
+    summary: 'Discard a draft import; it stays on record as discarded.',
+    params: idParam,
+    handler: ({ ctx, params }) => discardImport(sequelize, ctx, params.id),
+  });
+  api.define({
+    method: 'post',
+    path: '/process/imports/:id/approve',
+    access: 'process.approve',
+    limit: 'signature',
+    summary: "Approve a draft import with a signature (not its author's) and apply it, in force from a time.",
+    params: idParam,
+    body: approveChangeBody,
+    handler: ({ ctx, params, body }) => approveImport(sequelize, ctx, params.id, body),
   });
 }

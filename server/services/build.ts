@@ -15,6 +15,7 @@ import { drawableOf, holdingNcrs } from './lots.js';
 import { blockingNcrsOf } from './nonconformances.js';
 import { familyByCode } from './spec.js';
 import { lockUnitsReachedBy } from './unit-locks.js';
+import { matchSizeClasses } from './size-classes.js';
 
 /**
  * Building a long block: a finished block, crankshaft and the family's heads, plus purchased lots.
@@ -136,10 +137,19 @@ export async function buildUnit(sequelize: Sequelize, ctx: Ctx, body: BuildBody)
       if (mismatch) problems['lots.pistons'] = mismatch;
     }
 
+    // pistons and bearings of the size class the block's bores and the crankshaft's journals were
+    // finished to (as each part's current result recorded it)
+    const sizes = await matchSizeClasses(
+      found.filter((f) => !problems[f.field]).map((f) => ({ item: locked.get(f.item.id)! })),
+      body.lots,
+      transaction,
+    );
+    Object.assign(problems, sizes.problems);
+
     // purchased lots: received first (receiving logs them), then drawn from; a lot waiting for its
     // inspection, on hold, refused, returned, held by an NCR or used up cannot go in. Locked in id
     // order, so two builds drawing from the same lots take turns and never draw past what came in.
-    const lots: { lot: PartLot; quantity: number }[] = [];
+    const lots: { lot: PartLot; quantity: number; i: number }[] = [];
     const wanted: { i: number; l: (typeof body.lots)[number]; lot: PartLot; supplier: Supplier }[] = [];
     for (const [i, l] of body.lots.entries()) {
       const supplier = await Supplier.findByPk(l.supplierId, { transaction });
@@ -183,7 +193,7 @@ export async function buildUnit(sequelize: Sequelize, ctx: Ctx, body: BuildBody)
         problems[`lots.${w.i}.lotCode`] = `${can.why} Use another lot.`;
         continue;
       }
-      lots.push({ lot, quantity: w.l.quantity });
+      lots.push({ lot, quantity: w.l.quantity, i: w.i });
     }
 
     const count = Object.keys(problems).length;
@@ -234,9 +244,17 @@ export async function buildUnit(sequelize: Sequelize, ctx: Ctx, body: BuildBody)
         after: { status: 'installed', installedIn: unit.serial },
       });
     }
-    for (const { lot, quantity } of lots) {
+    for (const { lot, quantity, i } of lots) {
+      const size = sizes.matched.get(i);
       await UnitLot.create(
-        { unitItemId: unit.id, partLotId: lot.id, quantity, createdById: ctx.actor!.id },
+        {
+          unitItemId: unit.id,
+          partLotId: lot.id,
+          quantity,
+          sizeClass: size?.sizeClass ?? (body.lots[i]!.sizeClass || null),
+          matchedTo: size?.matchedTo ?? null,
+          createdById: ctx.actor!.id,
+        },
         { transaction },
       );
       const before = { quantityDrawn: lot.quantityDrawn, quantityLeft: lot.quantityReceived - lot.quantityDrawn };
@@ -262,11 +280,12 @@ export async function buildUnit(sequelize: Sequelize, ctx: Ctx, body: BuildBody)
       after: {
         family: family.code,
         parts: found.map((f) => ({ kind: f.kind, serial: f.item.serial })),
-        lots: lots.map(({ lot, quantity }) => ({
+        lots: lots.map(({ lot, quantity, i }) => ({
           kind: lot.partKind,
           partNumber: lot.partNumber,
           lotCode: lot.lotCode,
           quantity,
+          ...(sizes.matched.get(i) ?? (body.lots[i]!.sizeClass ? { sizeClass: body.lots[i]!.sizeClass } : {})),
         })),
       },
     });

@@ -6,7 +6,9 @@ import {
   type ProcessDocumentInput,
 } from '../../shared/schemas/process-document.js';
 import type { PositionScheme } from '../../shared/domain/positions.js';
+import type { CharacteristicBody } from '../../shared/schemas/process.js';
 import { invalid } from '../errors.js';
+import { settleRouteVersions } from './process-routes.js';
 import {
   Characteristic,
   EngineFamily,
@@ -21,6 +23,7 @@ const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
 
 /** The plant's process definition as one document: what is in use, and the route versions in force. */
 export async function exportProcessDocument(): Promise<ProcessDocumentInput> {
+  await settleRouteVersions(Route.sequelize!);
   const [kinds, families, stages, characteristics, routes, castings] = await Promise.all([
     PartKindRow.findAll({ where: { retiredAt: null }, order: [['sortOrder', 'ASC']] }),
     EngineFamily.findAll({ order: [['code', 'ASC']] }),
@@ -79,6 +82,7 @@ export async function exportProcessDocument(): Promise<ProcessDocumentInput> {
         optional: c.optional,
         defectCode: c.defectCode,
         gaugeKinds: c.gaugeKinds,
+        matesWith: (c.matesWith ?? null) as CharacteristicBody['matesWith'],
         physicalMin: num(c.physicalMin),
         physicalMax: num(c.physicalMax),
         help: c.help,

@@ -208,6 +208,7 @@ export function presentCharacteristic(c: Characteristic, stages: Map<number, Sta
     optional: c.optional,
     defectCode: c.defectCode,
     gaugeKinds: c.gaugeKinds,
+    matesWith: c.matesWith ?? null,
     retired: !!c.retiredAt,
   };
 }
@@ -256,6 +257,7 @@ export async function createCharacteristic(sequelize: Sequelize, ctx: Ctx, body:
         defectCode: body.defectCode,
         help: body.help,
         gaugeKinds: body.gaugeKinds,
+        matesWith: body.matesWith,
       },
       { transaction },
     ).catch(taken(`The code ${body.code} at ${stage.code}`));

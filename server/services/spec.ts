@@ -1,3 +1,4 @@
+import Decimal from 'decimal.js';
 import { Op, type Sequelize, type Transaction } from 'sequelize';
 import type { FormCharacteristic, RuleInForce } from '../../shared/domain/evaluate.js';
 import type { PositionScheme } from '../../shared/domain/positions.js';
@@ -6,6 +7,8 @@ import type {
   RuleHistoryJson,
   RuleJson,
   RuleLimits,
+  SizeClass,
+  SizeClassJson,
   SpecBookJson,
   SpecCharacteristicJson,
 } from '../../shared/schemas/spec.js';
@@ -86,6 +89,28 @@ async function signaturesOf(ruleIds: number[], transaction?: Transaction) {
   return new Map(rows.map((s) => [s.entityId, s]));
 }
 
+/** A rule's size classes with the limits each sets (nominal − minus, nominal + plus, to the column's 6 places). */
+export function sizeClassesOf(r: Pick<ToleranceRule, 'sizeClasses'>): SizeClassJson[] {
+  return (r.sizeClasses ?? []).map((c) => ({
+    ...c,
+    lower: Number(new Decimal(c.nominal).minus(c.minusTol).toFixed(6)),
+    upper: Number(new Decimal(c.nominal).plus(c.plusTol).toFixed(6)),
+  }));
+}
+
+/** The rule a reading of the chosen class is judged against: the version's, with the class's limits. */
+export function ruleForClass(rule: RuleInForce, c: SizeClass): RuleInForce {
+  return {
+    ...rule,
+    limitType: 'nominal',
+    nominal: c.nominal,
+    minusTol: c.minusTol,
+    plusTol: c.plusTol,
+    lowerLimit: null,
+    upperLimit: null,
+  };
+}
+
 export function presentRule(r: ToleranceRule, names: Names, signatures: Map<string, Signature>): RuleJson {
   const limits = r.limitType === 'attribute' ? { lower: null, upper: null } : limitsOf(toRuleInForce(r));
   const sig = signatures.get(String(r.id));
@@ -104,6 +129,7 @@ export function presentRule(r: ToleranceRule, names: Names, signatures: Map<stri
     unit: r.unit,
     resolution: num(r.resolution),
     sourceNote: r.sourceNote,
+    sizeClasses: sizeClassesOf(r),
     effectiveFrom: r.effectiveFrom?.toISOString() ?? null,
     supersededAt: r.supersededAt?.toISOString() ?? null,
     createdBy: names.get(r.createdById) ?? '',
@@ -226,6 +252,7 @@ const limitColumns = (l: RuleLimits) => ({
   upperLimit: l.limitType === 'range' || l.limitType === 'max' ? l.upperLimit : null,
   resolution: l.resolution,
   sourceNote: l.sourceNote,
+  sizeClasses: l.sizeClasses,
 });
 
 const snapshot = (r: ToleranceRule) => ({
@@ -240,6 +267,7 @@ const snapshot = (r: ToleranceRule) => ({
     upperLimit: num(r.upperLimit),
     resolution: num(r.resolution) ?? 0,
     sourceNote: r.sourceNote,
+    sizeClasses: r.sizeClasses ?? [],
   }),
   unit: r.unit,
   effectiveFrom: r.effectiveFrom,
@@ -478,6 +506,9 @@ export function formCharacteristics(
       optional: c.optional,
       help: c.help,
       defectCode: c.defectCode,
+      ...(rule?.sizeClasses?.length
+        ? { sizeClasses: sizeClassesOf(rule).map(({ code, name, lower, upper }) => ({ code, name, lower, upper })) }
+        : {}),
     };
   });
 }

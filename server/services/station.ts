@@ -37,6 +37,7 @@ import {
 } from './nonconformances.js';
 import { referenceData, VERSION_SQL, versionRead, type Reference, type VersionRow } from './reference-cache.js';
 import { formCharacteristics } from './spec.js';
+import { chooseSizeClasses } from './size-classes.js';
 import { checkControlLimits } from './spc/signals.js';
 import { lockUnitsReachedBy } from './unit-locks.js';
 import { fitOf, gaugeChoices } from './gauge-suitability.js';
@@ -449,6 +450,8 @@ export async function submitResult(
       );
     }
 
+    // the size class chosen (a bore's oversize …) sets the limits its readings are judged to
+    const sizeClasses = chooseSizeClasses(ref, chars, body.sizeClasses);
     const { entries, locations, entered } = checkReadings(chars, body);
     const judged = evaluateForm(chars, entries);
     const verdict = judged.verdict === 'pass' ? 'pass' : 'fail';
@@ -470,6 +473,7 @@ export async function submitResult(
         reentryById: reentry && reentry.stageId === stage.id && !supersedes ? reentry.allowedById : null,
         notes: body.notes,
         tabletId: tablet?.id ?? null,
+        sizeClasses,
       },
       { transaction },
     );
@@ -591,6 +595,7 @@ export async function submitResult(
       finishedAt: now.toISOString(),
       notes: result.notes,
       readings,
+      sizeClasses: result.sizeClasses,
       failing,
       nonconformance: ncr ? { number: ncr.number, severity: ncr.severity } : null,
       supersedes: supersedes?.id ?? null,
@@ -751,6 +756,7 @@ export async function resultsOf(serial: string): Promise<(ResultJson & { superse
       finishedAt: r.finishedAt.toISOString(),
       notes: r.notes,
       readings: rs,
+      sizeClasses: r.sizeClasses ?? {},
       failing: rs.filter((x) => x.verdict === 'fail'),
       nonconformance: ncr ? { number: ncr.number, severity: ncr.severity } : null,
       supersedes: r.supersedesId,

@@ -200,8 +200,11 @@ export async function trailOf(
       lot_code: string;
       quantity: number;
       attributes: Record<string, unknown>;
+      size_class: string | null;
+      matched_to: string | null;
     }>(
-      `SELECT pl.part_kind AS kind, s.name AS supplier, pl.part_number, pl.lot_code, ul.quantity, pl.attributes
+      `SELECT pl.part_kind AS kind, s.name AS supplier, pl.part_number, pl.lot_code, ul.quantity, pl.attributes,
+              ul.size_class, ul.matched_to
          FROM unit_lots ul JOIN part_lots pl ON pl.id = ul.part_lot_id JOIN suppliers s ON s.id = pl.supplier_id
         WHERE ul.unit_item_id = :top ORDER BY ul.id`,
       { type: QueryTypes.SELECT, replacements: { top: top.id } },
@@ -230,6 +233,7 @@ export async function trailOf(
       supersededBy: records.supersededBy(r),
       correctionReason: r.correctionReason,
       reentryReason: r.reentryReason,
+      sizeClasses: r.sizeClasses ?? {},
       readings: records.readings(r).map(({ kind: _k, ruleId: _r, ...x }) => x),
       photos: records.photos(r),
     };
@@ -268,6 +272,8 @@ export async function trailOf(
       lotCode: l.lot_code,
       quantity: l.quantity,
       attributes: l.attributes,
+      sizeClass: l.size_class,
+      matchedTo: l.matched_to,
     })),
     results: trailResults,
     ncrs: trailNcrs,

@@ -43,6 +43,8 @@ export type FormCharacteristic = {
   rule: RuleInForce | null;
   /** May be left out; judged only when recorded. */
   optional?: boolean;
+  /** The rule's size classes, each with its own limits; the station chooses one. */
+  sizeClasses?: { code: string; name: string; lower: number; upper: number }[];
 };
 
 /** What was typed: characteristic code → position code → a number or a pass/fail. */

@@ -1,6 +1,8 @@
 import { z } from 'zod';
 import { enteredPassword } from './auth.js';
 import { text, isoDate, id } from './common.js';
+import { sizeClassCode } from './spec.js';
+import type { ChosenSizeClass } from './results.js';
 import type { FieldActionJson } from './field-actions.js';
 import type { NcrSignature, NcrState, NcrTimelineEntry } from './ncr.js';
 import type { ItemJson } from './items.js';
@@ -25,6 +27,8 @@ export const LOT_KINDS = [
   'timing_set',
 ] as const;
 export type LotKind = (typeof LOT_KINDS)[number];
+/** Purchased parts made in size classes, matched at build to the class a part was finished to. */
+export const SIZED_LOT_KINDS: readonly LotKind[] = ['pistons', 'main_bearings', 'rod_bearings'];
 export const LOT_KIND_LABELS: Record<LotKind, string> = {
   pistons: 'Pistons',
   rings: 'Piston rings',
@@ -52,6 +56,9 @@ export const lotInput = z.strictObject({
   quantity: z.number().int().min(1).max(64).default(1),
   /** Pistons only: how far over the standard bore they are made, in inches (0.030 for "+.030"). */
   oversizeIn: z.number('Enter the oversize in inches (0 for standard).').min(0).max(0.2).optional(),
+  /** The size class of the parts (pistons' oversize, bearings' undersize), matched to the part's at build. */
+  /** Left empty ('') when the parts come in one size. */
+  sizeClass: z.union([z.literal(''), sizeClassCode]).optional(),
 });
 export type LotInput = z.output<typeof lotInput>;
 
@@ -211,6 +218,8 @@ export type TrailResult = {
   supersededBy: number | null;
   correctionReason: string | null;
   reentryReason: string | null;
+  /** The size class the station chose per characteristic code. */
+  sizeClasses: Record<string, ChosenSizeClass>;
   readings: TrailReading[];
   photos: AttachmentJson[];
 };
@@ -236,6 +245,9 @@ export type TrailLot = {
   lotCode: string;
   quantity: number;
   attributes: Record<string, unknown>;
+  /** The lot's size class, and the part and class it was matched to at build. */
+  sizeClass: string | null;
+  matchedTo: string | null;
 };
 
 export type TrailJson = {

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { isoDateTime } from './common.js';
+import { isoDateTime, text } from './common.js';
 import {
   castingNumberBody,
   characteristicBody,
@@ -44,6 +44,39 @@ export function processDocumentJsonSchema() {
 }
 
 export type DocumentProblem = { path: string; message: string };
+
+/** What an import adds to the plant and which routes it brings to a new version. */
+export type ImportPlan = {
+  partKinds: string[];
+  families: string[];
+  stages: string[];
+  /** `stage/code` */
+  characteristics: string[];
+  /** `FAMILY part_kind`: a new version whose steps are the document's */
+  routes: string[];
+  /** `FAMILY casting-number` */
+  castingNumbers: string[];
+  /** Things the plant has under the same code: kept as they are (changed on their own screens). */
+  kept: number;
+};
+
+export type ProcessImportJson = {
+  id: number;
+  status: 'draft' | 'approved' | 'discarded';
+  note: string;
+  plan: ImportPlan;
+  createdBy: string | null;
+  createdAt: string;
+  approvedBy: string | null;
+  approvedAt: string | null;
+  approvalReason: string | null;
+  effectiveFrom: string | null;
+};
+
+/** An import takes the document as its body; a note on why may come in the query. */
+export const processImportQuery = z.strictObject({
+  note: text().trim().max(500, 'At most 500 characters.').default(''),
+});
 
 /**
  * The problems a document has beyond its shape: references to things neither it nor the plant has

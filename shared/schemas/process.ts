@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { enteredPassword } from './auth.js';
 import { decimal, id, isoDateTime, text } from './common.js';
 import { UNIT_SYMBOLS } from '../domain/units.js';
+import { LOT_KINDS } from './build.js';
 
 /**
  * The plant's own process definition: part kinds, stages, routes (versions under change control),
@@ -167,6 +168,8 @@ export const characteristicBody = z
     optional: z.boolean().default(false),
     defectCode: text().trim().toUpperCase().max(20).nullable().default(null),
     gaugeKinds: z.array(text().trim().min(1).max(40)).max(10, 'At most 10 gauge kinds.').default([]),
+    /** The purchased part whose size class must match this characteristic's at build. */
+    matesWith: z.enum(LOT_KINDS, 'Choose a purchased part from the list.').nullable().default(null),
     physicalMin: physical,
     physicalMax: physical,
     help: text().trim().max(300, 'At most 300 characters.').default(''),
@@ -251,6 +254,7 @@ export type CharacteristicJson = {
   optional: boolean;
   defectCode: string | null;
   gaugeKinds: string[];
+  matesWith: string | null;
   retired: boolean;
 };
 

@@ -4,6 +4,10 @@ import type { EvaluatedReading, FormCharacteristic } from '../domain/evaluate.js
 import type { Verdict } from '../domain/tolerance.js';
 import type { AttachmentJson } from './attachments.js';
 import type { ItemJson } from './items.js';
+import { sizeClassCode } from './spec.js';
+
+/** The size class a station chose for a characteristic, kept with the result. */
+export type ChosenSizeClass = { code: string; name: string; ruleId: number };
 
 /** Station results: what a tablet sends for one pass of a part through a stage, and the replies. */
 
@@ -30,6 +34,8 @@ export const submitResultBody = z.strictObject({
   notes: text().trim().max(2000, 'At most 2000 characters.').default(''),
   readings: z.array(readingInput).min(1, 'Record at least one reading.').max(2000),
   photoIds: z.array(id()).max(10, 'At most 10 photos.').default([]),
+  /** The size class chosen per characteristic that has classes (the bore's oversize …): code → class. */
+  sizeClasses: z.record(text().trim().min(1).max(40), sizeClassCode).default({}),
 });
 export type SubmitResultBody = z.output<typeof submitResultBody>;
 
@@ -110,6 +116,8 @@ export type ResultJson = {
   finishedAt: string;
   notes: string;
   readings: ReadingJson[];
+  /** The size class chosen per characteristic code, where the rule has classes. */
+  sizeClasses: Record<string, ChosenSizeClass>;
   failing: ReadingJson[];
   nonconformance: { number: string; severity: string } | null;
   supersedes: number | null;

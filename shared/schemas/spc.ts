@@ -361,7 +361,7 @@ export type RehearsalSummary = {
 };
 
 /** What a rehearsal judged with: the draft's limits and resolution (its source note changes no verdict). */
-export type RehearsedLimits = Omit<RuleLimits, 'sourceNote'>;
+export type RehearsedLimits = Omit<RuleLimits, 'sourceNote' | 'sizeClasses'>;
 
 export const REHEARSAL_LIST_LIMIT = 500;
 

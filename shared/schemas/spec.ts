@@ -26,6 +26,27 @@ export const RULE_STATUS_LABELS = {
 const limit = decimal(14, 6, 'Enter a number.').min(-1e6, 'Too small.').max(1e6, 'Too large.');
 const optionalLimit = limit.nullable().default(null);
 
+/** A size class's code as the plant writes it on parts and boxes: "STD", "+0.25", "-0.010". */
+export const sizeClassCode = text('Enter the size class.')
+  .trim()
+  .min(1, 'Enter the size class.')
+  .max(20, 'At most 20 characters.')
+  .regex(/^[A-Za-z0-9+.\-_]+$/, 'Use letters, digits, +, -, dots or underscores.');
+
+/**
+ * One size class of a characteristic (standard, +0.25 mm, 0.010 in under …) with its own nominal
+ * and tolerances, in the rule's unit. Part of a rule version: drafted, approved and fixed with it.
+ */
+export const sizeClassInput = z.strictObject({
+  code: sizeClassCode,
+  name: text('Name the size class.').trim().min(1, 'Name the size class.').max(40, 'At most 40 characters.'),
+  nominal: limit,
+  minusTol: limit.min(0, 'A tolerance is not negative.'),
+  plusTol: limit.min(0, 'A tolerance is not negative.'),
+});
+export type SizeClass = z.output<typeof sizeClassInput>;
+export type SizeClassJson = SizeClass & { lower: number; upper: number };
+
 /** The limits of a draft; which fields it needs depends on the kind of limit. */
 export const ruleLimits = z
   .strictObject({
@@ -39,8 +60,16 @@ export const ruleLimits = z
       .positive('The resolution must be more than 0.')
       .max(1000, 'At most 1000.'),
     sourceNote: text().trim().max(300, 'At most 300 characters.').default(''),
+    sizeClasses: z.array(sizeClassInput).max(12, 'At most 12 size classes.').default([]),
   })
   .superRefine((r, ctx) => {
+    const seen = new Set<string>();
+    r.sizeClasses.forEach((c, i) => {
+      if (seen.has(c.code.toUpperCase())) {
+        ctx.addIssue({ code: 'custom', path: ['sizeClasses', i, 'code'], message: `${c.code} comes twice.` });
+      }
+      seen.add(c.code.toUpperCase());
+    });
     const need = (field: keyof typeof r, message: string) => {
       if (r[field] === null || r[field] === undefined) ctx.addIssue({ code: 'custom', path: [field], message });
     };
@@ -108,6 +137,8 @@ export type RuleJson = {
   unit: string | null;
   resolution: number | null;
   sourceNote: string;
+  /** The size classes of this version; a station chooses one and is judged to its limits. */
+  sizeClasses: SizeClassJson[];
   effectiveFrom: string | null;
   supersededAt: string | null;
   createdBy: string;

@@ -5,7 +5,7 @@ import AxeBuilder from '@axe-core/playwright';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_USERS } from '../../db/seeders/plant.js';
-import { Item, Nonconformance } from '../../server/models/index.js';
+import { Item, Nonconformance, StageResult } from '../../server/models/index.js';
 import { makeSerial } from '../../shared/domain/serial.js';
 import { cookieFor, makeUser } from '../support/app.js';
 import { chooseStation } from '../support/station-ui.js';
@@ -47,14 +47,14 @@ async function scan(page: Page, serial: string) {
 }
 
 /** Types every bore reading (8 cylinders × 3 depths × 2 axes) and the finish, as an operator would. */
-async function typeBores(page: Page, odd?: { position: string; value: string }) {
+async function typeBores(page: Page, odd?: { position: string; value: string }, every = '4.0300') {
   const depths = ['top', 'middle', 'bottom'];
   const axes = ['thrust', 'axial'];
   for (let c = 1; c <= 8; c++) {
     for (const d of depths) {
       for (const a of axes) {
         const label = `Cylinder ${c}, ${d}, ${a}`;
-        const value = odd && odd.position === label ? odd.value : '4.0300';
+        const value = odd && odd.position === label ? odd.value : every;
         await page.getByRole('textbox', { name: `Cylinder bore diameter, ${label}`, exact: true }).fill(value);
       }
     }
@@ -145,6 +145,31 @@ describe('the station screen on a tablet', () => {
     await passed.waitFor();
     await expect(passed.getByText('Next stage: Block deck resurface').isVisible()).resolves.toBe(true);
     expect((await Item.findOne({ where: { serial: good } }))!.status).toBe('in_process');
+    await context.close();
+  });
+
+  it('when the operator chooses the size class the block was bored to, then the bores are judged to it and it is recorded', async () => {
+    const block = await blockAtBoreHone();
+    const context = await browser.newContext({ viewport: { width: 1024, height: 768 } });
+    const page = await context.newPage();
+    const op = demo('operator');
+    await signIn(page, served.base, op.email, op.password);
+    await page.goto(`${served.base}/station`);
+    await chooseStation(page, 'BH-1');
+    await scan(page, block);
+    // bored 0.020 in over the 4.000 in standard: 4.0200 ± 0.0005 in for this class (spec-book.ts)
+    await typeBores(page, undefined, '4.0200');
+    const box = page.getByRole('textbox', { name: 'Cylinder bore diameter, Cylinder 1, top, thrust' });
+    await expect(box.getAttribute('aria-invalid')).resolves.toBe('true');
+    const choice = page.getByRole('combobox', { name: 'Cylinder bore diameter: size class finished to' });
+    await choice.selectOption('+0.020');
+    await expect(box.getAttribute('aria-invalid')).resolves.not.toBe('true');
+    await page.getByRole('button', { name: 'Record result' }).click();
+    const passed = page.getByRole('status').filter({ has: page.getByRole('heading', { level: 2, name: 'Passed' }) });
+    await passed.waitFor();
+    const item = (await Item.findOne({ where: { serial: block } }))!;
+    const result = (await StageResult.findOne({ where: { itemId: item.id }, order: [['id', 'DESC']] }))!;
+    expect(result.sizeClasses.bore).toMatchObject({ code: '+0.020', name: '0.020 in over' });
     await context.close();
   });
 

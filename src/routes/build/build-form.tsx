@@ -1,6 +1,6 @@
 import { useId, useState, type ReactNode } from 'react';
 import { useFormContext, useFormState, useWatch } from 'react-hook-form';
-import { buildBody, LOT_KINDS, type BuildBody } from '../../../shared/schemas/build';
+import { buildBody, LOT_KINDS, SIZED_LOT_KINDS, type BuildBody } from '../../../shared/schemas/build';
 import type { EngineFamily } from '../../../shared/schemas/reference';
 import type { ItemJson } from '../../api/items/types';
 import { useFamilies } from '../../api/reference/families';
@@ -116,6 +116,7 @@ const emptyLots = () =>
     lotCode: '',
     quantity: 1,
     ...(kind === 'pistons' ? { oversizeIn: undefined } : {}),
+    ...(SIZED_LOT_KINDS.includes(kind) ? { sizeClass: '' } : {}),
   }));
 
 /**

@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { useWatch } from 'react-hook-form';
-import { LOT_KIND_LABELS, LOT_KINDS, type LotKind } from '../../../shared/schemas/build';
+import { LOT_KIND_LABELS, LOT_KINDS, SIZED_LOT_KINDS, type LotKind } from '../../../shared/schemas/build';
 import type { EngineFamily } from '../../../shared/schemas/reference';
 import { useItem } from '../../api/items/item';
 import { itemResultsQueryOptions } from '../../api/items/results';
@@ -97,6 +97,14 @@ function LotRow({ index, family }: { index: number; family: EngineFamily | undef
           />
         ) : (
           <span aria-hidden="true" className="hidden md:block" />
+        )}
+        {SIZED_LOT_KINDS.includes(kind) && (
+          <TextField
+            name={`${base}.sizeClass`}
+            label={<RowLabel kind={kind} what="Size class" />}
+            hint={pistons ? 'As on the box: STD, +0.25, +0.030 …' : 'As on the box: STD, -0.010 …'}
+            mono
+          />
         )}
         {pistons && <PistonFit family={family} />}
         {refused.length > 0 && (

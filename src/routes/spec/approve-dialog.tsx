@@ -10,7 +10,7 @@ import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
 import { currentRehearsal } from '../spc/rehearsal-panel';
 import { RehearsalCounts } from '../spc/rehearsal-summary';
-import { definitionText, formatNumber, ruleLimitsText } from './limits';
+import { definitionText, formatNumber, ruleLimitsText, sizeClassesText } from './limits';
 
 const pad = (n: number) => String(Math.abs(n)).padStart(2, '0');
 
@@ -87,6 +87,11 @@ export function ApproveDialog({ history, draft, signer, onClose, onApproved }: A
           <dd>
             <span className="font-mono font-semibold">{ruleLimitsText(draft, c)}</span>
             {how && <span className="font-mono text-sm text-ink-soft"> ({how})</span>}
+            {draft.sizeClasses.length > 0 && (
+              <span className="block text-sm text-ink-soft">
+                Size classes <span className="font-mono">{sizeClassesText(draft)}</span>
+              </span>
+            )}
             <span className="block text-sm text-ink-soft">
               Resolution <span className="font-mono">{formatNumber(draft.resolution)}</span>
               {unit ? ` ${unit}` : ''}

@@ -1,7 +1,7 @@
 import { LIMIT_TYPE_LABELS, type RuleHistoryJson, type RuleJson } from '../../../shared/schemas/spec';
 import { Badge } from '../../components/ui/badge';
 import { formatWhen } from '../../lib/format';
-import { decimalsOf, formatFixed, ruleLimitsText, shownState } from './limits';
+import { decimalsOf, formatFixed, ruleLimitsText, shownState, sizeClassesText } from './limits';
 
 /**
  * `spec`: what the rule says (compared, a difference marked); `record`: the facts of each version's
@@ -28,6 +28,7 @@ function lines(history: RuleHistoryJson): Line[] {
     { label: 'Lower limit', value: (r) => withUnit(r.lowerLimit, r), mono: true },
     { label: 'Upper limit', value: (r) => withUnit(r.upperLimit, r), mono: true },
     { label: 'Resolution', value: (r) => withUnit(r.resolution, r), mono: true },
+    { label: 'Size classes', value: (r) => sizeClassesText(r), mono: true },
     { label: 'Source note', value: (r) => r.sourceNote || '—' },
     { label: 'Status', value: (r) => shownState(r).label, record: true },
     { label: 'Effective from', value: (r) => formatWhen(r.effectiveFrom), mono: true, record: true },

@@ -114,6 +114,13 @@ export function shownState(rule: RuleJson, now = Date.now()): ShownState {
   }
 }
 
+/** A version's size classes in one line: "STD 3.7003–3.7013 · +0.25 3.7101–3.7111 in"; '—' when none. */
+export function sizeClassesText(rule: Pick<RuleJson, 'sizeClasses' | 'unit'>): string {
+  if (!rule.sizeClasses?.length) return '—';
+  const unit = rule.unit ? ` ${rule.unit}` : '';
+  return `${rule.sizeClasses.map((k) => `${k.code} ${k.lower}–${k.upper}`).join(' · ')}${unit}`;
+}
+
 /** The limits of a stored version as a draft's fields (what "Start a draft" copies). */
 export function limitsFrom(rule: RuleJson | null, c: Pick<SpecCharacteristicJson, 'resolution'>): RuleLimits {
   const limitType = rule && rule.limitType !== 'attribute' ? rule.limitType : 'nominal';
@@ -126,5 +133,12 @@ export function limitsFrom(rule: RuleJson | null, c: Pick<SpecCharacteristicJson
     upperLimit: rule?.upperLimit ?? null,
     resolution: rule?.resolution ?? c.resolution ?? 0,
     sourceNote: rule?.sourceNote ?? '',
+    sizeClasses: (rule?.sizeClasses ?? []).map(({ code, name, nominal, minusTol, plusTol }) => ({
+      code,
+      name,
+      nominal,
+      minusTol,
+      plusTol,
+    })),
   };
 }

@@ -5,7 +5,7 @@ import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
 import { formatWhen } from '../../lib/format';
-import { definitionText, formatNumber, ruleLimitsText, shownState } from './limits';
+import { definitionText, formatNumber, ruleLimitsText, shownState, sizeClassesText } from './limits';
 
 /** The signature as recorded: who, when, and what the signing meant. */
 export function SignatureBlock({ rule }: { rule: RuleJson }) {
@@ -53,6 +53,11 @@ export function RuleSummary({ rule, history }: { rule: RuleJson; history: RuleHi
         </p>
       </div>
       <dl className="grid grid-cols-1 gap-x-4 gap-y-2 sm:grid-cols-[9rem_minmax(0,1fr)]">
+        {rule.sizeClasses.length > 0 && (
+          <Row label="Size classes">
+            <span className="font-mono">{sizeClassesText(rule)}</span>
+          </Row>
+        )}
         <Row label="Resolution">
           <span className="font-mono">
             {formatNumber(rule.resolution)}

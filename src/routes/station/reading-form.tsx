@@ -26,6 +26,7 @@ import { sectionsOf } from './layout';
 import { ReadingSection } from './reading-section';
 import { entryUnitOf, judge, slotsOf, type EntryUnits } from './readings';
 import { RunTestImport } from './run-test-import';
+import { SizeClassField, sizeClassesToSend, withSizeClasses } from './size-class-field';
 import { useFirstReading } from './use-first-reading';
 import { useInView } from './use-in-view';
 import type { RecordedResult } from './verdict-panel';
@@ -88,9 +89,16 @@ export function ReadingForm({
       gauges: startingChoices(measured, form.gauges, mainGauge),
       notes: '',
       photoIds: [],
+      sizeClasses: {},
     },
   });
   const values = useWatch({ control: methods.control, name: 'slots' });
+  const chosenClasses = useWatch({ control: methods.control, name: 'sizeClasses' });
+  // a chosen size class's limits stand in for the rule's own, here as on the server
+  const chars = useMemo(
+    () => withSizeClasses(form.characteristics, chosenClasses ?? {}),
+    [form.characteristics, chosenClasses],
+  );
   const preferred = useUnitPreferences().data?.preferences;
   const remember = useSetUnitPreference();
   const [chosenUnits, setChosenUnits] = useState<EntryUnits>({});
@@ -102,10 +110,7 @@ export function ReadingForm({
     }
     return out;
   }, [form.characteristics, chosenUnits, preferred]);
-  const judged = useMemo(
-    () => judge(form.characteristics, slots, values, units),
-    [form.characteristics, slots, values, units],
-  );
+  const judged = useMemo(() => judge(chars, slots, values, units), [chars, slots, values, units]);
   const [problems, setProblems] = useState<Problem[]>([]);
   const [attempted, setAttempted] = useState(false);
   const [summaryTitle, setSummaryTitle] = useState('');
@@ -153,7 +158,7 @@ export function ReadingForm({
   const send = async (draft: Draft, confirmed = false) => {
     setAttempted(true);
     setRefusal(null);
-    const now = judge(form.characteristics, slots, draft.slots, units);
+    const now = judge(withSizeClasses(form.characteristics, draft.sizeClasses), slots, draft.slots, units);
     const local = [
       ...problemsBeforeSending(slots, now, draft, needsGauge, form.gauges),
       ...charGaugeProblems(measured, form.gauges, draft),
@@ -192,6 +197,7 @@ export function ReadingForm({
         notes: draft.notes.trim(),
         readings,
         photoIds: draft.photoIds,
+        sizeClasses: sizeClassesToSend(draft.sizeClasses),
       });
       setProblems([]);
       onRecorded({
@@ -300,13 +306,16 @@ export function ReadingForm({
               slots={slots}
               gauge={
                 needsGauge && s.char.kind === 'variable' ? (
-                  <CharGaugeField
-                    char={s.char}
-                    index={measured.indexOf(s.char)}
-                    gauges={form.gauges}
-                    problem={problemMap[charGaugeKey(s.char)]}
-                    onChange={() => state.clearProblem(charGaugeKey(s.char))}
-                  />
+                  <>
+                    <SizeClassField char={s.char} />
+                    <CharGaugeField
+                      char={s.char}
+                      index={measured.indexOf(s.char)}
+                      gauges={form.gauges}
+                      problem={problemMap[charGaugeKey(s.char)]}
+                      onChange={() => state.clearProblem(charGaugeKey(s.char))}
+                    />
+                  </>
                 ) : null
               }
             />

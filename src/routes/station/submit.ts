@@ -11,6 +11,8 @@ export type Draft = {
   gauges: string[];
   notes: string;
   photoIds: number[];
+  /** The size class chosen per characteristic code that has classes; '' when not chosen. */
+  sizeClasses: Record<string, string>;
 };
 
 /**
