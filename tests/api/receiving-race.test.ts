@@ -8,8 +8,8 @@ import { finishedParts, lotsFor } from '../support/parts.js';
 
 /**
  * A lot on hold cannot be drawn, and a lot cannot give more than came in, under races. Each pair
- * fires a build and, after a random delay of up to one and a half builds' time, a hold of one of
- * its lots; PostgreSQL's own commit timestamps (track_commit_timestamp) judge which committed
+ * fires a build and a hold of one of its lots at a random offset (the hold up to a build's time
+ * before it, or up to one and a half builds' time after); PostgreSQL's own commit timestamps (track_commit_timestamp) judge which committed
  * first: a build that drew from the lot must have committed before the hold did. Then builds race for a lot's last parts.
  * Each build needs parts that finished their routes through the API, so the pairs are fewer than
  * the release drill's hundreds of cloned units.
@@ -61,10 +61,12 @@ describe('drawing from a lot, raced', () => {
       const rings = lots.find((l) => l.kind === 'rings')!;
       const lot = (await PartLot.findOne({ where: { lotCode: rings.lotCode, partNumber: rings.partNumber } }))!;
       const parts = await finishedParts(t, cookies, 'TARN-6');
-      const delay = Math.round(Math.random() * span * 1.5);
+      // a random offset either way: the hold fired up to a build's time before the build, or after it
+      // by up to one and a half builds' time (a first build timed cold can make the span long)
+      const offset = Math.round((Math.random() * 2.5 - 1) * span);
       const [built, hold] = await Promise.all([
-        build(parts, lots),
-        after(delay, () =>
+        after(-offset, () => build(parts, lots)),
+        after(offset, () =>
           request(t.app)
             .post(`/api/receiving/lots/${lot.id}/inspection`)
             .set('Cookie', quality)

@@ -216,7 +216,10 @@ export function WipPage() {
                 {(data?.stages ?? []).map((s) => (
                   <TR key={s.stageCode} muted={s.waiting + s.inWork + s.onHold === 0}>
                     <TD>
-                      <Link to={`?${stageSearch(params, s.stageCode)}`} className="text-accent underline">
+                      <Link
+                        to={`?${stageSearch(params, s.stageCode)}`}
+                        className="inline-flex min-h-11 min-w-12 items-center text-accent underline floor:min-h-12"
+                      >
                         {s.stageName}
                       </Link>
                     </TD>
