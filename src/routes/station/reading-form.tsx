@@ -9,6 +9,9 @@ import { Card, CardBody } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
 import { ApiError } from '../../lib/http';
+import { enqueue, flushQueue, mustQueue, type Queued } from '../../lib/offline-queue';
+import { inTabletMode, setTabletIdentity, tabletIdentity } from '../../lib/tablet-mode';
+import { useSignedIn } from '../../api/auth/me';
 import { plural } from '../../lib/format';
 import {
   CharGaugeField,
@@ -59,6 +62,8 @@ type ReadingFormProps = {
   startedAt: string;
   canRecord: boolean;
   onRecorded: (result: RecordedResult) => void;
+  /** No network: the result waits on the tablet, to be sent when the network is back. */
+  onQueued: (entry: Queued) => void;
   onReload: () => void;
   /** The stage's safety caution above the form: while it is scrolled away, the bar repeats it in short. */
   cautionRef?: RefObject<HTMLElement | null>;
@@ -71,9 +76,11 @@ export function ReadingForm({
   startedAt,
   canRecord,
   onRecorded,
+  onQueued,
   onReload,
   cautionRef,
 }: ReadingFormProps) {
+  const me = useSignedIn();
   const notesId = useId();
   const slots = useMemo(() => slotsOf(form.characteristics), [form.characteristics]);
   const sections = useMemo(() => sectionsOf(form.characteristics, slots), [form.characteristics, slots]);
@@ -181,24 +188,48 @@ export function ReadingForm({
         entered.has(c),
       ),
     );
+    const body = {
+      idempotencyKey,
+      serial: form.item.serial,
+      station: form.station.code,
+      gauge: needsGauge ? draft.gauge : null,
+      ...(Object.keys(own).length ? { gauges: own } : {}),
+      startedAt,
+      notes: draft.notes.trim(),
+      readings,
+      photoIds: draft.photoIds,
+    };
+    // no network, or results already waiting: this one waits too, behind them, judged by the tablet meanwhile
+    const queue = async () => {
+      const who = inTabletMode() ? tabletIdentity() : null;
+      if (inTabletMode() && !who) return false;
+      const entry: Queued = {
+        key: idempotencyKey,
+        queuedAt: new Date().toISOString(),
+        path: who ? '/api/tablet/results' : '/api/results',
+        body,
+        stageName: form.stage.name,
+        shown: now.failing.length ? 'fail' : 'pass',
+        ...(who ? { badge: who.badge } : {}),
+        ...(!who && me ? { person: { id: me.user.id, name: me.user.name } } : {}),
+      };
+      await enqueue(entry, who?.pin);
+      if (who) setTabletIdentity(null);
+      setProblems([]);
+      onQueued(entry);
+      void flushQueue();
+      return true;
+    };
+    if (mustQueue() && (await queue())) return;
     try {
-      const result = await record.mutateAsync({
-        idempotencyKey,
-        serial: form.item.serial,
-        station: form.station.code,
-        gauge: needsGauge ? draft.gauge : null,
-        ...(Object.keys(own).length ? { gauges: own } : {}),
-        startedAt,
-        notes: draft.notes.trim(),
-        readings,
-        photoIds: draft.photoIds,
-      });
+      const result = await record.mutateAsync(body);
       setProblems([]);
       onRecorded({
         ...result,
         otherGauges: measured.filter((c) => own[c.code]).map((c) => ({ name: c.name, gauge: own[c.code]! })),
       });
     } catch (err) {
+      if (err instanceof ApiError && err.status === 0 && (await queue())) return;
       if (err instanceof ApiError && err.status === 400) {
         const fromServer = serverProblems(err, slots, sentSlots(slots, now, draft.slots));
         setProblems(fromServer);

@@ -1,4 +1,4 @@
-import { useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { onlineManager, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { lazy, Suspense, useEffect, useState } from 'react';
 import { useLocation, type LoaderFunctionArgs } from 'react-router';
 import { parseSerial } from '../../../shared/domain/serial';
@@ -17,6 +17,8 @@ import { useUrlFilter } from '../../lib/use-url-filter';
 import { StationChoice } from './station-choice';
 import { readTabletStation, recordingStations, useTabletStation } from './tablet-station';
 import { VerdictPanel, type RecordedResult } from './verdict-panel';
+import { QueuedPanel, WaitingResults } from './waiting-results';
+import type { Queued } from '../../lib/offline-queue';
 
 // The part's form (react-hook-form, decimal.js, the evaluator) is not needed to show the screen and
 // wait for a scan, so it is not part of the first load; a scan (or a loader) waits for it only if it
@@ -34,11 +36,15 @@ export const stationLoader =
     // the units this person types in, there before the first scan opens a form
     void queryClient.prefetchQuery(unitPreferencesQueryOptions());
     // a part that cannot be recorded here is said on the page, beside the scan box, not as an error page
-    if (code && parsed.ok && recordingStations(stations).some((s) => s.code === code)) {
+    // with no network a cached form is shown as it is (asking would wait for the network to return)
+    if (code && parsed.ok && onlineManager.isOnline() && recordingStations(stations).some((s) => s.code === code)) {
       await Promise.all([queryClient.prefetchQuery(stationFormQueryOptions(code, parsed.serial)), loadPartAtStation()]);
     }
     return null;
   };
+
+const offlineUnknown =
+  "No network, and this part's form was not opened on this tablet before. It opens when the network is back.";
 
 export function StationPage() {
   const me = useSignedIn();
@@ -63,6 +69,7 @@ export function StationPage() {
   const stale = stored && stations.data && !station ? stored : null;
   const form = useStationForm(station?.code ?? null, serial);
   const [result, setResult] = useState<RecordedResult | null>(null);
+  const [queued, setQueued] = useState<Queued | null>(null);
   // each opening of a part's form is a new round, with a new idempotency key; a retry is not
   const [round, setRound] = useState(0);
   const [scanRound, setScanRound] = useState(0);
@@ -78,12 +85,20 @@ export function StationPage() {
 
   const openAgain = () => {
     setResult(null);
+    setQueued(null);
     setRound((r) => r + 1);
   };
   // A scan asks for the part's form straight away: it names the item too (and is a 404 for an
   // unknown serial), so the scan box needs no item lookup of its own first. Always afresh: whether
   // the part is due here may have changed since the form was last asked for.
   const lookForm = async (code: string, printed: string) => {
+    // no network: a form this tablet has already opened is good enough to record on; the server judges on arrival
+    if (!onlineManager.isOnline()) {
+      const cached = queryClient.getQueryData(stationFormQueryOptions(code, printed).queryKey);
+      if (!cached) throw new ApiError(0, { code: 'network', message: offlineUnknown });
+      await loadPartAtStation();
+      return cached.item;
+    }
     try {
       const [found] = await Promise.all([
         queryClient.fetchQuery({ ...stationFormQueryOptions(code, printed), staleTime: 0 }),
@@ -128,6 +143,7 @@ export function StationPage() {
           )
         }
       />
+      <WaitingResults personId={me.user.id} />
       {choosing ? (
         stations.error ? (
           <Notice tone="bad" live="alert" title="The stations could not be loaded">
@@ -146,6 +162,8 @@ export function StationPage() {
             onCancel={station ? () => setChanging(false) : undefined}
           />
         )
+      ) : queued && queued.body.serial === serial ? (
+        <QueuedPanel entry={queued} onNext={nextPart} />
       ) : shown ? (
         <VerdictPanel result={shown} onNext={nextPart} canReadNcr={me.can('ncr.read')} />
       ) : (
@@ -191,6 +209,7 @@ export function StationPage() {
                 canReadNcr={me.can('ncr.read')}
                 canRaiseConcern={me.can('ncr.raise')}
                 onRecorded={setResult}
+                onQueued={setQueued}
                 onReload={() => {
                   openAgain();
                   void form.refetch();
