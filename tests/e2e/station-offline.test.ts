@@ -36,7 +36,8 @@ async function scan(page: Page, serial: string) {
   const box = page.getByRole('textbox', { name: 'Serial' });
   await box.fill(serial);
   await box.press('Enter');
-  await recordButton(page).waitFor();
+  // this part's form, not the one before it
+  await page.getByRole('form', { name: `Block clean readings for ${serial}` }).waitFor();
 }
 
 async function resultsAtClean(serials: string[]) {
@@ -57,7 +58,6 @@ describe('the station without a network', () => {
     const form = await formFor(served.t, cookies.operator, 'CLN-1', blocks[0]!);
     const op = demo('operator');
     const operator = (await User.findOne({ where: { email: op.email } }))!;
-
     const context = await browser.newContext({ viewport: { width: 1024, height: 768 }, hasTouch: true });
     const page = await context.newPage();
     await signIn(page, served.base, op.email, op.password);
@@ -66,6 +66,8 @@ describe('the station without a network', () => {
     // the morning's parts are looked at while the network is up: their forms stay on the tablet
     for (const b of blocks) await scan(page, b);
 
+    // the app shell is on the tablet (the service worker installed) before the network drops
+    await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
     await context.setOffline(true);
     for (const [i, b] of blocks.entries()) {
       await scan(page, b);
@@ -88,7 +90,12 @@ describe('the station without a network', () => {
     // nothing differed from what the tablet showed, so no notice asks for attention
     await expect(page.getByText(/the server judged it/).count()).resolves.toBe(0);
 
-    // the queue is empty: a result recorded now goes straight to the server and shows its verdict
+    // a reload with no network: the shell comes from the service worker, the station and its forms from IndexedDB
+    await context.setOffline(true);
+    await page.reload();
+    await page.getByRole('heading', { level: 1, name: 'Block thermal clean' }).waitFor();
+    await page.getByRole('textbox', { name: 'Serial' }).waitFor();
+    await page.screenshot({ path: path.join(shots, 'station-offline-reload-1024.png') });
     await context.close();
   });
 });
