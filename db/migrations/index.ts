@@ -22,6 +22,7 @@ import * as m20261203220000 from './20261203220000-result-values.js';
 import * as m20261203230000 from './20261203230000-process-definition.js';
 import * as m20261203233000 from './20261203233000-qualifications.js';
 import * as m20261203234000 from './20261203234000-station-tablets.js';
+import * as m20261204141500 from './20261204141500-person-language.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -52,4 +53,5 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261203230000-process-definition', ...m20261203230000 },
   { name: '20261203233000-qualifications', ...m20261203233000 },
   { name: '20261203234000-station-tablets', ...m20261203234000 },
+  { name: '20261204141500-person-language', ...m20261204141500 },
 ];

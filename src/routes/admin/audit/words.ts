@@ -95,6 +95,7 @@ export const ACTION_LABELS: Record<string, string> = {
   'tablet.retired': 'Tablet retired',
   'user.badge_set': 'Badge set',
   'user.pin_set': 'Station PIN set',
+  'user.preferences_changed': 'Language or units changed',
   'route.discarded': 'Route draft discarded',
   'route.approved': 'Route version approved and signed',
   'route.superseded': 'Route version superseded',
