@@ -10,6 +10,7 @@ import { QueryClientProvider } from '@tanstack/react-query';
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { RouterProvider } from 'react-router';
+import { rememberedLanguage, setLanguage } from './lib/i18n';
 import { keepCache, restoreCache } from './lib/persist-cache';
 import { makeQueryClient } from './lib/query-client';
 import { signInHref } from './lib/paths';
@@ -28,7 +29,8 @@ const queryClient = makeQueryClient({
 let router: ReturnType<typeof createRouter>;
 
 // what a station kept from before a reload is in the cache before the first loader asks for it
-void restoreCache(queryClient).then(() => {
+// the sign-in page speaks the language of whoever last signed in here
+void Promise.all([restoreCache(queryClient), setLanguage(rememberedLanguage())]).then(() => {
   keepCache(queryClient);
   router = createRouter(queryClient);
   createRoot(document.getElementById('root')!).render(

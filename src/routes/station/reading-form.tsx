@@ -13,6 +13,7 @@ import { enqueue, flushQueue, mustQueue, type Queued } from '../../lib/offline-q
 import { inTabletMode, setTabletIdentity, tabletIdentity } from '../../lib/tablet-mode';
 import { useSignedIn } from '../../api/auth/me';
 import { plural } from '../../lib/format';
+import { useT } from '../../lib/i18n';
 import {
   CharGaugeField,
   charGaugeKey,
@@ -81,6 +82,7 @@ export function ReadingForm({
   cautionRef,
 }: ReadingFormProps) {
   const me = useSignedIn();
+  const t = useT();
   const notesId = useId();
   const slots = useMemo(() => slotsOf(form.characteristics), [form.characteristics]);
   const sections = useMemo(() => sectionsOf(form.characteristics, slots), [form.characteristics, slots]);
@@ -347,7 +349,7 @@ export function ReadingForm({
               <div className="flex flex-col gap-5">
                 <div className="flex flex-col gap-1.5">
                   <label htmlFor={notesId} className={bigLabel}>
-                    Notes
+                    {t('form.notes')}
                   </label>
                   <textarea
                     id={notesId}
@@ -394,7 +396,7 @@ export function ReadingForm({
                 className="inline-flex h-14 min-w-48 items-center justify-center gap-2 rounded-control border border-accent-strong bg-accent px-6 text-xl font-semibold text-white hover:bg-accent-strong disabled:cursor-not-allowed disabled:opacity-55"
               >
                 <Icon name="ok" size={22} />
-                Record result
+                {t('form.record')}
               </button>
             </div>
           </div>

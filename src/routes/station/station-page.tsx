@@ -13,6 +13,7 @@ import { Card, CardBody } from '../../components/ui/card';
 import { Notice } from '../../components/ui/notice';
 import { ApiError } from '../../lib/http';
 import { requirePermission } from '../../lib/session';
+import { t as translate, useT } from '../../lib/i18n';
 import { useUrlFilter } from '../../lib/use-url-filter';
 import { StationChoice } from './station-choice';
 import { readTabletStation, recordingStations, useTabletStation } from './tablet-station';
@@ -43,11 +44,9 @@ export const stationLoader =
     return null;
   };
 
-const offlineUnknown =
-  "No network, and this part's form was not opened on this tablet before. It opens when the network is back.";
-
 export function StationPage() {
   const me = useSignedIn();
+  const t = useT();
   const queryClient = useQueryClient();
   const stations = useStations();
   const [stored, store] = useTabletStation();
@@ -95,7 +94,7 @@ export function StationPage() {
     // no network: a form this tablet has already opened is good enough to record on; the server judges on arrival
     if (!onlineManager.isOnline()) {
       const cached = queryClient.getQueryData(stationFormQueryOptions(code, printed).queryKey);
-      if (!cached) throw new ApiError(0, { code: 'network', message: offlineUnknown });
+      if (!cached) throw new ApiError(0, { code: 'network', message: translate('station.offlineUnknown') });
       await loadPartAtStation();
       return cached.item;
     }
@@ -123,22 +122,22 @@ export function StationPage() {
   return (
     <div data-density="floor" className="flex flex-col gap-5">
       <PageHeader
-        title={station && !changing ? station.name : 'Station'}
+        title={station && !changing ? station.name : t('station.title')}
         description={
           station && !changing ? (
             <span className="text-lg">
-              Records <span className="font-semibold text-ink">{station.stageName}</span> · {station.location} ·{' '}
-              <span className="font-mono">{station.code}</span>
+              {t('station.records')} <span className="font-semibold text-ink">{station.stageName}</span> ·{' '}
+              {station.location} · <span className="font-mono">{station.code}</span>
             </span>
           ) : (
-            'Scan a part, record its readings and results, and see at once what is out of tolerance.'
+            t('station.intro')
           )
         }
         actions={
           station &&
           !changing && (
             <Button size="lg" icon="chevronRight" onClick={() => setChanging(true)}>
-              Change station
+              {t('station.change')}
             </Button>
           )
         }
@@ -146,7 +145,7 @@ export function StationPage() {
       <WaitingResults personId={me.user.id} />
       {choosing ? (
         stations.error ? (
-          <Notice tone="bad" live="alert" title="The stations could not be loaded">
+          <Notice tone="bad" live="alert" title={t('station.stationsFailed')}>
             {stations.error.message}
           </Notice>
         ) : (
@@ -171,7 +170,7 @@ export function StationPage() {
           <Card labelledBy="scan-heading">
             <CardBody>
               <h2 id="scan-heading" className="mb-2 text-xl font-semibold">
-                Which part
+                {t('station.whichPart')}
               </h2>
               <ScanBox
                 key={scanRound}
@@ -189,13 +188,13 @@ export function StationPage() {
                 preview={false}
                 autoFocus={!serial}
                 initial={raw}
-                hint="Scan the part's label, or type its serial and press Enter."
+                hint={t('station.scanHint')}
               />
             </CardBody>
           </Card>
           {serial && form.isPending && <LoadingPart station={station.name} serial={serial} />}
           {form.error && !form.data && (
-            <Notice tone="bad" live="alert" title="This part's form could not be opened">
+            <Notice tone="bad" live="alert" title={t('station.formFailed')}>
               {form.error.message}
             </Notice>
           )}
@@ -224,9 +223,10 @@ export function StationPage() {
 }
 
 function LoadingPart({ station, serial }: { station: string; serial: string }) {
+  const t = useT();
   return (
     <p role="status" className="text-lg text-ink-soft">
-      Loading what {station} records for {serial}…
+      {t('station.loadingPart', { station, serial })}
     </p>
   );
 }

@@ -5,7 +5,7 @@ import { refreshStationForms } from '../../api/station/keys';
 import { Button } from '../../components/ui/button';
 import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
-import { formatWhen, plural } from '../../lib/format';
+import { formatMoment, useT } from '../../lib/i18n';
 import {
   dismissOutcome,
   queueSnapshot,
@@ -16,7 +16,7 @@ import {
   type Queued,
 } from '../../lib/offline-queue';
 
-const verdictWord = (v: 'pass' | 'fail') => (v === 'pass' ? 'passed' : 'failed');
+const verdictKey = (v: 'pass' | 'fail') => (v === 'pass' ? 'waiting.passed' : 'waiting.failed');
 
 /**
  * What the tablet is holding that the server has not stored yet, in plain words, and what the
@@ -25,6 +25,7 @@ const verdictWord = (v: 'pass' | 'fail') => (v === 'pass' ? 'passed' : 'failed')
 export function WaitingResults({ personId }: { personId: number | null }) {
   const queryClient = useQueryClient();
   const q = useSyncExternalStore(subscribeQueue, queueSnapshot);
+  const t = useT();
   useEffect(() => {
     setQueuePerson(personId);
     whenQueuedSent((result) => {
@@ -43,18 +44,27 @@ export function WaitingResults({ personId }: { personId: number | null }) {
           live="alert"
           title={
             o.kind === 'differs'
-              ? `${o.entry.body.serial}: the server judged it ${verdictWord(o.result.verdict)}, not ${verdictWord(o.entry.shown)}`
-              : `${o.entry.body.serial}: not recorded`
+              ? t('waiting.differs', {
+                  serial: o.entry.body.serial,
+                  server: t(verdictKey(o.result.verdict)),
+                  tablet: t(verdictKey(o.entry.shown)),
+                })
+              : t('waiting.refused', { serial: o.entry.body.serial })
           }
         >
           <p className="text-base">
             {o.kind === 'differs'
-              ? `${o.entry.stageName}, taken ${formatWhen(o.entry.queuedAt)}. The rules changed while this tablet was offline; the server's verdict is the one stored${o.result.nonconformance ? `, with NCR ${o.result.nonconformance.number}` : ''}.`
-              : `${o.entry.stageName}, taken ${formatWhen(o.entry.queuedAt)}. ${o.message}`}
+              ? t('waiting.differsWhy', { stage: o.entry.stageName, when: formatMoment(o.entry.queuedAt) })
+              : t('waiting.refusedWhy', {
+                  stage: o.entry.stageName,
+                  when: formatMoment(o.entry.queuedAt),
+                  message: o.message,
+                })}
+            {o.kind === 'differs' && o.result.nonconformance && ` NCR ${o.result.nonconformance.number}.`}
           </p>
           <div className="mt-2">
             <Button size="lg" onClick={() => dismissOutcome(o.entry.key)}>
-              Seen
+              {t('waiting.seen')}
             </Button>
           </div>
         </Notice>
@@ -66,22 +76,20 @@ export function WaitingResults({ personId }: { personId: number | null }) {
         >
           <h2 id="waiting-heading" className="flex items-center gap-2 text-xl font-semibold text-hold">
             <Icon name="hold" size={24} />
-            {plural(q.waiting.length, 'result')} waiting to be sent
+            {t('waiting.heading', { count: q.waiting.length })}
           </h2>
           <p aria-live="polite" className="mt-1 text-base">
-            {q.sending
-              ? 'Sending now, oldest first…'
-              : 'This tablet has no connection to the server. They are kept here and sent on their own, oldest first, when the network is back.'}
+            {q.sending ? t('waiting.sending') : t('waiting.offline')}
           </p>
           <ol className="mt-2 flex flex-col gap-1 text-base">
             {q.waiting.map((e) => (
               <li key={e.key} className="flex flex-wrap gap-x-3">
                 <span className="font-mono font-semibold">{e.body.serial}</span>
                 <span>{e.stageName}</span>
-                <span>{formatWhen(e.queuedAt)}</span>
-                <span>tablet: {verdictWord(e.shown)}</span>
-                {e.person && e.person.id !== personId && <span>waits for {e.person.name} to sign in</span>}
-                {e.badge && <span>badge {e.badge}</span>}
+                <span>{formatMoment(e.queuedAt)}</span>
+                <span>{t('waiting.tablet', { verdict: t(verdictKey(e.shown)) })}</span>
+                {e.person && e.person.id !== personId && <span>{t('waiting.waitsFor', { name: e.person.name })}</span>}
+                {e.badge && <span>{t('waiting.badge', { badge: e.badge })}</span>}
               </li>
             ))}
           </ol>
@@ -93,12 +101,13 @@ export function WaitingResults({ personId }: { personId: number | null }) {
 
 /** In place of the verdict: the result is on the tablet, not yet on the server. */
 export function QueuedPanel({ entry, onNext }: { entry: Queued; onNext: () => void }) {
+  const t = useT();
   return (
     <section role="status" aria-labelledby="queued-heading" className="rounded-card border-4 border-hold bg-card">
       <div className="flex flex-wrap items-center gap-x-6 gap-y-2 bg-hold-tint px-6 py-5">
         <Icon name="hold" size={48} className="text-hold" />
         <h2 id="queued-heading" className="text-4xl font-bold text-hold">
-          Waiting to be sent
+          {t('queued.heading')}
         </h2>
         <p className="text-xl">
           {entry.stageName}
@@ -107,10 +116,7 @@ export function QueuedPanel({ entry, onNext }: { entry: Queued; onNext: () => vo
         </p>
       </div>
       <div className="flex flex-col gap-4 px-6 py-5">
-        <p className="text-xl">
-          No network. The tablet judged it <strong>{verdictWord(entry.shown)}</strong>; the server judges it again when
-          it arrives, and this screen says so if its verdict differs.
-        </p>
+        <p className="text-xl">{t('queued.body', { verdict: t(verdictKey(entry.shown)) })}</p>
         <div>
           <button
             type="button"
@@ -118,7 +124,7 @@ export function QueuedPanel({ entry, onNext }: { entry: Queued; onNext: () => vo
             className="inline-flex h-16 min-w-56 items-center justify-center gap-2 rounded-control border border-accent-strong bg-accent px-8 text-2xl font-semibold text-white hover:bg-accent-strong"
           >
             <Icon name="scan" size={26} />
-            Next part
+            {t('verdict.nextPart')}
           </button>
         </div>
       </div>
