@@ -10,6 +10,8 @@ import { QueryClientProvider } from '@tanstack/react-query';
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { RouterProvider } from 'react-router';
+import { rememberedLanguage, setLanguage } from './lib/i18n';
+import { keepCache, restoreCache } from './lib/persist-cache';
 import { makeQueryClient } from './lib/query-client';
 import { signInHref } from './lib/paths';
 import { createRouter } from './router';
@@ -24,12 +26,22 @@ const queryClient = makeQueryClient({
     void router.navigate(signInHref({ next: `${going.pathname}${going.search}`, note: 'expired' }), { replace: true });
   },
 });
-const router = createRouter(queryClient);
+let router: ReturnType<typeof createRouter>;
 
-createRoot(document.getElementById('root')!).render(
-  <StrictMode>
-    <QueryClientProvider client={queryClient}>
-      <RouterProvider router={router} />
-    </QueryClientProvider>
-  </StrictMode>,
-);
+// what a station kept from before a reload is in the cache before the first loader asks for it
+// the sign-in page speaks the language of whoever last signed in here
+void Promise.all([restoreCache(queryClient), setLanguage(rememberedLanguage())]).then(() => {
+  keepCache(queryClient);
+  router = createRouter(queryClient);
+  createRoot(document.getElementById('root')!).render(
+    <StrictMode>
+      <QueryClientProvider client={queryClient}>
+        <RouterProvider router={router} />
+      </QueryClientProvider>
+    </StrictMode>,
+  );
+  // the app shell for a reload with no network (vite.config.ts); a development server has none
+  if (import.meta.env.PROD && 'serviceWorker' in navigator) {
+    void navigator.serviceWorker.register('/sw.js', { scope: '/' }).catch(() => undefined);
+  }
+});

@@ -25,6 +25,7 @@ import * as m20261203234000 from './20261203234000-station-tablets.js';
 import * as m20261204140000 from './20261204140000-size-classes.js';
 import * as m20261204150000 from './20261204150000-process-imports.js';
 import * as m20261204160000 from './20261204160000-characteristic-versions.js';
+import * as m20261204170000 from './20261204170000-person-language.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -58,4 +59,5 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261204140000-size-classes', ...m20261204140000 },
   { name: '20261204150000-process-imports', ...m20261204150000 },
   { name: '20261204160000-characteristic-versions', ...m20261204160000 },
+  { name: '20261204170000-person-language', ...m20261204170000 },
 ];

@@ -29,6 +29,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   /** The short PIN typed after the badge, bcrypt-hashed as passwords are. */
   declare pinHash: CreationOptional<string | null>;
   declare pinSetAt: CreationOptional<Date | null>;
+  declare language: CreationOptional<'en' | 'es'>;
+  declare unitSystem: CreationOptional<'inch' | 'metric'>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -46,6 +48,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         badge: { type: DataTypes.STRING(40), allowNull: true },
         pinHash: { type: DataTypes.STRING(100), allowNull: true },
         pinSetAt: { type: DataTypes.DATE, allowNull: true },
+        language: { type: DataTypes.STRING(5), allowNull: false, defaultValue: 'en' },
+        unitSystem: { type: DataTypes.STRING(6), allowNull: false, defaultValue: 'inch' },
         totpSecret: { type: DataTypes.STRING(200), allowNull: true, defaultValue: null },
         totpPendingSecret: { type: DataTypes.STRING(200), allowNull: true, defaultValue: null },
         totpEnrolledAt: { type: DataTypes.DATE, allowNull: true, defaultValue: null },

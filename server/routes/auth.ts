@@ -1,14 +1,20 @@
 import type { CookieOptions, Request, Response } from 'express';
 import type { Sequelize } from 'sequelize';
 import { permissionsOf } from '../../shared/permissions.js';
-import { changePasswordBody, loginBody, type MeResponse, type SessionResponse } from '../../shared/schemas/auth.js';
+import {
+  changePasswordBody,
+  loginBody,
+  preferencesBody,
+  type MeResponse,
+  type SessionResponse,
+} from '../../shared/schemas/auth.js';
 import type { Config } from '../config.js';
 import { AppError, tooMany } from '../errors.js';
 import type { Api } from '../http/api.js';
 import { accountKey, type FailureLimiter } from '../http/limits.js';
 import { SESSION_COOKIE, type AuthedUser } from '../middleware/authenticate.js';
 import { User } from '../models/index.js';
-import { changeOwnPassword, signIn, signOut } from '../services/auth.js';
+import { changeOwnPassword, setOwnPreferences, signIn, signOut } from '../services/auth.js';
 import { secondFactorRequiredFor } from '../services/second-factor.js';
 
 export function cookieOptions(config: Config, req: Request): CookieOptions {
@@ -18,9 +24,17 @@ export function cookieOptions(config: Config, req: Request): CookieOptions {
 
 /** Who is signed in, what their role may do, and where their second factor stands. */
 export async function meOf(user: Pick<AuthedUser, 'id' | 'email' | 'name' | 'role'>): Promise<MeResponse> {
-  const row = await User.findByPk(user.id, { attributes: ['id', 'totpSecret'] });
+  const row = await User.findByPk(user.id, { attributes: ['id', 'totpSecret', 'language', 'unitSystem'] });
   return {
-    user: { id: user.id, email: user.email, name: user.name, role: user.role, stationId: null },
+    user: {
+      id: user.id,
+      email: user.email,
+      name: user.name,
+      role: user.role,
+      stationId: null,
+      language: row?.language ?? 'en',
+      unitSystem: row?.unitSystem ?? 'inch',
+    },
     permissions: permissionsOf(user.role),
     secondFactor: { enrolled: Boolean(row?.totpSecret), required: secondFactorRequiredFor(user.role) },
   };
@@ -72,7 +86,15 @@ export function authRoutes(api: Api, sequelize: Sequelize, config: Config) {
       }
       res.cookie(SESSION_COOKIE, out.token, { ...cookieOptions(config, req), expires: out.expiresAt });
       const me: MeResponse = {
-        user: { id: out.user.id, email: out.user.email, name: out.user.name, role: out.user.role, stationId: null },
+        user: {
+          id: out.user.id,
+          email: out.user.email,
+          name: out.user.name,
+          role: out.user.role,
+          stationId: null,
+          language: out.user.language,
+          unitSystem: out.user.unitSystem,
+        },
         permissions: permissionsOf(out.user.role),
         secondFactor: { enrolled: Boolean(out.user.totpSecret), required: secondFactorRequiredFor(out.user.role) },
       };
@@ -110,6 +132,18 @@ export function authRoutes(api: Api, sequelize: Sequelize, config: Config) {
     handler: async ({ user }) => {
       const reply: SessionResponse = user ? await meOf(user) : { user: null, permissions: [] };
       return reply;
+    },
+  });
+
+  api.define({
+    method: 'patch',
+    path: '/auth/preferences',
+    access: 'account.self',
+    summary: 'Your own language (English or Spanish) and unit system (inch or metric) for the floor screens.',
+    body: preferencesBody,
+    handler: async ({ user, ctx, body }) => {
+      await setOwnPreferences(sequelize, ctx, user!.id, body);
+      return meOf(user!);
     },
   });
 

@@ -1,9 +1,9 @@
 import { randomUUID } from 'node:crypto';
 import jwt from 'jsonwebtoken';
 import type { Sequelize, Transaction } from 'sequelize';
-import type { ChangePasswordBody, LoginBody } from '../../shared/schemas/auth.js';
+import type { ChangePasswordBody, LoginBody, PreferencesBody } from '../../shared/schemas/auth.js';
 import { recordAudit, type Ctx } from '../audit.js';
-import { AppError, invalid } from '../errors.js';
+import { AppError, invalid, notFound } from '../errors.js';
 import { JWT_ALGORITHM } from '../middleware/authenticate.js';
 import { Session, User } from '../models/index.js';
 import { burnTime, checkPassword, hashPassword } from './passwords.js';
@@ -109,5 +109,22 @@ export async function changeOwnPassword(sequelize: Sequelize, ctx: Ctx, userId: 
     await user.update({ passwordHash }, { transaction });
     await endAllSessions(user, transaction);
     await recordAudit(ctx, transaction, { action: 'user.password_changed', entity: 'user', entityId: user.id });
+  });
+}
+
+/** Your own language and unit system: what the floor screens speak and which unit a reading starts in. */
+export async function setOwnPreferences(sequelize: Sequelize, ctx: Ctx, userId: number, body: PreferencesBody) {
+  await sequelize.transaction(async (transaction) => {
+    const user = await User.findByPk(userId, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!user) throw notFound('That person');
+    const before = { language: user.language, unitSystem: user.unitSystem };
+    await user.update(body, { transaction });
+    await recordAudit(ctx, transaction, {
+      action: 'user.preferences_changed',
+      entity: 'user',
+      entityId: user.id,
+      before,
+      after: { language: user.language, unitSystem: user.unitSystem },
+    });
   });
 }

@@ -44,7 +44,17 @@ export const sessionUser = z.object({
   name: text(),
   role: roleSchema,
   stationId: z.number().nullable(),
+  language: z.enum(['en', 'es']),
+  unitSystem: z.enum(['inch', 'metric']),
 });
+
+/** The languages of the floor screens, and the unit systems readings start in. */
+export const LANGUAGES = ['en', 'es'] as const;
+export const UNIT_SYSTEMS = ['inch', 'metric'] as const;
+export const preferencesBody = z
+  .strictObject({ language: z.enum(LANGUAGES).optional(), unitSystem: z.enum(UNIT_SYSTEMS).optional() })
+  .refine((b) => b.language !== undefined || b.unitSystem !== undefined, 'Send a language, a unit system or both.');
+export type PreferencesBody = z.infer<typeof preferencesBody>;
 export type SessionUser = z.infer<typeof sessionUser>;
 
 /** Whether a person has a second factor, and whether their role must. */

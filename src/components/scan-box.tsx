@@ -49,6 +49,8 @@ export function ScanBox({ onItem, lookup, preview = true, autoFocus = false, hin
   const [looking, setLooking] = useState<string | null>(null);
   const [found, setFound] = useState<string | null>(null);
   const [failure, setFailure] = useState<string | null>(null);
+  // a serial no item has is "not found"; anything else (no network, a refusal) is said as it is
+  const [missing, setMissing] = useState(true);
   const [camera, setCamera] = useState(false);
   const shown = useItem(preview ? found : null);
 
@@ -73,6 +75,7 @@ export function ScanBox({ onItem, lookup, preview = true, autoFocus = false, hin
       onItem(item);
     } catch (err) {
       setFound(null);
+      setMissing(err instanceof ApiError ? err.status === 404 : false);
       setFailure(
         err instanceof ApiError && err.status === 404
           ? `No item has the serial ${parsed.serial}. Check the label; a core gets its serial only once it is received.`
@@ -144,7 +147,7 @@ export function ScanBox({ onItem, lookup, preview = true, autoFocus = false, hin
         </div>
       </form>
       {failure && (
-        <Notice tone="bad" live="alert" title="Not found">
+        <Notice tone="bad" live="alert" title={missing ? 'Not found' : 'Not opened'}>
           {failure}
         </Notice>
       )}

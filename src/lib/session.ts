@@ -1,4 +1,4 @@
-import type { QueryClient } from '@tanstack/react-query';
+import { onlineManager, type QueryClient } from '@tanstack/react-query';
 import { data, redirect } from 'react-router';
 import type { Permission } from '../../shared/permissions';
 import { meKey, meQueryOptions, toSignedIn, type SignedIn } from '../api/auth/me';
@@ -14,8 +14,9 @@ const pathOf = (request: Request) => {
  * fetchQuery (not ensureQueryData) so a stale answer is checked again before a page trusts it.
  */
 export async function requireSignedIn(queryClient: QueryClient, request: Request): Promise<SignedIn> {
-  const before = queryClient.getQueryData(meKey);
-  const me = await queryClient.fetchQuery(meQueryOptions());
+  const before = queryClient.getQueryData(meQueryOptions().queryKey);
+  // no network: the session this page already knew stands (asking would wait until the network is back)
+  const me = before && !onlineManager.isOnline() ? before : await queryClient.fetchQuery(meQueryOptions());
   // someone was signed in a moment ago: say the session ended rather than just asking to sign in
   if (!me) throw redirect(signInHref({ next: pathOf(request), note: before ? 'expired' : undefined }));
   return toSignedIn(me);

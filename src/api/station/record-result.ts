@@ -46,6 +46,9 @@ export const SUBMIT_RETRIES = 5;
  * Anything else is an answer about the result itself and goes to the operator.
  */
 export function retrySubmission(failuresSoFar: number, err: unknown): boolean {
+  // with no network at all the result waits on the tablet instead (lib/offline-queue.ts)
+  if (err instanceof ApiError && err.status === 0 && typeof navigator !== 'undefined' && !navigator.onLine)
+    return false;
   return err instanceof ApiError && (err.status === 503 || err.status === 0) && failuresSoFar < SUBMIT_RETRIES;
 }
 

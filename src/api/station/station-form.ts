@@ -19,6 +19,8 @@ export const stationFormQueryOptions = (station: string, serial: string) =>
     queryKey: stationKeys.form(station, serial),
     queryFn: ({ signal }) => fetchStationForm(station, serial, signal),
     staleTime: 5_000,
+    // kept for the shift, so a form opened once can still be recorded on when the network drops
+    gcTime: 12 * 60 * 60_000,
   });
 
 export const useStationForm = (station: string | null, serial: string | null) =>

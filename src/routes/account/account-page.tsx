@@ -10,6 +10,7 @@ import { PageHeader } from '../../components/page-header';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { signInHref } from '../../lib/paths';
 import { SecondFactorCard } from './second-factor-card';
+import { PreferencesCard } from './preferences-card';
 import { SessionsCard } from './sessions-card';
 
 // the server's schema, plus a second typing of the new password that never leaves the browser
@@ -87,6 +88,7 @@ export function AccountPage() {
             </Form>
           </CardBody>
         </Card>
+        <PreferencesCard user={me.user} />
         <SecondFactorCard />
         <SessionsCard />
       </div>

@@ -1,9 +1,10 @@
-import { lazy, Suspense } from 'react';
+import { lazy, Suspense, useEffect } from 'react';
 import { Link, NavLink, Outlet, redirect, useLocation, useNavigate, useNavigation } from 'react-router';
 import type { LoaderFunctionArgs } from 'react-router';
 import type { QueryClient } from '@tanstack/react-query';
 import { ROLE_LABELS } from '../../../shared/roles';
 import { useSignedIn } from '../../api/auth/me';
+import { setLanguage } from '../../lib/i18n';
 import { useSignOut } from '../../api/auth/sign-out';
 import { Wordmark } from '../../components/wordmark';
 import { Button } from '../../components/ui/button';
@@ -44,6 +45,11 @@ export function AppLayout() {
   const navigation = useNavigation();
   const location = useLocation();
   const plantName = usePlant().data?.name ?? '';
+  const spoken = me?.user.language;
+  // the person's own language for every screen (Spanish is fetched the first time it is needed)
+  useEffect(() => {
+    if (spoken) void setLanguage(spoken);
+  }, [spoken]);
   // between a sign-out and the sign-in page there is nobody to show
   if (!me) return null;
   const { user } = me;

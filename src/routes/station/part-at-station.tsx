@@ -1,6 +1,7 @@
 import { useRef, useState } from 'react';
 import type { StationFormJson } from '../../api/station/types';
 import type { RecordedResult } from './verdict-panel';
+import type { Queued } from '../../lib/offline-queue';
 import { Caution } from '../../components/caution';
 import { ItemSummary } from '../../components/item-summary';
 import { ButtonLink } from '../../components/ui/button';
@@ -19,6 +20,7 @@ type PartAtStationProps = {
   /** May raise a concern (an NCR) about the part in hand, whatever this station records. */
   canRaiseConcern: boolean;
   onRecorded: (result: RecordedResult) => void;
+  onQueued: (entry: Queued) => void;
   onReload: () => void;
 };
 
@@ -30,6 +32,7 @@ export function PartAtStation({
   canReadNcr,
   canRaiseConcern,
   onRecorded,
+  onQueued,
   onReload,
 }: PartAtStationProps) {
   // made once per opening of the form: every retry of this form sends the same key
@@ -101,6 +104,7 @@ export function PartAtStation({
               startedAt={opening.startedAt}
               canRecord={canRecord}
               onRecorded={onRecorded}
+              onQueued={onQueued}
               onReload={onReload}
               cautionRef={stage.hazard ? cautionRef : undefined}
             />

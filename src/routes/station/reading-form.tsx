@@ -9,7 +9,11 @@ import { Card, CardBody } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
 import { ApiError } from '../../lib/http';
+import { enqueue, flushQueue, mustQueue, type Queued } from '../../lib/offline-queue';
+import { inTabletMode, setTabletIdentity, tabletIdentity } from '../../lib/tablet-mode';
+import { useSignedIn } from '../../api/auth/me';
 import { plural } from '../../lib/format';
+import { useT } from '../../lib/i18n';
 import {
   CharGaugeField,
   charGaugeKey,
@@ -60,6 +64,8 @@ type ReadingFormProps = {
   startedAt: string;
   canRecord: boolean;
   onRecorded: (result: RecordedResult) => void;
+  /** No network: the result waits on the tablet, to be sent when the network is back. */
+  onQueued: (entry: Queued) => void;
   onReload: () => void;
   /** The stage's safety caution above the form: while it is scrolled away, the bar repeats it in short. */
   cautionRef?: RefObject<HTMLElement | null>;
@@ -72,9 +78,12 @@ export function ReadingForm({
   startedAt,
   canRecord,
   onRecorded,
+  onQueued,
   onReload,
   cautionRef,
 }: ReadingFormProps) {
+  const me = useSignedIn();
+  const t = useT();
   const notesId = useId();
   const slots = useMemo(() => slotsOf(form.characteristics), [form.characteristics]);
   const sections = useMemo(() => sectionsOf(form.characteristics, slots), [form.characteristics, slots]);
@@ -186,25 +195,49 @@ export function ReadingForm({
         entered.has(c),
       ),
     );
+    const body = {
+      idempotencyKey,
+      serial: form.item.serial,
+      station: form.station.code,
+      gauge: needsGauge ? draft.gauge : null,
+      ...(Object.keys(own).length ? { gauges: own } : {}),
+      startedAt,
+      notes: draft.notes.trim(),
+      readings,
+      photoIds: draft.photoIds,
+      sizeClasses: sizeClassesToSend(draft.sizeClasses),
+    };
+    // no network, or results already waiting: this one waits too, behind them, judged by the tablet meanwhile
+    const queue = async () => {
+      const who = inTabletMode() ? tabletIdentity() : null;
+      if (inTabletMode() && !who) return false;
+      const entry: Queued = {
+        key: idempotencyKey,
+        queuedAt: new Date().toISOString(),
+        path: who ? '/api/tablet/results' : '/api/results',
+        body,
+        stageName: form.stage.name,
+        shown: now.failing.length ? 'fail' : 'pass',
+        ...(who ? { badge: who.badge } : {}),
+        ...(!who && me ? { person: { id: me.user.id, name: me.user.name } } : {}),
+      };
+      await enqueue(entry, who?.pin);
+      if (who) setTabletIdentity(null);
+      setProblems([]);
+      onQueued(entry);
+      void flushQueue();
+      return true;
+    };
+    if (mustQueue() && (await queue())) return;
     try {
-      const result = await record.mutateAsync({
-        idempotencyKey,
-        serial: form.item.serial,
-        station: form.station.code,
-        gauge: needsGauge ? draft.gauge : null,
-        ...(Object.keys(own).length ? { gauges: own } : {}),
-        startedAt,
-        notes: draft.notes.trim(),
-        readings,
-        photoIds: draft.photoIds,
-        sizeClasses: sizeClassesToSend(draft.sizeClasses),
-      });
+      const result = await record.mutateAsync(body);
       setProblems([]);
       onRecorded({
         ...result,
         otherGauges: measured.filter((c) => own[c.code]).map((c) => ({ name: c.name, gauge: own[c.code]! })),
       });
     } catch (err) {
+      if (err instanceof ApiError && err.status === 0 && (await queue())) return;
       if (err instanceof ApiError && err.status === 400) {
         const fromServer = serverProblems(err, slots, sentSlots(slots, now, draft.slots));
         setProblems(fromServer);
@@ -325,7 +358,7 @@ export function ReadingForm({
               <div className="flex flex-col gap-5">
                 <div className="flex flex-col gap-1.5">
                   <label htmlFor={notesId} className={bigLabel}>
-                    Notes
+                    {t('form.notes')}
                   </label>
                   <textarea
                     id={notesId}
@@ -372,7 +405,7 @@ export function ReadingForm({
                 className="inline-flex h-14 min-w-48 items-center justify-center gap-2 rounded-control border border-accent-strong bg-accent px-6 text-xl font-semibold text-white hover:bg-accent-strong disabled:cursor-not-allowed disabled:opacity-55"
               >
                 <Icon name="ok" size={22} />
-                Record result
+                {t('form.record')}
               </button>
             </div>
           </div>

@@ -1,4 +1,4 @@
-import { useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { onlineManager, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { lazy, Suspense, useEffect, useState } from 'react';
 import { useLocation, type LoaderFunctionArgs } from 'react-router';
 import { parseSerial } from '../../../shared/domain/serial';
@@ -13,10 +13,13 @@ import { Card, CardBody } from '../../components/ui/card';
 import { Notice } from '../../components/ui/notice';
 import { ApiError } from '../../lib/http';
 import { requirePermission } from '../../lib/session';
+import { t as translate, useT } from '../../lib/i18n';
 import { useUrlFilter } from '../../lib/use-url-filter';
 import { StationChoice } from './station-choice';
 import { readTabletStation, recordingStations, useTabletStation } from './tablet-station';
 import { VerdictPanel, type RecordedResult } from './verdict-panel';
+import { QueuedPanel, WaitingResults } from './waiting-results';
+import type { Queued } from '../../lib/offline-queue';
 
 // The part's form (react-hook-form, decimal.js, the evaluator) is not needed to show the screen and
 // wait for a scan, so it is not part of the first load; a scan (or a loader) waits for it only if it
@@ -34,7 +37,8 @@ export const stationLoader =
     // the units this person types in, there before the first scan opens a form
     void queryClient.prefetchQuery(unitPreferencesQueryOptions());
     // a part that cannot be recorded here is said on the page, beside the scan box, not as an error page
-    if (code && parsed.ok && recordingStations(stations).some((s) => s.code === code)) {
+    // with no network a cached form is shown as it is (asking would wait for the network to return)
+    if (code && parsed.ok && onlineManager.isOnline() && recordingStations(stations).some((s) => s.code === code)) {
       await Promise.all([queryClient.prefetchQuery(stationFormQueryOptions(code, parsed.serial)), loadPartAtStation()]);
     }
     return null;
@@ -42,6 +46,7 @@ export const stationLoader =
 
 export function StationPage() {
   const me = useSignedIn();
+  const t = useT();
   const queryClient = useQueryClient();
   const stations = useStations();
   const [stored, store] = useTabletStation();
@@ -63,6 +68,7 @@ export function StationPage() {
   const stale = stored && stations.data && !station ? stored : null;
   const form = useStationForm(station?.code ?? null, serial);
   const [result, setResult] = useState<RecordedResult | null>(null);
+  const [queued, setQueued] = useState<Queued | null>(null);
   // each opening of a part's form is a new round, with a new idempotency key; a retry is not
   const [round, setRound] = useState(0);
   const [scanRound, setScanRound] = useState(0);
@@ -78,12 +84,20 @@ export function StationPage() {
 
   const openAgain = () => {
     setResult(null);
+    setQueued(null);
     setRound((r) => r + 1);
   };
   // A scan asks for the part's form straight away: it names the item too (and is a 404 for an
   // unknown serial), so the scan box needs no item lookup of its own first. Always afresh: whether
   // the part is due here may have changed since the form was last asked for.
   const lookForm = async (code: string, printed: string) => {
+    // no network: a form this tablet has already opened is good enough to record on; the server judges on arrival
+    if (!onlineManager.isOnline()) {
+      const cached = queryClient.getQueryData(stationFormQueryOptions(code, printed).queryKey);
+      if (!cached) throw new ApiError(0, { code: 'network', message: translate('station.offlineUnknown') });
+      await loadPartAtStation();
+      return cached.item;
+    }
     try {
       const [found] = await Promise.all([
         queryClient.fetchQuery({ ...stationFormQueryOptions(code, printed), staleTime: 0 }),
@@ -108,29 +122,30 @@ export function StationPage() {
   return (
     <div data-density="floor" className="flex flex-col gap-5">
       <PageHeader
-        title={station && !changing ? station.name : 'Station'}
+        title={station && !changing ? station.name : t('station.title')}
         description={
           station && !changing ? (
             <span className="text-lg">
-              Records <span className="font-semibold text-ink">{station.stageName}</span> · {station.location} ·{' '}
-              <span className="font-mono">{station.code}</span>
+              {t('station.records')} <span className="font-semibold text-ink">{station.stageName}</span> ·{' '}
+              {station.location} · <span className="font-mono">{station.code}</span>
             </span>
           ) : (
-            'Scan a part, record its readings and results, and see at once what is out of tolerance.'
+            t('station.intro')
           )
         }
         actions={
           station &&
           !changing && (
             <Button size="lg" icon="chevronRight" onClick={() => setChanging(true)}>
-              Change station
+              {t('station.change')}
             </Button>
           )
         }
       />
+      <WaitingResults personId={me.user.id} />
       {choosing ? (
         stations.error ? (
-          <Notice tone="bad" live="alert" title="The stations could not be loaded">
+          <Notice tone="bad" live="alert" title={t('station.stationsFailed')}>
             {stations.error.message}
           </Notice>
         ) : (
@@ -146,6 +161,8 @@ export function StationPage() {
             onCancel={station ? () => setChanging(false) : undefined}
           />
         )
+      ) : queued && queued.body.serial === serial ? (
+        <QueuedPanel entry={queued} onNext={nextPart} />
       ) : shown ? (
         <VerdictPanel result={shown} onNext={nextPart} canReadNcr={me.can('ncr.read')} />
       ) : (
@@ -153,7 +170,7 @@ export function StationPage() {
           <Card labelledBy="scan-heading">
             <CardBody>
               <h2 id="scan-heading" className="mb-2 text-xl font-semibold">
-                Which part
+                {t('station.whichPart')}
               </h2>
               <ScanBox
                 key={scanRound}
@@ -171,13 +188,13 @@ export function StationPage() {
                 preview={false}
                 autoFocus={!serial}
                 initial={raw}
-                hint="Scan the part's label, or type its serial and press Enter."
+                hint={t('station.scanHint')}
               />
             </CardBody>
           </Card>
           {serial && form.isPending && <LoadingPart station={station.name} serial={serial} />}
           {form.error && !form.data && (
-            <Notice tone="bad" live="alert" title="This part's form could not be opened">
+            <Notice tone="bad" live="alert" title={t('station.formFailed')}>
               {form.error.message}
             </Notice>
           )}
@@ -191,6 +208,7 @@ export function StationPage() {
                 canReadNcr={me.can('ncr.read')}
                 canRaiseConcern={me.can('ncr.raise')}
                 onRecorded={setResult}
+                onQueued={setQueued}
                 onReload={() => {
                   openAgain();
                   void form.refetch();
@@ -205,9 +223,10 @@ export function StationPage() {
 }
 
 function LoadingPart({ station, serial }: { station: string; serial: string }) {
+  const t = useT();
   return (
     <p role="status" className="text-lg text-ink-soft">
-      Loading what {station} records for {serial}…
+      {t('station.loadingPart', { station, serial })}
     </p>
   );
 }

@@ -2,6 +2,7 @@ import { useEffect, useRef } from 'react';
 import type { ReadingJson, ResultJson } from '../../api/station/types';
 import { Icon } from '../../components/ui/icon';
 import { formatWhen } from '../../lib/format';
+import { useT } from '../../lib/i18n';
 import { NcrNumber } from './ncr-number';
 import { formatValue } from './numbers';
 
@@ -38,6 +39,7 @@ type VerdictPanelProps = { result: RecordedResult; onNext: () => void; canReadNc
 /** The answer, filling the width, plain words first: passed or failed, and where the part goes now. */
 export function VerdictPanel({ result, onNext, canReadNcr }: VerdictPanelProps) {
   const headingRef = useRef<HTMLHeadingElement>(null);
+  const t = useT();
   const passed = result.verdict === 'pass';
   const held = result.item.status === 'on_hold';
   const next = held
@@ -68,7 +70,7 @@ export function VerdictPanel({ result, onNext, canReadNcr }: VerdictPanelProps) 
           tabIndex={-1}
           className="text-[3.5rem] leading-none font-bold tracking-tight outline-none"
         >
-          {passed ? 'Passed' : 'Failed'}
+          {passed ? t('verdict.passed') : t('verdict.failed')}
         </h2>
         <p className="text-xl">
           {result.stage.name}
@@ -142,7 +144,7 @@ export function VerdictPanel({ result, onNext, canReadNcr }: VerdictPanelProps) 
             className="inline-flex h-16 min-w-56 items-center justify-center gap-2 rounded-control border border-accent-strong bg-accent px-8 text-2xl font-semibold text-white hover:bg-accent-strong"
           >
             <Icon name="scan" size={26} />
-            Next part
+            {t('verdict.nextPart')}
           </button>
         </div>
       </div>

@@ -1,4 +1,4 @@
-import { useQueryClient } from '@tanstack/react-query';
+import { onlineManager, useQueryClient } from '@tanstack/react-query';
 import { lazy, Suspense, useEffect, useState, useSyncExternalStore } from 'react';
 import { stationFormQueryOptions, useStationForm } from '../../api/station/station-form';
 import { useTablet } from '../../api/station/tablet';
@@ -9,6 +9,9 @@ import { Notice } from '../../components/ui/notice';
 import { paths } from '../../lib/paths';
 import { enterTabletMode, setTabletIdentity, subscribeTabletIdentity, tabletIdentity } from '../../lib/tablet-mode';
 import { VerdictPanel, type RecordedResult } from '../station/verdict-panel';
+import { QueuedPanel, WaitingResults } from '../station/waiting-results';
+import type { Queued } from '../../lib/offline-queue';
+import { ApiError } from '../../lib/http';
 import { EnrolCard } from './enrol-card';
 import { IdentifyCard } from './identify-card';
 
@@ -28,6 +31,7 @@ export function TabletPage() {
   const [serial, setSerial] = useState<string | null>(null);
   const who = useSyncExternalStore(subscribeTabletIdentity, tabletIdentity);
   const [result, setResult] = useState<RecordedResult | null>(null);
+  const [queued, setQueued] = useState<Queued | null>(null);
   const [round, setRound] = useState(0);
   const station = tablet.data?.station ?? null;
   const form = useStationForm(station?.code ?? null, serial);
@@ -59,6 +63,7 @@ export function TabletPage() {
   };
   const next = () => {
     setResult(null);
+    setQueued(null);
     setSerial(null);
     setRound((r) => r + 1);
   };
@@ -75,7 +80,10 @@ export function TabletPage() {
           </span>
         }
       />
-      {result ? (
+      <WaitingResults personId={null} />
+      {queued ? (
+        <QueuedPanel entry={queued} onNext={next} />
+      ) : result ? (
         <VerdictPanel result={result} onNext={next} canReadNcr={false} />
       ) : (
         <>
@@ -88,6 +96,18 @@ export function TabletPage() {
               <ScanBox
                 key={round}
                 lookup={async (printed) => {
+                  if (!onlineManager.isOnline()) {
+                    const cached = queryClient.getQueryData(stationFormQueryOptions(station.code, printed).queryKey);
+                    if (!cached) {
+                      throw new ApiError(0, {
+                        code: 'network',
+                        message:
+                          "No network, and this part's form was not opened on this tablet before. It opens when the network is back.",
+                      });
+                    }
+                    await loadPartAtStation();
+                    return cached.item;
+                  }
                   const [found] = await Promise.all([
                     queryClient.fetchQuery({ ...stationFormQueryOptions(station.code, printed), staleTime: 0 }),
                     loadPartAtStation(),
@@ -115,6 +135,10 @@ export function TabletPage() {
                 canReadNcr={false}
                 canRaiseConcern={false}
                 onRecorded={recorded}
+                onQueued={(q) => {
+                  setTabletIdentity(null);
+                  setQueued(q);
+                }}
                 onReload={() => void form.refetch()}
               />
             </Suspense>

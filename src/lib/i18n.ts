@@ -1,0 +1,83 @@
+import { useSyncExternalStore } from 'react';
+import rosetta from 'rosetta';
+import en from '../locales/en.json';
+
+/**
+ * The floor screens' words, in JSON files a translator edits (src/locales/<lang>.json). English is
+ * part of the first load; Spanish is fetched only when someone needs it, so the station's first
+ * screen carries one language. A key missing from Spanish falls back to the English words.
+ * `{{name}}` in a message is replaced by that parameter; a message with a count has `_one` and
+ * `_other` forms, chosen by the language's plural rules (Intl.PluralRules).
+ */
+export type Language = 'en' | 'es';
+type Messages = Record<string, string>;
+
+const i18n = rosetta<Messages>({ en });
+i18n.locale('en');
+let current: Language = 'en';
+const listeners = new Set<() => void>();
+const KEY = 'coretrail.language';
+
+const locales: Record<Language, string> = { en: 'en-US', es: 'es-MX' };
+
+async function load(lang: Language) {
+  if (lang === 'es' && !i18n.table('es')) i18n.set('es', (await import('../locales/es.json')).default);
+}
+
+/** Switches every screen to `lang` once its words are here; remembered for the sign-in page. */
+export async function setLanguage(lang: Language): Promise<void> {
+  await load(lang);
+  if (lang === current) return;
+  current = lang;
+  i18n.locale(lang);
+  document.documentElement.lang = lang;
+  try {
+    window.localStorage.setItem(KEY, lang);
+  } catch {
+    // storage switched off: the sign-in page speaks English, the person's own setting the rest
+  }
+  listeners.forEach((l) => l());
+}
+
+/** The language of the last person who signed in on this device, for the screens before sign-in. */
+export function rememberedLanguage(): Language {
+  try {
+    return window.localStorage.getItem(KEY) === 'es' ? 'es' : 'en';
+  } catch {
+    return 'en';
+  }
+}
+
+type Params = Record<string, string | number>;
+
+export function t(key: string, params?: Params): string {
+  const count = params?.count;
+  const full =
+    typeof count === 'number'
+      ? `${key}_${new Intl.PluralRules(locales[current]).select(count) === 'one' ? 'one' : 'other'}`
+      : key;
+  const shown = typeof count === 'number' ? { ...params, count: formatNumber(count) } : params;
+  // as a one-item path: rosetta would read the dots in a key as nesting
+  return i18n.t([full], shown) || i18n.t([full], shown, 'en') || key;
+}
+
+export const language = () => current;
+
+/** Numbers as the language writes them; Spanish as written in Mexico (es-MX), with a decimal point, as readings are typed. */
+export const formatNumber = (n: number, options?: Intl.NumberFormatOptions) =>
+  new Intl.NumberFormat(locales[current], options).format(n);
+
+/** A moment, day and time, as the language writes it. */
+export const formatMoment = (iso: string) =>
+  new Intl.DateTimeFormat(locales[current], { dateStyle: 'medium', timeStyle: 'short' }).format(new Date(iso));
+
+const subscribe = (onChange: () => void) => {
+  listeners.add(onChange);
+  return () => listeners.delete(onChange);
+};
+
+/** Re-renders the component when the language changes; returns the translator. */
+export function useT(): typeof t {
+  useSyncExternalStore(subscribe, language);
+  return t;
+}
