@@ -89,13 +89,21 @@ export function summarizeProfile(profile: CpuProfile, top = 12, lastUs = Infinit
   };
 }
 
-/** The newest .cpuprofile in `dir`, summarized (its last `lastUs` microseconds). */
+/**
+ * The main thread's profile in `dir`, summarized (its last `lastUs` microseconds). Node writes one
+ * file per thread at exit, all in the same second (CPU.<date>.<time>.<pid>.<thread>.<seq>): the
+ * main thread is thread 0; a loader's worker thread writes a small file of its own beside it.
+ */
 export function summarizeNewestProfile(dir: string, lastUs = Infinity): CpuSummary {
+  const thread = (f: string) => Number(/\.(\d+)\.\d+\.cpuprofile$/.exec(f)?.[1] ?? 0);
   const files = fs
     .readdirSync(dir)
     .filter((f) => f.endsWith('.cpuprofile'))
-    .map((f) => path.join(dir, f))
-    .sort((a, b) => fs.statSync(b).mtimeMs - fs.statSync(a).mtimeMs);
+    .sort(
+      (a, b) =>
+        thread(a) - thread(b) || fs.statSync(path.join(dir, b)).mtimeMs - fs.statSync(path.join(dir, a)).mtimeMs,
+    )
+    .map((f) => path.join(dir, f));
   if (!files.length) throw new Error(`no .cpuprofile in ${dir}`);
   return summarizeProfile(JSON.parse(fs.readFileSync(files[0]!, 'utf8')) as CpuProfile, 12, lastUs);
 }
