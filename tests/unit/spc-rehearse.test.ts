@@ -1,7 +1,7 @@
 import jStat from 'jstat';
 import { describe, expect, it } from 'vitest';
 import { partMeansChart } from '../../shared/domain/spc/charts.js';
-import { rehearseRule, type StoredReading } from '../../shared/domain/spc/rehearse.js';
+import { rehearseParts, rehearseRule, type PartColumns, type StoredReading } from '../../shared/domain/spc/rehearse.js';
 import type { ToleranceRule } from '../../shared/domain/tolerance.js';
 
 // Bore diameter 4.0300 ± 0.0005 in at 0.0001 in resolution (the tolerance tests' bore rule; illustrative).
@@ -28,7 +28,36 @@ const READINGS: StoredReading[] = [
   { partId: 'C', position: 'note', value: null, verdict: 'pass' },
 ];
 
+/** The same readings a part at a time, side by side, as the database keeps them. */
+const columns = (readings: readonly StoredReading[]): PartColumns[] => {
+  const byPart = new Map<
+    string,
+    { partId: string; positions: string[]; values: (number | null)[]; verdicts: ('pass' | 'fail')[] }
+  >();
+  for (const r of readings) {
+    const p = byPart.get(r.partId) ?? { partId: r.partId, positions: [], values: [], verdicts: [] };
+    p.positions.push(r.position);
+    p.values.push(r.value);
+    p.verdicts.push(r.verdict);
+    byPart.set(r.partId, p);
+  }
+  return [...byPart.values()];
+};
+
 describe('rehearsing a rule change on stored readings', () => {
+  it('when the readings come a part at a time side by side, then the rehearsal is the same as from one reading at a time', () => {
+    for (const rule of [tighter, looser]) {
+      expect(rehearseParts({ parts: columns(READINGS), rule, current })).toEqual(
+        rehearseRule({ readings: READINGS, rule, current }),
+      );
+    }
+    // a part's readings need not be together in the one-at-a-time form: the parts are still the same
+    const interleaved = [...READINGS].sort((a, b) => a.position.localeCompare(b.position));
+    expect(rehearseRule({ readings: interleaved, rule: tighter, current }).parts).toEqual(
+      rehearseParts({ parts: columns(READINGS), rule: tighter, current }).parts,
+    );
+  });
+
   it('when the limit is tightened to ± 0.0004, then only 4.0305 flips pass → fail, and part B with it', () => {
     const r = rehearseRule({ readings: READINGS, rule: tighter, current });
     expect(r.readings).toEqual([

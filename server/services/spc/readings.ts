@@ -159,18 +159,38 @@ export type PartVerdicts = {
   readings: [string, number | null, 'pass' | 'fail'][];
 };
 
+/** A part's newest result in the period with its readings side by side, as stored. */
+export type PartColumnsRow = {
+  itemId: number;
+  serial: string;
+  resultId: number;
+  at: number;
+  positions: string[];
+  vals: (number | null)[];
+  verdicts: ('pass' | 'fail')[];
+};
+
 export async function rehearsalReadings(
   sequelize: Sequelize,
   f: ReadingFilter,
   transaction?: Transaction,
-): Promise<PartVerdicts[]> {
+): Promise<PartColumnsRow[]> {
   const { sql, replacements } = rehearsalReadingsSql(f);
   const [row] = await sequelize.query<{ parts: RehearsalRow[] }>(sql, {
     type: QueryTypes.SELECT,
     replacements,
     transaction,
   });
-  return (row?.parts ?? []).map(rehearsalRow);
+  // the arrays as parsed, not a tuple per reading: a year of a bore is 239,424 readings
+  return (row?.parts ?? []).map(([itemId, serial, resultId, at, positions, vals, verdicts]) => ({
+    itemId,
+    serial,
+    resultId,
+    at: Number(at),
+    positions,
+    vals,
+    verdicts,
+  }));
 }
 
 /** One row of rehearsalReadingsSql: [item id, serial, result id, time (ms), positions, values, verdicts]. */

@@ -1,5 +1,5 @@
 import type { Sequelize } from 'sequelize';
-import { rehearseRule, type Capability, type StoredReading } from '../../../shared/domain/spc/index.js';
+import { rehearseParts, type Capability } from '../../../shared/domain/spc/index.js';
 import { limitsOf } from '../../../shared/domain/tolerance.js';
 import {
   periodBounds,
@@ -80,11 +80,6 @@ export async function rehearseDraft(
     stationId: s.station?.id,
     gaugeId: s.gauge?.id,
   });
-  const readings: StoredReading[] = [];
-  for (const p of parts) {
-    const partId = String(p.itemId);
-    for (const [position, value, verdict] of p.readings) readings.push({ partId, position, value, verdict });
-  }
   const current = inForceAt(s.ref.rules(s.family.id, s.characteristic.id), new Date());
   const frozen = limitsFor(
     await limitsInForce(sequelize, s.ref),
@@ -94,8 +89,13 @@ export async function rehearseDraft(
   );
   const sigmaWithin = frozen ? linesOf(frozen.limits).sigmaWithin : null;
   const draft = toRuleInForce(rule);
-  const r = rehearseRule({
-    readings,
+  const r = rehearseParts({
+    parts: parts.map((p) => ({
+      partId: String(p.itemId),
+      positions: p.positions,
+      values: p.vals,
+      verdicts: p.verdicts,
+    })),
     rule: draft,
     current: current ? toRuleInForce(current) : null,
     resolution: s.characteristic.resolution === null ? null : Number(s.characteristic.resolution),
