@@ -1,4 +1,5 @@
 import { fillResultValuesSql } from '../db/migrations/20261203220000-result-values.js';
+import { fillCoreSalvageSql } from '../db/migrations/20261204183500-core-salvage.js';
 import { Faker, en } from '@faker-js/faker';
 import type pg from 'pg';
 import { makeSerial } from '../shared/domain/serial.js';
@@ -197,6 +198,8 @@ export async function writeCopies(
         WHERE ${inRange} `,
       k2,
     );
+    // core_salvage too, as its triggers would have kept it
+    await client.query(fillCoreSalvageSql(`i.id IN (SELECT m.new_id FROM bench_item_map m WHERE ${inRange})`), k2);
     // results: all of a shipped copy's; a pool block's up to (not including) bore and hone
     await client.query(
       `INSERT INTO bench_result_map (k, old_id, new_id, new_item_id, at)

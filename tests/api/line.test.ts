@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_USERS } from '../../db/seeders/plant.js';
 import type { ParetoJson, SearchJson, ShippingJson, WipJson, YieldJson } from '../../shared/schemas/line.js';
 import { cookieFor, makeTestApp, makeUser, signInCookie, unique, type TestApp } from '../support/app.js';
+import { coreSalvageFromRecordsSql } from '../../db/migrations/20261204183500-core-salvage.js';
 import { releasableUnit, tornDownCore } from '../support/parts.js';
 import { resultFixtures } from '../support/results.js';
 
@@ -127,6 +128,74 @@ describe('yields from a hand-counted fixture', () => {
     });
     // (kept − scrapped later) / (kept + scrapped at teardown) = (3 − 1) / (3 + 1), counted by hand
     expect(row.salvageRate).toBe(0.5);
+  });
+
+  it('when parts of cores are scrapped at once, one is brought back and a receipt is corrected, then each core’s salvage row is its records’ count', async () => {
+    const familyId = (await q<{ id: number }>(`SELECT id FROM engine_families WHERE code = 'TARN-6'`))[0]!.id;
+    const customerId = (await q<{ id: number }>(`SELECT min(id) AS id FROM customers`))[0]!.id;
+    const casting = `SR ${unique('').slice(0, 8).toUpperCase()}`;
+    const cores: { id: number; parts: string[] }[] = [];
+    for (let k = 0; k < 6; k++) {
+      const core = await request(t.app)
+        .post('/api/cores')
+        .set('Cookie', cookies.demoReceiving!)
+        .send({
+          familyId,
+          castingNumber: casting,
+          source: 'customer_return',
+          customerId,
+          sourceReference: unique('RMA-'),
+          receivedOn: '2003-05-14',
+          complete: true,
+          grade: 'sound',
+          accepted: true,
+          creditDecision: 'full',
+        });
+      expect(core.status).toBe(201);
+      const td = await request(t.app)
+        .post(`/api/cores/${core.body.serial}/teardown`)
+        .set('Cookie', cookies.demoOperator!)
+        .send({
+          kept: [{ kind: 'block' }, { kind: 'crankshaft' }, { kind: 'cylinder_head' }, { kind: 'camshaft' }],
+          scrapped: [],
+        });
+      expect(td.status).toBe(201);
+      const [row] = await q<{ id: number }>(`SELECT id FROM items WHERE serial = :s`, { s: core.body.serial });
+      cores.push({ id: row!.id, parts: td.body.teardown.kept.map((p: { serial: string }) => p.serial) });
+    }
+    // every kept part of every core scrapped at once, each after a random pause of up to 30 ms, so
+    // the four increments of one core's row cross in every order
+    await Promise.all(
+      cores.flatMap((c) =>
+        c.parts.map(async (s) => {
+          await new Promise((r) => setTimeout(r, Math.random() * 30));
+          await q(`UPDATE items SET status = 'scrapped' WHERE serial = :s`, { s });
+        }),
+      ),
+    );
+    // one part brought back (its scrap disposition corrected), one receipt's date corrected
+    await q(`UPDATE items SET status = 'in_process' WHERE serial = :s`, { s: cores[0]!.parts[0] });
+    await q(`UPDATE core_receipts SET received_on = '2003-06-02' WHERE item_id = :id`, { id: cores[1]!.id });
+
+    const ids = cores.map((c) => c.id);
+    const kept = await q(`SELECT * FROM core_salvage WHERE item_id IN (:ids) ORDER BY item_id`, { ids });
+    const counted = await q(`${coreSalvageFromRecordsSql('i.id IN (:ids)')} ORDER BY item_id`, { ids });
+    expect(kept).toEqual(counted);
+    expect(kept.map((r) => (r as { scrapped_later: number }).scrapped_later)).toEqual([3, 4, 4, 4, 4, 4]);
+
+    const y = (
+      await request(t.app)
+        .get('/api/yields')
+        .query({ from: '2003-05-01', to: '2003-05-31' })
+        .set('Cookie', cookies.quality!)
+    ).body as YieldJson;
+    // five cores left in May (one moved to June): 20 parts kept, 19 scrapped later, counted by hand
+    expect(y.salvage.find((r) => r.castingNumber === casting)).toMatchObject({
+      cores: 5,
+      kept: 20,
+      scrappedAtTeardown: 0,
+      scrappedLater: 19,
+    });
   });
 
   it('when the period ends before it starts, then 400 and the field named', async () => {

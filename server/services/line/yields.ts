@@ -80,8 +80,23 @@ export const LOSSES_SQL = `SELECT count(*) FILTER (WHERE n.disposition = 'scrap'
           AND n.decided_at < ((CAST(:to AS date) + 1)::timestamp AT TIME ZONE :tz)
           AND (CAST(:family AS int) IS NULL OR i.engine_family_id = :family)`;
 
-/** Salvage per core source and casting number: the cores torn down, the parts they gave, and what was scrapped. */
+/**
+ * Salvage per core source and casting number: the cores torn down, the parts they gave, and what
+ * was scrapped, summed from `core_salvage` (one row per torn-down core, kept by triggers: see
+ * db/migrations/…-core-salvage). `SALVAGE_FROM_RECORDS_SQL` counts the same from the records
+ * themselves; the tests hold the two equal.
+ */
 export const SALVAGE_SQL = `
+  SELECT c.source, c.casting_number, count(*)::int AS cores, sum(c.kept)::int AS kept,
+         sum(c.scrapped_at_teardown)::int AS scrapped_at_teardown, sum(c.scrapped_later)::int AS scrapped_later
+    FROM core_salvage c
+   WHERE c.received_on BETWEEN CAST(:from AS date) AND CAST(:to AS date)
+     AND (CAST(:family AS int) IS NULL OR c.engine_family_id = :family)
+   GROUP BY c.source, c.casting_number
+   ORDER BY count(*) DESC, c.source, c.casting_number
+   LIMIT 100`;
+
+export const SALVAGE_FROM_RECORDS_SQL = `
   WITH c AS MATERIALIZED (
     SELECT cr.source, cr.casting_number, i.id,
            jsonb_array_length(coalesce(i.attributes->'teardown'->'scrapped', '[]'::jsonb)) AS scrapped_at_teardown
