@@ -3,8 +3,9 @@ import type { RuleJson } from '../shared/schemas/spec.js';
 import {
   partReadingsSql,
   rehearsalReadingsSql,
+  rehearsalColumns,
   rehearsalRow,
-  type RehearsalRow,
+  type RehearsalDocument,
   SHIPPED_UNITS_SQL,
   type ReadingFilter,
 } from '../server/services/spc/readings.js';
@@ -79,8 +80,9 @@ export async function measureSpc(c: Ctx, rate: number): Promise<SpcFigures> {
   const readSql = rehearsalReadingsSql(filter);
   const {
     rows: [first],
-  } = await c.db.query<{ parts: RehearsalRow[] }>(inline(readSql.sql, readSql.replacements));
-  const stored: StoredReading[] = first!.parts
+  } = await c.db.query<{ doc: RehearsalDocument }>(inline(readSql.sql, readSql.replacements));
+  const parts = rehearsalColumns(first!.doc);
+  const stored: StoredReading[] = parts
     .map(rehearsalRow)
     .flatMap(({ itemId, readings }) =>
       readings.map(([position, value, verdict]) => ({ partId: String(itemId), position, value, verdict })),
@@ -90,7 +92,7 @@ export async function measureSpc(c: Ctx, rate: number): Promise<SpcFigures> {
   const shippedSql = flipped.length ? inline(SHIPPED_UNITS_SQL, { ids: flipped }) : 'SELECT 1';
   const { rows: shipped } = await c.db.query(shippedSql);
   c.log(
-    `rule rehearsal: ${first!.parts.length} parts, ${stored.length} readings; ${flipped.length} would fail, in ${shipped.length} shipped units; ${rate}/s`,
+    `rule rehearsal: ${parts.length} parts, ${stored.length} readings; ${flipped.length} would fail, in ${shipped.length} shipped units; ${rate}/s`,
   );
   const body = JSON.stringify({ from: from.toISOString(), to: to.toISOString() });
   const http = (seconds: number) =>

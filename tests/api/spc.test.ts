@@ -388,6 +388,22 @@ describe('rehearsing a draft rule', () => {
       expect(s.after.cp / s.before.cp).toBeCloseTo(0.6, 9);
       expect(await AuditEvent.count({ where: { action: 'spec.rule_rehearsed', entityId: String(id) } })).toBe(1);
 
+      // the same rehearsal through one gauge's readings (read from \`readings\`, not \`result_values\`)
+      const gauges = await t.sequelize.query<{ code: string }>(
+        `SELECT DISTINCT g.code FROM readings r JOIN gauges g ON g.id = r.gauge_id
+           JOIN stage_results sr ON sr.id = r.stage_result_id
+          WHERE sr.station_id = (SELECT id FROM stations WHERE code = :station) AND r.characteristic_id = :bore`,
+        { type: QueryTypes.SELECT, replacements: { station, bore: boreId } },
+      );
+      expect(gauges).toHaveLength(1);
+      const byGauge = await request(t.app)
+        .post(`/api/spec/rules/${id}/rehearsals`)
+        .set('Cookie', quality)
+        .send({ from: started, to, station, gauge: gauges[0]!.code });
+      expect(byGauge.status, JSON.stringify(byGauge.body)).toBe(201);
+      expect(byGauge.body.summary.counts).toEqual(s.counts);
+      expect(byGauge.body.summary.parts).toEqual(s.parts);
+
       // the draft changes: the rehearsal is stale and an approval naming it is refused
       const edited = await request(t.app)
         .patch(`/api/spec/rules/${id}`)
@@ -397,7 +413,7 @@ describe('rehearsing a draft rule', () => {
         });
       expect(edited.status).toBe(200);
       const listed = await request(t.app).get(`/api/spec/rules/${id}/rehearsals`).set('Cookie', supervisor);
-      expect(listed.body[0]).toMatchObject({ id: res.body.id, stale: true });
+      expect(listed.body.find((r: { id: number }) => r.id === res.body.id)).toMatchObject({ stale: true });
       const refused = await request(t.app)
         .post(`/api/spec/rules/${id}/approve`)
         .set('Cookie', quality2)
