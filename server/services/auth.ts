@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import jwt from 'jsonwebtoken';
-import type { Sequelize, Transaction } from 'sequelize';
+import type { Sequelize } from 'sequelize';
 import type { ChangePasswordBody, LoginBody, PreferencesBody } from '../../shared/schemas/auth.js';
 import { recordAudit, type Ctx } from '../audit.js';
 import { AppError, invalid, notFound } from '../errors.js';
@@ -8,6 +8,7 @@ import { JWT_ALGORITHM } from '../middleware/authenticate.js';
 import { Session, User } from '../models/index.js';
 import { burnTime, checkPassword, hashPassword } from './passwords.js';
 import { checkSecondFactor, secondFactorRequiredFor } from './second-factor.js';
+import { endAllSessions } from './sessions.js';
 
 export const GENERIC_SIGN_IN_FAILURE = 'That e-mail and password do not match an active account.';
 
@@ -85,12 +86,6 @@ export async function signOut(sequelize: Sequelize, ctx: Ctx, sessionId: string)
       });
     }
   });
-}
-
-/** Ends every session of a user: bumps the token version and revokes the session rows. */
-export async function endAllSessions(user: User, transaction: Transaction) {
-  await user.increment('tokenVersion', { transaction });
-  await Session.update({ revokedAt: new Date() }, { where: { userId: user.id, revokedAt: null }, transaction });
 }
 
 export async function changeOwnPassword(sequelize: Sequelize, ctx: Ctx, userId: number, body: ChangePasswordBody) {

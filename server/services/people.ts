@@ -5,7 +5,7 @@ import type { Role } from '../../shared/roles.js';
 import { recordAudit, type Ctx } from '../audit.js';
 import { conflict, notFound } from '../errors.js';
 import { User } from '../models/index.js';
-import { endAllSessions } from './auth.js';
+import { endAllSessions } from './sessions.js';
 import { hashPassword } from './passwords.js';
 
 export function presentPerson(u: User): Person {

@@ -15,7 +15,7 @@ import {
 } from '../auth/totp.js';
 import { AppError, conflict, notFound } from '../errors.js';
 import { RecoveryCode, Session, User } from '../models/index.js';
-import { endAllSessions } from './auth.js';
+import { endAllSessions } from './sessions.js';
 import { checkPassword } from './passwords.js';
 
 /** OWASP ASVS 4.0.3 V4.3.1: administrative interfaces use multi-factor authentication. */

@@ -1,4 +1,4 @@
-import { Op, type Sequelize } from 'sequelize';
+import { Op, type Sequelize, type Transaction } from 'sequelize';
 import type { Role } from '../../shared/roles.js';
 import type { OwnSession } from '../../shared/schemas/auth.js';
 import { recordAudit, type Ctx } from '../audit.js';
@@ -48,4 +48,10 @@ export async function endOtherSessions(sequelize: Sequelize, ctx: Ctx, userId: n
     });
     return { ended };
   });
+}
+
+/** Ends every session of a user: bumps the token version and revokes the session rows. */
+export async function endAllSessions(user: User, transaction: Transaction) {
+  await user.increment('tokenVersion', { transaction });
+  await Session.update({ revokedAt: new Date() }, { where: { userId: user.id, revokedAt: null }, transaction });
 }
