@@ -1,5 +1,5 @@
 import { ncrListQuery } from '../shared/schemas/ncr.js';
-import { ncrListSql } from '../server/services/nonconformances.js';
+import { ncrListSql } from '../server/services/ncrs/index.js';
 import { LOT_LOOKUP_SQL } from '../server/services/trail.js';
 
 /**
@@ -90,7 +90,7 @@ export const NCR_FILTERS = [
 /** A replacement as a SQL literal (the filters above use numbers and plain words only). */
 const literal = (v: unknown) => (typeof v === 'number' ? String(v) : `'${String(v).replace(/'/g, "''")}'`);
 
-/** The NCR list's two statements (server/services/nonconformances.ts ncrListSql), one script per filter. */
+/** The NCR list's two statements (server/services/ncrs/list.ts ncrListSql), one script per filter. */
 export function ncrScripts(): Record<string, string> {
   const out: Record<string, string> = {};
   NCR_FILTERS.forEach((query, i) => {

@@ -19,9 +19,6 @@ import { csvDocument, sendCsv } from '../http/csv.js';
 import {
   assignNcr,
   closeNcr,
-  createDefectCode,
-  listDefectCodes,
-  updateDefectCode,
   countersign,
   disposition,
   listNcrs,
@@ -30,7 +27,8 @@ import {
   startReview,
   updateContainment,
   voidNcr,
-} from '../services/nonconformances.js';
+} from '../services/ncrs/index.js';
+import { createDefectCode, listDefectCodes, updateDefectCode } from '../services/defect-codes.js';
 
 const CSV_COLUMNS = [
   ['number', 'NCR'],

@@ -12,7 +12,7 @@ import { AppError, conflict, invalid } from '../errors.js';
 import { EngineFamily, Item, ItemLink, PartLot, Stage, Supplier, UnitLot } from '../models/index.js';
 import { findBySerial, newSerial, presentItem, routeFor, routeOfItem } from './items.js';
 import { drawableOf, holdingNcrs } from './lots.js';
-import { blockingNcrsOf } from './nonconformances.js';
+import { blockingNcrsOf } from './ncrs/index.js';
 import { familyByCode } from './spec.js';
 import { lockUnitsReachedBy } from './unit-locks.js';
 import { matchSizeClasses } from './size-classes.js';

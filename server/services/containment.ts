@@ -5,7 +5,7 @@ import { conflict, invalid, notFound } from '../errors.js';
 import { enqueueMail, quoted } from '../mail/messages.js';
 import { Containment, ContainmentItem, DefectCode, FieldAction, Item, Signature } from '../models/index.js';
 import { blastParts, scopeOf, whereNow } from './blast-radius.js';
-import { raiseNonconformance } from './nonconformances.js';
+import { raiseNonconformance } from './ncrs/index.js';
 import { signWithPassword } from './signatures.js';
 
 /**

@@ -14,7 +14,7 @@ import { recordAudit, type Ctx } from '../audit.js';
 import { AppError, conflict, invalid, notFound } from '../errors.js';
 import { Attachment, Nonconformance, PartLot, Supplier, User } from '../models/index.js';
 import { presentAttachment } from './attachments.js';
-import { OPEN_NCR_STATES } from './nonconformances.js';
+import { OPEN_NCR_STATES } from './ncrs/index.js';
 import { plantSettings } from './plant.js';
 
 /**

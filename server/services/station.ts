@@ -34,7 +34,7 @@ import {
   raiseNonconformance,
   settleRework,
   type FailingReading,
-} from './nonconformances.js';
+} from './ncrs/index.js';
 import { referenceData, VERSION_SQL, versionRead, type Reference, type VersionRow } from './reference-cache.js';
 import { formCharacteristics } from './spec.js';
 import { chooseSizeClasses } from './size-classes.js';

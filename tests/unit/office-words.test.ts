@@ -23,7 +23,7 @@ describe('the audit trail speaks in words', () => {
     const entities = new Set([...sources.matchAll(/entity: (?:user \? 'user' : )?'([a-z_]+)'/g)].map((m) => m[1]!));
     const actionLines = sources.split('\n').filter((l) => /\baction: /.test(l));
     const actions = new Set(actionLines.flatMap((l) => [...l.matchAll(/'([a-z_]+\.[a-z_]+)'/g)].map((m) => m[1]!)));
-    // the ones built at run time: an NCR's new state, a lot's new status (server/services/nonconformances.ts)
+    // the ones built at run time: an NCR's new state, a lot's new status (server/services/ncrs/steps.ts)
     for (const state of NCR_STATES.filter((s) => s !== 'raised')) actions.add(`ncr.${state}`);
     for (const status of ['returned', 'scrapped']) actions.add(`lot.${status}`);
     entities.delete('pending'); // an upload's placeholder owner, never an audited record

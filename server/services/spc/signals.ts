@@ -6,7 +6,7 @@ import { conflict, notFound } from '../../errors.js';
 import { appLink } from '../../mail/links.js';
 import { enqueueMail } from '../../mail/messages.js';
 import { Item, Nonconformance, SpcSignal, User, type SpcLimits, type Stage, type Station } from '../../models/index.js';
-import { raiseNonconformance } from '../nonconformances.js';
+import { raiseNonconformance } from '../ncrs/index.js';
 import type { Reference } from '../reference-cache.js';
 import { lockUnitsReachedBy } from '../unit-locks.js';
 import { limitsFor, limitsInForce } from './limits.js';

@@ -5,7 +5,7 @@ import { DataTable } from '../../../components/data-table';
 import { Badge, type Tone } from '../../../components/ui/badge';
 import { formatWhen } from '../../../lib/format';
 
-/** The events that queue mail (server/services/nonconformances.ts, release.ts), in words. */
+/** The events that queue mail (server/services/ncrs/, release.ts), in words. */
 const REASON_WORDS: Record<string, string> = {
   'ncr.raised': 'NCR raised',
   'ncr.decided': 'NCR decided',
