@@ -16,6 +16,7 @@ import { blockingNcrsOf } from './ncrs/index.js';
 import { familyByCode } from './spec.js';
 import { lockUnitsReachedBy } from './unit-locks.js';
 import { matchSizeClasses } from './size-classes.js';
+import { restOptional } from '../../shared/domain/route.js';
 
 /**
  * Building a long block: a finished block, crankshaft and the family's heads, plus purchased lots.
@@ -72,8 +73,7 @@ async function finishedRoute(item: Item, transaction: Transaction) {
   if (item.status !== 'in_process') return false;
   const route = await routeOfItem(item, transaction);
   const steps = route?.steps ?? [];
-  const at = steps.findIndex((s) => s.stageId === item.currentStageId);
-  return at >= 0 && steps.slice(at).every((s) => !s.required);
+  return restOptional(steps, item.currentStageId);
 }
 
 /** The mean finished bore of a block, from its current bore-and-hone result. */

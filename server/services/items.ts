@@ -6,6 +6,7 @@ import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.
 import { invalid, notFound } from '../errors.js';
 import { CoreReceipt, Item, ItemLink } from '../models/index.js';
 import { referenceData, type Reference, type RouteWithSteps } from './reference-cache.js';
+import { stepIndex } from '../../shared/domain/route.js';
 
 /** A serial no item has yet. Collisions are astronomically rare (32^7 bodies); we still check. */
 export async function newSerial(kind: PartKind, transaction: Transaction): Promise<string> {
@@ -78,7 +79,7 @@ export async function presentItem(
   const ref = knownRef ?? (await referenceData(Item.sequelize as Sequelize));
   const family = ref.family(item.engineFamilyId)!;
   const route = known !== undefined ? known : ref.routeOfItem(item);
-  const currentIdx = route?.steps.findIndex((s) => s.stageId === item.currentStageId) ?? -1;
+  const currentIdx = stepIndex(route?.steps ?? [], item.currentStageId);
   const finished = ['finished', 'torn_down', 'installed', 'released', 'shipped', 'returned'].includes(item.status);
   // a core exists because it was received: intake is behind it whether it was accepted or not
   const pastIntake = item.kind === 'core';

@@ -28,13 +28,7 @@ import {
 import { claimUploads, presentAttachment } from './attachments.js';
 import { loadResultRecords } from './result-records.js';
 import { checkedSerial, findBySerial, presentItem, routeOfItem } from './items.js';
-import {
-  blockingNcrsOf,
-  openNcrsOf,
-  raiseNonconformance,
-  settleRework,
-  type FailingReading,
-} from './ncrs/index.js';
+import { blockingNcrsOf, openNcrsOf, raiseNonconformance, settleRework, type FailingReading } from './ncrs/index.js';
 import { referenceData, VERSION_SQL, versionRead, type Reference, type VersionRow } from './reference-cache.js';
 import { formCharacteristics } from './spec.js';
 import { chooseSizeClasses } from './size-classes.js';
@@ -42,6 +36,7 @@ import { checkControlLimits } from './spc/signals.js';
 import { lockUnitsReachedBy } from './unit-locks.js';
 import { fitOf, gaugeChoices } from './gauge-suitability.js';
 import { requireQualified } from './qualifications.js';
+import { nextStep, onlyOptionalBetween, stepIndex } from '../../shared/domain/route.js';
 
 type Route = NonNullable<Awaited<ReturnType<typeof routeOfItem>>>;
 type FormChar = ReturnType<typeof formCharacteristics>[number];
@@ -104,12 +99,12 @@ export function checkSequence(
     );
   }
   const steps = route?.steps ?? [];
-  const at = steps.findIndex((s) => s.stageId === stage.id);
+  const at = stepIndex(steps, stage.id);
   if (at < 0) return fail('not_on_route', `${stage.name} is not on the route of ${item.serial}.`);
   if (reentry && reentry.stageId === stage.id) {
     return { ok: true, code: 'reentry', message: `Re-entry allowed by a supervisor: ${reentry.reason}` };
   }
-  const current = steps.findIndex((s) => s.stageId === item.currentStageId);
+  const current = stepIndex(steps, item.currentStageId);
   if (['finished', 'installed', 'released', 'shipped'].includes(item.status) || current < 0) {
     return fail(
       'finished',
@@ -118,7 +113,7 @@ export function checkSequence(
   }
   if (at === current) return { ok: true, code: 'ready', message: `${item.serial} is due at ${stage.name}.` };
   const next = steps[current]!.stage;
-  if (at > current && steps.slice(current, at).every((s) => !s.required)) {
+  if (at > current && onlyOptionalBetween(steps, current, at)) {
     return { ok: true, code: 'ready', message: `${item.serial} is due at ${stage.name} (optional stages skipped).` };
   }
   if (at < current) {
@@ -560,8 +555,7 @@ export async function submitResult(
       await item.update({ status: 'on_hold', currentStageId: stage.id }, { transaction });
     } else if (!supersedes) {
       const steps = route?.steps ?? [];
-      const at = steps.findIndex((s) => s.stageId === stage.id);
-      const next = steps[at + 1];
+      const next = nextStep(steps, stage.id);
       await item.update(
         next ? { status: 'in_process', currentStageId: next.stageId } : { status: 'finished', currentStageId: null },
         { transaction },

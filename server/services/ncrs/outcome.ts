@@ -9,6 +9,7 @@ import { blockingNcrsOf, installedIn } from './holds.js';
 import { NCR_LIFECYCLE } from '../../../shared/domain/ncr-lifecycle.js';
 import { decidedMail } from './mail.js';
 import { transition } from './steps.js';
+import { nextStep } from '../../../shared/domain/route.js';
 
 /**
  * Lets the item go when no open NCR holds it any more. After a use-as-is on a failing result the
@@ -50,8 +51,7 @@ export async function releaseIfClear(ctx: Ctx, transaction: Transaction, item: I
   if (result && (ncr.disposition === 'use_as_is' || corrected)) {
     const route = await routeOfItem(item, transaction);
     const steps = route?.steps ?? [];
-    const at = steps.findIndex((s) => s.stageId === result.stageId);
-    const following = steps[at + 1];
+    const following = nextStep(steps, result.stageId);
     next = following
       ? { status: 'in_process', currentStageId: following.stageId }
       : { status: 'finished', currentStageId: null };

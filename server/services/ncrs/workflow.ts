@@ -16,6 +16,7 @@ import { countersignMails } from './mail.js';
 import { carryOut, releaseIfClear, reworkProof } from './outcome.js';
 import { ncrDetail } from './present.js';
 import { ensureStep, refuse, sign, step, transition } from './steps.js';
+import { comesAfter, stepIndex } from '../../../shared/domain/route.js';
 
 /**
  * The NCR workflow's steps (the table: shared/domain/ncr-lifecycle.ts). Each
@@ -92,14 +93,13 @@ export async function disposition(sequelize: Sequelize, ctx: Ctx, number: string
       const stage = await Stage.findOne({ where: { code: body.reworkStage }, transaction: t });
       const route = await routeOfItem(item, t);
       const steps = route?.steps ?? [];
-      const to = stage ? steps.findIndex((s) => s.stageId === stage.id) : -1;
-      if (!stage || to < 0) {
+      if (!stage || stepIndex(steps, stage.id) < 0) {
         throw invalid(`Choose a stage on the route of ${item.serial}.`, { reworkStage: 'Not on this part’s route.' });
       }
       // back to the stage where it was found, or an earlier one: never past stages it has not passed
-      const foundAt = steps.findIndex((s) => s.stageId === (ncr.stageId ?? item.currentStageId));
-      if (foundAt >= 0 && to > foundAt) {
-        const where = steps[foundAt]!.stage.name;
+      const foundAt = ncr.stageId ?? item.currentStageId;
+      if (comesAfter(steps, stage.id, foundAt)) {
+        const where = steps[stepIndex(steps, foundAt)]!.stage.name;
         throw invalid(`A rework goes back to ${where}, where the problem was found, or to an earlier stage.`, {
           reworkStage: `${where} or earlier.`,
         });
