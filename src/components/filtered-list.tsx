@@ -70,6 +70,11 @@ type FilteredListProps<T> = {
   searchLabel: string;
   /** The grid the filters sit in. */
   layout: string;
+  /**
+   * The columns the count and buttons span when they fit in the filters' last row (the grid's
+   * classes); without it they sit on a row of their own under the filters.
+   */
+  summarySpan?: string;
   filters: ReactNode;
   noun: [string, string];
   list: UseQueryResult<Paged<T>>;
@@ -94,6 +99,20 @@ export function FilteredList<T>(props: FilteredListProps<T>) {
   const { id, heading, header, searchLabel, layout, filters, noun, list, filtered, onClear, onPage } = props;
   const data = list.data;
   const headingId = `${id}-heading`;
+  const summary = (place: string) => (
+    <div className={`flex flex-wrap justify-between gap-3 ${place}`}>
+      <p aria-live="polite" className="font-medium">
+        {data ? <Count total={data.total} noun={noun} /> : '…'}
+        {filtered && data && (
+          <span className="font-normal text-ink-soft"> {data.total === 1 ? 'matches' : 'match'} these filters</span>
+        )}
+      </p>
+      <div className="flex flex-wrap items-center gap-2">
+        {filtered && <Button onClick={onClear}>Clear filters</Button>}
+        {props.exportCsv && <ExportButton how={props.exportCsv} none={!data?.total} />}
+      </div>
+    </div>
+  );
   const empty =
     data && data.total > 0
       ? 'Nothing on this page: it is past the last one.'
@@ -115,19 +134,11 @@ export function FilteredList<T>(props: FilteredListProps<T>) {
         onSubmit={(e) => e.preventDefault()}
         className="border-b border-rule px-5 py-4"
       >
-        <div className={layout}>{filters}</div>
-        <div className="mt-3 flex flex-wrap items-center justify-between gap-3">
-          <p aria-live="polite" className="font-medium">
-            {data ? <Count total={data.total} noun={noun} /> : '…'}
-            {filtered && data && (
-              <span className="font-normal text-ink-soft"> {data.total === 1 ? 'matches' : 'match'} these filters</span>
-            )}
-          </p>
-          <div className="flex flex-wrap items-center gap-2">
-            {filtered && <Button onClick={onClear}>Clear filters</Button>}
-            {props.exportCsv && <ExportButton how={props.exportCsv} none={!data?.total} />}
-          </div>
+        <div className={layout}>
+          {filters}
+          {props.summarySpan && summary(`${props.summarySpan} items-end`)}
         </div>
+        {!props.summarySpan && summary('mt-3 items-center')}
       </form>
       {list.error && (
         <div className="px-5 pt-4">

@@ -71,6 +71,7 @@ export function IntakeLogPage() {
         heading="Cores received"
         searchLabel="Filter the intake log"
         layout="grid grid-cols-2 gap-3 md:grid-cols-4 xl:grid-cols-6"
+        summarySpan="col-span-2 md:col-span-4 xl:col-span-4"
         noun={['core', 'cores']}
         list={log}
         filtered={filtered}

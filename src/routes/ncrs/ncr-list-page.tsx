@@ -90,6 +90,7 @@ export function NcrListPage() {
         heading="Nonconformances"
         searchLabel="Filter the NCRs"
         layout="grid grid-cols-2 gap-3 md:grid-cols-4 xl:grid-cols-6"
+        summarySpan="col-span-2 md:col-span-3 xl:col-span-3"
         noun={['NCR', 'NCRs']}
         list={list}
         filtered={filtered}
