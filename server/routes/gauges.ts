@@ -15,6 +15,7 @@ import {
   studyBody,
 } from '../../shared/schemas/gauges.js';
 import type { Api } from '../http/api.js';
+import { sendCsv } from '../http/csv.js';
 import { fileDisposition } from '../http/files.js';
 import { blastCsv, blastPdf } from '../services/blast-export.js';
 import { blastRadius } from '../services/blast-radius.js';
@@ -132,10 +133,7 @@ export function gaugeRoutes(api: Api, sequelize: Sequelize) {
     handler: async ({ query, res }) => {
       const { format, ...q } = query;
       if (format === 'csv') {
-        const csv = await blastCsv(sequelize, q);
-        res.setHeader('Content-Type', 'text/csv; charset=utf-8');
-        res.setHeader('Content-Disposition', fileDisposition('blast-radius.csv', 'attachment'));
-        res.send(csv);
+        sendCsv(res, 'blast-radius.csv', await blastCsv(sequelize, q));
       } else {
         const pdf = await blastPdf(sequelize, q);
         res.setHeader('Content-Type', 'application/pdf');

@@ -2,7 +2,8 @@ import type { Sequelize } from 'sequelize';
 import { paretoQuery, searchQuery, wipQuery, yieldQuery } from '../../shared/schemas/line.js';
 import type { Api } from '../http/api.js';
 import { freshnessOf, type ReadSide } from '../read-side.js';
-import { csvDocument, sendCsv } from '../http/csv.js';
+import { csvDocument } from '../../shared/csv.js';
+import { sendCsv } from '../http/csv.js';
 import { alerts, ncrAges, shippingBoard, teardownQueue } from '../services/line/homes.js';
 import { search } from '../services/line/search.js';
 import { wipBoard } from '../services/line/wip.js';
@@ -106,7 +107,7 @@ export function lineRoutes(api: Api, sequelize: Sequelize, read: ReadSide) {
           ]),
         ],
       );
-      sendCsv(res, `yields-${query.from}-${query.to}.csv`, `\ufeff${body}`);
+      sendCsv(res, `yields-${query.from}-${query.to}.csv`, body);
       return undefined;
     },
   });
@@ -131,7 +132,7 @@ export function lineRoutes(api: Api, sequelize: Sequelize, read: ReadSide) {
         ['Period', query.by === 'defect' ? 'Defect code' : query.by === 'stage' ? 'Stage' : 'Family', 'Name', 'NCRs'],
         p.periods.map((r) => [r.period, r.key, label.get(r.key) ?? '', r.count]),
       );
-      sendCsv(res, `ncr-pareto-${query.by}-${query.from}-${query.to}.csv`, `\ufeff${body}`);
+      sendCsv(res, `ncr-pareto-${query.by}-${query.from}-${query.to}.csv`, body);
       return undefined;
     },
   });

@@ -1,12 +1,11 @@
 import { z } from 'zod';
-import { idText, paging } from '../../shared/schemas/common.js';
+import { idText } from '../../shared/schemas/common.js';
+import { outboxQuery } from '../../shared/schemas/mail.js';
 import type { Config } from '../config.js';
 import { notFound } from '../errors.js';
 import type { Api } from '../http/api.js';
 import { readMailSink } from '../mail/sink.js';
 import { MailOutbox } from '../models/index.js';
-
-const outboxQuery = z.strictObject({ ...paging, status: z.enum(['pending', 'sending', 'sent', 'failed']).optional() });
 
 export function mailRoutes(api: Api, config: Config) {
   api.define({

@@ -15,7 +15,8 @@ import {
   voidBody,
 } from '../../shared/schemas/ncr.js';
 import type { Api } from '../http/api.js';
-import { csvDocument, sendCsv } from '../http/csv.js';
+import { csvDocument } from '../../shared/csv.js';
+import { sendCsv } from '../http/csv.js';
 import {
   assignNcr,
   closeNcr,
@@ -94,7 +95,7 @@ export function ncrRoutes(api: Api, sequelize: Sequelize) {
         rows.map((r) => CSV_COLUMNS.map(([k]) => r[k])),
       );
       // the byte-order mark makes spreadsheets read the UTF-8 names (Ashdown, µin) correctly
-      sendCsv(res, 'ncrs.csv', `\ufeff${body}`);
+      sendCsv(res, 'ncrs.csv', body);
       return undefined;
     },
   });

@@ -1,16 +1,10 @@
-import Papa from 'papaparse';
 import PDFDocument from 'pdfkit';
 import type { Sequelize } from 'sequelize';
+import { csvDocument } from '../../shared/csv.js';
 import { WHERE_NOW_LABELS, type BlastQuery } from '../../shared/schemas/gauges.js';
 import { blastRadius, blastReadings, scopeOf } from './blast-radius.js';
 
 /** The blast radius as files: every reading as CSV (one row each, with where its part is now), a summary as PDF. */
-
-// a cell a spreadsheet would run as a formula is written as text (OWASP "CSV injection")
-const cell = (v: unknown) => {
-  const s = v === null || v === undefined ? '' : String(v);
-  return /^[=+\-@\t\r]/.test(s) && !/^-?\d/.test(s) ? `'${s}` : s;
-};
 
 export async function blastCsv(sequelize: Sequelize, q: BlastQuery): Promise<string> {
   const summary = await blastRadius(sequelize, q, 0, null);
@@ -57,35 +51,33 @@ export async function blastCsv(sequelize: Sequelize, q: BlastQuery): Promise<str
       p?.customer,
       p?.shipDate,
       p?.order,
-    ].map(cell);
+    ];
   });
   // a lot touches units, not readings: one row per unit
   const lotRows =
     summary.trigger.kind === 'lot'
-      ? summary.parts.map((p) =>
-          [
-            p.serial,
-            '',
-            '',
-            '',
-            '',
-            '',
-            '',
-            '',
-            '',
-            '',
-            '',
-            '',
-            '',
-            p.unit,
-            WHERE_NOW_LABELS[p.where],
-            p.customer,
-            p.shipDate,
-            p.order,
-          ].map(cell),
-        )
+      ? summary.parts.map((p) => [
+          p.serial,
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          p.unit,
+          WHERE_NOW_LABELS[p.where],
+          p.customer,
+          p.shipDate,
+          p.order,
+        ])
       : [];
-  return Papa.unparse({ fields: header, data: [...rows, ...lotRows] });
+  return csvDocument(header, [...rows, ...lotRows]);
 }
 
 const winAnsi = (text: string) => text.replace(/≥/g, '>=').replace(/≤/g, '<=').replace(/−/g, '-').replace(/[–—]/g, '-');

@@ -9,7 +9,7 @@ import {
   type receiveCoreBody,
   type TeardownRecord,
 } from '../../shared/schemas/intake.js';
-import { csvDocument } from '../http/csv.js';
+import { csvDocument } from '../../shared/csv.js';
 import { recordAudit, type Ctx } from '../audit.js';
 import { conflict, invalid, notFound } from '../errors.js';
 import { CoreReceipt, Customer, EngineFamily, Item, Supplier, User } from '../models/index.js';

@@ -1,6 +1,7 @@
 import { Op, QueryTypes, type Sequelize } from 'sequelize';
 import { selectModels, type ReadSide } from '../read-side.js';
 import type { AttachmentJson } from '../../shared/schemas/attachments.js';
+import type { RecordedReading } from '../../shared/schemas/results.js';
 import { describePosition, expandPositions } from '../../shared/domain/positions.js';
 import type { RuleShape } from '../../shared/documents/format.js';
 import { limitsOf } from '../../shared/domain/tolerance.js';
@@ -28,29 +29,8 @@ const READING_COLUMNS = [
 ] as const;
 type ReadingRow = Pick<Reading, (typeof READING_COLUMNS)[number]>;
 
-/** One stored reading as the history screens show it, with the limits of the rule version it was judged by. */
-export type RecordedReading = {
-  characteristic: string;
-  name: string;
-  kind: Characteristic['kind'];
-  position: string;
-  positionLabel: string;
-  value: number | null;
-  passed: boolean | null;
-  unit: string | null;
-  /** What was typed, when it was typed in another unit of the same quantity. */
-  entered: { value: number; unit: string } | null;
-  verdict: 'pass' | 'fail';
-  ruleId: number | null;
-  ruleVersion: number | null;
-  lower: number | null;
-  upper: number | null;
-  /** The rule version's limits and resolution as written, for printed documents. */
-  rule: RuleShape | null;
-  location: string | null;
-  /** The gauge this reading was taken with (a characteristic may be read with its own). */
-  gauge: string | null;
-};
+/** One stored reading as the history screens show it (its shape is shared: shared/schemas/results.ts). */
+export type { RecordedReading };
 
 /**
  * Everything around a set of stage results, read once for all of them — readings, characteristics,

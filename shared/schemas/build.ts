@@ -2,12 +2,11 @@ import { z } from 'zod';
 import { enteredPassword } from './auth.js';
 import { text, isoDate, id } from './common.js';
 import { sizeClassCode } from './spec.js';
-import type { ChosenSizeClass } from './results.js';
+import type { ChosenSizeClass, RecordedReading } from './results.js';
 import type { FieldActionJson } from './field-actions.js';
 import type { NcrSignature, NcrState, NcrTimelineEntry } from './ncr.js';
 import type { ItemJson } from './items.js';
 import type { AttachmentJson } from './attachments.js';
-import type { RuleShape } from '../documents/format.js';
 
 /** Building a long block, the release gate, shipping, the trail and lot lookup. */
 
@@ -188,22 +187,8 @@ export type TrailNode = {
   children: TrailNode[];
 };
 
-export type TrailReading = {
-  characteristic: string;
-  name: string;
-  position: string;
-  positionLabel: string;
-  value: number | null;
-  passed: boolean | null;
-  unit: string | null;
-  verdict: 'pass' | 'fail';
-  ruleVersion: number | null;
-  lower: number | null;
-  upper: number | null;
-  /** The rule version's limits and resolution as written, for printed documents. */
-  rule: RuleShape | null;
-  location: string | null;
-};
+/** A reading on the trail: the stored reading without what only the station's forms use. */
+export type TrailReading = Omit<RecordedReading, 'kind' | 'ruleId'>;
 
 export type TrailResult = {
   id: number;

@@ -52,8 +52,11 @@ export const id = (message?: string) =>
     .positive('Choose one from the list.')
     .max(INT4_MAX, 'No record has so large an id.');
 
-/** A record's id in a query string or a path. */
-export const idText = () => z.coerce.number().int().positive().max(INT4_MAX, 'No record has so large an id.');
+/**
+ * A record's id in a query string or a path. Its input is typed as the number the client means
+ * (`z.input` of a query schema is the client's filter type); the string in the address is coerced.
+ */
+export const idText = () => z.coerce.number<number>().int().positive().max(INT4_MAX, 'No record has so large an id.');
 
 /** A number that fits `numeric(precision, scale)` exactly: nothing rounded away, nothing overflowing. */
 export const decimal = (precision: number, scale: number, message?: string) =>
@@ -67,8 +70,8 @@ export const idParam = z.strictObject({ id: idText() });
 
 /** Paging for list endpoints: `?page=1&pageSize=50`. */
 export const paging = {
-  page: z.coerce.number().int().min(1).max(100_000).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(50),
+  page: z.coerce.number<number>().int().min(1).max(100_000).default(1),
+  pageSize: z.coerce.number<number>().int().min(1).max(200).default(50),
 };
 
 export type Paged<T> = { rows: T[]; total: number; page: number; pageSize: number };

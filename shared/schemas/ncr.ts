@@ -128,7 +128,7 @@ export const ncrListQuery = z.strictObject({
   family: idText().optional(),
   stage: text().trim().max(40).optional(),
   /** Raised at least this many days ago. */
-  olderThanDays: z.coerce.number().int().min(0).max(3650).optional(),
+  olderThanDays: z.coerce.number<number>().int().min(0).max(3650).optional(),
   assignee: z.union([idText(), z.literal('none')]).optional(),
   q: text().trim().max(60).optional(),
   /** `me`: critical use-as-is decisions signed once, waiting for the signed-in engineer's countersignature. */

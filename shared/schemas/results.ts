@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { decimal, id, isoDateTime, text } from './common.js';
 import type { EvaluatedReading, FormCharacteristic } from '../domain/evaluate.js';
 import type { Verdict } from '../domain/tolerance.js';
+import type { RuleShape } from '../documents/format.js';
 import type { AttachmentJson } from './attachments.js';
 import type { ItemJson } from './items.js';
 import { sizeClassCode } from './spec.js';
@@ -95,15 +96,37 @@ export type StationFormJson = {
   rework: { number: string; disposition: string; reason: string } | null;
 };
 
-export type ReadingJson = EvaluatedReading & {
+/**
+ * One stored reading, as the history screens show it (the trail, an item's results, a claim's
+ * build record), with the limits of the rule version it was judged by. The one declaration of a
+ * reading's shape; the station's reply below takes its names from it.
+ */
+export type RecordedReading = {
+  characteristic: string;
   name: string;
-  positionLabel: string;
-  unit: string | null;
-  /** What the operator typed, when it was in another unit of the same quantity (value and rounded are in \`unit\`). */
-  entered: { value: number; unit: string } | null;
   kind: 'variable' | 'attribute' | 'derived';
+  position: string;
+  positionLabel: string;
+  value: number | null;
+  passed: boolean | null;
+  unit: string | null;
+  /** What the operator typed, when it was in another unit of the same quantity (value and rounded are in `unit`). */
+  entered: { value: number; unit: string } | null;
+  verdict: Verdict;
+  ruleId: number | null;
+  ruleVersion: number | null;
+  lower: number | null;
+  upper: number | null;
+  /** The rule version's limits and resolution as written, for printed documents. */
+  rule: RuleShape | null;
   location: string | null;
+  /** The gauge this reading was taken with (a characteristic may be read with its own). */
+  gauge: string | null;
 };
+
+/** A reading as the station judged it (verdict null while a reading it needs is missing), with its names. */
+export type ReadingJson = EvaluatedReading &
+  Pick<RecordedReading, 'name' | 'positionLabel' | 'unit' | 'entered' | 'kind' | 'location'>;
 
 export type ResultJson = {
   id: number;

@@ -224,7 +224,7 @@ export type MeasurementJson = {
 };
 
 /** A reading taken when the part was built, with the gauge it was read with. */
-export type BuiltReading = TrailReading & { gauge: string | null };
+export type BuiltReading = TrailReading;
 
 export type BuiltResult = {
   stage: { code: string; name: string };

@@ -1,19 +1,9 @@
-/** RFC 4180 quoting: every field quoted, inner quotes doubled, CRLF between rows. */
-function field(v: unknown): string {
-  const s = v === null || v === undefined ? '' : typeof v === 'object' ? JSON.stringify(v) : String(v);
-  // a leading = + - @ would be run as a formula by a spreadsheet; a quote mark keeps it text
-  const safe = /^[=+\-@\t\r]/.test(s) ? `'${s}` : s;
-  return `"${safe.replace(/"/g, '""')}"`;
-}
+/** The browser's exports write CSV with the same writer as the server's (quoting, formulas, byte-order mark). */
+export { csvOf as toCsv } from '../../shared/csv';
 
-export function toCsv<T>(rows: T[], columns: { header: string; value: (row: T) => unknown }[]): string {
-  const lines = [columns.map((c) => field(c.header)).join(',')];
-  for (const row of rows) lines.push(columns.map((c) => field(c.value(row))).join(','));
-  return `${lines.join('\r\n')}\r\n`;
-}
-
+/** Offers a CSV document (already with its byte-order mark) as a file to save. */
 export function downloadCsv(filename: string, csv: string): void {
-  const url = URL.createObjectURL(new Blob(['\ufeff', csv], { type: 'text/csv;charset=utf-8' }));
+  const url = URL.createObjectURL(new Blob([csv], { type: 'text/csv;charset=utf-8' }));
   const a = document.createElement('a');
   a.href = url;
   a.download = filename;

@@ -281,6 +281,8 @@ describe('the intake log', () => {
     expect(res.headers['content-type']).toMatch(/text\/csv/);
     const lines = res.text.trim().split('\r\n');
     expect(lines).toHaveLength(4);
+    // every export starts with the UTF-8 byte-order mark (shared/csv.ts); trim() above drops it
+    expect(res.text.startsWith('\ufeffserial,')).toBe(true);
     expect(lines[0]).toMatch(/^serial,family,casting_number/);
     expect(res.text).toContain(`'=${tag}-0`);
     expect(res.text).not.toContain(`,=${tag}`);

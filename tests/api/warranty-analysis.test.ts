@@ -151,6 +151,8 @@ describe('claim rates', () => {
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/^text\/csv/);
     const lines = res.text.trim().split('\r\n');
+    // every export starts with the UTF-8 byte-order mark (shared/csv.ts); trim() above drops it
+    expect(res.text.startsWith('\ufeffdimension,')).toBe(true);
     expect(lines[0]).toBe('dimension,group,units_shipped,claims,failures,claims_per_100,failures_per_100');
     expect(lines).toContain('Engine family,TARN-6 — Tarn inline six,5,5,3,100,60');
   });

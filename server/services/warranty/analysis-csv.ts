@@ -1,5 +1,5 @@
 import { RATE_DIMENSION_LABELS, RATE_DIMENSIONS, type AnalysisJson } from '../../../shared/schemas/warranty.js';
-import { csvDocument } from '../../http/csv.js';
+import { csvDocument } from '../../../shared/csv.js';
 
 /** Every rate of the analysis, one row per group; rates are per 100 units shipped. */
 export function analysisCsv(a: AnalysisJson): string {

@@ -1,19 +1,13 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { AuditEvent } from '../../../shared/schemas/audit';
+import type { z } from 'zod';
+import type { AuditEvent, listAuditQuery } from '../../../shared/schemas/audit';
 import type { Paged } from '../../../shared/schemas/common';
 import { http } from '../../lib/http';
+import type { Filled } from '../../lib/list-filter';
 import { auditKeys } from './keys';
 
-export type AuditFilter = {
-  page: number;
-  pageSize: number;
-  entity?: string;
-  entityId?: string;
-  actorId?: number;
-  /** calendar days in the plant's time zone, both included */
-  from?: string;
-  to?: string;
-};
+/** The query GET /api/audit/events takes (shared listAuditQuery): `from` and `to` are days in the plant's zone, both included. */
+export type AuditFilter = Filled<z.input<typeof listAuditQuery>, 'page' | 'pageSize'>;
 
 export const fetchAuditEvents = (filter: AuditFilter, signal?: AbortSignal) =>
   http<Paged<AuditEvent>>('/api/audit/events', { query: filter, signal });

@@ -1,23 +1,13 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { Paged } from '../../../shared/schemas/common';
-import type { CoreSummary, GRADES, INTAKE_SORTS, SOURCES } from '../../../shared/schemas/intake';
+import type { z } from 'zod';
+import type { CoreSummary, intakeLogQuery } from '../../../shared/schemas/intake';
 import { http } from '../../lib/http';
+import type { Filled } from '../../lib/list-filter';
 import { coreKeys } from './keys';
 
 /** The query GET /api/cores takes (shared intakeLogQuery), with paging and sorting always set. */
-export type IntakeLogFilter = {
-  page: number;
-  pageSize: number;
-  sort: (typeof INTAKE_SORTS)[number];
-  dir: 'asc' | 'desc';
-  family?: number;
-  source?: (typeof SOURCES)[number];
-  grade?: (typeof GRADES)[number];
-  accepted?: 'true' | 'false';
-  from?: string;
-  to?: string;
-  q?: string;
-};
+export type IntakeLogFilter = Filled<z.input<typeof intakeLogQuery>, 'page' | 'pageSize' | 'sort' | 'dir'>;
 
 export const fetchIntakeLog = (filter: IntakeLogFilter, signal?: AbortSignal) =>
   http<Paged<CoreSummary>>('/api/cores', { query: filter, signal });

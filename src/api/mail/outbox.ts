@@ -1,10 +1,10 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { z } from 'zod';
 import type { Paged } from '../../../shared/schemas/common';
+import type { OutboxStatus, outboxQuery } from '../../../shared/schemas/mail';
+import type { Filled } from '../../lib/list-filter';
 import { http } from '../../lib/http';
 import { mailKeys } from './keys';
-
-export const OUTBOX_STATUSES = ['pending', 'sending', 'sent', 'failed'] as const;
-export type OutboxStatus = (typeof OUTBOX_STATUSES)[number];
 
 /** One queued message as GET /api/mail/outbox presents it (server/routes/mail.ts). */
 export type OutboxMessage = {
@@ -19,7 +19,8 @@ export type OutboxMessage = {
   sentAt: string | null;
 };
 
-export type OutboxFilter = { page: number; pageSize: number; status?: OutboxStatus };
+/** The query GET /api/mail/outbox takes (shared outboxQuery), with paging always set. */
+export type OutboxFilter = Filled<z.input<typeof outboxQuery>, 'page' | 'pageSize'>;
 
 export const fetchOutbox = (filter: OutboxFilter, signal?: AbortSignal) =>
   http<Paged<OutboxMessage>>('/api/mail/outbox', { query: filter, signal });

@@ -1,11 +1,13 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { Paged } from '../../../shared/schemas/common';
-import type { Person } from '../../../shared/schemas/people';
-import type { Role } from '../../../shared/roles';
+import type { z } from 'zod';
+import type { listPeopleQuery, Person } from '../../../shared/schemas/people';
+import type { Filled } from '../../lib/list-filter';
 import { http } from '../../lib/http';
 import { peopleKeys } from './keys';
 
-export type PeopleFilter = { page: number; pageSize: number; q?: string; role?: Role; active?: 'true' | 'false' };
+/** The query GET /api/people takes (shared listPeopleQuery), with paging always set. */
+export type PeopleFilter = Filled<z.input<typeof listPeopleQuery>, 'page' | 'pageSize'>;
 
 export const fetchPeople = (filter: PeopleFilter, signal?: AbortSignal) =>
   http<Paged<Person>>('/api/people', { query: filter, signal });

@@ -4,21 +4,18 @@ import { GRADE_LABELS, GRADES, SOURCES } from '../../../shared/schemas/intake';
 import { useSignedIn } from '../../api/auth/me';
 import { intakeLogQueryOptions, useIntakeLog } from '../../api/cores/intake-log';
 import { familiesQueryOptions, useFamilies } from '../../api/reference/families';
+import { FilterInput, FilterSelect } from '../../components/filter-fields';
+import { FilteredList, useListFilter } from '../../components/filtered-list';
 import { PageHeader } from '../../components/page-header';
-import { Pager } from '../../components/pager';
 import { ScanBox, useOpenItem } from '../../components/scan-box';
-import { Button, ButtonLink, buttonClass } from '../../components/ui/button';
-import { Card, CardBody, CardFooter } from '../../components/ui/card';
-import { Icon } from '../../components/ui/icon';
-import { Notice } from '../../components/ui/notice';
-import { plural } from '../../lib/format';
+import { ButtonLink } from '../../components/ui/button';
+import { Card, CardBody } from '../../components/ui/card';
 import { gradeWord, SOURCE_LABELS } from '../../lib/intake-labels';
 import { paths } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
-import { useDebouncedText, useUrlFilter } from '../../lib/use-url-filter';
-import { exportHref, intakeFilterFrom } from './filter';
+import { useDebouncedText } from '../../lib/use-url-filter';
+import { INTAKE_FILTERS, intakeExportHref, intakeFilterFrom } from './filter';
 import { IntakeTable } from './intake-table';
-import { FilterInput, FilterSelect } from '../../components/filter-fields';
 
 export const intakeLogLoader =
   (queryClient: QueryClient) =>
@@ -37,18 +34,14 @@ const decisionOptions = [
   { value: 'true', label: 'Accepted' },
   { value: 'false', label: 'Rejected' },
 ];
-const FILTER_KEYS = ['q', 'family', 'source', 'grade', 'accepted', 'from', 'to'] as const;
 
 export function IntakeLogPage() {
   const me = useSignedIn();
   const openItem = useOpenItem();
-  const { params, set, setMany } = useUrlFilter();
-  const filter = intakeFilterFrom(params);
+  const { filter, filtered, set, clear, sortBy } = useListFilter(intakeFilterFrom, INTAKE_FILTERS);
   const log = useIntakeLog(filter);
   const families = useFamilies();
   const [draft, onSearch] = useDebouncedText(filter.q ?? '', (v) => set('q', v));
-  const data = log.data;
-  const filtered = FILTER_KEYS.some((k) => filter[k] !== undefined);
   const familyOptions = (families.data ?? []).map((f) => ({ value: String(f.id), label: `${f.code} — ${f.name}` }));
 
   if (!me) return null;
@@ -73,124 +66,81 @@ export function IntakeLogPage() {
           </CardBody>
         </Card>
       </div>
-      <Card labelledBy="intake-log-heading">
-        <h2 id="intake-log-heading" className="sr-only">
-          Cores received
-        </h2>
-        <form
-          role="search"
-          aria-label="Filter the intake log"
-          onSubmit={(e) => e.preventDefault()}
-          className="grid grid-cols-2 gap-3 border-b border-rule px-5 py-4 md:grid-cols-4 xl:grid-cols-6"
-        >
-          <div className="col-span-2 md:col-span-4 xl:col-span-2">
-            <FilterInput
-              id="intake-q"
-              label="Search"
-              type="search"
-              placeholder="Serial, casting or ID no., reference"
-              value={draft}
-              onChange={(v) => onSearch(v)}
-            />
-          </div>
-          <FilterSelect
-            id="intake-family"
-            label="Family"
-            placeholder="All families"
-            options={familyOptions}
-            value={filter.family ? String(filter.family) : ''}
-            onChange={(v) => set('family', v)}
-          />
-          <FilterSelect
-            id="intake-source"
-            label="Source"
-            placeholder="Any source"
-            options={sourceOptions}
-            value={filter.source ?? ''}
-            onChange={(v) => set('source', v)}
-          />
-          <FilterSelect
-            id="intake-grade"
-            label="Grade"
-            placeholder="Any grade"
-            options={gradeOptions}
-            value={filter.grade ?? ''}
-            onChange={(v) => set('grade', v)}
-          />
-          <FilterSelect
-            id="intake-accepted"
-            label="Decision"
-            placeholder="Either"
-            options={decisionOptions}
-            value={filter.accepted ?? ''}
-            onChange={(v) => set('accepted', v)}
-          />
-          <FilterInput
-            id="intake-from"
-            label="Received from"
-            type="date"
-            value={filter.from ?? ''}
-            onChange={(v) => set('from', v)}
-          />
-          <FilterInput
-            id="intake-to"
-            label="Received to"
-            type="date"
-            value={filter.to ?? ''}
-            onChange={(v) => set('to', v)}
-          />
-          <div className="col-span-2 flex flex-wrap items-end justify-between gap-3 md:col-span-4 xl:col-span-4">
-            <p aria-live="polite" className="font-medium">
-              {data ? plural(data.total, 'core') : '…'}
-              {filtered && <span className="font-normal text-ink-soft"> match these filters</span>}
-            </p>
-            <div className="flex flex-wrap items-center gap-2">
-              {filtered && (
-                <Button onClick={() => setMany(Object.fromEntries(FILTER_KEYS.map((k) => [k, ''])))}>
-                  Clear filters
-                </Button>
-              )}
-              <a
-                href={exportHref(filter)}
-                download
-                className={buttonClass('secondary')}
-                aria-disabled={!data?.total || undefined}
-              >
-                <Icon name="download" />
-                Export CSV
-              </a>
+      <FilteredList
+        id="intake-log"
+        heading="Cores received"
+        searchLabel="Filter the intake log"
+        layout="grid grid-cols-2 gap-3 md:grid-cols-4 xl:grid-cols-6"
+        summarySpan="col-span-2 md:col-span-4 xl:col-span-4"
+        noun={['core', 'cores']}
+        list={log}
+        filtered={filtered}
+        onClear={clear}
+        onPage={(p) => set('page', String(p))}
+        exportCsv={{ href: intakeExportHref(filter) }}
+        filters={
+          <>
+            <div className="col-span-2 md:col-span-4 xl:col-span-2">
+              <FilterInput
+                id="intake-q"
+                label="Search"
+                type="search"
+                placeholder="Serial, casting or ID no., reference"
+                value={draft}
+                onChange={onSearch}
+              />
             </div>
-          </div>
-        </form>
-        {log.error && (
-          <div className="px-5 pt-4">
-            <Notice tone="bad" live="alert">
-              {log.error.message}
-            </Notice>
-          </div>
-        )}
-        {data && (
-          <IntakeTable
-            rows={data.rows}
-            busy={log.isPlaceholderData}
-            empty={data.total > 0 ? 'Nothing on this page: it is past the last one.' : undefined}
-            sort={filter.sort}
-            dir={filter.dir}
-            onSort={(sort, dir) => setMany({ sort, dir })}
-          />
-        )}
-        {data && (
-          <CardFooter>
-            <Pager
-              page={data.page}
-              pageSize={data.pageSize}
-              total={data.total}
-              noun={['core', 'cores']}
-              onPage={(p) => set('page', String(p))}
+            <FilterSelect
+              id="intake-family"
+              label="Family"
+              placeholder="All families"
+              options={familyOptions}
+              value={filter.family ? String(filter.family) : ''}
+              onChange={(v) => set('family', v)}
             />
-          </CardFooter>
-        )}
-      </Card>
+            <FilterSelect
+              id="intake-source"
+              label="Source"
+              placeholder="Any source"
+              options={sourceOptions}
+              value={filter.source ?? ''}
+              onChange={(v) => set('source', v)}
+            />
+            <FilterSelect
+              id="intake-grade"
+              label="Grade"
+              placeholder="Any grade"
+              options={gradeOptions}
+              value={filter.grade ?? ''}
+              onChange={(v) => set('grade', v)}
+            />
+            <FilterSelect
+              id="intake-accepted"
+              label="Decision"
+              placeholder="Either"
+              options={decisionOptions}
+              value={filter.accepted ?? ''}
+              onChange={(v) => set('accepted', v)}
+            />
+            <FilterInput
+              id="intake-from"
+              label="Received from"
+              type="date"
+              value={filter.from ?? ''}
+              onChange={(v) => set('from', v)}
+            />
+            <FilterInput
+              id="intake-to"
+              label="Received to"
+              type="date"
+              value={filter.to ?? ''}
+              onChange={(v) => set('to', v)}
+            />
+          </>
+        }
+      >
+        {(data, view) => <IntakeTable rows={data.rows} sort={sortBy(filter.sort, filter.dir)} {...view} />}
+      </FilteredList>
     </>
   );
 }

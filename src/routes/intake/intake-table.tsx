@@ -1,14 +1,9 @@
-import {
-  createColumnHelper,
-  getCoreRowModel,
-  useReactTable,
-  type OnChangeFn,
-  type SortingState,
-} from '@tanstack/react-table';
+import { createColumnHelper, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { useMemo } from 'react';
 import { Link } from 'react-router';
-import { GRADE_LABELS, type CoreSummary, type IntakeLogQuery } from '../../../shared/schemas/intake';
+import { GRADE_LABELS, type CoreSummary } from '../../../shared/schemas/intake';
 import { DataTable, SortButton } from '../../components/data-table';
+import { serverSorting, type ListSort } from '../../components/filtered-list';
 import { StatusBadge } from '../../components/item-status';
 import { gradeWord, SOURCE_LABELS } from '../../lib/intake-labels';
 import { coreHref } from '../../lib/paths';
@@ -22,13 +17,11 @@ type IntakeTableProps = {
   busy: boolean;
   /** What an empty table says; by default that the filters match nothing. */
   empty?: string;
-  sort: NonNullable<IntakeLogQuery['sort']>;
-  dir: 'asc' | 'desc';
-  onSort: (sort: string, dir: 'asc' | 'desc') => void;
+  sort: ListSort;
 };
 
 /** Sorting is the server's (the log is paged there); the table only shows which way and asks for more. */
-export function IntakeTable({ rows, busy, sort, dir, onSort, empty }: IntakeTableProps) {
+export function IntakeTable({ rows, busy, sort, empty }: IntakeTableProps) {
   const columns = useMemo(
     () => [
       col.accessor('serial', {
@@ -120,23 +113,13 @@ export function IntakeTable({ rows, busy, sort, dir, onSort, empty }: IntakeTabl
     [],
   );
 
-  const sorting: SortingState = [{ id: sort, desc: dir === 'desc' }];
-  const onSortingChange: OnChangeFn<SortingState> = (updater) => {
-    const next = typeof updater === 'function' ? updater(sorting) : updater;
-    const first = next[0];
-    if (first) onSort(first.id, first.desc ? 'desc' : 'asc');
-  };
-
   // eslint-disable-next-line react-hooks/incompatible-library -- the table instance is rebuilt each render by design
   const table = useReactTable({
     data: rows,
     columns,
     getCoreRowModel: getCoreRowModel(),
     getRowId: (r) => r.serial,
-    manualSorting: true,
-    enableSortingRemoval: false,
-    state: { sorting },
-    onSortingChange,
+    ...serverSorting(sort),
   });
 
   return <DataTable table={table} caption="Intake log" empty={empty ?? 'No cores match these filters.'} busy={busy} />;

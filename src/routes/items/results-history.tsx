@@ -1,97 +1,13 @@
 import type { ReactNode } from 'react';
 import { Link } from 'react-router';
-import type { ReadingJson } from '../../../shared/schemas/results';
 import { useItemResults, type ItemResult } from '../../api/items/results';
+import { ReadingsTable, valueText } from '../../components/readings-table';
 import { Badge } from '../../components/ui/badge';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
-import { Table, TBody, TD, TH, THead } from '../../components/ui/table';
 import { formatWhen, plural } from '../../lib/format';
 import { ncrHref } from '../../lib/paths';
-
-const decimalsOf = (v: number) => {
-  const s = v.toLocaleString('en-US', { maximumFractionDigits: 10, useGrouping: false });
-  const dot = s.indexOf('.');
-  return dot < 0 ? 0 : s.length - dot - 1;
-};
-
-/** Per characteristic, the most decimals any of its readings has, so a column lines up on the point. */
-function decimalsByCharacteristic(readings: ReadingJson[]): Map<string, number> {
-  const m = new Map<string, number>();
-  for (const r of readings) {
-    if (r.value !== null) m.set(r.characteristic, Math.max(m.get(r.characteristic) ?? 0, decimalsOf(r.value)));
-  }
-  return m;
-}
-
-function valueText(r: ReadingJson, decimals?: number): string {
-  if (r.kind === 'attribute' || r.value === null) {
-    if (r.passed === null) return '—';
-    return r.passed ? 'Pass' : 'Fail';
-  }
-  const d = Math.min(10, decimals ?? decimalsOf(r.value));
-  const n = r.value
-    .toLocaleString('en-US', { minimumFractionDigits: d, maximumFractionDigits: d, useGrouping: false })
-    .replace('-', '−');
-  const shown = r.unit ? `${n} ${r.unit}` : n;
-  // typed in another unit: what was typed stays beside the judged value
-  return r.entered ? `${shown} (typed ${String(r.entered.value).replace('-', '−')} ${r.entered.unit})` : shown;
-}
-
-function VerdictWord({ r }: { r: ReadingJson }) {
-  if (r.verdict === null) return <Badge tone="off">Not judged</Badge>;
-  const checked = r.kind === 'attribute';
-  if (r.verdict === 'pass') return <Badge tone="ok">{checked ? 'Passed' : 'In tolerance'}</Badge>;
-  return <Badge tone="bad">{checked ? 'Failed' : 'Out of tolerance'}</Badge>;
-}
-
-function ReadingsTable({ result }: { result: ItemResult }) {
-  const decimals = decimalsByCharacteristic(result.readings);
-  return (
-    <div className="overflow-x-auto rounded-control border border-rule">
-      <Table caption={`Readings of the ${result.stage.name} result of ${formatWhen(result.finishedAt)}`}>
-        <THead>
-          <tr>
-            <TH>Characteristic</TH>
-            <TH>Position</TH>
-            <TH align="right">Value</TH>
-            <TH>Verdict</TH>
-            <TH>Rule version</TH>
-          </tr>
-        </THead>
-        <TBody>
-          {result.readings.map((r, i) => {
-            const failed = r.verdict === 'fail';
-            return (
-              <tr key={`${r.characteristic}/${r.position}/${i}`} className={failed ? 'bg-bad-tint font-medium' : ''}>
-                <TD>
-                  <span className="inline-flex items-center gap-1.5">
-                    {failed && <Icon name="bad" size={16} className="shrink-0 text-bad" />}
-                    {r.name}
-                  </span>
-                </TD>
-                <TD>
-                  {r.positionLabel}
-                  {r.location && <span className="block text-sm text-ink-soft">{r.location}</span>}
-                </TD>
-                <TD align="right" mono nowrap>
-                  {valueText(r, decimals.get(r.characteristic))}
-                </TD>
-                <TD nowrap>
-                  <VerdictWord r={r} />
-                </TD>
-                <TD mono nowrap>
-                  {r.ruleVersion === null ? '—' : `v${r.ruleVersion}`}
-                </TD>
-              </tr>
-            );
-          })}
-        </TBody>
-      </Table>
-    </div>
-  );
-}
 
 function Facts({ result }: { result: ItemResult }) {
   const ncr = result.nonconformance;
@@ -207,7 +123,10 @@ function ResultEntry({ result, byId }: { result: ItemResult; byId: Map<number, I
             Readings ({result.readings.length})
           </summary>
           <div className="mt-2">
-            <ReadingsTable result={result} />
+            <ReadingsTable
+              readings={result.readings}
+              caption={`Readings of the ${result.stage.name} result of ${formatWhen(result.finishedAt)}`}
+            />
           </div>
         </details>
       )}

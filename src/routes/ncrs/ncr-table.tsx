@@ -1,15 +1,9 @@
-import {
-  createColumnHelper,
-  getCoreRowModel,
-  useReactTable,
-  type OnChangeFn,
-  type SortingState,
-} from '@tanstack/react-table';
+import { createColumnHelper, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { useMemo } from 'react';
 import { Link } from 'react-router';
-import type { NcrFilter } from '../../api/ncrs/list-ncrs';
 import type { NcrRow } from '../../api/ncrs/types';
 import { DataTable, SortButton } from '../../components/data-table';
+import { serverSorting, type ListSort } from '../../components/filtered-list';
 import { formatWhen } from '../../lib/format';
 import { useDefectCodes } from '../../api/defect-codes/defect-codes';
 import { Icon } from '../../components/ui/icon';
@@ -41,13 +35,11 @@ type NcrTableProps = {
   canOpenLot: boolean;
   busy: boolean;
   empty?: string;
-  sort: NcrFilter['sort'];
-  dir: 'asc' | 'desc';
-  onSort: (sort: string, dir: 'asc' | 'desc') => void;
+  sort: ListSort;
 };
 
 /** Sorting and paging are the server's; the table shows which way it is sorted and asks for more. */
-export function NcrTable({ rows, canOpenLot, busy, empty, sort, dir, onSort }: NcrTableProps) {
+export function NcrTable({ rows, canOpenLot, busy, empty, sort }: NcrTableProps) {
   const defects = useDefectCodes().data;
   const columns = useMemo(
     () => [
@@ -172,23 +164,13 @@ export function NcrTable({ rows, canOpenLot, busy, empty, sort, dir, onSort }: N
     [canOpenLot, defects],
   );
 
-  const sorting: SortingState = [{ id: sort, desc: dir === 'desc' }];
-  const onSortingChange: OnChangeFn<SortingState> = (updater) => {
-    const next = typeof updater === 'function' ? updater(sorting) : updater;
-    const first = next[0];
-    if (first) onSort(first.id, first.desc ? 'desc' : 'asc');
-  };
-
   // eslint-disable-next-line react-hooks/incompatible-library -- the table instance is rebuilt each render by design
   const table = useReactTable({
     data: rows,
     columns,
     getCoreRowModel: getCoreRowModel(),
     getRowId: (r) => r.number,
-    manualSorting: true,
-    enableSortingRemoval: false,
-    state: { sorting },
-    onSortingChange,
+    ...serverSorting(sort),
   });
 
   return <DataTable table={table} caption="NCRs" empty={empty ?? 'No NCRs match these filters.'} busy={busy} />;

@@ -10,7 +10,7 @@ import { formatWhen, plural } from '../../lib/format';
 import { partName } from '../../lib/item-status';
 import { useUrlFilter } from '../../lib/use-url-filter';
 import { serialsOf } from './genealogy';
-import { ReadingsTable } from './readings-table';
+import { ReadingsTable } from '../../components/readings-table';
 
 const COLUMNS = 6;
 
@@ -49,7 +49,11 @@ function Details({ r }: { r: TrailResult }) {
         </ul>
       )}
       {r.readings.length > 0 ? (
-        <ReadingsTable result={r} />
+        <ReadingsTable
+          readings={r.readings}
+          caption={`Readings of result ${r.id}: ${r.stage.name}, ${r.serial}`}
+          limits
+        />
       ) : (
         <p className="text-ink-soft">No readings were recorded with this result.</p>
       )}

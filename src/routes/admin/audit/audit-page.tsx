@@ -1,27 +1,24 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
+import { ROLE_LABELS, type Role } from '../../../../shared/roles';
+import { auditActorsQueryOptions, useAuditActors } from '../../../api/audit/audit-actors';
 import { auditEventsQueryOptions, fetchAuditEvents, useAuditEvents } from '../../../api/audit/audit-events';
 import { useSignedIn } from '../../../api/auth/me';
+import { FilterInput, FilterSelect } from '../../../components/filter-fields';
+import { FilteredList, useListFilter } from '../../../components/filtered-list';
 import { PageHeader } from '../../../components/page-header';
-import { Pager } from '../../../components/pager';
-import { Button } from '../../../components/ui/button';
-import { Card, CardBody, CardFooter } from '../../../components/ui/card';
+import { Card, CardBody } from '../../../components/ui/card';
 import { Field } from '../../../components/ui/field';
 import { Input } from '../../../components/ui/input';
-import { Notice } from '../../../components/ui/notice';
 import { downloadCsv, fetchAllPages, toCsv } from '../../../lib/csv';
-import { formatWhen, plural } from '../../../lib/format';
-import { ROLE_LABELS, type Role } from '../../../../shared/roles';
+import { formatWhen } from '../../../lib/format';
 import { requirePermission } from '../../../lib/session';
-import { useDebouncedText, useUrlFilter } from '../../../lib/use-url-filter';
-import { AuditTable } from './audit-table';
+import { useDebouncedText } from '../../../lib/use-url-filter';
 import { AuditLogStatus } from './audit-log-status';
+import { AuditTable } from './audit-table';
 import { AuditVerify } from './audit-verify';
-import { auditFilterFrom } from './filter';
+import { AUDIT_FILTERS, auditFilterFrom } from './filter';
 import { actionWords, ENTITY_LABELS, recordName } from './words';
-import { FilterInput, FilterSelect } from '../../../components/filter-fields';
-import { auditActorsQueryOptions, useAuditActors } from '../../../api/audit/audit-actors';
 
 export const auditLoader =
   (queryClient: QueryClient) =>
@@ -38,42 +35,33 @@ const entityOptions = Object.entries(ENTITY_LABELS).map(([value, label]) => ({ v
 
 export function AuditPage() {
   const me = useSignedIn();
-  const { params, set, setMany } = useUrlFilter();
-  const filter = auditFilterFrom(params);
+  const { filter, filtered, set, setMany, clear } = useListFilter(auditFilterFrom, AUDIT_FILTERS);
   const events = useAuditEvents(filter);
   const actors = useAuditActors().data?.rows ?? [];
   const [entityId, onEntityId] = useDebouncedText(filter.entityId ?? '', (v) => set('entityId', v));
-  const [exporting, setExporting] = useState(false);
-  const data = events.data;
   const actorOptions = actors.map((a) => ({
     value: String(a.id),
     label: `${a.name}, ${ROLE_LABELS[a.role as Role] ?? a.role}${a.active ? '' : ' (left)'}`,
   }));
-  const filtered = Boolean(filter.entity || filter.entityId || filter.actorId || filter.from || filter.to);
 
-  const onExport = async () => {
-    setExporting(true);
-    try {
-      const rows = await fetchAllPages((page, pageSize) => fetchAuditEvents({ ...filter, page, pageSize }));
-      const csv = toCsv(rows, [
-        { header: 'Event', value: (e) => e.id },
-        { header: 'When (UTC)', value: (e) => e.occurredAt },
-        { header: 'Who', value: (e) => e.actorName ?? 'System' },
-        { header: 'Role', value: (e) => e.actorRole ?? '' },
-        { header: 'What happened', value: (e) => actionWords(e.action) },
-        { header: 'Action', value: (e) => e.action },
-        { header: 'Entity', value: (e) => e.entity },
-        { header: 'Entity id', value: (e) => e.entityId },
-        { header: 'Record', value: (e) => e.recordLabel ?? recordName(e.entity, e.entityId) },
-        { header: 'Before', value: (e) => e.before },
-        { header: 'After', value: (e) => e.after },
-        { header: 'Log entry', value: (e) => (e.leafIndex === null ? '' : e.leafIndex + 1) },
-        { header: 'Chain hash', value: (e) => e.hash ?? '' },
-      ]);
-      downloadCsv(`coretrail-audit-${formatWhen(new Date().toISOString()).replace(/[ :]/g, '-')}.csv`, csv);
-    } finally {
-      setExporting(false);
-    }
+  const exportEvents = async () => {
+    const rows = await fetchAllPages((page, pageSize) => fetchAuditEvents({ ...filter, page, pageSize }));
+    const csv = toCsv(rows, [
+      { header: 'Event', value: (e) => e.id },
+      { header: 'When (UTC)', value: (e) => e.occurredAt },
+      { header: 'Who', value: (e) => e.actorName ?? 'System' },
+      { header: 'Role', value: (e) => e.actorRole ?? '' },
+      { header: 'What happened', value: (e) => actionWords(e.action) },
+      { header: 'Action', value: (e) => e.action },
+      { header: 'Entity', value: (e) => e.entity },
+      { header: 'Entity id', value: (e) => e.entityId },
+      { header: 'Record', value: (e) => e.recordLabel ?? recordName(e.entity, e.entityId) },
+      { header: 'Before', value: (e) => e.before },
+      { header: 'After', value: (e) => e.after },
+      { header: 'Log entry', value: (e) => (e.leafIndex === null ? '' : e.leafIndex + 1) },
+      { header: 'Chain hash', value: (e) => e.hash ?? '' },
+    ]);
+    downloadCsv(`coretrail-audit-${formatWhen(new Date().toISOString()).replace(/[ :]/g, '-')}.csv`, csv);
   };
 
   if (!me) return null;
@@ -99,93 +87,64 @@ export function AuditPage() {
           </CardBody>
         </Card>
       </div>
-      <Card labelledBy="events-heading">
-        <h2 id="events-heading" className="sr-only">
-          Events
-        </h2>
-        <form
-          role="search"
-          aria-label="Filter events"
-          onSubmit={(e) => e.preventDefault()}
-          className="grid grid-cols-1 gap-3 border-b border-rule px-5 py-4 sm:grid-cols-2 lg:grid-cols-[repeat(3,minmax(0,1fr))_minmax(0,0.8fr)_minmax(0,0.8fr)] lg:items-end"
-        >
-          <FilterSelect
-            id="audit-entity"
-            label="Kind of record"
-            placeholder="Every kind"
-            options={entityOptions}
-            value={filter.entity ?? ''}
-            onChange={(v) => set('entity', v)}
-          />
-          <Field id="audit-entity-id" label="Record (serial, number or id)">
-            <Input
-              id="audit-entity-id"
-              mono
-              placeholder="e.g. NC-2026-00001"
-              value={entityId}
-              onChange={(e) => onEntityId(e.target.value)}
+      <FilteredList
+        id="events"
+        heading="Events"
+        searchLabel="Filter events"
+        layout="grid grid-cols-1 gap-3 sm:grid-cols-2 lg:grid-cols-[repeat(3,minmax(0,1fr))_minmax(0,0.8fr)_minmax(0,0.8fr)] lg:items-end"
+        noun={['event', 'events']}
+        list={events}
+        filtered={filtered}
+        onClear={clear}
+        onPage={(p) => set('page', String(p))}
+        exportCsv={{ run: exportEvents }}
+        filters={
+          <>
+            <FilterSelect
+              id="audit-entity"
+              label="Kind of record"
+              placeholder="Every kind"
+              options={entityOptions}
+              value={filter.entity ?? ''}
+              onChange={(v) => set('entity', v)}
             />
-          </Field>
-          <FilterSelect
-            id="audit-actor"
-            label="Person"
-            placeholder="Everyone"
-            options={actorOptions}
-            value={filter.actorId ? String(filter.actorId) : ''}
-            onChange={(v) => set('actorId', v)}
-          />
-          <FilterInput
-            id="audit-from"
-            label="From"
-            type="date"
-            value={filter.from ?? ''}
-            onChange={(v) => set('from', v)}
-          />
-          <FilterInput id="audit-to" label="To" type="date" value={filter.to ?? ''} onChange={(v) => set('to', v)} />
-          <div className="flex flex-wrap items-center gap-3 sm:col-span-2 lg:col-span-5">
-            <p aria-live="polite" className="text-sm text-ink-soft">
-              {data ? plural(data.total, 'event') : ''}
-              {filtered ? ' match these filters' : ''}
-            </p>
-            {filtered && (
-              <Button size="sm" onClick={() => setMany({ entity: '', entityId: '', actorId: '', from: '', to: '' })}>
-                Clear filters
-              </Button>
-            )}
-            <span className="ml-auto">
-              <Button onClick={onExport} disabled={exporting || !data?.total} aria-busy={exporting} icon="download">
-                Export CSV
-              </Button>
-            </span>
-          </div>
-        </form>
-        {events.error && (
-          <div className="px-5 pt-4">
-            <Notice tone="bad" live="alert">
-              {events.error.message}
-            </Notice>
-          </div>
-        )}
-        {data && (
+            <Field id="audit-entity-id" label="Record (serial, number or id)">
+              <Input
+                id="audit-entity-id"
+                mono
+                placeholder="e.g. NC-2026-00001"
+                value={entityId}
+                onChange={(e) => onEntityId(e.target.value)}
+              />
+            </Field>
+            <FilterSelect
+              id="audit-actor"
+              label="Person"
+              placeholder="Everyone"
+              options={actorOptions}
+              value={filter.actorId ? String(filter.actorId) : ''}
+              onChange={(v) => set('actorId', v)}
+            />
+            <FilterInput
+              id="audit-from"
+              label="From"
+              type="date"
+              value={filter.from ?? ''}
+              onChange={(v) => set('from', v)}
+            />
+            <FilterInput id="audit-to" label="To" type="date" value={filter.to ?? ''} onChange={(v) => set('to', v)} />
+          </>
+        }
+      >
+        {(data, view) => (
           <AuditTable
             rows={data.rows}
-            busy={events.isPlaceholderData}
+            {...view}
             onActor={(id) => set('actorId', String(id))}
             onRecord={(entity, entityId) => setMany({ entity, entityId })}
           />
         )}
-        {data && (
-          <CardFooter>
-            <Pager
-              page={data.page}
-              pageSize={data.pageSize}
-              total={data.total}
-              noun={['event', 'events']}
-              onPage={(p) => set('page', String(p))}
-            />
-          </CardFooter>
-        )}
-      </Card>
+      </FilteredList>
     </>
   );
 }

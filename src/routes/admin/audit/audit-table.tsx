@@ -3,6 +3,7 @@ import { useMemo, useState } from 'react';
 import type { AuditEvent } from '../../../../shared/schemas/audit';
 import { ROLE_LABELS, type Role } from '../../../../shared/roles';
 import { DataTable } from '../../../components/data-table';
+import { serverSorting } from '../../../components/filtered-list';
 import { Icon } from '../../../components/ui/icon';
 import { formatWhen } from '../../../lib/format';
 import { AuditChange } from './audit-change';
@@ -29,11 +30,13 @@ const linkCls =
 type AuditTableProps = {
   rows: AuditEvent[];
   busy: boolean;
+  /** What an empty table says; by default that the filters match nothing. */
+  empty?: string;
   onActor: (actorId: number) => void;
   onRecord: (entity: string, entityId: string) => void;
 };
 
-export function AuditTable({ rows, busy, onActor, onRecord }: AuditTableProps) {
+export function AuditTable({ rows, busy, empty, onActor, onRecord }: AuditTableProps) {
   const [open, setOpen] = useState<Set<number>>(() => new Set());
   const toggle = (id: number) =>
     setOpen((prev) => {
@@ -126,13 +129,14 @@ export function AuditTable({ rows, busy, onActor, onRecord }: AuditTableProps) {
     columns,
     getCoreRowModel: getCoreRowModel(),
     getRowId: (e) => String(e.id),
+    ...serverSorting(),
   });
 
   return (
     <DataTable
       table={table}
       caption="Audit events, newest first"
-      empty="No events match these filters."
+      empty={empty ?? 'No events match these filters.'}
       busy={busy}
       expanded={(e) => (open.has(e.id) ? <AuditChange event={e} /> : null)}
     />

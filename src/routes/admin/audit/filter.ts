@@ -1,27 +1,21 @@
 import type { AuditFilter } from '../../../api/audit/audit-events';
+import { defined, isoDay, pageFrom, positiveInt } from '../../../lib/list-filter';
 
 export const AUDIT_PAGE_SIZE = 50;
 
 export { ACTION_LABELS, ENTITY_LABELS, recordName } from './words';
 
+/** The filters "Clear filters" empties. */
+export const AUDIT_FILTERS = ['entity', 'entityId', 'actorId', 'from', 'to'] as const;
+
 export function auditFilterFrom(params: URLSearchParams): AuditFilter {
-  const page = Number(params.get('page'));
-  const actorId = Number(params.get('actorId'));
-  const entity = params.get('entity')?.trim();
-  const entityId = params.get('entityId')?.trim();
-  const day = (key: string) => {
-    const v = params.get(key) ?? '';
-    return /^\d{4}-\d{2}-\d{2}$/.test(v) ? v : undefined;
-  };
-  const from = day('from');
-  const to = day('to');
-  return {
-    page: Number.isInteger(page) && page > 0 ? page : 1,
+  return defined({
+    page: pageFrom(params),
     pageSize: AUDIT_PAGE_SIZE,
-    ...(entity ? { entity } : {}),
-    ...(entityId ? { entityId } : {}),
-    ...(Number.isInteger(actorId) && actorId > 0 ? { actorId } : {}),
-    ...(from ? { from } : {}),
-    ...(to ? { to } : {}),
-  };
+    entity: params.get('entity')?.trim(),
+    entityId: params.get('entityId')?.trim(),
+    actorId: positiveInt(params.get('actorId')),
+    from: isoDay(params.get('from')),
+    to: isoDay(params.get('to')),
+  });
 }

@@ -1,7 +1,9 @@
 import { createColumnHelper, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { useMemo } from 'react';
-import type { OutboxMessage, OutboxStatus } from '../../../api/mail/outbox';
+import type { OutboxStatus } from '../../../../shared/schemas/mail';
+import type { OutboxMessage } from '../../../api/mail/outbox';
 import { DataTable } from '../../../components/data-table';
+import { serverSorting } from '../../../components/filtered-list';
 import { Badge, type Tone } from '../../../components/ui/badge';
 import { formatWhen } from '../../../lib/format';
 
@@ -35,7 +37,8 @@ export function OutboxTable({
 }: {
   rows: OutboxMessage[];
   busy: boolean;
-  empty: string;
+  /** What an empty table says; by default that no message has the chosen status. */
+  empty?: string;
   /** Opens the message as it was sent. */
   onOpen: (id: number) => void;
 }) {
@@ -90,6 +93,7 @@ export function OutboxTable({
     columns,
     getCoreRowModel: getCoreRowModel(),
     getRowId: (r) => String(r.id),
+    ...serverSorting(),
   });
-  return <DataTable table={table} caption="Outbox" empty={empty} busy={busy} />;
+  return <DataTable table={table} caption="Outbox" empty={empty ?? 'No messages with this status.'} busy={busy} />;
 }

@@ -5,20 +5,18 @@ import { ROLE_LABELS, ROLES } from '../../../../shared/roles';
 import { useSignedIn } from '../../../api/auth/me';
 import { lockoutsQueryOptions } from '../../../api/lockouts/lockouts';
 import { fetchPeople, peopleQueryOptions, usePeople } from '../../../api/people/list-people';
+import { FilterInput, FilterSelect } from '../../../components/filter-fields';
+import { FilteredList, useListFilter } from '../../../components/filtered-list';
 import { PageHeader } from '../../../components/page-header';
-import { Pager } from '../../../components/pager';
 import { Button } from '../../../components/ui/button';
-import { Card, CardFooter } from '../../../components/ui/card';
-import { Notice } from '../../../components/ui/notice';
 import { downloadCsv, fetchAllPages, toCsv } from '../../../lib/csv';
 import { formatWhen } from '../../../lib/format';
 import { requirePermission } from '../../../lib/session';
-import { useDebouncedText, useUrlFilter } from '../../../lib/use-url-filter';
-import { peopleFilterFrom } from './filter';
+import { useDebouncedText } from '../../../lib/use-url-filter';
+import { PEOPLE_FILTERS, peopleFilterFrom } from './filter';
 import { LockoutsCard } from './lockouts-card';
-import { AddPersonDialog } from './person-dialogs';
 import { PeopleTable } from './people-table';
-import { FilterInput, FilterSelect } from '../../../components/filter-fields';
+import { AddPersonDialog } from './person-dialogs';
 
 export const peopleLoader =
   (queryClient: QueryClient) =>
@@ -39,32 +37,24 @@ const statusOptions = [
 
 export function PeoplePage() {
   const me = useSignedIn();
-  const { params, set: setFilter } = useUrlFilter();
-  const filter = peopleFilterFrom(params);
+  const { filter, filtered, set, clear } = useListFilter(peopleFilterFrom, PEOPLE_FILTERS);
   const people = usePeople(filter);
   const [adding, setAdding] = useState(false);
-  const [exporting, setExporting] = useState(false);
-  const [draft, onSearch] = useDebouncedText(filter.q ?? '', (v) => setFilter('q', v));
+  const [draft, onSearch] = useDebouncedText(filter.q ?? '', (v) => set('q', v));
 
-  const onExport = async () => {
-    setExporting(true);
-    try {
-      const rows = await fetchAllPages((page, pageSize) => fetchPeople({ ...filter, page, pageSize }));
-      const csv = toCsv(rows, [
-        { header: 'Name', value: (p) => p.name },
-        { header: 'E-mail', value: (p) => p.email },
-        { header: 'Role', value: (p) => ROLE_LABELS[p.role] },
-        { header: 'Status', value: (p) => (p.active ? 'Active' : 'Deactivated') },
-        { header: 'Last sign-in', value: (p) => formatWhen(p.lastSignInAt) },
-      ]);
-      downloadCsv('coretrail-people.csv', csv);
-    } finally {
-      setExporting(false);
-    }
+  const exportPeople = async () => {
+    const rows = await fetchAllPages((page, pageSize) => fetchPeople({ ...filter, page, pageSize }));
+    const csv = toCsv(rows, [
+      { header: 'Name', value: (p) => p.name },
+      { header: 'E-mail', value: (p) => p.email },
+      { header: 'Role', value: (p) => ROLE_LABELS[p.role] },
+      { header: 'Status', value: (p) => (p.active ? 'Active' : 'Deactivated') },
+      { header: 'Last sign-in', value: (p) => formatWhen(p.lastSignInAt) },
+    ]);
+    downloadCsv('coretrail-people.csv', csv);
   };
 
   if (!me) return null;
-  const data = people.data;
 
   return (
     <>
@@ -80,64 +70,48 @@ export function PeoplePage() {
       <div className="mb-5 empty:hidden">
         <LockoutsCard />
       </div>
-      <Card labelledBy="people-list-heading">
-        <h2 id="people-list-heading" className="sr-only">
-          List of people
-        </h2>
-        <form
-          role="search"
-          aria-label="Filter people"
-          onSubmit={(e) => e.preventDefault()}
-          className="grid grid-cols-1 gap-3 border-b border-rule px-5 py-4 sm:grid-cols-[minmax(0,2fr)_minmax(0,1fr)_minmax(0,1fr)_auto] sm:items-end"
-        >
-          <FilterInput
-            id="people-q"
-            label="Search"
-            type="search"
-            placeholder="Name or e-mail"
-            value={draft}
-            onChange={(v) => onSearch(v)}
-          />
-          <FilterSelect
-            id="people-role"
-            label="Role"
-            placeholder="All roles"
-            options={roleOptions}
-            value={filter.role ?? ''}
-            onChange={(v) => setFilter('role', v)}
-          />
-          <FilterSelect
-            id="people-active"
-            label="Status"
-            placeholder="Any status"
-            options={statusOptions}
-            value={filter.active ?? ''}
-            onChange={(v) => setFilter('active', v)}
-          />
-          <Button onClick={onExport} disabled={exporting || !data?.total} aria-busy={exporting}>
-            Export CSV
-          </Button>
-        </form>
-        {people.error && (
-          <div className="px-5 pt-4">
-            <Notice tone="bad" live="alert">
-              {people.error.message}
-            </Notice>
-          </div>
-        )}
-        {data && <PeopleTable rows={data.rows} meId={me.user.id} busy={people.isPlaceholderData} />}
-        {data && (
-          <CardFooter>
-            <Pager
-              page={data.page}
-              pageSize={data.pageSize}
-              total={data.total}
-              noun={['person', 'people']}
-              onPage={(p) => setFilter('page', String(p))}
+      <FilteredList
+        id="people-list"
+        heading="List of people"
+        searchLabel="Filter people"
+        layout="grid grid-cols-1 gap-3 sm:grid-cols-[minmax(0,2fr)_minmax(0,1fr)_minmax(0,1fr)]"
+        noun={['person', 'people']}
+        list={people}
+        filtered={filtered}
+        onClear={clear}
+        onPage={(p) => set('page', String(p))}
+        exportCsv={{ run: exportPeople }}
+        filters={
+          <>
+            <FilterInput
+              id="people-q"
+              label="Search"
+              type="search"
+              placeholder="Name or e-mail"
+              value={draft}
+              onChange={onSearch}
             />
-          </CardFooter>
-        )}
-      </Card>
+            <FilterSelect
+              id="people-role"
+              label="Role"
+              placeholder="All roles"
+              options={roleOptions}
+              value={filter.role ?? ''}
+              onChange={(v) => set('role', v)}
+            />
+            <FilterSelect
+              id="people-active"
+              label="Status"
+              placeholder="Any status"
+              options={statusOptions}
+              value={filter.active ?? ''}
+              onChange={(v) => set('active', v)}
+            />
+          </>
+        }
+      >
+        {(data, view) => <PeopleTable rows={data.rows} meId={me.user.id} {...view} />}
+      </FilteredList>
       <AddPersonDialog open={adding} onClose={() => setAdding(false)} />
     </>
   );

@@ -3,6 +3,7 @@ import { useMemo, useState } from 'react';
 import type { Person } from '../../../../shared/schemas/people';
 import { ROLE_LABELS } from '../../../../shared/roles';
 import { DataTable } from '../../../components/data-table';
+import { serverSorting } from '../../../components/filtered-list';
 import { Badge } from '../../../components/ui/badge';
 import { Button } from '../../../components/ui/button';
 import { formatWhen } from '../../../lib/format';
@@ -13,7 +14,9 @@ type Open = { kind: 'edit' | 'password' | 'active' | 'factor'; person: Person } 
 
 const col = createColumnHelper<Person>();
 
-export function PeopleTable({ rows, meId, busy }: { rows: Person[]; meId: number; busy: boolean }) {
+type PeopleTableProps = { rows: Person[]; meId: number; busy: boolean; empty?: string };
+
+export function PeopleTable({ rows, meId, busy, empty }: PeopleTableProps) {
   const [open, setOpen] = useState<Open>(null);
 
   const columns = useMemo(
@@ -117,6 +120,7 @@ export function PeopleTable({ rows, meId, busy }: { rows: Person[]; meId: number
     columns,
     getCoreRowModel: getCoreRowModel(),
     getRowId: (p) => String(p.id),
+    ...serverSorting(),
   });
   const close = () => setOpen(null);
 
@@ -125,7 +129,7 @@ export function PeopleTable({ rows, meId, busy }: { rows: Person[]; meId: number
       <DataTable
         table={table}
         caption="People"
-        empty="Nobody matches these filters."
+        empty={empty ?? 'Nobody matches these filters.'}
         busy={busy}
         muted={(p) => !p.active}
       />
