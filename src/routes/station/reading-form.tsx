@@ -202,6 +202,8 @@ export function ReadingForm({
       gauge: needsGauge ? draft.gauge : null,
       ...(Object.keys(own).length ? { gauges: own } : {}),
       startedAt,
+      // the moment of recording on this tablet: a result that waits for the network keeps it
+      takenAt: new Date().toISOString(),
       notes: draft.notes.trim(),
       readings,
       photoIds: draft.photoIds,
@@ -213,7 +215,7 @@ export function ReadingForm({
       if (inTabletMode() && !who) return false;
       const entry: Queued = {
         key: idempotencyKey,
-        queuedAt: new Date().toISOString(),
+        queuedAt: body.takenAt,
         path: who ? '/api/tablet/results' : '/api/results',
         body,
         stageName: form.stage.name,
