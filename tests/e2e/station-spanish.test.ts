@@ -88,7 +88,7 @@ describe('the station screen in Spanish', () => {
     await expect(page.getByText('Operador de estación').isVisible()).resolves.toBe(true);
     await page.getByRole('heading', { name: 'Elija la estación de esta tableta' }).waitFor();
     await chooseStation(page, 'PT-1');
-    const box = page.getByRole('textbox', { name: 'Serial' });
+    const box = page.getByRole('textbox', { name: 'Número de serie' });
     await box.fill(block);
     await box.press('Enter');
     await page.getByRole('form', { name: `Lecturas de ${form.stage.name} para ${block}` }).waitFor();
