@@ -116,6 +116,13 @@ describe('the station screen in Spanish', () => {
     const reading = (await Reading.findOne({ where: { stageResultId: { [Op.eq]: result.id }, enteredUnit: 'kPa' } }))!;
     expect(reading.enteredValue).toBe(400.5);
     expect(reading.value).toBeCloseTo(400.5 / 6.894757, 4);
+
+    // signed out, the sign-in page on this tablet speaks the language of whoever signed in last
+    await page.getByRole('button', { name: 'Cerrar sesión' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Iniciar sesión' }).waitFor();
+    await expect(page.getByText('Ha cerrado la sesión.').isVisible()).resolves.toBe(true);
+    await expect(page.getByLabel('Correo electrónico').isVisible()).resolves.toBe(true);
+    await page.screenshot({ path: path.join(shots, 'sign-in-spanish-1024.png') });
     await context.close();
   });
 });
