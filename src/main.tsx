@@ -6,7 +6,7 @@ import '@fontsource/ibm-plex-mono/400.css';
 import '@fontsource/ibm-plex-mono/500.css';
 import '@fontsource/ibm-plex-mono/600.css';
 import './index.css';
-import { QueryClientProvider } from '@tanstack/react-query';
+import { onlineManager, QueryClientProvider } from '@tanstack/react-query';
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { RouterProvider } from 'react-router';
@@ -15,6 +15,10 @@ import { keepCache, restoreCache } from './lib/persist-cache';
 import { makeQueryClient } from './lib/query-client';
 import { signInHref } from './lib/paths';
 import { createRouter } from './router';
+
+// TanStack Query takes itself to be online until an 'offline' event: a page loaded (from the
+// service worker) with no network would ask the server first and show an error, not the cache
+onlineManager.setOnline(navigator.onLine);
 
 // a session can end under an open page (expiry, password changed elsewhere, deactivation)
 const queryClient = makeQueryClient({

@@ -26,6 +26,7 @@ import * as m20261204140000 from './20261204140000-size-classes.js';
 import * as m20261204150000 from './20261204150000-process-imports.js';
 import * as m20261204160000 from './20261204160000-characteristic-versions.js';
 import * as m20261204170000 from './20261204170000-person-language.js';
+import * as m20261204174500 from './20261204174500-result-taken-at.js';
 import * as m20261204183500 from './20261204183500-core-salvage.js';
 import * as m20261204184000 from './20261204184000-result-values-cover.js';
 
@@ -62,6 +63,7 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261204150000-process-imports', ...m20261204150000 },
   { name: '20261204160000-characteristic-versions', ...m20261204160000 },
   { name: '20261204170000-person-language', ...m20261204170000 },
+  { name: '20261204174500-result-taken-at', ...m20261204174500 },
   { name: '20261204183500-core-salvage', ...m20261204183500 },
   { name: '20261204184000-result-values-cover', ...m20261204184000 },
 ];

@@ -24,6 +24,8 @@ export class StageResult extends Model<InferAttributes<StageResult>, InferCreati
   declare gaugeId: number | null;
   declare startedAt: Date | null;
   declare finishedAt: Date;
+  /** When it was taken on the tablet; a result queued offline is stored (`finishedAt`) later. */
+  declare takenAt: CreationOptional<Date | null>;
   declare verdict: Verdict;
   /** Sent by the tablet so a retried submission cannot record the same result twice. */
   declare idempotencyKey: string;
@@ -50,6 +52,7 @@ export class StageResult extends Model<InferAttributes<StageResult>, InferCreati
         gaugeId: { type: DataTypes.INTEGER, allowNull: true },
         startedAt: { type: DataTypes.DATE, allowNull: true },
         finishedAt: { type: DataTypes.DATE, allowNull: false },
+        takenAt: { type: DataTypes.DATE, allowNull: true },
         verdict: { type: DataTypes.STRING(10), allowNull: false },
         idempotencyKey: { type: DataTypes.UUID, allowNull: false, unique: true },
         supersedesId: { type: DataTypes.INTEGER, allowNull: true },

@@ -182,10 +182,41 @@ export async function stationForm(stationCode: string, serial: string): Promise<
   };
 }
 
+// the tablet's time is left out: a retry sent a moment later is still the same result
 const hashBody = (body: SubmitResultBody) =>
   createHash('sha256')
-    .update(canonicalize(body) ?? '')
+    .update(canonicalize({ ...body, takenAt: undefined }) ?? '')
     .digest('hex');
+
+/** A tablet's clock may run a little ahead of the server's; beyond this, its time is refused. */
+const CLOCK_AHEAD_MS = 5 * 60_000;
+/** A result kept on a tablet longer than a week is refused: take the reading again. */
+const QUEUED_AT_MOST_MS = 7 * 24 * 3_600_000;
+
+/**
+ * When the result was taken on the tablet: what it says, checked against the server's clock, or the
+ * moment it arrived when it says nothing (an older tablet page).
+ */
+function tabletTime(body: SubmitResultBody, now: Date): Date {
+  if (!body.takenAt) return now;
+  const taken = new Date(body.takenAt);
+  if (taken.getTime() > now.getTime() + CLOCK_AHEAD_MS) {
+    throw invalid("The tablet's clock is ahead of the server's. Set its time, then record again.", {
+      takenAt: 'Later than the server’s time.',
+    });
+  }
+  if (now.getTime() - taken.getTime() > QUEUED_AT_MOST_MS) {
+    throw invalid('This result was kept on the tablet for more than a week. Nothing was recorded: take it again.', {
+      takenAt: 'More than 7 days ago.',
+    });
+  }
+  if (body.startedAt && taken.getTime() < new Date(body.startedAt).getTime()) {
+    throw invalid('The result was taken before its form was opened: check the tablet’s clock.', {
+      takenAt: 'Before the form was opened (startedAt).',
+    });
+  }
+  return taken;
+}
 
 /** A reading as typed, when it was typed in another unit than its characteristic's. */
 type Entered = { value: number; unit: string };
@@ -382,6 +413,7 @@ export async function submitResult(
     }
 
     const now = new Date();
+    const takenAt = tabletTime(body, now);
     const chars = formCharacteristics(ref, stage.id, family.id, now, (c) => expandPositions(c.positions, family, item));
     if (!chars.length) throw conflict(`${stage.name} has no characteristics to record yet.`);
     const unruled = chars.filter((c) => c.kind !== 'attribute' && !c.rule);
@@ -460,6 +492,7 @@ export async function submitResult(
         gaugeId: gauge?.id ?? null,
         startedAt: body.startedAt ? new Date(body.startedAt) : null,
         finishedAt: now,
+        takenAt,
         verdict,
         idempotencyKey: body.idempotencyKey,
         supersedesId: supersedes?.id ?? null,
@@ -587,6 +620,7 @@ export async function submitResult(
       gauge: gauge?.code ?? null,
       verdict,
       finishedAt: now.toISOString(),
+      takenAt: takenAt.toISOString(),
       notes: result.notes,
       readings,
       sizeClasses: result.sizeClasses,
@@ -627,6 +661,7 @@ export async function submitResult(
         gauge: gauge?.code ?? null,
         gauges: Object.fromEntries([...gaugeOf].map(([c, g]) => [c, g.code])),
         verdict,
+        takenAt: takenAt.toISOString(),
         idempotencyKey: body.idempotencyKey,
         correctionReason: correction?.reason ?? null,
         reentryReason: result.reentryReason,
@@ -748,6 +783,7 @@ export async function resultsOf(serial: string): Promise<(ResultJson & { superse
       gauge: records.gauge(r),
       verdict: r.verdict,
       finishedAt: r.finishedAt.toISOString(),
+      takenAt: r.takenAt?.toISOString() ?? null,
       notes: r.notes,
       readings: rs,
       sizeClasses: r.sizeClasses ?? {},

@@ -154,6 +154,53 @@ export function alternativesOf(symbol: string | null | undefined): UnitDef[] {
   return UNITS.filter((x) => x.quantity === u.quantity && x.symbol !== u.symbol);
 }
 
+/** Inch or metric: the unit system a person's readings start in (their profile). */
+export type UnitSystem = 'inch' | 'metric';
+
+// A unit's usual counterpart in the other system at a machine shop's resolutions (common practice):
+// a bore in inches is read in millimetres, a finish in microinches in micrometres, and so on.
+const COUNTERPART: Record<UnitSystem, Record<string, string>> = {
+  metric: {
+    in: 'mm',
+    ft: 'm',
+    µin: 'µm',
+    psi: 'kPa',
+    inHg: 'kPa',
+    'lbf·ft': 'N·m',
+    'lbf·in': 'N·m',
+    '°F': '°C',
+    'in³': 'cm³',
+    hp: 'kW',
+    'oz·in': 'g·mm',
+    'g·in': 'g·mm',
+  },
+  inch: {
+    mm: 'in',
+    cm: 'in',
+    m: 'ft',
+    µm: 'µin',
+    kPa: 'psi',
+    MPa: 'psi',
+    bar: 'psi',
+    'N·m': 'lbf·ft',
+    '°C': '°F',
+    'cm³': 'in³',
+    L: 'in³',
+    kW: 'hp',
+    'g·mm': 'oz·in',
+    'g·cm': 'oz·in',
+  },
+};
+
+/**
+ * The unit a reading in `symbol` starts in for someone who works in `system`: its counterpart in
+ * that system, or `symbol` itself when it already belongs there or has no counterpart (rpm, %, min).
+ */
+export function unitInSystem(symbol: string, system: UnitSystem): string {
+  const own = unitOf(symbol)?.symbol ?? symbol;
+  return COUNTERPART[system][own] ?? own;
+}
+
 /** Whether two units measure the same quantity (a value in one converts to the other). */
 export function sameQuantity(a: string | null | undefined, b: string | null | undefined): boolean {
   const x = unitOf(a);

@@ -32,6 +32,8 @@ export const submitResultBody = z.strictObject({
   /** A gauge per measured characteristic where it differs from \`gauge\` (the profilometer for a finish). */
   gauges: z.record(text().trim().max(40), text().trim().min(1).max(30)).default({}),
   startedAt: isoDateTime().nullable().default(null),
+  /** When the operator recorded it on the tablet: a result queued with no network arrives later. */
+  takenAt: isoDateTime().nullish(),
   notes: text().trim().max(2000, 'At most 2000 characters.').default(''),
   readings: z.array(readingInput).min(1, 'Record at least one reading.').max(2000),
   photoIds: z.array(id()).max(10, 'At most 10 photos.').default([]),
@@ -137,6 +139,8 @@ export type ResultJson = {
   gauge: string | null;
   verdict: Verdict;
   finishedAt: string;
+  /** When it was taken on the tablet, where that is known; \`finishedAt\` is when the server stored it. */
+  takenAt: string | null;
   notes: string;
   readings: ReadingJson[];
   /** The size class chosen per characteristic code, where the rule has classes. */

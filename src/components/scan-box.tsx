@@ -12,6 +12,7 @@ import { Button } from './ui/button';
 import { Dialog } from './ui/dialog';
 import { Icon } from './ui/icon';
 import { Notice } from './ui/notice';
+import { useT } from '../lib/i18n';
 
 // the decoder and its camera code load only when someone taps "Scan with camera"
 const CameraScan = lazy(() => import('./camera-scan').then((m) => ({ default: m.CameraScan })));
@@ -42,6 +43,7 @@ type ScanBoxProps = {
  */
 export function ScanBox({ onItem, lookup, preview = true, autoFocus = false, hint, initial = '' }: ScanBoxProps) {
   const id = useId();
+  const t = useT();
   const input = useRef<HTMLInputElement>(null);
   const queryClient = useQueryClient();
   const [text, setText] = useState(initial);
@@ -78,10 +80,10 @@ export function ScanBox({ onItem, lookup, preview = true, autoFocus = false, hin
       setMissing(err instanceof ApiError ? err.status === 404 : false);
       setFailure(
         err instanceof ApiError && err.status === 404
-          ? `No item has the serial ${parsed.serial}. Check the label; a core gets its serial only once it is received.`
+          ? t('scan.noSuchSerial', { serial: parsed.serial })
           : err instanceof ApiError
             ? err.message
-            : 'The serial could not be looked up. Try again.',
+            : t('scan.lookupFailed'),
       );
       input.current?.select();
     } finally {
@@ -97,9 +99,15 @@ export function ScanBox({ onItem, lookup, preview = true, autoFocus = false, hin
   const statusId = `${id}-status`;
   return (
     <div className="flex flex-col gap-4">
-      <form role="search" aria-label="Find an item" onSubmit={onSubmit} noValidate className="flex flex-col gap-2">
+      <form
+        role="search"
+        aria-label={t('scan.findItem')}
+        onSubmit={onSubmit}
+        noValidate
+        className="flex flex-col gap-2"
+      >
         <label htmlFor={`${id}-serial`} className="text-base font-semibold text-ink">
-          Serial
+          {t('scan.serial')}
         </label>
         <div className="flex flex-wrap items-center gap-2">
           <input
@@ -122,10 +130,10 @@ export function ScanBox({ onItem, lookup, preview = true, autoFocus = false, hin
             className="h-16 min-w-0 flex-1 basis-72 rounded-control border-2 border-ink bg-field px-4 font-mono text-[1.75rem] font-semibold uppercase tracking-wider text-ink placeholder:font-normal placeholder:text-ink-faint aria-[invalid=true]:border-bad"
           />
           <Button type="submit" variant="primary" size="lg" disabled={looking !== null} aria-busy={looking !== null}>
-            <span className="px-2 text-lg">Find</span>
+            <span className="px-2 text-lg">{t('scan.find')}</span>
           </Button>
           <Button size="lg" icon="camera" onClick={() => setCamera(true)}>
-            Scan with camera
+            {t('scan.withCamera')}
           </Button>
         </div>
         <div id={statusId} aria-live="polite" className="min-h-7 text-base">
@@ -137,23 +145,21 @@ export function ScanBox({ onItem, lookup, preview = true, autoFocus = false, hin
           ) : check.ok ? (
             <p className="flex items-start gap-1.5 font-medium text-ok">
               <Icon name="ok" size={20} className="mt-0.5" />
-              {looking ? `Looking up ${check.serial}…` : `Serial read correctly: ${check.serial}.`}
+              {looking ? t('scan.looking', { serial: check.serial }) : t('scan.readOk', { serial: check.serial })}
             </p>
           ) : (
-            <p className="text-ink-soft">
-              {hint ?? 'Scan the label, or type the serial and press Enter. Dashes and case do not matter.'}
-            </p>
+            <p className="text-ink-soft">{hint ?? t('scan.hint')}</p>
           )}
         </div>
       </form>
       {failure && (
-        <Notice tone="bad" live="alert" title={missing ? 'Not found' : 'Not opened'}>
+        <Notice tone="bad" live="alert" title={missing ? t('scan.notFound') : t('scan.notOpened')}>
           {failure}
         </Notice>
       )}
       {preview && shown.data && !failure && shown.data.serial === found && <ItemSummary item={shown.data} />}
-      <Dialog open={camera} onClose={() => setCamera(false)} title="Scan a label with the camera" width="wide">
-        <Suspense fallback={<p className="text-ink-soft">Loading the camera reader…</p>}>
+      <Dialog open={camera} onClose={() => setCamera(false)} title={t('scan.cameraTitle')} width="wide">
+        <Suspense fallback={<p className="text-ink-soft">{t('scan.cameraLoading')}</p>}>
           <CameraScan
             onCode={(code) => {
               setCamera(false);

@@ -1,6 +1,7 @@
 import { useSyncExternalStore } from 'react';
 import rosetta from 'rosetta';
 import en from '../locales/en.json';
+import { formatWhen } from './format';
 
 /**
  * The floor screens' words, in JSON files a translator edits (src/locales/<lang>.json). English is
@@ -18,7 +19,8 @@ let current: Language = 'en';
 const listeners = new Set<() => void>();
 const KEY = 'coretrail.language';
 
-const locales: Record<Language, string> = { en: 'en-US', es: 'es-MX' };
+// Spanish as written in Spain and most of Latin America: a decimal comma (12,34), as the plant asked
+const locales: Record<Language, string> = { en: 'en-US', es: 'es-ES' };
 
 async function load(lang: Language) {
   if (lang === 'es' && !i18n.table('es')) i18n.set('es', (await import('../locales/es.json')).default);
@@ -50,7 +52,8 @@ export function rememberedLanguage(): Language {
 
 type Params = Record<string, string | number>;
 
-export function t(key: string, params?: Params): string {
+/** `fallback`: the words when neither language has the key (a label made elsewhere, such as a role's). */
+export function t(key: string, params?: Params, fallback?: string): string {
   const count = params?.count;
   const full =
     typeof count === 'number'
@@ -58,18 +61,23 @@ export function t(key: string, params?: Params): string {
       : key;
   const shown = typeof count === 'number' ? { ...params, count: formatNumber(count) } : params;
   // as a one-item path: rosetta would read the dots in a key as nesting
-  return i18n.t([full], shown) || i18n.t([full], shown, 'en') || key;
+  return i18n.t([full], shown) || i18n.t([full], shown, 'en') || fallback || key;
 }
 
 export const language = () => current;
 
-/** Numbers as the language writes them; Spanish as written in Mexico (es-MX), with a decimal point, as readings are typed. */
+/** Numbers as the language writes them: 12.34 in English, 12,34 in Spanish (readings take either sign as typed). */
 export const formatNumber = (n: number, options?: Intl.NumberFormatOptions) =>
   new Intl.NumberFormat(locales[current], options).format(n);
 
-/** A moment, day and time, as the language writes it. */
+/**
+ * A moment, day and time, as the language writes it: English keeps the product's own 2026-12-04 17:55
+ * (lib/format.ts), Spanish writes 4 dic 2026, 17:55.
+ */
 export const formatMoment = (iso: string) =>
-  new Intl.DateTimeFormat(locales[current], { dateStyle: 'medium', timeStyle: 'short' }).format(new Date(iso));
+  current === 'en'
+    ? formatWhen(iso)
+    : new Intl.DateTimeFormat(locales[current], { dateStyle: 'medium', timeStyle: 'short' }).format(new Date(iso));
 
 const subscribe = (onChange: () => void) => {
   listeners.add(onChange);

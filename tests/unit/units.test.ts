@@ -15,7 +15,10 @@ import {
   convert,
   convertDecimal,
   convertDifference,
+  sameQuantity,
+  unitInSystem,
   unitOf,
+  UNITS,
 } from '../../shared/domain/units.js';
 import { conversionFactor as gaugeFitFactor } from '../../shared/domain/gauge-fit.js';
 import { CHARACTERISTICS } from '../../db/seeders/spec-book.js';
@@ -140,5 +143,30 @@ describe('every characteristic has a unit', () => {
     expect(measured.length).toBeGreaterThan(30);
     const unknown = measured.filter((c) => !unitOf(c.unit)).map((c) => `${c.stage}/${c.code}: ${c.unit ?? 'none'}`);
     expect(unknown).toEqual([]);
+  });
+});
+
+describe('the unit a reading starts in, from the person’s unit system', () => {
+  it('when someone works in metric, then an inch characteristic starts in millimetres, a psi one in kPa, and a minute stays a minute', () => {
+    // counterparts in a machine shop: common practice
+    expect(unitInSystem('in', 'metric')).toBe('mm');
+    expect(unitInSystem('µin', 'metric')).toBe('µm');
+    expect(unitInSystem('psi', 'metric')).toBe('kPa');
+    expect(unitInSystem('lbf·ft', 'metric')).toBe('N·m');
+    expect(unitInSystem('°F', 'metric')).toBe('°C');
+    expect(unitInSystem('min', 'metric')).toBe('min');
+    expect(unitInSystem('mm', 'metric')).toBe('mm');
+  });
+  it('when someone works in inch, then a millimetre characteristic starts in inches and every counterpart converts', () => {
+    expect(unitInSystem('mm', 'inch')).toBe('in');
+    expect(unitInSystem('N·m', 'inch')).toBe('lbf·ft');
+    expect(unitInSystem('in', 'inch')).toBe('in');
+    for (const u of UNITS) {
+      for (const system of ['inch', 'metric'] as const) {
+        const to = unitInSystem(u.symbol, system);
+        // the counterpart always measures the same quantity, so a typed value converts
+        expect(sameQuantity(u.symbol, to), `${u.symbol} → ${to}`).toBe(true);
+      }
+    }
   });
 });

@@ -4,7 +4,7 @@ import type { LoaderFunctionArgs } from 'react-router';
 import type { QueryClient } from '@tanstack/react-query';
 import { ROLE_LABELS } from '../../../shared/roles';
 import { useSignedIn } from '../../api/auth/me';
-import { setLanguage } from '../../lib/i18n';
+import { setLanguage, useT } from '../../lib/i18n';
 import { useSignOut } from '../../api/auth/sign-out';
 import { Wordmark } from '../../components/wordmark';
 import { Button } from '../../components/ui/button';
@@ -44,6 +44,7 @@ export function AppLayout() {
   const navigate = useNavigate();
   const navigation = useNavigation();
   const location = useLocation();
+  const t = useT();
   const plantName = usePlant().data?.name ?? '';
   const spoken = me?.user.language;
   // the person's own language for every screen (Spanish is fetched the first time it is needed)
@@ -64,7 +65,7 @@ export function AppLayout() {
         href="#main"
         className="sr-only focus:not-sr-only focus:absolute focus:left-3 focus:top-3 focus:z-50 focus:rounded-control focus:bg-card focus:px-3 focus:py-2"
       >
-        Skip to the page
+        {t('nav.skip')}
       </a>
       <header className="border-b border-rule-strong bg-card print:hidden">
         <div className="mx-auto flex max-w-page flex-wrap items-center gap-x-5 gap-y-2 px-6 pt-3">
@@ -80,7 +81,9 @@ export function AppLayout() {
             )}
             <p className="text-right leading-tight">
               <span className="block font-medium">{user.name}</span>
-              <span className="block text-sm text-ink-soft">{ROLE_LABELS[user.role]}</span>
+              <span className="block text-sm text-ink-soft">
+                {t(`role.${user.role}`, undefined, ROLE_LABELS[user.role])}
+              </span>
             </p>
             <NavLink
               to={paths.account}
@@ -88,20 +91,20 @@ export function AppLayout() {
                 `${isActive ? 'font-semibold text-ink underline' : 'text-accent'} inline-flex h-9 items-center rounded-control px-2 underline-offset-4 hover:underline floor:h-12 floor:px-3`
               }
             >
-              Account
+              {t('nav.account')}
             </NavLink>
             <Button variant="secondary" icon="signOut" onClick={onSignOut} disabled={signOut.isPending}>
-              Sign out
+              {t('nav.signOut')}
             </Button>
           </div>
         </div>
         <nav aria-label="Main" className="mx-auto mt-1 flex max-w-page flex-wrap gap-1 px-6">
           <NavLink to={paths.home} end className={navLinkClass}>
-            Home
+            {t('nav.home')}
           </NavLink>
           {navAreasFor(user.role).map((a) => (
             <NavLink key={a.to} to={a.to} className={navLinkClass}>
-              {a.label}
+              {t(`nav.area.${a.label}`, undefined, a.label)}
             </NavLink>
           ))}
         </nav>

@@ -12,6 +12,7 @@ import { plantQueryOptions, usePlant } from '../../api/plant/plant';
 import { ApiError } from '../../lib/http';
 import { paths, safeNext, SIGN_IN_NOTES, type SignInNote } from '../../lib/paths';
 import { forgetEverything } from '../../lib/session';
+import { useT } from '../../lib/i18n';
 
 export const signInLoader =
   (queryClient: QueryClient) =>
@@ -36,6 +37,8 @@ export function SignInPage() {
   const next = safeNext(params.get('next'));
   const note = params.get('note');
   const plantName = usePlant().data?.name ?? '';
+  // the language of whoever last signed in on this device (main.tsx), until someone signs in
+  const t = useT();
 
   return (
     // anyone may be signing in on a dock or station tablet, so the form gets the large targets
@@ -50,12 +53,12 @@ export function SignInPage() {
           className="rounded-card border border-rule bg-card px-6 py-6 shadow-card"
         >
           <h1 id="sign-in-heading" className="mb-4 text-xl font-semibold">
-            Sign in
+            {t('signIn.title')}
           </h1>
           {isNote(note) && (
             <div className="mb-4">
               <Notice tone={note === 'password-changed' ? 'ok' : 'info'} live="status">
-                {SIGN_IN_NOTES[note]}
+                {t(`signIn.note.${note}`, undefined, SIGN_IN_NOTES[note])}
               </Notice>
             </div>
           )}
@@ -76,33 +79,37 @@ export function SignInPage() {
               await navigate(to, { replace: true });
             }}
           >
-            <TextField name="email" label="E-mail" type="email" autoComplete="username" autoFocus={!askCode} />
-            <TextField name="password" label="Password" type="password" autoComplete="current-password" />
+            <TextField
+              name="email"
+              label={t('signIn.email')}
+              type="email"
+              autoComplete="username"
+              autoFocus={!askCode}
+            />
+            <TextField name="password" label={t('signIn.password')} type="password" autoComplete="current-password" />
             {askCode && (
               <>
                 <Notice tone="info" live="status">
-                  Open the authenticator app on your phone and enter the code it shows for Coretrail.
+                  {t('signIn.codeAsk')}
                 </Notice>
                 <TextField
                   name="code"
-                  label="Code from your authenticator app"
+                  label={t('signIn.code')}
                   inputMode="numeric"
                   autoComplete="one-time-code"
                   mono
                   optional
                   autoFocus
-                  hint="Six digits. Without your phone, use one of your recovery codes."
+                  hint={t('signIn.codeHint')}
                 />
               </>
             )}
             <SubmitButton size="lg" wide>
-              Sign in
+              {t('signIn.submit')}
             </SubmitButton>
           </Form>
         </section>
-        <p className="mt-4 text-center text-sm text-ink-soft">
-          Forgotten your password? An administrator can set a new one for you.
-        </p>
+        <p className="mt-4 text-center text-sm text-ink-soft">{t('signIn.forgotten')}</p>
       </div>
     </main>
   );

@@ -14,6 +14,7 @@ import {
 } from './readings';
 import { formatValue } from './numbers';
 import { whereKey } from './submit';
+import { t } from '../../lib/i18n';
 
 type Values = { slots: SlotValue[] };
 
@@ -100,8 +101,8 @@ export function ReadingBox({ slot, label }: { slot: Slot; label?: string }) {
 }
 
 const TILE = {
-  pass: { word: 'Pass', icon: 'ok', on: 'has-checked:border-ok has-checked:bg-ok has-checked:text-white' },
-  fail: { word: 'Fail', icon: 'bad', on: 'has-checked:border-bad has-checked:bg-bad has-checked:text-white' },
+  pass: { word: 'form.pass', icon: 'ok', on: 'has-checked:border-ok has-checked:bg-ok has-checked:text-white' },
+  fail: { word: 'form.fail', icon: 'bad', on: 'has-checked:border-bad has-checked:bg-bad has-checked:text-white' },
 } as const;
 
 /** A pass/fail check at one position: two large tiles, and on a fail a box saying where. */
@@ -113,7 +114,9 @@ export function CheckTiles({ slot }: { slot: Slot }) {
   const problem = problems[slot.key];
   const missing = attempted && choice === '' && !slot.char.optional;
   const whereLabel =
-    slot.position.code === '' ? `Where, ${slot.char.name}` : `Where, ${slot.char.name}, ${slot.position.label}`;
+    slot.position.code === ''
+      ? t('form.where', { name: slot.char.name })
+      : t('form.whereAt', { name: slot.char.name, position: slot.position.label });
   return (
     <div className="flex flex-col gap-3">
       <div
@@ -137,7 +140,7 @@ export function CheckTiles({ slot }: { slot: Slot }) {
               {...register(`slots.${slot.index}.choice`, { onChange: () => clearProblem(slot.key) })}
             />
             <Icon name={TILE[c].icon} size={24} />
-            {TILE[c].word}
+            {t(TILE[c].word)}
           </label>
         ))}
       </div>

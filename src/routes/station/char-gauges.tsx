@@ -3,6 +3,7 @@ import type { FormCharacteristic, GaugeChoice } from '../../api/station/types';
 import { Icon } from '../../components/ui/icon';
 import { bigControl } from './controls';
 import type { Draft, Problem } from './submit';
+import { t } from '../../lib/i18n';
 
 /**
  * A measured characteristic can be read with another gauge than the result's (the finish with a
@@ -93,12 +94,12 @@ export function CharGaugeField({ char, index, gauges, problem, onChange }: CharG
   if (!asksGauge(char, gauges, main)) return null;
   const matching = usableFor(gauges, char);
   const others: GaugeChoice[] = [];
-  const name = `Gauge for ${char.name}`;
+  const name = t('form.gaugeFor', { name: char.name });
   return (
     <div className="flex flex-col gap-1">
       <div className="flex flex-wrap items-center gap-2">
         <span aria-hidden="true" className="text-base font-semibold text-ink-soft">
-          Gauge
+          {t('form.gauge')}
         </span>
         <span className="relative block">
           <select
@@ -108,9 +109,9 @@ export function CharGaugeField({ char, index, gauges, problem, onChange }: CharG
             className={`${bigControl} h-11 floor:h-12 w-auto max-w-[22rem] appearance-none py-0 pr-9`}
             {...register(`gauges.${index}`, { onChange })}
           >
-            <option value="">Same as Gauge used</option>
+            <option value="">{t('form.sameGauge')}</option>
             {matching.length > 0 && (
-              <optgroup label="Gauges that can measure it">
+              <optgroup label={t('form.gaugesThatFitShort')}>
                 {matching.map((g) => (
                   <option key={g.code} value={g.code}>
                     {g.code} — {g.description}
@@ -119,7 +120,7 @@ export function CharGaugeField({ char, index, gauges, problem, onChange }: CharG
               </optgroup>
             )}
             {others.length > 0 && (
-              <optgroup label={matching.length ? 'Other gauges' : 'Gauges'}>
+              <optgroup label={matching.length ? t('form.otherGauges') : t('form.gauges')}>
                 {others.map((g) => (
                   <option key={g.code} value={g.code}>
                     {g.code} — {g.description}

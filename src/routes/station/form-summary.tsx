@@ -2,6 +2,7 @@ import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
 import type { Judged } from './readings';
 import type { Problem } from './submit';
+import { formatNumber, t } from '../../lib/i18n';
 
 const MAX_LISTED = 8;
 
@@ -31,7 +32,9 @@ export function ProblemSummary({
           </li>
         ))}
       </ul>
-      {problems.length > shown.length && <p className="mt-1">and {problems.length - shown.length} more.</p>}
+      {problems.length > shown.length && (
+        <p className="mt-1">{t('form.andMore', { count: problems.length - shown.length })}</p>
+      )}
     </Notice>
   );
 }
@@ -45,16 +48,17 @@ export function Tally({ judged }: { judged: Judged }) {
   return (
     <p className="flex flex-wrap items-center gap-x-5 gap-y-1 text-base">
       <span className="inline-flex items-baseline gap-1.5">
-        <span className={figure}>{missing}</span> of {judged.required} to enter
+        <span className={figure}>{formatNumber(missing)}</span>{' '}
+        {t('form.toEnter', { required: formatNumber(judged.required) })}
       </span>
       <span className={`inline-flex items-center gap-1.5 ${failing ? 'font-semibold text-bad' : 'text-ink-soft'}`}>
         <Icon name={failing ? 'bad' : 'ok'} size={22} />
-        <span className={figure}>{failing}</span> out of tolerance
+        <span className={figure}>{formatNumber(failing)}</span> {t('form.outOfTolerance')}
       </span>
       {unreadable > 0 && (
         <span className="inline-flex items-center gap-1.5 font-semibold text-bad">
           <Icon name="alert" size={22} />
-          <span className={figure}>{unreadable}</span> to check
+          <span className={figure}>{formatNumber(unreadable)}</span> {t('form.toCheck')}
         </span>
       )}
     </p>

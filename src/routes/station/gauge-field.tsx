@@ -3,6 +3,7 @@ import { useFormContext, useWatch } from 'react-hook-form';
 import type { GaugeChoice } from '../../api/station/types';
 import { Icon } from '../../components/ui/icon';
 import { bigControl, bigLabel } from './controls';
+import { t } from '../../lib/i18n';
 
 type GaugeFieldProps = {
   gauges: GaugeChoice[];
@@ -30,7 +31,7 @@ export function GaugeField({ gauges, unit, first, problem, onChange }: GaugeFiel
   return (
     <div className="flex flex-col gap-1.5">
       <label htmlFor={id} className={bigLabel}>
-        Gauge used
+        {t('form.gaugeUsed')}
       </label>
       <span className="relative block max-w-2xl">
         <select
@@ -42,9 +43,9 @@ export function GaugeField({ gauges, unit, first, problem, onChange }: GaugeFiel
           className={`${bigControl} h-14 appearance-none pr-10`}
           {...register('gauge', { onChange })}
         >
-          <option value="">Choose the gauge</option>
+          <option value="">{t('form.chooseGauge')}</option>
           {matching.length > 0 && (
-            <optgroup label={`Gauges that can measure it (${unit ?? 'no unit'})`}>
+            <optgroup label={t('form.gaugesThatFit', { unit: unit ?? '—' })}>
               {matching.map((x) => (
                 <option key={x.code} value={x.code} disabled={!x.usable}>
                   {optionText(x)}
@@ -52,7 +53,7 @@ export function GaugeField({ gauges, unit, first, problem, onChange }: GaugeFiel
               ))}
             </optgroup>
           )}
-          <optgroup label={matching.length ? 'Other gauges' : 'Gauges'}>
+          <optgroup label={matching.length ? t('form.otherGauges') : t('form.gauges')}>
             {others.map((x) => (
               <option key={x.code} value={x.code} disabled={!x.usable}>
                 {optionText(x)}

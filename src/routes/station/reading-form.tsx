@@ -111,14 +111,16 @@ export function ReadingForm({
   const preferred = useUnitPreferences().data?.preferences;
   const remember = useSetUnitPreference();
   const [chosenUnits, setChosenUnits] = useState<EntryUnits>({});
+  // a shared tablet's operator is known only at submit: its readings start in the rules' own units
+  const system = inTabletMode() ? undefined : me?.user.unitSystem;
   const units = useMemo(() => {
     const out: EntryUnits = {};
     for (const c of form.characteristics) {
-      const u = entryUnitOf(c, chosenUnits, preferred ?? {});
+      const u = entryUnitOf(c, chosenUnits, preferred ?? {}, system);
       if (u) out[c.code] = u;
     }
     return out;
-  }, [form.characteristics, chosenUnits, preferred]);
+  }, [form.characteristics, chosenUnits, preferred, system]);
   const judged = useMemo(() => judge(chars, slots, values, units), [chars, slots, values, units]);
   const [problems, setProblems] = useState<Problem[]>([]);
   const [attempted, setAttempted] = useState(false);
@@ -202,6 +204,8 @@ export function ReadingForm({
       gauge: needsGauge ? draft.gauge : null,
       ...(Object.keys(own).length ? { gauges: own } : {}),
       startedAt,
+      // the moment of recording on this tablet: a result that waits for the network keeps it
+      takenAt: new Date().toISOString(),
       notes: draft.notes.trim(),
       readings,
       photoIds: draft.photoIds,
@@ -213,7 +217,7 @@ export function ReadingForm({
       if (inTabletMode() && !who) return false;
       const entry: Queued = {
         key: idempotencyKey,
-        queuedAt: new Date().toISOString(),
+        queuedAt: body.takenAt,
         path: who ? '/api/tablet/results' : '/api/results',
         body,
         stageName: form.stage.name,
@@ -286,7 +290,7 @@ export function ReadingForm({
           noValidate
           onSubmit={(e) => void methods.handleSubmit((d) => send(d))(e)}
           onKeyDown={onKeyDown}
-          aria-label={`${form.stage.name} readings for ${form.item.serial}`}
+          aria-label={t('form.label', { stage: form.stage.name, serial: form.item.serial })}
           className="flex flex-col gap-5"
         >
           <div ref={topRef} tabIndex={-1} className="flex flex-col gap-3 outline-none empty:hidden">
@@ -370,12 +374,7 @@ export function ReadingForm({
                   />
                   {problemMap.notes && <p className="font-semibold text-bad">{problemMap.notes}</p>}
                 </div>
-                <PhotoField
-                  name="photoIds"
-                  label="Photos"
-                  max={10}
-                  hint="A photo of what was found helps quality decide."
-                />
+                <PhotoField name="photoIds" label={t('form.photos')} max={10} hint={t('form.photosHint')} />
               </div>
             </CardBody>
           </Card>

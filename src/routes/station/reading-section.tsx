@@ -16,9 +16,10 @@ import { alternativesOf, convertDecimal } from '../../../shared/domain/units';
 import { limitsOf } from '../../../shared/domain/tolerance';
 import { useFormState } from './form-state';
 import { limitsText, nominalText, type Slot } from './readings';
+import { t } from '../../lib/i18n';
 
 function Limits({ char }: { char: FormCharacteristic }) {
-  if (char.kind === 'attribute') return <span className="text-ink-soft">Pass or fail</span>;
+  if (char.kind === 'attribute') return <span className="text-ink-soft">{t('form.passOrFail')}</span>;
   if (!char.rule) {
     return (
       <span className="inline-flex items-center gap-1 font-semibold text-hold">
@@ -75,7 +76,7 @@ function UnitChoice({ char }: { char: FormCharacteristic }) {
   return (
     <span className="inline-flex items-center gap-2">
       <label htmlFor={id} className="text-base text-ink-soft">
-        Type in
+        {t('form.typeIn')}
       </label>
       <select
         id={id}
@@ -83,7 +84,7 @@ function UnitChoice({ char }: { char: FormCharacteristic }) {
         onChange={(e) => setUnit(char.code, e.target.value)}
         className="h-11 rounded-control border-2 border-rule-strong bg-field px-2 font-mono text-lg text-ink hover:border-ink-soft floor:h-12"
       >
-        <option value={char.unit}>{char.unit} (the rule’s)</option>
+        <option value={char.unit}>{t('form.rulesUnit', { unit: char.unit })}</option>
         {others.map((u) => (
           <option key={u.symbol} value={u.symbol}>
             {u.symbol}

@@ -1,6 +1,6 @@
 import { evaluateForm, physicallyPossible, type Entries } from '../../../shared/domain/evaluate';
 import { limitsOf } from '../../../shared/domain/tolerance';
-import { alternativesOf, convertDecimal } from '../../../shared/domain/units';
+import { alternativesOf, convertDecimal, unitInSystem, type UnitSystem } from '../../../shared/domain/units';
 import type { EvaluatedReading, FormCharacteristic, Position } from '../../api/station/types';
 import { formatValue } from './numbers';
 
@@ -52,14 +52,21 @@ export type EntryUnits = Record<string, string>;
  * The unit to type `char` in: the one chosen on this form, else the person's remembered one for
  * the characteristic's unit when it converts, else the characteristic's own.
  */
-export function entryUnitOf(char: FormCharacteristic, chosen: EntryUnits, preferred: Record<string, string>) {
+export function entryUnitOf(
+  char: FormCharacteristic,
+  chosen: EntryUnits,
+  preferred: Record<string, string>,
+  system?: UnitSystem,
+) {
   const own = char.unit;
   if (char.kind !== 'variable' || !own) return own;
   const ok = (u: string | undefined) => !!u && (u === own || alternativesOf(own).some((a) => a.symbol === u));
   const pick = chosen[char.code];
   if (ok(pick)) return pick!;
   const pref = preferred[own];
-  return ok(pref) ? pref! : own;
+  if (ok(pref)) return pref!;
+  // nothing chosen for this unit yet: the person's unit system (inch or metric) from their profile
+  return system ? unitInSystem(own, system) : own;
 }
 
 /**

@@ -5,6 +5,7 @@ import { Button } from '../../components/ui/button';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
+import { t, useT } from '../../lib/i18n';
 
 type StationChoiceProps = {
   stations: Station[];
@@ -27,7 +28,7 @@ export function areasInRouteOrder(stations: Station[], queues: StationQueue[] | 
   );
   const areas = new Map<string, Station[]>();
   for (const s of sorted) {
-    const k = s.location || 'Elsewhere';
+    const k = s.location || t('chooser.elsewhere');
     areas.set(k, [...(areas.get(k) ?? []), s]);
   }
   return [...areas.entries()];
@@ -35,19 +36,20 @@ export function areasInRouteOrder(stations: Station[], queues: StationQueue[] | 
 
 export function StationChoice({ stations, current, stale, onChoose, onCancel }: StationChoiceProps) {
   const id = useId();
+  const t = useT();
   const queues = useStationQueues();
   const waiting = new Map(queues.data?.map((q) => [q.code, q.waiting]));
   return (
     <Card labelledBy={`${id}-title`}>
       <CardHeader
         id={`${id}-title`}
-        title="Choose this tablet's station"
-        description="Tap the station this tablet stands at. It remembers it: every part scanned here is recorded at this station until it is changed."
+        title={t('chooser.title')}
+        description={t('chooser.intro')}
         actions={
           onCancel &&
           current && (
             <Button size="lg" onClick={onCancel}>
-              Keep {current.name}
+              {t('chooser.keep', { station: current.name })}
             </Button>
           )
         }
@@ -55,8 +57,8 @@ export function StationChoice({ stations, current, stale, onChoose, onCancel }: 
       <CardBody>
         <div className="flex flex-col gap-6">
           {stale && (
-            <Notice tone="hold" title={`Station ${stale} is not recording now`}>
-              It is out of service or records no stage. Choose where this tablet is now.
+            <Notice tone="hold" title={t('chooser.staleTitle', { code: stale })}>
+              {t('chooser.staleBody')}
             </Notice>
           )}
           {areasInRouteOrder(stations, queues.data).map(([area, group]) => (
@@ -78,13 +80,15 @@ export function StationChoice({ stations, current, stale, onChoose, onCancel }: 
                       >
                         <span className="flex w-full items-start justify-between gap-2">
                           <span className="text-xl font-semibold leading-tight text-ink">{s.name}</span>
-                          {here && <Icon name="ok" size={22} className="shrink-0 text-accent" label="Chosen now" />}
+                          {here && (
+                            <Icon name="ok" size={22} className="shrink-0 text-accent" label={t('chooser.chosen')} />
+                          )}
                         </span>
                         <span className="text-base text-ink-soft">{s.stageName}</span>
                         <span className="flex w-full items-center justify-between gap-2">
                           <span className="font-mono text-base text-ink">{s.code}</span>
                           <span className="text-base font-medium text-ink">
-                            {n === undefined ? '' : n === 1 ? '1 waiting' : `${n} waiting`}
+                            {n === undefined ? '' : t('chooser.waiting', { count: n })}
                           </span>
                         </span>
                       </button>

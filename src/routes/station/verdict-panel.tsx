@@ -1,21 +1,20 @@
 import { useEffect, useRef } from 'react';
 import type { ReadingJson, ResultJson } from '../../api/station/types';
 import { Icon } from '../../components/ui/icon';
-import { formatWhen } from '../../lib/format';
-import { useT } from '../../lib/i18n';
+import { formatMoment, t, useT } from '../../lib/i18n';
 import { NcrNumber } from './ncr-number';
 import { formatValue } from './numbers';
 
 /** A reading's value as it was judged: the rounded figure, or the check's outcome. */
 function valueOf(r: ReadingJson, resolution: number | null) {
-  if (r.kind === 'attribute') return r.passed ? 'Pass' : 'Fail';
+  if (r.kind === 'attribute') return r.passed ? t('verdict.pass') : t('verdict.fail');
   const v = r.rounded ?? r.value;
   if (v === null) return '—';
   return `${formatValue(v, resolution)}${r.unit ? ` ${r.unit}` : ''}`;
 }
 
 function limitOf(r: ReadingJson, resolution: number | null) {
-  if (r.kind === 'attribute') return 'Pass';
+  if (r.kind === 'attribute') return t('verdict.pass');
   const u = r.unit ? ` ${r.unit}` : '';
   const f = (v: number) => formatValue(v, resolution);
   if (r.lower !== null && r.upper !== null) return `${f(r.lower)}–${f(r.upper)}${u}`;
@@ -43,12 +42,12 @@ export function VerdictPanel({ result, onNext, canReadNcr }: VerdictPanelProps) 
   const passed = result.verdict === 'pass';
   const held = result.item.status === 'on_hold';
   const next = held
-    ? 'On hold'
+    ? t('verdict.onHold')
     : result.item.currentStage
-      ? `Next stage: ${result.item.currentStage.name}`
+      ? t('verdict.nextStage', { stage: result.item.currentStage.name })
       : result.item.status === 'finished'
-        ? 'Route finished'
-        : 'No further stage';
+        ? t('verdict.routeFinished')
+        : t('verdict.noFurtherStage');
 
   useEffect(() => {
     headingRef.current?.focus();
@@ -85,23 +84,23 @@ export function VerdictPanel({ result, onNext, canReadNcr }: VerdictPanelProps) 
         </p>
         {result.nonconformance && (
           <p className="text-xl">
-            NCR <NcrNumber number={result.nonconformance.number} link={canReadNcr} /> raised (
-            {result.nonconformance.severity}). Quality decides what happens to the part.
+            NCR <NcrNumber number={result.nonconformance.number} link={canReadNcr} />{' '}
+            {t('verdict.ncrRaised', { severity: t(`severity.${result.nonconformance.severity}`) })}
           </p>
         )}
         {result.failing.length > 0 && (
           <div>
             <h3 className="mb-2 text-xl font-semibold">
-              {result.failing.length === 1 ? 'Out of tolerance' : `Out of tolerance (${result.failing.length})`}
+              {t('verdict.outOfTolerance', { count: result.failing.length })}
             </h3>
             <div className="overflow-x-auto">
               <table className="w-full min-w-[34rem] text-left text-lg">
                 <thead className="border-b-2 border-ink text-base text-ink-soft">
                   <tr>
-                    <th className="py-2 pr-4 font-semibold">Characteristic</th>
-                    <th className="py-2 pr-4 font-semibold">Where</th>
-                    <th className="py-2 pr-4 text-right font-semibold">Reading</th>
-                    <th className="py-2 text-right font-semibold">Limits</th>
+                    <th className="py-2 pr-4 font-semibold">{t('verdict.characteristic')}</th>
+                    <th className="py-2 pr-4 font-semibold">{t('verdict.where')}</th>
+                    <th className="py-2 pr-4 text-right font-semibold">{t('verdict.reading')}</th>
+                    <th className="py-2 text-right font-semibold">{t('verdict.limits')}</th>
                   </tr>
                 </thead>
                 <tbody className="divide-y divide-rule">
@@ -130,10 +129,10 @@ export function VerdictPanel({ result, onNext, canReadNcr }: VerdictPanelProps) 
           </div>
         )}
         <p className="text-base text-ink-soft">
-          Recorded {formatWhen(result.finishedAt)} by {result.operator}
-          {result.gauge ? ` with ${result.gauge}` : ''}
+          {t('verdict.recorded', { when: formatMoment(result.finishedAt), who: result.operator })}
+          {result.gauge ? ` ${t('verdict.withGauge', { gauge: result.gauge })}` : ''}
           {result.otherGauges?.length
-            ? ` (${result.otherGauges.map((g) => `${g.name} with ${g.gauge}`).join('; ')})`
+            ? ` (${result.otherGauges.map((g) => `${g.name} ${t('verdict.withGauge', { gauge: g.gauge })}`).join('; ')})`
             : ''}
           .
         </p>

@@ -62,6 +62,15 @@ export function WaitingResults({ personId }: { personId: number | null }) {
                 })}
             {o.kind === 'differs' && o.result.nonconformance && ` NCR ${o.result.nonconformance.number}.`}
           </p>
+          {o.kind === 'differs' && o.result.failing.length > 0 && (
+            <ul className="mt-1 list-disc pl-5 text-base font-semibold">
+              {o.result.failing.slice(0, 4).map((r) => (
+                <li key={`${r.characteristic}@${r.position}`}>
+                  {r.name}, {r.positionLabel}: {r.reason}
+                </li>
+              ))}
+            </ul>
+          )}
           <div className="mt-2">
             <Button size="lg" onClick={() => dismissOutcome(o.entry.key)}>
               {t('waiting.seen')}

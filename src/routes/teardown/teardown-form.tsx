@@ -11,13 +11,22 @@ import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Icon, type IconName } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
 import { missingAtIntake, rowsFor, teardownForm, type Decision, type PartRow } from './teardown-schema';
+import { t } from '../../lib/i18n';
 
 // a chosen tile is filled (white on the state colour), so it stands out in sunlight and in grey
 const TILE: Record<Decision, { word: string; icon: IconName; checked: string }> = {
-  keep: { word: 'Keep', icon: 'ok', checked: 'has-checked:border-ok has-checked:bg-ok has-checked:text-white' },
-  scrap: { word: 'Scrap', icon: 'bad', checked: 'has-checked:border-bad has-checked:bg-bad has-checked:text-white' },
+  keep: {
+    word: 'teardown.keep',
+    icon: 'ok',
+    checked: 'has-checked:border-ok has-checked:bg-ok has-checked:text-white',
+  },
+  scrap: {
+    word: 'teardown.scrap',
+    icon: 'bad',
+    checked: 'has-checked:border-bad has-checked:bg-bad has-checked:text-white',
+  },
   absent: {
-    word: 'Not there',
+    word: 'teardown.notThere',
     icon: 'off',
     checked: 'has-checked:border-dashed has-checked:border-ink has-checked:bg-ink-soft has-checked:text-white',
   },
@@ -32,7 +41,7 @@ function PartDecision({ row, index, missing }: { row: PartRow; index: number; mi
   } = useController<FormValues, `parts.${number}.decision`>({ name: `parts.${index}.decision` });
   const { formState } = useFormContext<FormValues>();
   const error = formState.errors.parts?.[index]?.decision?.message;
-  const absentWord = row.optional ? 'Not tracked' : 'Not there';
+  const absentWord = row.optional ? 'teardown.notTracked' : 'teardown.notThere';
   const errorId = `part-${index}-error`;
   const labelId = `part-${index}-label`;
   return (
@@ -45,17 +54,19 @@ function PartDecision({ row, index, missing }: { row: PartRow; index: number; mi
       >
         <p id={labelId} className="text-xl font-semibold">
           {row.label}
-          {row.optional && <span className="ml-2 text-base font-normal text-ink-soft">where tracked</span>}
+          {row.optional && (
+            <span className="ml-2 text-base font-normal text-ink-soft">{t('teardown.whereTracked')}</span>
+          )}
           {missing && (
             <span className="mt-1 flex items-center gap-1.5 text-base font-medium text-ink-soft">
               <Icon name="off" size={18} />
-              Recorded missing at intake
+              {t('teardown.missingAtIntake')}
             </span>
           )}
         </p>
         <div className="grid w-full grid-cols-3 gap-2 sm:w-auto sm:grid-cols-[repeat(3,10.5rem)]">
           {(['keep', 'scrap', 'absent'] as const).map((d, i) => {
-            const word = d === 'absent' ? absentWord : TILE[d].word;
+            const word = t(d === 'absent' ? absentWord : TILE[d].word);
             return (
               <label
                 key={d}
@@ -85,7 +96,12 @@ function PartDecision({ row, index, missing }: { row: PartRow; index: number; mi
         </p>
       )}
       {value === 'scrap' && (
-        <TextField name={`parts.${index}.reason`} label={`Reason to scrap ${row.label}`} optional autoFocus />
+        <TextField
+          name={`parts.${index}.reason`}
+          label={t('teardown.scrapReason', { part: row.label })}
+          optional
+          autoFocus
+        />
       )}
     </li>
   );
@@ -165,15 +181,14 @@ export function TeardownForm({ item, condition, onDone }: TeardownFormProps) {
       onSubmit={async (body) => onDone(await tearDown.mutateAsync({ serial: item.serial, body }))}
     >
       <IntakeCondition condition={condition} preset={missing.filter(Boolean).length} />
-      <Caution title="Heavy parts" icon="hoist">
-        {hazard ?? 'Blocks, crankshafts and heads are heavy: lift them with the hoist.'} Follow the plant&apos;s lifting
-        procedure; this screen does not replace it.
+      <Caution title={t('teardown.heavyTitle')} icon="hoist">
+        {hazard ?? t('teardown.heavyHazard')} {t('teardown.heavyProcedure')}
       </Caution>
       <Card labelledBy="parts-heading">
         <CardHeader
           id="parts-heading"
-          title="Major parts"
-          description={`Each part kept gets its own serial and label, linked to ${item.serial}.`}
+          title={t('teardown.majorParts')}
+          description={t('teardown.majorPartsIntro', { serial: item.serial })}
         />
         <CardBody>
           <ul className="divide-y divide-rule">
@@ -186,14 +201,16 @@ export function TeardownForm({ item, condition, onDone }: TeardownFormProps) {
       <Card labelledBy="wear-heading">
         <CardBody>
           <h2 id="wear-heading" className="font-semibold">
-            Discarded by rule (always replaced)
+            {t('teardown.wearTitle')}
           </h2>
-          <p className="mt-1 text-ink-soft">{WEAR_PARTS.join(', ')}. These are recorded on the core as discarded.</p>
+          <p className="mt-1 text-ink-soft">
+            {WEAR_PARTS.join(', ')}. {t('teardown.wearBody')}
+          </p>
         </CardBody>
       </Card>
-      <TextAreaField name="notes" label="Notes" hint="Anything found during teardown the next stations should know." />
+      <TextAreaField name="notes" label={t('form.notes')} hint={t('teardown.notesHint')} />
       <div className="flex justify-end">
-        <SubmitButton size="lg">Record teardown</SubmitButton>
+        <SubmitButton size="lg">{t('teardown.record')}</SubmitButton>
       </div>
     </Form>
   );

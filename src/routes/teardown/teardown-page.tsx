@@ -13,12 +13,12 @@ import { ScanBox } from '../../components/scan-box';
 import { Button, ButtonLink } from '../../components/ui/button';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Notice } from '../../components/ui/notice';
-import { plural } from '../../lib/format';
 import { partName } from '../../lib/item-status';
 import { itemHref, labelsHref, serialHref } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
 import { useUrlFilter } from '../../lib/use-url-filter';
 import { TeardownForm } from './teardown-form';
+import { t, useT } from '../../lib/i18n';
 
 export const teardownLoader =
   (queryClient: QueryClient) =>
@@ -69,17 +69,15 @@ function TeardownDone({ core, onNext }: { core: CoreDetail; onNext: () => void }
     <Card labelledBy="done-heading">
       <CardHeader
         id="done-heading"
-        title="Teardown recorded"
-        description={`${core.serial} is torn down. Label each part now, before the parts are separated.`}
+        title={t('teardown.doneTitle')}
+        description={t('teardown.doneIntro', { serial: core.serial })}
       />
       <CardBody>
         <div className="flex flex-col gap-4">
-          <Notice tone="ok" live="status" title={`${kept.length} part${kept.length === 1 ? '' : 's'} serialized`}>
+          <Notice tone="ok" live="status" title={t('teardown.serialized', { count: kept.length })}>
             {core.teardown && core.teardown.scrapped.length > 0
-              ? core.teardown.scrapped.length === 1
-                ? '1 part scrapped, with its reason.'
-                : `${plural(core.teardown.scrapped.length, 'part')} scrapped, with their reasons.`
-              : 'Nothing scrapped.'}
+              ? t('teardown.scrapped', { count: core.teardown.scrapped.length })
+              : t('teardown.nothingScrapped')}
           </Notice>
           {kept.length > 0 && (
             <ul className="divide-y divide-rule">
@@ -99,11 +97,11 @@ function TeardownDone({ core, onNext }: { core: CoreDetail; onNext: () => void }
           <div className="flex flex-wrap gap-2">
             {kept.length > 0 && (
               <ButtonLink to={labelsHref(kept.map((k) => k.serial))} variant="primary" size="lg" icon="print">
-                Print labels for these parts
+                {t('teardown.printLabels')}
               </ButtonLink>
             )}
             <Button size="lg" onClick={onNext}>
-              Tear down another core
+              {t('teardown.another')}
             </Button>
           </div>
         </div>
@@ -114,6 +112,8 @@ function TeardownDone({ core, onNext }: { core: CoreDetail; onNext: () => void }
 
 export function TeardownPage() {
   const me = useSignedIn();
+  // re-rendered when the language changes; the parts below read the same words
+  useT();
   const { params, set } = useUrlFilter();
   const parsed = parseSerial(params.get('serial') ?? '');
   const serial = parsed.ok ? parsed.serial : null;
@@ -130,14 +130,11 @@ export function TeardownPage() {
 
   return (
     <div className="mx-auto max-w-[60rem]">
-      <PageHeader
-        title="Teardown"
-        description="Scan a received core, then say for each major part whether it is kept or scrapped."
-      />
+      <PageHeader title={t('teardown.title')} description={t('teardown.intro')} />
       <div className="flex flex-col gap-5">
         {!finished && (
           <Card labelledBy="scan-heading">
-            <CardHeader id="scan-heading" title="Which core" />
+            <CardHeader id="scan-heading" title={t('teardown.whichCore')} />
             <CardBody>
               <div className="flex flex-col gap-5">
                 <ScanBox
@@ -177,7 +174,7 @@ export function TeardownPage() {
                 onDone={setDone}
               />
             ) : (
-              <p className="text-ink-soft">Loading what intake recorded…</p>
+              <p className="text-ink-soft">{t('teardown.loadingIntake')}</p>
             )
           ) : (
             <NotTearable item={item.data} canIntake={me.can('intake.read')} />
