@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { Customer, EngineFamily, Stage, Supplier, User } from '../../server/models/index.js';
+import { Characteristic, Customer, EngineFamily, Stage, Supplier, User } from '../../server/models/index.js';
 import { TEST_PASSWORD, makeUser } from '../support/app.js';
 import { givenSecondFactor, launch, serveApp, signIn, type Served } from '../support/browser.js';
 import { emptyDatabase } from '../support/own-database.js';
@@ -13,7 +13,7 @@ import { emptyDatabase } from '../support/own-database.js';
  * directly: there is no screen for the very first administrator, and people are not the process.
  *
  * So far this walks the first steps of the acceptance in issue 16 (a family, a customer, a
- * supplier, a stage); the rest of the walk — part kinds, characteristics, routes, stations,
+ * supplier, a stage and a characteristic); the rest of the walk — part kinds, routes, stations,
  * gauges, a received lot, then a core from receiving to release — is still to be added.
  */
 let served: Served;
@@ -35,7 +35,7 @@ afterAll(async () => {
 });
 
 describe('a plant set up from an empty database, through the screens', () => {
-  it('when the database is empty, then an administrator adds a family, a customer, a supplier and a stage on the screens', async () => {
+  it('when the database is empty, then an administrator adds a family, a customer, a supplier, a stage and its characteristic on the screens', async () => {
     // nothing of the demo's: no people, families, stages or parties
     expect([await User.count(), await EngineFamily.count(), await Stage.count(), await Customer.count()]).toEqual([
       0, 0, 0, 0,
@@ -99,6 +99,20 @@ describe('a plant set up from an empty database, through the screens', () => {
     await stage.waitFor({ state: 'hidden' });
     await page.getByText('Caustic wash at 80 °C.').waitFor();
 
+    // a characteristic measured at each cylinder of that stage's block
+    await page.getByRole('button', { name: 'Add characteristic' }).click();
+    const char = page.getByRole('dialog');
+    await char.getByLabel('Stage', { exact: true }).selectOption('wren-block-wash');
+    await char.getByRole('textbox', { name: 'Code', exact: true }).fill('wren-bore');
+    await char.getByRole('textbox', { name: 'Name', exact: true }).fill('Bore after wash');
+    await char.getByLabel('Kind', { exact: true }).selectOption('variable');
+    await char.getByLabel('Taken at').selectOption('cylinder');
+    await char.getByLabel('Unit (measured only)').selectOption('mm');
+    await char.getByRole('textbox', { name: 'Resolution (measured only)' }).fill('0.001');
+    await char.getByRole('button', { name: 'Add characteristic' }).click();
+    await char.waitFor({ state: 'hidden' });
+    await page.getByText('Bore after wash').waitFor();
+
     expect(
       (await EngineFamily.findAll()).map((f) => [f.code, f.cylinders, Number(f.boreMm), f.headsPerEngine]),
     ).toEqual([['WREN-4', 4, 84, 1]]);
@@ -111,6 +125,8 @@ describe('a plant set up from an empty database, through the screens', () => {
     expect((await Stage.findAll()).map((s) => [s.code, s.hazardous, s.hazard])).toEqual([
       ['wren-block-wash', true, 'Caustic wash at 80 °C.'],
     ]);
+    const [bore] = await Characteristic.findAll({ where: { code: 'wren-bore' } });
+    expect([bore?.kind, bore?.unit, Number(bore?.resolution)]).toEqual(['variable', 'mm', 0.001]);
     await context.close();
   }, 120_000);
 });
