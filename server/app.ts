@@ -125,7 +125,7 @@ export function createApp({
   referenceRoutes(api, sequelize);
   processRoutes(api, sequelize);
   auditRoutes(api, sequelize, config);
-  partyRoutes(api);
+  partyRoutes(api, sequelize);
   coreRoutes(api, sequelize);
   itemRoutes(api, sequelize);
   attachmentRoutes(api, sequelize, store, config);

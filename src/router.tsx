@@ -99,6 +99,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.parties,
+              lazy: async () => {
+                const m = await import('./routes/admin/parties/parties-page');
+                return { Component: m.PartiesPage, loader: m.partiesLoader(queryClient) };
+              },
+            },
+            {
               path: paths.families,
               lazy: async () => {
                 const m = await import('./routes/admin/families/families-page');

@@ -112,3 +112,16 @@ export type Stage = {
   partKind: PartKind;
   hazard: string | null;
 };
+
+/** A customer or supplier the plant adds: its own short code, a name and where to write to. */
+export const createPartyBody = z.strictObject({
+  code,
+  name: text().trim().min(2, 'Enter a name of at least 2 characters.').max(120, 'At most 120 characters.'),
+  email: text()
+    .trim()
+    .toLowerCase()
+    .max(254, 'At most 254 characters.')
+    .pipe(z.union([z.literal(''), z.email('Enter an e-mail address.')]))
+    .optional(),
+});
+export type CreatePartyBody = z.infer<typeof createPartyBody>;

@@ -6,8 +6,8 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { passingReadings } from '../../db/seeders/sample-readings.js';
 import { DEMO_USERS } from '../../db/seeders/plant.js';
-import { Characteristic, Stage } from '../../server/models/index.js';
-import { cookieFor, makeUser } from '../support/app.js';
+import { Characteristic, Stage, ToleranceRule } from '../../server/models/index.js';
+import { cookieFor, makeUser, unique } from '../support/app.js';
 import { launch, serveApp, signIn, type Served } from '../support/browser.js';
 import { formFor, gaugesOf, passThrough, tornDownCore } from '../support/parts.js';
 
@@ -121,6 +121,76 @@ describe('the spec book in the browser', () => {
     await expect(row2.textContent()).resolves.toContain(`v${oldVersion + 1}`);
     await page.screenshot({ path: path.join(shots, 'spec-new-version-result-1440.png'), fullPage: true });
     expect(c.id).toBeGreaterThan(0);
+    await context.close();
+  });
+
+  it('quality drafts a rule with size classes on the screen; a repeated class is refused and the saved draft keeps each class', async () => {
+    // a characteristic of the test's own, at a stage no route or station uses, so no part is asked for it
+    const quality = await cookieFor(await makeUser('quality'), served.t.config);
+    const tag = unique('').slice(0, 8);
+    const stage = await request(served.t.app)
+      .post('/api/process/stages')
+      .set('Cookie', quality)
+      .send({ code: `sc-bore-${tag}`, partKind: 'block', name: 'Size class bore check' });
+    expect(stage.status).toBe(201);
+    const made = await request(served.t.app)
+      .post('/api/process/characteristics')
+      .set('Cookie', quality)
+      .send({
+        stage: `sc-bore-${tag}`,
+        code: `bore-${tag}`,
+        name: `Finished bore ${tag}`,
+        kind: 'variable',
+        unit: 'mm',
+        resolution: 0.001,
+      });
+    expect(made.status, JSON.stringify(made.body)).toBe(201);
+
+    const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
+    const page = await context.newPage();
+    const q = demo('quality');
+    await signIn(page, served.base, q.email, q.password);
+    await page.goto(`${served.base}/spec/TARN-6/${made.body.id}`);
+    await page.getByRole('heading', { level: 1, name: `Finished bore ${tag}` }).waitFor();
+    await page.getByRole('button', { name: 'Start a draft' }).click();
+    await page.getByRole('textbox', { name: 'Nominal' }).fill('86');
+    await page.getByRole('textbox', { name: 'Minus tolerance' }).fill('0');
+    await page.getByRole('textbox', { name: 'Plus tolerance' }).fill('0.02');
+    await page.getByRole('textbox', { name: 'Resolution' }).fill('0.001');
+    await page.getByText('None: every part is judged on the limits above.').waitFor();
+    // invented steps in the way of common practice: standard, then +0.25 mm and +0.50 mm over
+    const steps = [
+      ['STD', 'Standard', '86'],
+      ['+0.25', 'First oversize', '86.25'],
+      ['+0.25', 'Second oversize', '86.5'],
+    ] as const;
+    for (const [i, [code, name, nominal]] of steps.entries()) {
+      await page.getByRole('button', { name: 'Add a size class' }).click();
+      await page.getByRole('textbox', { name: `Size class ${i + 1} code` }).fill(code);
+      await page.getByRole('textbox', { name: `Size class ${i + 1} name` }).fill(name);
+      await page.getByRole('textbox', { name: `Size class ${i + 1} nominal` }).fill(nominal);
+      await page.getByRole('textbox', { name: `Size class ${i + 1} plus tolerance` }).fill('0.02');
+    }
+    await page.getByRole('button', { name: 'Save draft' }).click();
+    await page.getByText('+0.25 comes twice.').waitFor();
+    expect(await ToleranceRule.count({ where: { characteristicId: made.body.id } })).toBe(0);
+    await page.getByRole('textbox', { name: 'Size class 3 code' }).fill('+0.50');
+    await page.getByRole('button', { name: 'Save draft' }).click();
+    await page.getByText('You drafted this version').waitFor();
+    await page.screenshot({ path: path.join(shots, 'spec-size-classes-1440.png'), fullPage: true });
+    const draft = (await ToleranceRule.findOne({ where: { characteristicId: made.body.id, status: 'draft' } }))!;
+    expect(draft.sizeClasses).toEqual([
+      { code: 'STD', name: 'Standard', nominal: 86, minusTol: 0, plusTol: 0.02 },
+      { code: '+0.25', name: 'First oversize', nominal: 86.25, minusTol: 0, plusTol: 0.02 },
+      { code: '+0.50', name: 'Second oversize', nominal: 86.5, minusTol: 0, plusTol: 0.02 },
+    ]);
+
+    // a class removed on the screen is gone from the draft once saved; the others keep their numbers
+    await page.getByRole('button', { name: 'Remove size class 2' }).click();
+    await page.getByRole('button', { name: 'Save draft' }).click();
+    await expect
+      .poll(async () => (await draft.reload()).sizeClasses?.map((c) => c.code), { timeout: 10_000 })
+      .toEqual(['STD', '+0.50']);
     await context.close();
   });
 });

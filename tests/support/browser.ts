@@ -20,9 +20,9 @@ export const CHROMIUM_ARGS = [
 
 export type Served = { t: TestApp; server: Server; base: string; close: () => Promise<void> };
 
-/** The real app, client included, on a free loopback port. */
-export async function serveApp(): Promise<Served> {
-  const t = makeTestApp({ CLIENT_DIR: process.env.CLIENT_DIR ?? path.resolve('dist') });
+/** The real app, client included, on a free loopback port (`overrides`: e.g. a database of the file's own). */
+export async function serveApp(overrides: Partial<Config> = {}): Promise<Served> {
+  const t = makeTestApp({ CLIENT_DIR: process.env.CLIENT_DIR ?? path.resolve('dist'), ...overrides });
   const server = await new Promise<Server>((resolve) => {
     const s = t.app.listen(0, '127.0.0.1', () => resolve(s));
   });

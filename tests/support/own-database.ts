@@ -59,6 +59,24 @@ export async function ownDatabase(prefix: string): Promise<{ t: TestApp; drop: (
   };
 }
 
+/**
+ * A new database named `${prefix}_${pid}`, migrated and nothing more: what a plant starts from
+ * with SEED_DEMO=never (no people, stages, families or parties; the built-in part kinds and the
+ * plant's settings row that the migrations make). `drop()` drops it; close any app on it first.
+ */
+export async function emptyDatabase(prefix: string): Promise<{ url: string; drop: () => Promise<void> }> {
+  const name = `${prefix}_${process.pid}`;
+  await adminQuery(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
+  await adminQuery(`CREATE DATABASE ${name}`);
+  const own = createSequelize(databaseUrl(name), { poolMax: 2 });
+  try {
+    await migrate(own);
+  } finally {
+    await own.close();
+  }
+  return { url: databaseUrl(name), drop: () => adminQuery(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`) };
+}
+
 /** Race drills judge by commit time: the cluster must keep commit timestamps. */
 export async function expectCommitTimestamps(t: TestApp): Promise<void> {
   const [setting] = await t.sequelize.query<{ track_commit_timestamp: string }>('SHOW track_commit_timestamp', {

@@ -85,6 +85,12 @@ export const AREAS: Area[] = [
     summary: "Each family's routes version by version, drafted, approved with a signature, compared side by side.",
   },
   {
+    label: 'Customers and suppliers',
+    to: paths.parties,
+    permission: 'process.edit',
+    summary: 'Who returns cores and buys engines, and who sells cores and purchased lots.',
+  },
+  {
     label: 'Engine families',
     to: paths.families,
     permission: 'families.manage',

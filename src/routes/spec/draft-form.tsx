@@ -1,5 +1,5 @@
 import { useId } from 'react';
-import { useFormContext, useWatch, type FieldValues } from 'react-hook-form';
+import { useFieldArray, useFormContext, useWatch, type FieldValues } from 'react-hook-form';
 import { z } from 'zod';
 import {
   LIMIT_TYPE_LABELS,
@@ -89,6 +89,106 @@ function LimitField({
   );
 }
 
+type SizeClassKey = 'code' | 'name' | 'nominal' | 'minusTol' | 'plusTol';
+
+/** One field of one size class, its label naming the class's place in the list. */
+function SizeClassField({
+  index,
+  field,
+  label,
+  unit,
+  number,
+}: {
+  index: number;
+  field: SizeClassKey;
+  label: string;
+  unit?: string | null;
+  number?: boolean;
+}) {
+  const id = useId();
+  const { register, formState } = useFormContext<FieldValues>();
+  const rows = formState.errors.sizeClasses as unknown as
+    Record<number, Record<string, { message?: string }>> | undefined;
+  const error = rows?.[index]?.[field]?.message;
+  return (
+    <Field id={id} label={`Size class ${index + 1} ${label}`} error={error}>
+      <span className="flex items-center gap-2">
+        <Input
+          id={id}
+          type="text"
+          inputMode={number ? 'decimal' : undefined}
+          autoComplete="off"
+          mono
+          aria-invalid={error ? true : undefined}
+          aria-describedby={describedBy(id, undefined, error)}
+          {...register(`sizeClasses.${index}.${field}`, number ? { setValueAs: toNumber } : {})}
+        />
+        {unit && (
+          <span aria-hidden="true" className="w-10 shrink-0 font-mono text-sm text-ink-soft">
+            {unit}
+          </span>
+        )}
+      </span>
+    </Field>
+  );
+}
+
+/**
+ * Size classes: bored or ground to the smallest step that cleans up, each step with its own
+ * nominal and tolerances in the rule's unit. None means the part is judged on the limits above
+ * alone, and the station asks for no class.
+ */
+function SizeClassFields({ unit }: { unit: string | null }) {
+  const { control } = useFormContext<FieldValues>();
+  const rows = useFieldArray({ control, name: 'sizeClasses' });
+  return (
+    <fieldset className="flex flex-col gap-3 rounded-control border border-rule px-4 py-3">
+      <legend className="px-1 font-semibold">Size classes</legend>
+      <p className="text-sm text-ink-soft">
+        {rows.fields.length
+          ? 'The station records which class a part was machined to and judges it on that class. Codes as written on parts and boxes, e.g. STD or +0.25.'
+          : 'None: every part is judged on the limits above. Add classes for oversize bores or undersize journals.'}
+      </p>
+      {rows.fields.map((row, i) => (
+        <div
+          key={row.id}
+          role="group"
+          aria-label={`Size class ${i + 1}`}
+          className="grid grid-cols-1 items-start gap-3 border-t border-rule pt-3 sm:grid-cols-3"
+        >
+          <SizeClassField index={i} field="code" label="code" />
+          <SizeClassField index={i} field="name" label="name" />
+          <SizeClassField index={i} field="nominal" label="nominal" unit={unit} number />
+          <SizeClassField index={i} field="minusTol" label="minus tolerance" unit={unit} number />
+          <SizeClassField index={i} field="plusTol" label="plus tolerance" unit={unit} number />
+          <div className="sm:pt-6">
+            <Button
+              variant="danger"
+              icon="trash"
+              aria-label={`Remove size class ${i + 1}`}
+              onClick={() => rows.remove(i)}
+            >
+              Remove
+            </Button>
+          </div>
+        </div>
+      ))}
+      <div>
+        <Button
+          icon="plus"
+          disabled={rows.fields.length >= 12}
+          // keeps the focus in the field just typed in until the click lands: its blur re-validates
+          // the form, and the new row must not be lost to that re-render
+          onMouseDown={(e) => e.preventDefault()}
+          onClick={() => rows.append({ code: '', name: '', nominal: null, minusTol: 0, plusTol: null })}
+        >
+          Add a size class
+        </Button>
+      </div>
+    </fieldset>
+  );
+}
+
 function LimitFields({ unit }: { unit: string | null }) {
   const type = useWatch<FieldValues>({ name: 'limitType' }) as LimitType;
   return (
@@ -129,6 +229,7 @@ function LimitFields({ unit }: { unit: string | null }) {
           unit={unit}
         />
       </div>
+      <SizeClassFields unit={unit} />
       <TextAreaField
         name="sourceNote"
         label="Source note"

@@ -42,6 +42,8 @@ export const ENTITY_LABELS: Record<string, string> = {
   qualification: 'Qualifications',
   station_tablet: 'Station tablets',
   family_casting_number: 'Casting numbers',
+  customer: 'Customers',
+  supplier: 'Suppliers',
 };
 
 /** One record of a kind, as a person would say it before its id. */
@@ -69,6 +71,8 @@ const ONE: Record<string, string> = {
   qualification: 'Qualification',
   station_tablet: 'Station tablet',
   family_casting_number: 'Casting number',
+  customer: 'Customer',
+  supplier: 'Supplier',
 };
 
 /** The kind of item a serial names, from its prefix (shared/domain/serial.ts). */
@@ -167,6 +171,8 @@ export const ACTION_LABELS: Record<string, string> = {
   'family.updated': 'Engine family changed',
   'plant.updated': 'Plant settings changed',
   'defect_code.created': 'Defect code added',
+  'customer.created': 'Customer added',
+  'supplier.created': 'Supplier added',
   'defect_code.updated': 'Defect code changed',
   'core.received': 'Core received and accepted',
   'core.rejected': 'Core received and rejected',
