@@ -29,6 +29,37 @@ let item: ReturnType<typeof resultFixtures>['item'];
 let result: ReturnType<typeof resultFixtures>['result'];
 let station: ReturnType<typeof resultFixtures>['station'];
 
+/** A TARN-6 core received on `receivedOn` by the demo's receiving clerk and torn down by its operator. */
+async function tornDownTarn(
+  casting: string,
+  receivedOn: string,
+  kept: string[],
+  scrapped: { kind: string; reason: string }[] = [],
+) {
+  const core = await request(t.app)
+    .post('/api/cores')
+    .set('Cookie', cookies.demoReceiving!)
+    .send({
+      familyId: (await q<{ id: number }>(`SELECT id FROM engine_families WHERE code = 'TARN-6'`))[0]!.id,
+      castingNumber: casting,
+      source: 'customer_return',
+      customerId: (await q<{ id: number }>(`SELECT min(id) AS id FROM customers`))[0]!.id,
+      sourceReference: unique('RMA-'),
+      receivedOn,
+      complete: true,
+      grade: 'sound',
+      accepted: true,
+      creditDecision: 'full',
+    });
+  expect(core.status).toBe(201);
+  const td = await request(t.app)
+    .post(`/api/cores/${core.body.serial}/teardown`)
+    .set('Cookie', cookies.demoOperator!)
+    .send({ kept: kept.map((kind) => ({ kind })), scrapped });
+  expect(td.status).toBe(201);
+  return { core: core.body.serial as string, body: td.body };
+}
+
 describe('yields from a hand-counted fixture', () => {
   it('when results are first attempts, repeats, corrections and earlier tries, then FPY, RTY and the per-station split are as counted by hand', async () => {
     const fam = await freshFamily();
@@ -85,32 +116,14 @@ describe('yields from a hand-counted fixture', () => {
 
   it('when a core gives three parts, scraps one at teardown and one later, then its casting number salvages half', async () => {
     const casting = `SV ${unique('').slice(0, 8).toUpperCase()}`;
-    const core = await request(t.app)
-      .post('/api/cores')
-      .set('Cookie', cookies.demoReceiving!)
-      .send({
-        familyId: (await q<{ id: number }>(`SELECT id FROM engine_families WHERE code = 'TARN-6'`))[0]!.id,
-        castingNumber: casting,
-        source: 'customer_return',
-        customerId: (await q<{ id: number }>(`SELECT min(id) AS id FROM customers`))[0]!.id,
-        sourceReference: unique('RMA-'),
-        receivedOn: '2003-04-14',
-        complete: true,
-        grade: 'sound',
-        accepted: true,
-        creditDecision: 'full',
-      });
-    expect(core.status).toBe(201);
-    const td = await request(t.app)
-      .post(`/api/cores/${core.body.serial}/teardown`)
-      .set('Cookie', cookies.demoOperator!)
-      .send({
-        kept: [{ kind: 'block' }, { kind: 'crankshaft' }, { kind: 'cylinder_head' }],
-        scrapped: [{ kind: 'camshaft', reason: 'Lobes worn through' }],
-      });
-    expect(td.status).toBe(201);
+    const { body: td } = await tornDownTarn(
+      casting,
+      '2003-04-14',
+      ['block', 'crankshaft', 'cylinder_head'],
+      [{ kind: 'camshaft', reason: 'Lobes worn through' }],
+    );
     // the crankshaft scrapped later (its NCR's disposition, written here directly as the fixture)
-    const crank = td.body.teardown.kept.find((k: { kind: string }) => k.kind === 'crankshaft').serial;
+    const crank = td.teardown.kept.find((k: { kind: string }) => k.kind === 'crankshaft').serial;
     await q(`UPDATE items SET status = 'scrapped' WHERE serial = :s`, { s: crank });
     const y = (
       await request(t.app)
@@ -131,37 +144,17 @@ describe('yields from a hand-counted fixture', () => {
   });
 
   it('when parts of cores are scrapped at once, one is brought back and a receipt is corrected, then each core’s salvage row is its records’ count', async () => {
-    const familyId = (await q<{ id: number }>(`SELECT id FROM engine_families WHERE code = 'TARN-6'`))[0]!.id;
-    const customerId = (await q<{ id: number }>(`SELECT min(id) AS id FROM customers`))[0]!.id;
     const casting = `SR ${unique('').slice(0, 8).toUpperCase()}`;
     const cores: { id: number; parts: string[] }[] = [];
     for (let k = 0; k < 6; k++) {
-      const core = await request(t.app)
-        .post('/api/cores')
-        .set('Cookie', cookies.demoReceiving!)
-        .send({
-          familyId,
-          castingNumber: casting,
-          source: 'customer_return',
-          customerId,
-          sourceReference: unique('RMA-'),
-          receivedOn: '2003-05-14',
-          complete: true,
-          grade: 'sound',
-          accepted: true,
-          creditDecision: 'full',
-        });
-      expect(core.status).toBe(201);
-      const td = await request(t.app)
-        .post(`/api/cores/${core.body.serial}/teardown`)
-        .set('Cookie', cookies.demoOperator!)
-        .send({
-          kept: [{ kind: 'block' }, { kind: 'crankshaft' }, { kind: 'cylinder_head' }, { kind: 'camshaft' }],
-          scrapped: [],
-        });
-      expect(td.status).toBe(201);
-      const [row] = await q<{ id: number }>(`SELECT id FROM items WHERE serial = :s`, { s: core.body.serial });
-      cores.push({ id: row!.id, parts: td.body.teardown.kept.map((p: { serial: string }) => p.serial) });
+      const { core, body } = await tornDownTarn(casting, '2003-05-14', [
+        'block',
+        'crankshaft',
+        'cylinder_head',
+        'camshaft',
+      ]);
+      const [row] = await q<{ id: number }>(`SELECT id FROM items WHERE serial = :s`, { s: core });
+      cores.push({ id: row!.id, parts: body.teardown.kept.map((p: { serial: string }) => p.serial) });
     }
     // every kept part of every core scrapped at once, each after a random pause of up to 30 ms, so
     // the four increments of one core's row cross in every order
