@@ -1,7 +1,8 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEvent, Characteristic } from '../../server/models/index.js';
-import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, unique, type TestApp } from '../support/app.js';
+import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
+import { ownCharacteristic } from '../support/characteristics.js';
 
 let t: TestApp;
 let author: string;
@@ -16,33 +17,7 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-/**
- * A characteristic of the test's own, at a stage of its own that no route or station uses, so no
- * other test's parts are asked for it.
- */
-async function newCharacteristic() {
-  const stage = `cv-stage-${unique('').slice(0, 8)}`;
-  const made = await request(t.app)
-    .post('/api/process/stages')
-    .set('Cookie', author)
-    .send({ code: stage, partKind: 'block', name: 'Deck check of the test' });
-  expect(made.status).toBe(201);
-  const res = await request(t.app)
-    .post('/api/process/characteristics')
-    .set('Cookie', author)
-    .send({
-      stage,
-      code: `cv-${unique('').slice(0, 8)}`,
-      name: 'Deck height',
-      kind: 'variable',
-      unit: 'mm',
-      resolution: 0.01,
-      physicalMin: 100,
-      physicalMax: 300,
-    });
-  expect(res.status).toBe(201);
-  return res.body as { id: number };
-}
+const newCharacteristic = () => ownCharacteristic(t, author, 'cv', 'Deck check of the test');
 
 const approve = (cookie: string, id: number, body: object = {}) =>
   request(t.app)

@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CharacteristicVersion, ProcessImport, Signature } from '../../server/models/index.js';
 import { TEST_PASSWORD, cookieFor, makeUser, unique, type TestApp } from '../support/app.js';
 import { expectCommitTimestamps, ownDatabase } from '../support/own-database.js';
+import { ownCharacteristic } from '../support/characteristics.js';
 
 /**
  * The process definition's "one draft at a time" rules under races: a characteristic has at most
@@ -55,30 +56,7 @@ async function timed(fn: () => PromiseLike<{ status: number }>, status: number) 
   return Math.max(4, performance.now() - started);
 }
 
-/** A characteristic of the drill's own, at a stage of its own that no route or station uses. */
-async function newCharacteristic() {
-  const stage = `race-stage-${unique('').slice(0, 8)}`;
-  const made = await request(t.app)
-    .post('/api/process/stages')
-    .set('Cookie', author)
-    .send({ code: stage, partKind: 'block', name: 'Deck check of the race drill' });
-  expect(made.status).toBe(201);
-  const res = await request(t.app)
-    .post('/api/process/characteristics')
-    .set('Cookie', author)
-    .send({
-      stage,
-      code: `race-${unique('').slice(0, 8)}`,
-      name: 'Deck height',
-      kind: 'variable',
-      unit: 'mm',
-      resolution: 0.01,
-      physicalMin: 100,
-      physicalMax: 300,
-    });
-  expect(res.status).toBe(201);
-  return res.body.id as number;
-}
+const newCharacteristic = async () => (await ownCharacteristic(t, author, 'race', 'Deck check of the race drill')).id;
 
 const draftChange = (cookie: string, id: number, note: string) =>
   request(t.app)

@@ -83,8 +83,8 @@ export const LOSSES_SQL = `SELECT count(*) FILTER (WHERE n.disposition = 'scrap'
 /**
  * Salvage per core source and casting number: the cores torn down, the parts they gave, and what
  * was scrapped, summed from `core_salvage` (one row per torn-down core, kept by triggers: see
- * db/migrations/…-core-salvage). `SALVAGE_FROM_RECORDS_SQL` counts the same from the records
- * themselves; the tests hold the two equal.
+ * db/migrations/…-core-salvage, whose `coreSalvageFromRecordsSql` counts a core from its records;
+ * tests/api/line.test.ts holds the two equal).
  */
 export const SALVAGE_SQL = `
   SELECT c.source, c.casting_number, count(*)::int AS cores, sum(c.kept)::int AS kept,
@@ -92,25 +92,6 @@ export const SALVAGE_SQL = `
     FROM core_salvage c
    WHERE c.received_on BETWEEN CAST(:from AS date) AND CAST(:to AS date)
      AND (CAST(:family AS int) IS NULL OR c.engine_family_id = :family)
-   GROUP BY c.source, c.casting_number
-   ORDER BY count(*) DESC, c.source, c.casting_number
-   LIMIT 100`;
-
-export const SALVAGE_FROM_RECORDS_SQL = `
-  WITH c AS MATERIALIZED (
-    SELECT cr.source, cr.casting_number, i.id,
-           jsonb_array_length(coalesce(i.attributes->'teardown'->'scrapped', '[]'::jsonb)) AS scrapped_at_teardown
-      FROM core_receipts cr JOIN items i ON i.id = cr.item_id
-     WHERE cr.received_on BETWEEN CAST(:from AS date) AND CAST(:to AS date) AND i.status = 'torn_down'
-       AND (CAST(:family AS int) IS NULL OR i.engine_family_id = :family)),
-  k AS (
-    SELECT l.parent_item_id AS core_id, count(*) AS kept, count(*) FILTER (WHERE p.status = 'scrapped') AS scrapped_later
-      FROM c JOIN item_links l ON l.parent_item_id = c.id AND l.link_type = 'harvested_from'
-      JOIN items p ON p.id = l.child_item_id
-     GROUP BY 1)
-  SELECT c.source, c.casting_number, count(*)::int AS cores, coalesce(sum(k.kept), 0)::int AS kept,
-         sum(c.scrapped_at_teardown)::int AS scrapped_at_teardown, coalesce(sum(k.scrapped_later), 0)::int AS scrapped_later
-    FROM c LEFT JOIN k ON k.core_id = c.id
    GROUP BY c.source, c.casting_number
    ORDER BY count(*) DESC, c.source, c.casting_number
    LIMIT 100`;

@@ -8,7 +8,7 @@
 export { NCR_STATE_LABELS, OPEN_NCR_STATES } from '../../../shared/schemas/ncr.js';
 export { blockingNcrsOf, openNcrsOf, subjectOf } from './holds.js';
 export { listNcrs, ncrListSql } from './list.js';
-export { allowedActions, ncrDetail } from './present.js';
+export { ncrDetail } from './present.js';
 export { raiseConcern, raiseNonconformance, type FailingReading } from './raise.js';
 export {
   assignNcr,

@@ -1,11 +1,10 @@
 import { Op } from 'sequelize';
 import type { Role } from '../../../shared/roles.js';
-import { type NcrAction, type NcrDetail, type NcrState } from '../../../shared/schemas/ncr.js';
+import { type NcrDetail, type NcrState } from '../../../shared/schemas/ncr.js';
 import { type Ctx } from '../../audit.js';
 import {
   DefectCode,
   Item,
-  Nonconformance,
   NonconformanceTransition,
   PartLot,
   Signature,
@@ -22,11 +21,6 @@ import { presentSignature } from '../signatures.js';
 import { ncrActionsOpen } from '../../../shared/domain/ncr-lifecycle.js';
 import type { FailingReading } from './raise.js';
 import { findNcr } from './steps.js';
-
-/** The steps open to this person now. */
-export function allowedActions(ncr: Nonconformance, role: Role | undefined, userId?: number): NcrAction[] {
-  return ncrActionsOpen(ncr, role, userId);
-}
 
 export async function ncrDetail(number: string, ctx: Ctx): Promise<NcrDetail> {
   const ncr = await findNcr(number);
@@ -124,6 +118,6 @@ export async function ncrDetail(number: string, ctx: Ctx): Promise<NcrDetail> {
     timeline,
     signatures: signatures.map(presentSignature),
     photos: [...resultPhotos, ...ownPhotos],
-    allowed: allowedActions(ncr, ctx.actor?.role as Role | undefined, ctx.actor?.id),
+    allowed: ncrActionsOpen(ncr, ctx.actor?.role as Role | undefined, ctx.actor?.id),
   };
 }
