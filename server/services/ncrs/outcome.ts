@@ -10,6 +10,8 @@ import { NCR_LIFECYCLE } from '../../../shared/domain/ncr-lifecycle.js';
 import { decidedMail } from './mail.js';
 import { transition } from './steps.js';
 import { nextStep } from '../../../shared/domain/route.js';
+import type { ItemStatus } from '../../../shared/domain/item-lifecycle.js';
+import { moveItem, moveItemQuietly, type ItemMove } from '../item-moves.js';
 
 /**
  * Lets the item go when no open NCR holds it any more. After a use-as-is on a failing result the
@@ -28,21 +30,22 @@ export async function releaseIfClear(ctx: Ctx, transaction: Transaction, item: I
     // only a decided rework is left: the part may now go through the stage it was sent back to
     const stageId = reworks[0]!.reworkStageId;
     if (item.status !== 'in_process' || item.currentStageId !== stageId) {
-      const before = { status: item.status, currentStage: item.currentStageId };
-      await item.update({ status: 'in_process', currentStageId: stageId }, { transaction });
-      await recordAudit(ctx, transaction, {
-        action: 'item.released_for_rework',
-        entity: 'item',
-        entityId: item.serial,
-        before,
-        after: { status: 'in_process', currentStage: stageId, byNcr: ncr.number, rework: reworks[0]!.number },
-      });
+      await moveItem(
+        ctx,
+        transaction,
+        item,
+        { status: 'in_process', currentStageId: stageId },
+        'item.released_for_rework',
+        {
+          byNcr: ncr.number,
+          rework: reworks[0]!.number,
+        },
+      );
     }
     return;
   }
   if (open.length) return;
-  const before = { status: item.status, currentStage: item.currentStageId };
-  let next: Partial<Item>;
+  let next: ItemMove;
   const result = ncr.stageResultId ? await StageResult.findByPk(ncr.stageResultId, { transaction }) : null;
   // a use-as-is accepts the failure; a void after a passing correction means the stage was passed
   const corrected = result
@@ -59,18 +62,13 @@ export async function releaseIfClear(ctx: Ctx, transaction: Transaction, item: I
     let back = ncr.itemStatusBefore && ncr.itemStatusBefore !== 'on_hold' ? ncr.itemStatusBefore : 'in_process';
     // held while it was in a unit, taken out since: it is a finished part again, not installed
     if (back === 'installed' && !(await installedIn(item.id, transaction))) back = 'finished';
-    next = { status: back };
+    next = { status: back as ItemStatus };
   }
   if (next.status === item.status && (next.currentStageId ?? item.currentStageId) === item.currentStageId) return;
-  await item.update(next, { transaction });
-  await notifyIfReleasable(item.sequelize as Sequelize, item.id, transaction);
-  await recordAudit(ctx, transaction, {
-    action: 'item.released_from_hold',
-    entity: 'item',
-    entityId: item.serial,
-    before,
-    after: { status: item.status, currentStage: item.currentStageId, byNcr: ncr.number },
+  await moveItem(ctx, transaction, item, { currentStageId: item.currentStageId, ...next }, 'item.released_from_hold', {
+    byNcr: ncr.number,
   });
+  await notifyIfReleasable(item.sequelize as Sequelize, item.id, transaction);
 }
 
 /**
@@ -114,30 +112,19 @@ export async function carryOut(
   switch (ncr.disposition) {
     case 'rework':
     case 'repair': {
-      const before = { status: item.status, currentStage: item.currentStageId };
-      await item.update({ status: 'on_hold', currentStageId: ncr.reworkStageId }, { transaction: t });
-      await recordAudit(ctx, t, {
-        action: 'item.sent_back',
-        entity: 'item',
-        entityId: item.serial,
-        before,
-        after: { currentStage: ncr.reworkStageId, byNcr: ncr.number, disposition: ncr.disposition },
+      await moveItem(ctx, t, item, { status: 'on_hold', currentStageId: ncr.reworkStageId }, 'item.sent_back', {
+        byNcr: ncr.number,
+        disposition: ncr.disposition,
       });
       // with no other NCR holding it, the part may now be recorded at the rework stage
       if (!(await blockingNcrsOf(item.id, ncr.reworkStageId!, t)).length) {
-        await item.update({ status: 'in_process' }, { transaction: t });
+        await moveItemQuietly(t, item, { status: 'in_process' });
       }
       return;
     }
     case 'scrap': {
-      const before = { status: item.status };
-      await item.update({ status: 'scrapped', currentStageId: null }, { transaction: t });
-      await recordAudit(ctx, t, {
-        action: 'item.scrapped',
-        entity: 'item',
-        entityId: item.serial,
-        before,
-        after: { status: 'scrapped', byNcr: ncr.number },
+      await moveItem(ctx, t, item, { status: 'scrapped', currentStageId: null }, 'item.scrapped', {
+        byNcr: ncr.number,
       });
       await transition(ctx, t, ncr, 'closed', 'Scrapped: nothing further to do');
       return;

@@ -1,6 +1,7 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { type NcrDetail, type RaiseNcrBody, type Severity } from '../../../shared/schemas/ncr.js';
 import { recordAudit, type Ctx } from '../../audit.js';
+import { moveItem } from '../item-moves.js';
 import { conflict, invalid } from '../../errors.js';
 import { enqueueMail } from '../../mail/messages.js';
 import { DefectCode, Item, Nonconformance, NonconformanceTransition, PartLot, Supplier } from '../../models/index.js';
@@ -138,15 +139,7 @@ export async function raiseConcern(sequelize: Sequelize, ctx: Ctx, body: RaiseNc
     });
     await claimUploads(ctx, transaction, body.photoIds, 'nonconformance', ncr.number);
     if (holds && item.status !== 'on_hold') {
-      const before = { status: item.status };
-      await item.update({ status: 'on_hold' }, { transaction });
-      await recordAudit(ctx, transaction, {
-        action: 'item.held',
-        entity: 'item',
-        entityId: item.serial,
-        before,
-        after: { status: 'on_hold', byNcr: ncr.number },
-      });
+      await moveItem(ctx, transaction, item, { status: 'on_hold' }, 'item.held', { byNcr: ncr.number });
     }
     return ncr.number;
   });

@@ -9,6 +9,7 @@ import {
   type returnUnitBody,
 } from '../../../shared/schemas/warranty.js';
 import { recordAudit, type Ctx } from '../../audit.js';
+import { moveItem } from '../item-moves.js';
 import { conflict, notFound } from '../../errors.js';
 import { enqueueMail, quoted } from '../../mail/messages.js';
 import { Customer, Item, Shipment, WarrantyClaim } from '../../models/index.js';
@@ -71,8 +72,6 @@ export async function returnUnit(sequelize: Sequelize, ctx: Ctx, number: string,
     });
     const now = new Date();
     await shipment.update({ returnedAt: now }, { transaction });
-    const before = { status: unit.status };
-    await unit.update({ status: 'returned', currentStageId: null }, { transaction });
     await claim.update({ unitReturnedAt: now, returnedById: user.id }, { transaction });
     await recordAudit(ctx, transaction, {
       action: 'warranty_claim.unit_returned',
@@ -80,12 +79,9 @@ export async function returnUnit(sequelize: Sequelize, ctx: Ctx, number: string,
       entityId: number,
       after: { unit: unit.serial, shipment: shipment.reference, returnedAt: now, note: body.note, signedBy: user.name },
     });
-    await recordAudit(ctx, transaction, {
-      action: 'item.returned',
-      entity: 'item',
-      entityId: unit.serial,
-      before,
-      after: { status: 'returned', claim: number, shipment: shipment.reference },
+    await moveItem(ctx, transaction, unit, { status: 'returned', currentStageId: null }, 'item.returned', {
+      claim: number,
+      shipment: shipment.reference,
     });
     const to = await addressesOf(['warranty', 'supervisor'], transaction);
     await enqueueMail(
