@@ -1,4 +1,5 @@
 import fs from 'node:fs';
+import type { ApiError as ApiErrorReply } from '../shared/schemas/common.js';
 import path from 'node:path';
 import compression from 'compression';
 import cookieParser from 'cookie-parser';
@@ -100,7 +101,7 @@ export function createApp({
           message: 'The server is restarting. Try again in a moment.',
           requestId: req.id,
         },
-      });
+      } satisfies ApiErrorReply);
       return;
     }
     next();
@@ -152,7 +153,7 @@ export function createApp({
         message: `No API route ${req.method} ${req.baseUrl}${req.path}.`,
         requestId: req.id,
       },
-    });
+    } satisfies ApiErrorReply);
   });
   router.use(errorHandler);
   app.use('/api', router);

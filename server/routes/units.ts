@@ -157,7 +157,6 @@ export function unitRoutes(api: Api, sequelize: Sequelize, config: Config, read:
       const parsed = parseRunCsv(body.csv, family.cylinders);
       if (!parsed.ok) {
         throw new AppError(
-          400,
           'invalid_csv',
           parsed.message,
           { csv: parsed.message },

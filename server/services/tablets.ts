@@ -104,7 +104,7 @@ export async function setOwnPin(sequelize: Sequelize, ctx: Ctx, pin: string, pas
   await sequelize.transaction(async (transaction) => {
     const user = (await User.findByPk(ctx.actor!.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
     if (!(await checkPassword(password, user.passwordHash))) {
-      throw new AppError(400, 'wrong_password', 'That is not your password. Your PIN was not changed.', {
+      throw new AppError('wrong_password', 'That is not your password. Your PIN was not changed.', {
         password: 'That is not your password.',
       });
     }
@@ -149,7 +149,7 @@ export async function identify(limits: PinLimits, tablet: AuthedTablet, badge: s
   if (!ok || !user) {
     limits.badge.fail(badgeKey);
     limits.tablet.fail(tabletKey);
-    throw new AppError(400, 'pin_refused', REFUSED, { pin: 'Badge and PIN do not match.' });
+    throw new AppError('pin_refused', REFUSED, { pin: 'Badge and PIN do not match.' });
   }
   return user;
 }
