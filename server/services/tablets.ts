@@ -1,7 +1,7 @@
 import type { Sequelize } from 'sequelize';
 import type { EnrolTabletBody, TabletJson, TabletResultBody } from '../../shared/schemas/tablets.js';
 import { can } from '../../shared/permissions.js';
-import { recordAudit, type Ctx } from '../audit.js';
+import { auditedUpdate, recordAudit, type Ctx } from '../audit.js';
 import { AppError, conflict, invalid, notFound, tooMany } from '../errors.js';
 import { FailureLimiter } from '../http/limits.js';
 import type { AuthedTablet } from '../middleware/tablet.js';
@@ -86,15 +86,13 @@ export async function setBadge(sequelize: Sequelize, ctx: Ctx, userId: number, b
     if (taken && taken.id !== user.id) {
       throw conflict(`Badge ${value} is already ${taken.name}'s.`, { reason: 'badge_taken' });
     }
-    const before = { badge: user.badge ?? null };
-    await user.update({ badge: value }, { transaction });
-    await recordAudit(ctx, transaction, {
-      action: 'user.badge_set',
-      entity: 'user',
-      entityId: user.id,
-      before,
-      after: { badge: value },
-    });
+    await auditedUpdate(
+      ctx,
+      transaction,
+      user,
+      { badge: value },
+      { action: 'user.badge_set', entity: 'user', entityId: user.id },
+    );
   });
 }
 
