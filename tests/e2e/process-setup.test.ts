@@ -388,6 +388,7 @@ describe('a plant set up from an empty database, through the screens', () => {
     await g.getByRole('textbox', { name: 'Range from' }).fill('75');
     await g.getByRole('textbox', { name: 'Range to' }).fill('100');
     await g.getByRole('textbox', { name: 'Calibration interval (days)' }).fill('180');
+    await quality.screenshot({ path: path.join(shots, 'setup-add-gauge-1440.png') });
     await g.getByRole('button', { name: 'Add gauge' }).click();
     await quality.getByRole('heading', { level: 1, name: new RegExp(GAUGE) }).waitFor();
     const cal = quality.getByRole('form', { name: 'Record a calibration' });
@@ -507,10 +508,7 @@ describe('a plant set up from an empty database, through the screens', () => {
       await p.getByLabel('Gauge used').selectOption(GAUGE);
     }
     await p.getByRole('button', { name: 'Record result' }).click();
-    await p.getByRole('heading', { level: 2, name: 'Passed' }).waitFor({ timeout: 8000 }).catch(async (e) => {
-      await p.screenshot({ path: '/tmp/setup-fail.png', fullPage: true });
-      throw e;
-    });
+    await p.getByRole('heading', { level: 2, name: 'Passed' }).waitFor();
   }
 
   it('then the operator records the block, the crankshaft and the head at each of their stations', async () => {
@@ -557,9 +555,19 @@ describe('a plant set up from an empty database, through the screens', () => {
 
     const s = await session(people.shipping);
     await s.goto(`${served.base}/release?serial=${parts.unit}`);
-    await s.getByLabel('Customer').selectOption({ label: 'Brookfield Fleet Works' });
+    await s.getByLabel('Customer').selectOption({ label: 'Brookfield Fleet Works (C300)' });
     await s.getByLabel('Order reference').fill('BFW-SO-1001');
     await s.getByText('released for shipment').first().waitFor();
+    // the gate saw the run test by its stage's code, and every stage of the unit and its parts passed
+    const gate = s.getByRole('list', { name: 'Release gate checks' });
+    for (const label of [
+      'The run test passed',
+      'Every required stage of the unit and its parts has a current passing result',
+    ]) {
+      const text = await gate.getByRole('listitem').filter({ hasText: label }).textContent();
+      expect([text?.includes('Met'), text?.includes('Not met')]).toEqual([true, false]);
+    }
+    await s.screenshot({ path: path.join(shots, 'setup-release-gate-1440.png'), fullPage: true });
     await s.getByLabel('Password').fill(TEST_PASSWORD);
     await s.getByRole('button', { name: 'Sign, release and ship' }).click();
     await s.getByText('BFW-SO-1001').first().waitFor();
