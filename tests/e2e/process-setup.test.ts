@@ -479,7 +479,7 @@ describe('a plant set up from an empty database, through the screens', () => {
   async function record(
     station: string,
     serial: string,
-    { value, sizeClass, typeIn }: { value?: string; sizeClass?: string; typeIn?: string } = {},
+    { value, sizeClass, typeIn, shot }: { value?: string; sizeClass?: string; typeIn?: string; shot?: string } = {},
   ) {
     const p = operator;
     await p.goto(`${served.base}/station`);
@@ -507,6 +507,7 @@ describe('a plant set up from an empty database, through the screens', () => {
     if (form.characteristics.some((c) => c.kind === 'variable')) {
       await p.getByLabel('Gauge used').selectOption(GAUGE);
     }
+    if (shot) await p.screenshot({ path: path.join(shots, shot), fullPage: true });
     await p.getByRole('button', { name: 'Record result' }).click();
     await p.getByRole('heading', { level: 2, name: 'Passed' }).waitFor();
   }
@@ -516,8 +517,12 @@ describe('a plant set up from an empty database, through the screens', () => {
     await record('WW-1', parts.block, { value: '84.020', typeIn: 'mm' });
     await operator.screenshot({ path: path.join(shots, 'setup-station-wash-1440.png'), fullPage: true });
     // honed 0.020 in over: the operator says so, and the bores are judged to that class
-    await record('WB-1', parts.block, { value: '3.3275', sizeClass: 'OS20', typeIn: 'in' });
-    await operator.screenshot({ path: path.join(shots, 'setup-station-bore-1440.png'), fullPage: true });
+    await record('WB-1', parts.block, {
+      value: '3.3275',
+      sizeClass: 'OS20',
+      typeIn: 'in',
+      shot: 'setup-station-bore-1440.png',
+    });
     await record('WC-1', parts.crankshaft);
     await record('WH-1', parts.head);
     const block = (await Item.findOne({ where: { serial: parts.block } }))!;
