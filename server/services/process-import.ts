@@ -252,6 +252,7 @@ export async function applyDocument(
         partKind: s.partKind as Stage['partKind'],
         hazard: s.caution,
         hazardous: s.hazardous,
+        runTest: s.runTest,
         description: s.description,
       },
       { transaction },
