@@ -14,6 +14,7 @@ import { AppError, invalid } from '../errors.js';
 import { appLink } from '../mail/links.js';
 import { enqueueMail } from '../mail/messages.js';
 import { Customer, EngineFamily, Item, Shipment, User } from '../models/index.js';
+import { moveItemQuietly } from './item-moves.js';
 import { findBySerial } from './items.js';
 import { plantSettings } from './plant.js';
 import { signWithPassword } from './signatures.js';
@@ -317,7 +318,8 @@ export async function releaseUnit(sequelize: Sequelize, ctx: Ctx, serial: string
       { transaction },
     );
     const before = { status: unit.status };
-    await unit.update({ status: 'shipped', currentStageId: null }, { transaction });
+    // the release's own event below carries the move, with the checks and the signature
+    await moveItemQuietly(transaction, unit, { status: 'shipped', currentStageId: null });
     await recordAudit(ctx, transaction, {
       action: 'unit.released',
       entity: 'item',
