@@ -1,7 +1,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import AxeBuilder from '@axe-core/playwright';
-import type { Browser, Page } from 'playwright-core';
+import type { Browser, Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Characteristic, EngineFamily, ProcessImport, Route, Stage, type User } from '../../server/models/index.js';
 import { TEST_PASSWORD, makeUser, unique } from '../support/app.js';
@@ -86,14 +86,22 @@ async function session(user: User, width = 1440, height = 900): Promise<Page> {
 }
 
 /** At 1024×768 on a touch screen: every target big enough, no serious axe problem, a screenshot. */
-async function onTablet(user: User, url: string, shot: string, ready: (p: Page) => Promise<unknown>) {
+async function onTablet(
+  user: User,
+  url: string,
+  shot: string,
+  ready: (p: Page) => Promise<unknown>,
+  /** The part of a long page to picture; the whole page otherwise. */
+  part?: (p: Page) => Locator,
+) {
   const p = await session(user, 1024, 768);
   await p.goto(`${served.base}${url}`);
   await ready(p);
   expect(await smallTargets(p)).toEqual([]);
   expect(await axeProblems(p)).toEqual([]);
   expect(await p.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(1024);
-  await p.screenshot({ path: path.join(shots, shot), fullPage: true });
+  if (part) await part(p).screenshot({ path: path.join(shots, shot) });
+  else await p.screenshot({ path: path.join(shots, shot), fullPage: true });
   await p.context().close();
 }
 
@@ -201,12 +209,12 @@ describe('the process document screen', () => {
     const other = await session(approver);
     await other.goto(`${served.base}/admin/process/document`);
     const waiting = other.getByRole('region', { name: `Import ${imp.id}: waiting for approval` });
-    await waiting.getByRole('textbox', { name: 'Reason' }).fill('Wash line agreed at the process review');
+    await waiting.getByRole('textbox', { name: 'Reason' }).fill(`Wash line agreed at the process review ${tag}`);
     await waiting.getByRole('button', { name: 'Approve and sign…' }).click();
     const sign = other.getByRole('dialog', { name: 'Approve and sign' });
     await sign.getByText('Tomas Lindqvist').waitFor();
     await sign.getByText(`process import ${imp.id}`).waitFor();
-    await sign.getByText('Wash line agreed at the process review').waitFor();
+    await sign.getByText(`Wash line agreed at the process review ${tag}`).waitFor();
     await sign.getByText('As soon as you sign').waitFor();
     // a wrong password is refused in the server's words, and nothing is applied
     await sign.getByLabel('Password').fill('not-the-password');
@@ -217,7 +225,10 @@ describe('the process document screen', () => {
     await sign.getByLabel('Password').fill(TEST_PASSWORD);
     await sign.getByRole('button', { name: 'Approve and sign' }).click();
     await other.getByText(`Import ${imp.id} approved.`).waitFor();
-    const row = other.getByRole('table', { name: 'Imports' }).getByRole('row').filter({ hasText: 'Wash line agreed' });
+    const row = other
+      .getByRole('table', { name: 'Imports' })
+      .getByRole('row')
+      .filter({ hasText: `Wash line agreed at the process review ${tag}` });
     await row.getByText('Approved').waitFor();
     await row.getByText('Tomas Lindqvist').waitFor();
     await row.getByText('Ada Okafor').waitFor();
@@ -243,15 +254,17 @@ describe('the process document screen', () => {
     await history.getByRole('button', { name: 'Propose a change' }).click();
     const d = page.getByRole('dialog', { name: 'Propose a change to Galleries clean' });
     await d.getByRole('textbox', { name: 'Name', exact: true }).fill('Oil galleries clean and clear');
-    await d.getByLabel('Critical: a failure holds the part').check();
+    await d.getByLabel('Critical characteristic').check();
     await d.getByRole('textbox', { name: 'What changes and why' }).fill('Galleries blocked twice last month');
+    await page.screenshot({ path: path.join(shots, 'characteristic-change-propose-1440.png') });
     await d.getByRole('button', { name: 'Save draft' }).click();
     await d.waitFor({ state: 'hidden' });
     await history.getByText('Version 2 is a draft').waitFor();
     await history.getByText('Someone else approves this draft: you drafted it.').waitFor();
     expect(await history.getByRole('button', { name: 'Approve and sign…' }).count()).toBe(0);
     await page.getByRole('region', { name: 'Characteristic changes waiting for approval' }).waitFor();
-    await page.screenshot({ path: path.join(shots, 'characteristic-change-draft-1440.png'), fullPage: true });
+    // the Process page is long: the changes part of it is pictured
+    await history.screenshot({ path: path.join(shots, 'characteristic-change-draft-1440.png') });
     await page.context().close();
 
     const other = await session(approver);
@@ -271,12 +284,21 @@ describe('the process document screen', () => {
     expect(await changed('Name')).toContain('Changed');
     expect(await changed('Critical')).toContain('Changed');
     expect(await changed('Gauge kinds')).toContain('Same');
-    await other.screenshot({ path: path.join(shots, 'characteristic-change-compare-1440.png'), fullPage: true });
+    await other
+      .getByRole('region', { name: 'Characteristic changes waiting for approval' })
+      .screenshot({ path: path.join(shots, 'characteristic-change-waiting-1440.png') });
+    await review.screenshot({ path: path.join(shots, 'characteristic-change-compare-1440.png') });
 
-    await onTablet(approver, '/admin/process', 'characteristic-change-compare-1024.png', async (p) => {
-      await p.getByRole('button', { name: `Review the change to ${STAGE} ${CHAR}` }).click();
-      await p.getByRole('table', { name: /Version 1 beside version 2/ }).waitFor();
-    });
+    await onTablet(
+      approver,
+      '/admin/process',
+      'characteristic-change-compare-1024.png',
+      async (p) => {
+        await p.getByRole('button', { name: `Review the change to ${STAGE} ${CHAR}` }).click();
+        await p.getByRole('table', { name: /Version 1 beside version 2/ }).waitFor();
+      },
+      (p) => p.getByRole('region', { name: /^Changes to / }),
+    );
 
     await review.getByRole('textbox', { name: 'Reason' }).fill('Blocked galleries seen at run test');
     await review.getByRole('button', { name: 'Approve and sign…' }).click();
@@ -285,7 +307,7 @@ describe('the process document screen', () => {
     await sign.getByLabel('Password').fill(TEST_PASSWORD);
     await sign.getByRole('button', { name: 'Approve and sign' }).click();
     await review.getByText('Version 2 approved by Tomas Lindqvist; in force now.').waitFor();
-    await other.screenshot({ path: path.join(shots, 'characteristic-change-approved-1440.png'), fullPage: true });
+    await review.screenshot({ path: path.join(shots, 'characteristic-change-approved-1440.png') });
     await c.reload();
     expect([c.name, c.critical]).toEqual(['Oil galleries clean and clear', true]);
     await other.context().close();

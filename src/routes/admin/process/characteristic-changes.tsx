@@ -38,7 +38,7 @@ export const FIELD_LABELS: Record<DefField, string> = {
   optional: 'May be skipped at the station',
   help: 'Help shown at the station',
   gaugeKinds: 'Gauge kinds',
-  defectCode: 'Defect code on failure',
+  defectCode: 'Defect code for its NCR',
   physicalMin: 'Lowest possible value',
   physicalMax: 'Highest possible value',
   matesWith: 'Size class matches',
@@ -145,7 +145,7 @@ export function ProposeChangeDialog({ c, onClose }: { c: CharacteristicJson; onC
         >
           <TextField name="name" label="Name" />
           <div className="grid grid-cols-1 gap-3 md:grid-cols-2">
-            <CheckboxField name="critical" label="Critical: a failure holds the part" />
+            <CheckboxField name="critical" label="Critical characteristic" />
             <CheckboxField name="optional" label="May be skipped at the station" />
           </div>
           <TextAreaField name="help" label="Help shown at the station" />
@@ -155,7 +155,7 @@ export function ProposeChangeDialog({ c, onClose }: { c: CharacteristicJson; onC
               label="Gauge kinds"
               hint="Separated by commas; empty means any suitable gauge."
             />
-            <TextField name="defectCode" label="Defect code on failure" mono hint="Empty for none." />
+            <TextField name="defectCode" label="Defect code for its NCR" mono hint="Empty for none." />
             <TextField
               name="physicalMin"
               label={`Lowest possible value${c.unit ? ` (${c.unit})` : ''}`}
@@ -359,6 +359,43 @@ export function CharacteristicHistory({
               <p className="text-sm text-ink-soft">
                 Drafted by {draft.createdBy ?? '—'}: {draft.note}
               </p>
+            </section>
+          )}
+          {list.length > 1 && a !== undefined && b !== undefined && (
+            <section aria-labelledby="char-compare-heading" className="flex flex-col gap-3">
+              <h3 id="char-compare-heading" className="font-semibold">
+                Compare two versions
+              </h3>
+              <div className="flex flex-wrap gap-4">
+                <Field id="compare-left" label="Left">
+                  <Select
+                    id="compare-left"
+                    value={String(a)}
+                    options={options}
+                    onChange={(e) => setPick({ a: Number(e.target.value), b })}
+                  />
+                </Field>
+                <Field id="compare-right" label="Right">
+                  <Select
+                    id="compare-right"
+                    value={String(b)}
+                    options={options}
+                    onChange={(e) => setPick({ a, b: Number(e.target.value) })}
+                  />
+                </Field>
+              </div>
+              {a === b ? (
+                <p className="text-ink-soft">Choose two different versions.</p>
+              ) : (
+                <CharacteristicCompare a={a} b={b} />
+              )}
+            </section>
+          )}
+          {draft && (
+            <section
+              aria-label={`Approve or discard version ${draft.version}`}
+              className="flex flex-col gap-3 border-t border-rule pt-4"
+            >
               {draft.createdById === me.user.id ? (
                 <Notice tone="info">Someone else approves this draft: you drafted it.</Notice>
               ) : me.can('process.approve') ? (
@@ -396,36 +433,6 @@ export function CharacteristicHistory({
                   Discard draft version {draft.version}
                 </Button>
               </div>
-            </section>
-          )}
-          {list.length > 1 && a !== undefined && b !== undefined && (
-            <section aria-labelledby="char-compare-heading" className="flex flex-col gap-3">
-              <h3 id="char-compare-heading" className="font-semibold">
-                Compare two versions
-              </h3>
-              <div className="flex flex-wrap gap-4">
-                <Field id="compare-left" label="Left">
-                  <Select
-                    id="compare-left"
-                    value={String(a)}
-                    options={options}
-                    onChange={(e) => setPick({ a: Number(e.target.value), b })}
-                  />
-                </Field>
-                <Field id="compare-right" label="Right">
-                  <Select
-                    id="compare-right"
-                    value={String(b)}
-                    options={options}
-                    onChange={(e) => setPick({ a, b: Number(e.target.value) })}
-                  />
-                </Field>
-              </div>
-              {a === b ? (
-                <p className="text-ink-soft">Choose two different versions.</p>
-              ) : (
-                <CharacteristicCompare a={a} b={b} />
-              )}
             </section>
           )}
           {list.length > 0 && (

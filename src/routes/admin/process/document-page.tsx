@@ -53,6 +53,8 @@ function downloadJson(filename: string, body: unknown) {
   setTimeout(() => URL.revokeObjectURL(url), 10_000);
 }
 
+const SIGN_FIELDS = new Set(['reason', 'password', 'effectiveFrom']);
+
 const problemsOf = (err: ApiError): Problem[] =>
   Object.entries(err.fields).map(([path, message]) => ({ path, message }));
 
@@ -170,9 +172,9 @@ function ImportCard({ waiting }: { waiting: ProcessImportJson | undefined }) {
       />
       <CardBody>
         <div className="flex flex-col gap-4">
-          {waiting && (
+          {waiting && waiting.id !== draft.data?.id && (
             <Notice tone="hold">
-              Import {waiting.id} is already a draft: approve or discard it below before importing another.
+              Import {waiting.id} is already a draft: it is approved or discarded above before another is imported.
             </Notice>
           )}
           <Field
@@ -335,9 +337,10 @@ function DraftCard({
                   try {
                     onApproved(await approve.mutateAsync({ id: imp.id, ...body }));
                   } catch (err) {
-                    if (err instanceof ApiError && Object.keys(err.fields).length) {
-                      setProblems({ title: err.message, list: problemsOf(err) });
-                    }
+                    // the document no longer fits the plant: its problems by path (a password or
+                    // reason refused is shown on the form itself)
+                    const list = err instanceof ApiError ? problemsOf(err).filter((p) => !SIGN_FIELDS.has(p.path)) : [];
+                    if (err instanceof ApiError && list.length) setProblems({ title: err.message, list });
                     throw err;
                   }
                 }}
@@ -372,7 +375,7 @@ function planSummary(plan: ImportPlan): string {
     plan.stages.length +
     plan.characteristics.length +
     plan.castingNumbers.length;
-  return `Adds ${added}, ${plural(plan.routes.length, 'new route version')}, keeps ${plan.kept}`;
+  return `Adds ${plural(added, 'thing')}; ${plural(plan.routes.length, 'new route version')}; keeps ${plan.kept} as ${plan.kept === 1 ? 'it is' : 'they are'}`;
 }
 
 function PastImports({ imports }: { imports: ProcessImportJson[] }) {

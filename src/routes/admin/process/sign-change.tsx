@@ -27,7 +27,7 @@ function WhatIsTyped() {
       <dt className="text-sm text-ink-soft">Reason</dt>
       <dd>{reason?.trim() || '—'}</dd>
       <dt className="text-sm text-ink-soft">Takes effect</dt>
-      <dd className="font-mono">{iso ? formatWhen(iso) : 'As soon as you sign'}</dd>
+      <dd>{iso ? <span className="font-mono">{formatWhen(iso)}</span> : 'As soon as you sign'}</dd>
     </dl>
   );
 }
