@@ -91,7 +91,7 @@ async function onTablet(
   url: string,
   shot: string,
   ready: (p: Page) => Promise<unknown>,
-  /** The part of a long page to picture; the whole page otherwise. */
+  /** The part of a long page to picture, scrolled to the top of the screen; the whole page otherwise. */
   part?: (p: Page) => Locator,
 ) {
   const p = await session(user, 1024, 768);
@@ -100,8 +100,11 @@ async function onTablet(
   expect(await smallTargets(p)).toEqual([]);
   expect(await axeProblems(p)).toEqual([]);
   expect(await p.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(1024);
-  if (part) await part(p).screenshot({ path: path.join(shots, shot) });
-  else await p.screenshot({ path: path.join(shots, shot), fullPage: true });
+  if (part) {
+    // a long page on a touch screen: the part in view, as the tablet shows it
+    await part(p).evaluate((el) => el.scrollIntoView({ block: 'start' }));
+    await p.screenshot({ path: path.join(shots, shot) });
+  } else await p.screenshot({ path: path.join(shots, shot), fullPage: true });
   await p.context().close();
 }
 
@@ -297,7 +300,7 @@ describe('the process document screen', () => {
         await p.getByRole('button', { name: `Review the change to ${STAGE} ${CHAR}` }).click();
         await p.getByRole('table', { name: /Version 1 beside version 2/ }).waitFor();
       },
-      (p) => p.getByRole('region', { name: /^Changes to / }),
+      (p) => p.getByRole('region', { name: 'Compare two versions' }),
     );
 
     await review.getByRole('textbox', { name: 'Reason' }).fill('Blocked galleries seen at run test');
@@ -307,6 +310,8 @@ describe('the process document screen', () => {
     await sign.getByLabel('Password').fill(TEST_PASSWORD);
     await sign.getByRole('button', { name: 'Approve and sign' }).click();
     await review.getByText('Version 2 approved by Tomas Lindqvist; in force now.').waitFor();
+    // the two versions stay side by side: the one in force now beside the one it superseded
+    await review.getByText('2 fields change: Name, Critical.').waitFor();
     await review.screenshot({ path: path.join(shots, 'characteristic-change-approved-1440.png') });
     await c.reload();
     expect([c.name, c.critical]).toEqual(['Oil galleries clean and clear', true]);

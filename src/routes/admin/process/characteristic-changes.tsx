@@ -292,8 +292,9 @@ export function CharacteristicHistory({
   const draft = list.find((v) => v.status === 'draft');
   const inForce = list.find((v) => v.inForce);
   const [pick, setPick] = useState<{ a: number; b: number } | null>(null);
-  const a = pick?.a ?? inForce?.id ?? list[1]?.id;
-  const b = pick?.b ?? draft?.id ?? list[0]?.id;
+  // by default the draft beside the version in force, or else the newest beside the one before it
+  const b = pick?.b ?? (draft ?? list[0])?.id;
+  const a = pick?.a ?? ((draft && inForce) || list[1])?.id;
   const canPropose = me.can('process.edit') && !c.retired && c.kind !== 'derived' && !draft;
   const options = list.map((v) => ({
     value: String(v.id),
