@@ -156,25 +156,29 @@ export function ProposeChangeDialog({ c, onClose }: { c: CharacteristicJson; onC
               hint="Separated by commas; empty means any suitable gauge."
             />
             <TextField name="defectCode" label="Defect code for its NCR" mono hint="Empty for none." />
-            <TextField
-              name="physicalMin"
-              label={`Lowest possible value${c.unit ? ` (${c.unit})` : ''}`}
-              mono
-              inputMode="decimal"
-              hint="A reading below it is a typing slip, not a part."
-            />
-            <TextField
-              name="physicalMax"
-              label={`Highest possible value${c.unit ? ` (${c.unit})` : ''}`}
-              mono
-              inputMode="decimal"
-            />
-            <SelectField
-              name="matesWith"
-              label="Size class matches"
-              placeholder="No purchased part"
-              options={LOT_KINDS.map((k) => ({ value: k, label: LOT_KIND_LABELS[k] }))}
-            />
+            {c.kind === 'variable' && (
+              <>
+                <TextField
+                  name="physicalMin"
+                  label={`Lowest possible value${c.unit ? ` (${c.unit})` : ''}`}
+                  mono
+                  inputMode="decimal"
+                  hint="A reading outside these two is refused at the station as not possible."
+                />
+                <TextField
+                  name="physicalMax"
+                  label={`Highest possible value${c.unit ? ` (${c.unit})` : ''}`}
+                  mono
+                  inputMode="decimal"
+                />
+                <SelectField
+                  name="matesWith"
+                  label="Size class matches"
+                  placeholder="No purchased part"
+                  options={LOT_KINDS.map((k) => ({ value: k, label: LOT_KIND_LABELS[k] }))}
+                />
+              </>
+            )}
           </div>
           <TextAreaField name="note" label="What changes and why" />
           <DialogActions>
