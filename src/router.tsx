@@ -99,6 +99,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.processDocument,
+              lazy: async () => {
+                const m = await import('./routes/admin/process/document-page');
+                return { Component: m.DocumentPage, loader: m.documentLoader(queryClient) };
+              },
+            },
+            {
               path: paths.parties,
               lazy: async () => {
                 const m = await import('./routes/admin/parties/parties-page');

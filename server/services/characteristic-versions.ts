@@ -53,6 +53,7 @@ async function present(rows: CharacteristicVersion[], transaction?: Transaction)
     inForce: current.get(r.characteristicId) === r.version,
     definition: r.definition,
     note: r.note,
+    createdById: r.createdById ?? null,
     createdBy: r.createdById ? (names.get(r.createdById) ?? null) : null,
     approvedBy: r.approvedById ? (names.get(r.approvedById) ?? null) : null,
     approvedAt: r.approvedAt?.toISOString() ?? null,

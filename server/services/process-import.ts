@@ -157,6 +157,7 @@ async function present(imp: ProcessImport, transaction?: Transaction): Promise<P
     status: imp.status,
     note: imp.note,
     plan: imp.plan,
+    createdById: imp.createdById,
     createdBy: names.get(imp.createdById) ?? null,
     createdAt: imp.createdAt.toISOString(),
     approvedBy: imp.approvedById ? (names.get(imp.approvedById) ?? null) : null,

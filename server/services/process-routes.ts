@@ -67,6 +67,7 @@ async function present(loaded: Loaded[], stages: Map<number, Stage>, transaction
       (!r.effectiveFrom || r.effectiveFrom <= now) &&
       (!r.supersededAt || r.supersededAt > now),
     note: r.note,
+    createdById: r.createdById ?? null,
     createdBy: r.createdById ? (names.get(r.createdById) ?? null) : null,
     approvedBy: r.approvedById ? (names.get(r.approvedById) ?? null) : null,
     approvedAt: r.approvedAt?.toISOString() ?? null,

@@ -15,12 +15,14 @@ import { recordAudit, type Ctx } from '../audit.js';
 import { conflict, invalid, notFound } from '../errors.js';
 import {
   Characteristic,
+  CharacteristicVersion,
   DefectCode,
   EngineFamily,
   FamilyCastingNumber,
   PartKindRow,
   Stage,
   Station,
+  User,
 } from '../models/index.js';
 
 /**
@@ -201,7 +203,13 @@ export async function updateStage(sequelize: Sequelize, ctx: Ctx, id: number, bo
   });
 }
 
-export function presentCharacteristic(c: Characteristic, stages: Map<number, Stage>): CharacteristicJson {
+type ChangeDraft = CharacteristicJson['changeDraft'];
+
+export function presentCharacteristic(
+  c: Characteristic,
+  stages: Map<number, Stage>,
+  drafts: Map<number, ChangeDraft> = new Map(),
+): CharacteristicJson {
   return {
     id: c.id,
     stage: stages.get(c.stageId)?.code ?? '',
@@ -217,7 +225,29 @@ export function presentCharacteristic(c: Characteristic, stages: Map<number, Sta
     gaugeKinds: c.gaugeKinds,
     matesWith: c.matesWith ?? null,
     retired: !!c.retiredAt,
+    changeDraft: drafts.get(c.id) ?? null,
   };
+}
+
+/** The drafted changes waiting for approval, per characteristic (one at most each). */
+async function changeDrafts(): Promise<Map<number, ChangeDraft>> {
+  const rows = await CharacteristicVersion.findAll({ where: { status: 'draft' } });
+  const ids = [...new Set(rows.map((r) => r.createdById).filter((x): x is number => !!x))];
+  const names = new Map(
+    (await User.findAll({ where: { id: ids }, attributes: ['id', 'name'] })).map((u) => [u.id, u.name]),
+  );
+  return new Map(
+    rows.map((r) => [
+      r.characteristicId,
+      {
+        id: r.id,
+        version: r.version,
+        note: r.note,
+        createdById: r.createdById,
+        createdBy: r.createdById ? (names.get(r.createdById) ?? null) : null,
+      },
+    ]),
+  );
 }
 
 export async function listCharacteristics(stageCode?: string) {
@@ -233,7 +263,8 @@ export async function listCharacteristics(stageCode?: string) {
       ['id', 'ASC'],
     ],
   });
-  return rows.map((c) => presentCharacteristic(c, byId));
+  const drafts = await changeDrafts();
+  return rows.map((c) => presentCharacteristic(c, byId, drafts));
 }
 
 export async function createCharacteristic(sequelize: Sequelize, ctx: Ctx, body: CharacteristicBody) {

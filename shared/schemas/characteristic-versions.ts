@@ -51,6 +51,8 @@ export type CharacteristicVersionJson = {
   inForce: boolean;
   definition: CharacteristicDefinition;
   note: string;
+  /** The author (none for version 1, the definition as it stood before any change). */
+  createdById: number | null;
   createdBy: string | null;
   approvedBy: string | null;
   approvedAt: string | null;

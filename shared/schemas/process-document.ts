@@ -65,6 +65,8 @@ export type ProcessImportJson = {
   status: 'draft' | 'approved' | 'discarded';
   note: string;
   plan: ImportPlan;
+  /** The importer: someone else approves the draft. */
+  createdById: number | null;
   createdBy: string | null;
   createdAt: string;
   approvedBy: string | null;

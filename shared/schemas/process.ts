@@ -239,6 +239,8 @@ export type RouteVersionJson = {
   status: 'draft' | 'approved' | 'superseded' | 'discarded' | 'retired';
   inForce: boolean;
   note: string;
+  /** The author: someone else approves the draft. */
+  createdById: number | null;
   createdBy: string | null;
   approvedBy: string | null;
   approvedAt: string | null;
@@ -264,6 +266,14 @@ export type CharacteristicJson = {
   gaugeKinds: string[];
   matesWith: string | null;
   retired: boolean;
+  /** A drafted change to its definition, waiting for someone other than its author to approve it. */
+  changeDraft: {
+    id: number;
+    version: number;
+    note: string;
+    createdById: number | null;
+    createdBy: string | null;
+  } | null;
 };
 
 export type CastingNumberJson = {

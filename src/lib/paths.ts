@@ -13,6 +13,7 @@ export const paths = {
   families: '/admin/families',
   process: '/admin/process',
   routes: '/admin/routes',
+  processDocument: '/admin/process/document',
   parties: '/admin/parties',
   audit: '/admin/audit',
   intake: '/intake',

@@ -114,6 +114,7 @@ const routes = (): { name: string; path: string; permission: Permission | null }
   { name: 'families', path: '/admin/families', permission: 'families.manage' },
   { name: 'process', path: '/admin/process', permission: 'process.edit' },
   { name: 'routes', path: '/admin/routes', permission: 'process.edit' },
+  { name: 'process-document', path: '/admin/process/document', permission: 'process.edit' },
   { name: 'plant', path: '/admin/plant', permission: 'plant.manage' },
   { name: 'defect-codes', path: '/admin/defect-codes', permission: 'defects.manage' },
   { name: 'mail', path: '/admin/mail', permission: 'mail.read' },

@@ -281,15 +281,19 @@ describe('a plant set up from an empty database, through the screens', () => {
       await d.getByRole('button', { name: 'Save draft' }).click();
       await d.waitFor({ state: 'hidden' });
     }
-    // the author cannot approve a draft of their own: the signature is refused in words
+    // the author cannot approve a draft of their own: the page says so in words instead of offering
+    // the button, and the server still refuses the author's signature in words
     const own = quality.getByRole('region', { name: 'Long block', exact: true });
-    await own.getByRole('button', { name: 'Approve version 1' }).click();
-    const mine = quality.getByRole('dialog');
-    await mine.getByRole('textbox', { name: 'Reason' }).fill('Ready to use');
-    await mine.getByLabel('Your password, to sign').fill(TEST_PASSWORD);
-    await mine.getByRole('button', { name: 'Approve and sign' }).click();
-    await mine.getByText('You drafted this version: someone else must approve it.').waitFor();
-    await mine.getByRole('button', { name: 'Cancel' }).click();
+    await own.getByText('Someone else approves this draft.').waitFor();
+    expect(await own.getByRole('button', { name: 'Approve version 1' }).count()).toBe(0);
+    const draftId = (await Route.findOne({ where: { partKind: 'long_block', status: 'draft' } }))!.id;
+    const refused = await quality.request.post(`${served.base}/api/process/routes/${draftId}/approve`, {
+      data: { reason: 'Ready to use', password: TEST_PASSWORD },
+    });
+    expect([refused.status(), (await refused.json()).error.message]).toEqual([
+      403,
+      'You drafted this version: someone else must approve it.',
+    ]);
     expect(await Route.count({ where: { status: 'approved' } })).toBe(0);
 
     approver = await session(people.approver);

@@ -6,4 +6,7 @@ export const processKeys = {
   routes: (family: string) => ['process', 'routes', family] as const,
   compare: (a: number, b: number) => ['process', 'routes', 'compare', a, b] as const,
   castingNumbers: (family: string) => ['process', 'casting-numbers', family] as const,
+  imports: ['process', 'imports'] as const,
+  characteristicVersions: (id: number) => ['process', 'characteristic-versions', id] as const,
+  characteristicCompare: (a: number, b: number) => ['process', 'characteristic-versions', 'compare', a, b] as const,
 };

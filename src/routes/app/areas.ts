@@ -85,6 +85,12 @@ export const AREAS: Area[] = [
     summary: "Each family's routes version by version, drafted, approved with a signature, compared side by side.",
   },
   {
+    label: 'Process document',
+    to: paths.processDocument,
+    permission: 'process.edit',
+    summary: 'The whole process definition as one JSON file: download it, or import one as a draft to approve.',
+  },
+  {
     label: 'Customers and suppliers',
     to: paths.parties,
     permission: 'process.edit',

@@ -8,29 +8,10 @@ import { Button } from '../../components/ui/button';
 import { Dialog, DialogActions } from '../../components/ui/dialog';
 import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
+import { localToIso, offsetOf } from '../../lib/local-time';
 import { currentRehearsal } from '../spc/rehearsal-panel';
 import { RehearsalCounts } from '../spc/rehearsal-summary';
 import { definitionText, formatNumber, ruleLimitsText, sizeClassesText } from './limits';
-
-const pad = (n: number) => String(Math.abs(n)).padStart(2, '0');
-
-function offsetOf(d: Date): string {
-  const minutes = -d.getTimezoneOffset();
-  return `${minutes >= 0 ? '+' : '-'}${pad(Math.trunc(minutes / 60))}:${pad(minutes % 60)}`;
-}
-
-/**
- * A datetime-local value ("2026-12-05T08:00") is this computer's wall-clock time; the server wants
- * an instant, so it goes with the offset that applied on that date (summer time included).
- */
-export function localToIso(value: string): string | null {
-  if (!/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2})?$/.test(value)) return null;
-  const d = new Date(value);
-  if (Number.isNaN(d.getTime())) return null;
-  const date = `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}`;
-  const time = `${pad(d.getHours())}:${pad(d.getMinutes())}:${pad(d.getSeconds())}`;
-  return `${date}T${time}${offsetOf(d)}`;
-}
 
 /** The shared rules for the reason and the password; the time is typed locally and converted on sending. */
 const approveForm = z.strictObject({

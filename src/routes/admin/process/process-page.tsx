@@ -1,6 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { createColumnHelper, getCoreRowModel, useReactTable, type ColumnDef } from '@tanstack/react-table';
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
 import type { CharacteristicJson, PartKindJson, ProcessStageJson } from '../../../../shared/schemas/process';
 import {
@@ -12,13 +12,16 @@ import {
   useProcessStages,
 } from '../../../api/process/queries';
 import { useRetireCharacteristic, useUpdateStage } from '../../../api/process/mutations';
+import { useSignedIn } from '../../../api/auth/me';
 import { DataTable } from '../../../components/data-table';
 import { PageHeader } from '../../../components/page-header';
 import { Badge } from '../../../components/ui/badge';
-import { Button } from '../../../components/ui/button';
-import { Card, CardHeader } from '../../../components/ui/card';
+import { Button, ButtonLink } from '../../../components/ui/button';
+import { Card, CardBody, CardHeader } from '../../../components/ui/card';
 import { Notice } from '../../../components/ui/notice';
+import { paths } from '../../../lib/paths';
 import { requirePermission } from '../../../lib/session';
+import { CharacteristicHistory, ProposeChangeDialog } from './characteristic-changes';
 import { AddCharacteristicDialog, AddPartKindDialog, AddStageDialog } from './process-dialogs';
 
 export const processLoader =
@@ -58,6 +61,7 @@ const charCol = createColumnHelper<CharacteristicJson>();
 type Open = 'kind' | 'stage' | 'characteristic' | null;
 
 export function ProcessPage() {
+  const me = useSignedIn();
   const kinds = usePartKinds();
   const stages = useProcessStages();
   const characteristics = useCharacteristics(null);
@@ -65,6 +69,15 @@ export function ProcessPage() {
   const retireChar = useRetireCharacteristic();
   const [open, setOpen] = useState<Open>(null);
   const close = () => setOpen(null);
+  // the characteristic whose changes are shown, and the one a change is being proposed to
+  const [showing, setShowing] = useState<number | null>(null);
+  const [proposing, setProposing] = useState<number | null>(null);
+  const historyRef = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    if (showing !== null) historyRef.current?.scrollIntoView({ block: 'start' });
+  }, [showing]);
+  const charById = (id: number | null) => characteristics.data?.find((c) => c.id === id);
+  const waiting = (characteristics.data ?? []).filter((c) => c.changeDraft);
   const kindName = useMemo(() => new Map((kinds.data ?? []).map((k) => [k.code, k.name])), [kinds.data]);
 
   const kindColumns = useMemo(
@@ -165,7 +178,8 @@ export function ProcessPage() {
           cell: (c) => (
             <span className="flex flex-col leading-snug">
               <span>
-                {c.getValue()} {c.row.original.critical && <Badge tone="accent">Critical</Badge>}
+                {c.getValue()} {c.row.original.critical && <Badge tone="accent">Critical</Badge>}{' '}
+                {c.row.original.changeDraft && <Badge tone="wait">Change waiting</Badge>}
               </span>
               <span className="font-mono text-sm text-ink-faint">
                 {c.row.original.stage} / {c.row.original.code}
@@ -189,20 +203,30 @@ export function ProcessPage() {
           id: 'actions',
           header: () => <span className="sr-only">Actions</span>,
           meta: { nowrap: true },
-          cell: (c) =>
-            c.row.original.retired ? (
-              <Badge tone="off">Retired</Badge>
-            ) : (
+          cell: (c) => (
+            <span className="flex flex-wrap gap-2">
               <Button
                 size="sm"
-                aria-label={`Retire ${c.row.original.stage} ${c.row.original.code}`}
-                onClick={() =>
-                  retireChar.mutate({ id: c.row.original.id, reason: 'Retired from the process definition page' })
-                }
+                aria-label={`Changes to ${c.row.original.stage} ${c.row.original.code}`}
+                onClick={() => setShowing(c.row.original.id)}
               >
-                Retire
+                Changes
               </Button>
-            ),
+              {c.row.original.retired ? (
+                <Badge tone="off">Retired</Badge>
+              ) : (
+                <Button
+                  size="sm"
+                  aria-label={`Retire ${c.row.original.stage} ${c.row.original.code}`}
+                  onClick={() =>
+                    retireChar.mutate({ id: c.row.original.id, reason: 'Retired from the process definition page' })
+                  }
+                >
+                  Retire
+                </Button>
+              )}
+            </span>
+          ),
         }),
       ] as ColumnDef<CharacteristicJson, never>[],
     [retireChar],
@@ -214,6 +238,14 @@ export function ProcessPage() {
       <PageHeader
         title="Process definition"
         description="The part kinds, stages and characteristics the plant works with. Nothing in use is deleted: it is retired, and every change is in the audit log."
+        actions={
+          <>
+            <ButtonLink to={paths.routes}>Routes</ButtonLink>
+            <ButtonLink to={paths.processDocument} icon="download">
+              Process document
+            </ButtonLink>
+          </>
+        }
       />
       {error && (
         <div className="mb-4">
@@ -261,10 +293,57 @@ export function ProcessPage() {
             muted={(c) => c.retired}
           />
         </Card>
+        {waiting.length > 0 && (
+          <Card labelledBy="waiting-heading">
+            <CardHeader
+              id="waiting-heading"
+              title="Characteristic changes waiting for approval"
+              description="Each is a draft until someone other than its author approves it with a signature."
+            />
+            <CardBody>
+              <ul className="flex flex-col gap-2">
+                {waiting.map((c) => (
+                  <li
+                    key={c.id}
+                    className="flex flex-wrap items-center justify-between gap-3 rounded-card border border-rule px-3 py-2"
+                  >
+                    <span className="flex flex-col leading-snug">
+                      <span>
+                        <span className="font-semibold">{c.name}</span>, version {c.changeDraft!.version}{' '}
+                        <Badge tone="wait">Draft</Badge>
+                      </span>
+                      <span className="text-sm text-ink-soft">
+                        <span className="font-mono">
+                          {c.stage} / {c.code}
+                        </span>{' '}
+                        · drafted by {c.changeDraft!.createdBy ?? '—'}: {c.changeDraft!.note}
+                      </span>
+                    </span>
+                    <Button onClick={() => setShowing(c.id)} aria-label={`Review the change to ${c.stage} ${c.code}`}>
+                      Review
+                    </Button>
+                  </li>
+                ))}
+              </ul>
+            </CardBody>
+          </Card>
+        )}
+        {me && charById(showing) && (
+          <div ref={historyRef} className="scroll-mt-4">
+            <CharacteristicHistory
+              key={showing}
+              c={charById(showing)!}
+              me={me}
+              onPropose={() => setProposing(showing)}
+              onClose={() => setShowing(null)}
+            />
+          </div>
+        )}
       </div>
       {open === 'kind' && <AddPartKindDialog onClose={close} />}
       {open === 'stage' && <AddStageDialog kinds={kinds.data ?? []} onClose={close} />}
       {open === 'characteristic' && <AddCharacteristicDialog stages={stages.data ?? []} onClose={close} />}
+      {charById(proposing) && <ProposeChangeDialog c={charById(proposing)!} onClose={() => setProposing(null)} />}
     </>
   );
 }

@@ -48,12 +48,15 @@ const STATUS: Record<RouteVersionJson['status'], { label: string; tone: 'ok' | '
 function VersionCard({
   v,
   canApprove,
+  mine,
   onApprove,
   onNext,
   onCompare,
 }: {
   v: RouteVersionJson;
   canApprove: boolean;
+  /** The signed-in person drafted it: the server refuses their approval, so it is not offered. */
+  mine: boolean;
   onApprove: () => void;
   onNext: () => void;
   onCompare: () => void;
@@ -82,10 +85,13 @@ function VersionCard({
         ))}
       </ol>
       <div className="mt-2 flex flex-wrap gap-2">
-        {v.status === 'draft' && canApprove && (
+        {v.status === 'draft' && canApprove && !mine && (
           <Button size="sm" variant="primary" onClick={onApprove}>
             Approve version {v.version}
           </Button>
+        )}
+        {v.status === 'draft' && mine && (
+          <p className="flex min-h-8 items-center text-sm text-ink-soft">Someone else approves this draft.</p>
         )}
         {v.status === 'draft' && (
           <Button size="sm" onClick={() => discard.mutate(v.id)}>
@@ -196,6 +202,7 @@ export function RoutesPage() {
                     key={v.id}
                     v={v}
                     canApprove={canApprove}
+                    mine={!!me && v.createdById === me.user.id}
                     onApprove={() => setApproving(v)}
                     onNext={() => setDrafting({ start: v })}
                     onCompare={() => setComparing(v)}
