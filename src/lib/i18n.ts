@@ -1,7 +1,7 @@
 import { useSyncExternalStore } from 'react';
 import rosetta from 'rosetta';
 import en from '../locales/en.json';
-import { formatWhen } from './format';
+import { formatGrouped, formatWhen } from './format';
 
 /**
  * The floor screens' words, in JSON files a translator edits (src/locales/<lang>.json). English is
@@ -64,6 +64,13 @@ export function t(key: string, params?: Params, fallback?: string): string {
   return i18n.t([full], shown) || i18n.t([full], shown, 'en') || fallback || key;
 }
 
+/** The words for `key`, or null when neither language has it (where a caller has words of its own to fall back on). */
+export function known(key: string, params?: Params): string | null {
+  const NONE = '\u0000';
+  const s = t(key, params, NONE);
+  return s === NONE ? null : s;
+}
+
 export const language = () => current;
 
 /** Numbers as the language writes them: 12.34 in English, 12,34 in Spanish (readings take either sign as typed). */
@@ -78,6 +85,16 @@ export const formatMoment = (iso: string) =>
   current === 'en'
     ? formatWhen(iso)
     : new Intl.DateTimeFormat(locales[current], { dateStyle: 'medium', timeStyle: 'short' }).format(new Date(iso));
+
+/** A count in running text: English keeps the product's thin-space groups (lib/format.ts), Spanish its own. */
+export const formatCount = (n: number) => (current === 'en' ? formatGrouped(n) : formatNumber(n));
+
+/** A calendar day (2026-12-01) as the language writes it; English keeps the ISO day. */
+export const formatDay = (isoDay: string) => {
+  if (current === 'en' || !/^\d{4}-\d{2}-\d{2}$/.test(isoDay)) return isoDay;
+  const [y, m, d] = isoDay.split('-').map(Number) as [number, number, number];
+  return new Intl.DateTimeFormat(locales[current], { dateStyle: 'medium' }).format(new Date(y, m - 1, d));
+};
 
 const subscribe = (onChange: () => void) => {
   listeners.add(onChange);

@@ -12,6 +12,7 @@ import { Icon, type IconName } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
 import { missingAtIntake, rowsFor, teardownForm, type Decision, type PartRow } from './teardown-schema';
 import { t } from '../../lib/i18n';
+import { localizeHazard } from '../../lib/server-messages';
 
 // a chosen tile is filled (white on the state colour), so it stands out in sunlight and in grey
 const TILE: Record<Decision, { word: string; icon: IconName; checked: string }> = {
@@ -182,7 +183,7 @@ export function TeardownForm({ item, condition, onDone }: TeardownFormProps) {
     >
       <IntakeCondition condition={condition} preset={missing.filter(Boolean).length} />
       <Caution title={t('teardown.heavyTitle')} icon="hoist">
-        {hazard ?? t('teardown.heavyHazard')} {t('teardown.heavyProcedure')}
+        {hazard ? localizeHazard(hazard) : t('teardown.heavyHazard')} {t('teardown.heavyProcedure')}
       </Caution>
       <Card labelledBy="parts-heading">
         <CardHeader
