@@ -42,6 +42,12 @@ const all = () =>
 /** Spanish words for the labels the shared code writes in English (part kinds, statuses…), by their English. */
 export const label = (englishLabel: string) => t(`label.${englishLabel}`, undefined, englishLabel);
 
+/** A part's name with its side where it has one ("Cylinder head (left)"), in the screen's language. */
+export function partLabel(englishName: string): string {
+  const side = /^(.*) \((left|right)\)$/.exec(englishName);
+  return side ? `${label(side[1]!)} (${label(side[2]!)})` : label(englishName);
+}
+
 /** A word the server put inside its sentence ("a crankshaft", "B-1042 (block)", "cracked and broken"), in the language where it is a known label. */
 function param(value: string): string {
   const one = (word: string) => {
