@@ -17,13 +17,53 @@ const i18n = rosetta<Messages>({ en });
 i18n.locale('en');
 let current: Language = 'en';
 const listeners = new Set<() => void>();
+// bumped whenever words change (a language switched, a screen's Spanish arrived): what re-renders useT's callers
+let version = 0;
+const notify = () => {
+  version += 1;
+  listeners.forEach((l) => l());
+};
 const KEY = 'coretrail.language';
 
 // Spanish as written in Spain and most of Latin America: a decimal comma (12,34), as the plant asked
 const locales: Record<Language, string> = { en: 'en-US', es: 'es-ES' };
 
+type Spanish = () => Promise<{ default: Messages }>;
+
+/**
+ * Spanish words kept apart from es.json, fetched with it: the refusals' sentences by code and the
+ * labels shared code writes in English (their English is the code's own, so English loads neither),
+ * then each screen's own words as its chunk registers them (addWords).
+ */
+const spanishParts: { load: Spanish; done: Promise<void> | null }[] = [
+  { load: () => import('../locales/server/es.json'), done: null },
+  { load: () => import('../locales/labels/es.json'), done: null },
+];
+
+const loadPart = (part: (typeof spanishParts)[number]) =>
+  (part.done ??= part.load().then((m) => i18n.set('es', m.default)));
+
 async function load(lang: Language) {
-  if (lang === 'es' && !i18n.table('es')) i18n.set('es', (await import('../locales/es.json')).default);
+  if (lang !== 'es') return;
+  if (!i18n.table('es')) i18n.set('es', (await import('../locales/es.json')).default);
+  await Promise.all(spanishParts.map(loadPart));
+}
+
+/**
+ * A screen's own words (src/locales/<screen>/), registered by the screen's chunk so neither its
+ * English nor its Spanish rides in the first load: English at once, Spanish when the screen is
+ * shown in Spanish. Returns what the screen's loader awaits, so its first render has its words.
+ */
+export function addWords(english: Messages, spanish: Spanish): () => Promise<void> {
+  i18n.set('en', english);
+  const part = { load: spanish, done: null };
+  spanishParts.push(part);
+  return async () => {
+    if (current !== 'es') return;
+    const first = !part.done;
+    await loadPart(part);
+    if (first) notify();
+  };
 }
 
 /** Switches every screen to `lang` once its words are here; remembered for the sign-in page. */
@@ -38,7 +78,7 @@ export async function setLanguage(lang: Language): Promise<void> {
   } catch {
     // storage switched off: the sign-in page speaks English, the person's own setting the rest
   }
-  listeners.forEach((l) => l());
+  notify();
 }
 
 /** The language of the last person who signed in on this device, for the screens before sign-in. */
@@ -73,6 +113,9 @@ export function known(key: string, params?: Params): string | null {
 
 export const language = () => current;
 
+/** Every English message loaded so far (the first load's and the screens' registered since). */
+export const englishWords = (): Messages => i18n.table('en') ?? {};
+
 /** Numbers as the language writes them: 12.34 in English, 12,34 in Spanish (readings take either sign as typed). */
 export const formatNumber = (n: number, options?: Intl.NumberFormatOptions) =>
   new Intl.NumberFormat(locales[current], options).format(n);
@@ -103,6 +146,6 @@ const subscribe = (onChange: () => void) => {
 
 /** Re-renders the component when the language changes; returns the translator. */
 export function useT(): typeof t {
-  useSyncExternalStore(subscribe, language);
+  useSyncExternalStore(subscribe, () => version);
   return t;
 }

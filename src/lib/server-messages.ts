@@ -1,5 +1,4 @@
-import en from '../locales/en.json';
-import { known, language, t } from './i18n';
+import { englishWords, known, language, t } from './i18n';
 
 /**
  * The server answers in English with a stable `code` (and for a 409 often a `reason`). On a Spanish
@@ -10,19 +9,20 @@ import { known, language, t } from './i18n';
  *   detail where the screen shows them beside the field.
  * - `schema.*`: the shared schemas' and the server's per-field notes, whose English entry is the
  *   exact wording (with `{{placeholders}}` where the wording holds a number or a name). They have no
- *   code of their own, so they are found by their English words.
+ *   code of their own, so they are found by their English words; each screen brings its own with
+ *   its words (src/locales/<screen>/), the general ones are in en.json.
  *
  * A message with neither stays in the server's English, so a new refusal is never hidden.
  */
 
 type Template = { key: string; pattern: RegExp; names: string[] };
 
-const english = en as Record<string, string>;
 const escape = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
 
-function compile(key: string): Template {
+function compile(key: string, english: string): Template {
   const names: string[] = [];
-  const source = english[key]!.split(/(\{\{\w+\}\})/)
+  const source = english
+    .split(/(\{\{\w+\}\})/)
     .map((part) => {
       const name = /^\{\{(\w+)\}\}$/.exec(part)?.[1];
       if (!name) return escape(part);
@@ -33,11 +33,17 @@ function compile(key: string): Template {
   return { key, names, pattern: new RegExp(`^${source}$`) };
 }
 
-let templates: Template[] | null = null;
-const all = () =>
-  (templates ??= Object.keys(english)
-    .filter((k) => k.startsWith('schema.'))
-    .map(compile));
+// made again when a screen registers more words (lib/i18n.ts addWords)
+let templates: { from: number; list: Template[] } = { from: -1, list: [] };
+function all(): Template[] {
+  const english = englishWords();
+  const keys = Object.keys(english);
+  if (templates.from !== keys.length) {
+    const list = keys.filter((k) => k.startsWith('schema.')).map((k) => compile(k, english[k]!));
+    templates = { from: keys.length, list };
+  }
+  return templates.list;
+}
 
 /** Spanish words for the labels the shared code writes in English (part kinds, statuses…), by their English. */
 export const label = (englishLabel: string) => t(`label.${englishLabel}`, undefined, englishLabel);
@@ -67,6 +73,7 @@ function param(value: string): string {
 /** A stage's safety caution: the demo plant's own wordings have their Spanish (hazard.*); any other shows as written. */
 export function localizeHazard(text: string): string {
   if (language() === 'en') return text;
+  const english = englishWords();
   const key = Object.keys(english).find((k) => k.startsWith('hazard.') && english[k] === text);
   return (key && known(key)) || text;
 }

@@ -47,7 +47,7 @@ function FamilyField({ onChange }: { onChange: () => void }) {
     .map((f) => ({ value: f.code, label: `${f.code} — ${f.name}` }));
   return (
     <div className="max-w-xl">
-      <Field id={id} label={t('receive.family')} hint={hint} error={error}>
+      <Field id={id} label={t('build.family')} hint={hint} error={error}>
         <Select
           id={id}
           options={options}

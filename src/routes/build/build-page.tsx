@@ -17,6 +17,7 @@ import { itemHref, labelsHref, stationHref } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
 import { BuildForm } from './build-form';
 import { ReplacePart } from './replace-part';
+import { buildWords } from './screen-words';
 import { slotsFor } from './slots';
 
 export const buildLoader =
@@ -26,6 +27,7 @@ export const buildLoader =
     await Promise.all([
       queryClient.ensureQueryData(familiesQueryOptions()),
       queryClient.ensureQueryData(suppliersQueryOptions()),
+      buildWords(),
     ]);
     return null;
   };

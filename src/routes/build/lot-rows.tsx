@@ -83,7 +83,7 @@ function LotRow({ index, family }: { index: number; family: EngineFamily | undef
         <div className="col-span-2 md:col-span-1">
           <SelectField
             name={`${base}.supplierId`}
-            label={<RowLabel kind={kind} what={t('receive.supplier')} />}
+            label={<RowLabel kind={kind} what={t('build.supplier')} />}
             options={options}
             placeholder={t('common.choose')}
             numeric

@@ -53,7 +53,7 @@ function ScannedPart({
         <div className="flex min-w-0 flex-wrap items-center gap-x-3 gap-y-1 pt-2">
           <Link
             to={itemHref(item.serial)}
-            className="font-mono text-lg font-semibold text-accent underline-offset-4 hover:underline"
+            className="inline-flex min-h-11 items-center font-mono text-lg font-semibold text-accent underline-offset-4 hover:underline floor:min-h-12"
           >
             {item.serial}
           </Link>

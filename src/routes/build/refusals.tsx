@@ -59,7 +59,7 @@ function whereOf(key: string, slots: Slot[]): Where {
   const slot = slots.find((s) => s.name === key);
   if (slot) return { label: label(slot.label), selector: `[name="${slot.name}"]` };
   if (key === 'heads') return { label: t('refusal.heads'), selector: '[name="heads.0"]' };
-  if (key === 'family') return { label: t('receive.family'), selector: '[name="family"]' };
+  if (key === 'family') return { label: t('build.family'), selector: '[name="family"]' };
   const byKind = /^lots\.([a-z_]+)$/.exec(key);
   const kind = LOT_KINDS.find((k) => k === byKind?.[1]);
   if (kind) {

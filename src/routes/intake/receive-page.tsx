@@ -23,6 +23,7 @@ import { DuplicateConfirm, useDuplicateWarning } from './duplicates';
 import { MismatchCheck } from './mismatches';
 import { ConditionFields, DecisionFields } from './receive-condition';
 import { SourceFields } from './receive-source';
+import { intakeWords } from './screen-words';
 
 export const receiveLoader =
   (queryClient: QueryClient) =>
@@ -32,6 +33,7 @@ export const receiveLoader =
       queryClient.ensureQueryData(familiesQueryOptions()),
       queryClient.ensureQueryData(customersQueryOptions()),
       queryClient.ensureQueryData(suppliersQueryOptions()),
+      intakeWords(),
     ]);
     return null;
   };

@@ -199,11 +199,16 @@ export function TeardownForm({ item, condition, onDone }: TeardownFormProps) {
             {t('teardown.wearTitle')}
           </h2>
           <p className="mt-1 text-ink-soft">
-            {WEAR_PARTS.join(', ')}. {t('teardown.wearBody')}
+            {WEAR_PARTS.map((p) => label(p)).join(', ')}. {t('teardown.wearBody')}
           </p>
         </CardBody>
       </Card>
-      <TextAreaField name="notes" label={t('form.notes')} hint={t('teardown.notesHint')} />
+      {/* on a card: the hint's grey reads at 4.5:1 on a card, not on the page's ground */}
+      <Card as="div">
+        <CardBody>
+          <TextAreaField name="notes" label={t('form.notes')} hint={t('teardown.notesHint')} />
+        </CardBody>
+      </Card>
       <div className="flex justify-end">
         <SubmitButton size="lg">{t('teardown.record')}</SubmitButton>
       </div>

@@ -17,6 +17,7 @@ import { partName } from '../../lib/item-status';
 import { itemHref, labelsHref, serialHref } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
 import { useUrlFilter } from '../../lib/use-url-filter';
+import { teardownWords } from './screen-words';
 import { TeardownForm } from './teardown-form';
 import { t, useT } from '../../lib/i18n';
 import { label } from '../../lib/server-messages';
@@ -24,7 +25,7 @@ import { label } from '../../lib/server-messages';
 export const teardownLoader =
   (queryClient: QueryClient) =>
   async ({ request }: LoaderFunctionArgs) => {
-    const me = await requirePermission(queryClient, request, 'teardown.record');
+    const [me] = await Promise.all([requirePermission(queryClient, request, 'teardown.record'), teardownWords()]);
     const parsed = parseSerial(new URL(request.url).searchParams.get('serial') ?? '');
     // a core that cannot be found is said on the page, next to the scan box, not as an error page
     if (parsed.ok) {
