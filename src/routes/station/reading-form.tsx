@@ -13,6 +13,7 @@ import { enqueue, flushQueue, mustQueue, type Queued } from '../../lib/offline-q
 import { inTabletMode, setTabletIdentity, tabletIdentity } from '../../lib/tablet-mode';
 import { useSignedIn } from '../../api/auth/me';
 import { useT } from '../../lib/i18n';
+import { localizeHazard } from '../../lib/server-messages';
 import {
   CharGaugeField,
   charGaugeKey,
@@ -388,7 +389,10 @@ export function ReadingForm({
               <p className="flex w-full items-center gap-2 text-base font-semibold text-hold">
                 <Icon name="alert" size={20} />
                 <span>
-                  Safety · {form.stage.name}: {firstSentence(form.stage.hazard)} Follow the plant&apos;s procedure.
+                  {t('caution.short', {
+                    stage: form.stage.name,
+                    hazard: firstSentence(localizeHazard(form.stage.hazard)),
+                  })}
                 </span>
               </p>
             )}
