@@ -5,7 +5,7 @@ import { useDuplicates, type DuplicateCheck } from '../../api/cores/duplicates';
 import type { Duplicate } from '../../api/cores/types';
 import { CheckboxField } from '../../components/choice-fields';
 import { Notice } from '../../components/ui/notice';
-import { formatDay, useT } from '../../lib/i18n';
+import { formatDay, language, useT } from '../../lib/i18n';
 import { coreHref } from '../../lib/paths';
 
 function DuplicateList({ rows }: { rows: Duplicate[] }) {
@@ -24,8 +24,9 @@ function DuplicateList({ rows }: { rows: Duplicate[] }) {
             {d.serial}
           </a>
           <span className="text-ink-soft">
-            {t('dup.received')} <span className="font-mono">{formatDay(d.receivedOn)}</span>, {t('dup.casting')}{' '}
-            <span className="font-mono">{d.castingNumber}</span>
+            {t('dup.received')}{' '}
+            <span className={language() === 'en' ? 'font-mono' : undefined}>{formatDay(d.receivedOn)}</span>,{' '}
+            {t('dup.casting')} <span className="font-mono">{d.castingNumber}</span>
             {d.idNumber && (
               <>
                 , {t('dup.id')} <span className="font-mono">{d.idNumber}</span>
