@@ -1,4 +1,5 @@
 import type { ReactNode, Ref } from 'react';
+import { useT } from '../lib/i18n';
 import { Icon, type IconName } from './ui/icon';
 
 /**
@@ -16,17 +17,18 @@ export function Caution({
   children: ReactNode;
   ref?: Ref<HTMLElement>;
 }) {
+  const t = useT();
   return (
     <aside
       ref={ref}
-      aria-label={`Safety: ${title}`}
+      aria-label={t('caution.label', { title })}
       className="flex items-start gap-3 rounded-control border-2 border-hold bg-hold-tint px-4 py-3 text-ink"
     >
       <span className="mt-0.5 flex size-10 shrink-0 items-center justify-center rounded-full border-2 border-hold bg-card text-hold">
         <Icon name={icon} size={24} />
       </span>
       <div>
-        <p className="font-semibold text-hold">Safety · {title}</p>
+        <p className="font-semibold text-hold">{t('caution.title', { title })}</p>
         <div className="mt-0.5">{children}</div>
       </div>
     </aside>

@@ -1,5 +1,6 @@
 import { useId, type ReactNode } from 'react';
 import { useController, useFormContext, type FieldValues } from 'react-hook-form';
+import { localizeText } from '../lib/server-messages';
 import { errorId, hintId } from './ui/field';
 import { Icon } from './ui/icon';
 
@@ -18,7 +19,7 @@ function useError(name: string) {
     .split('.')
     .reduce<unknown>((e, k) => (e as Record<string, unknown> | undefined)?.[k], formState.errors) as
     { message?: string } | undefined;
-  return error?.message;
+  return error?.message && localizeText(error.message);
 }
 
 type GroupShellProps = {

@@ -1,5 +1,6 @@
 import type { ReactNode } from 'react';
 import { ApiError } from '../lib/http';
+import { useT } from '../lib/i18n';
 import { Button, type ButtonVariant } from './ui/button';
 import { Dialog, DialogActions } from './ui/dialog';
 import { Notice } from './ui/notice';
@@ -28,18 +29,19 @@ export function ConfirmDialog({
   onConfirm,
   onClose,
 }: ConfirmDialogProps) {
+  const t = useT();
   return (
     <Dialog open={open} onClose={onClose} title={title}>
       <div className="flex flex-col gap-3">
         {error ? (
           <Notice tone="bad" live="alert">
-            {error instanceof ApiError ? error.message : 'Something went wrong. Try again.'}
+            {error instanceof ApiError ? error.message : t('common.wrong')}
           </Notice>
         ) : null}
         <div className="text-ink">{children}</div>
       </div>
       <DialogActions>
-        <Button onClick={onClose}>Cancel</Button>
+        <Button onClick={onClose}>{t('common.cancel')}</Button>
         <Button variant={variant} onClick={onConfirm} disabled={busy} aria-busy={busy}>
           {confirmLabel}
         </Button>

@@ -2,7 +2,7 @@ import type { UseQueryResult } from '@tanstack/react-query';
 import type { OnChangeFn, SortingState } from '@tanstack/react-table';
 import { useState, type ReactNode } from 'react';
 import type { Paged } from '../../shared/schemas/common';
-import { formatGrouped } from '../lib/format';
+import { formatCount, useT } from '../lib/i18n';
 import { useUrlFilter } from '../lib/use-url-filter';
 import { Pager } from './pager';
 import { Button, buttonClass } from './ui/button';
@@ -99,26 +99,25 @@ export function FilteredList<T>(props: FilteredListProps<T>) {
   const { id, heading, header, searchLabel, layout, filters, noun, list, filtered, onClear, onPage } = props;
   const data = list.data;
   const headingId = `${id}-heading`;
+  const t = useT();
   const summary = (place: string) => (
     <div className={`flex flex-wrap justify-between gap-3 ${place}`}>
       <p aria-live="polite" className="font-medium">
         {data ? <Count total={data.total} noun={noun} /> : '…'}
         {filtered && data && (
-          <span className="font-normal text-ink-soft"> {data.total === 1 ? 'matches' : 'match'} these filters</span>
+          <span className="font-normal text-ink-soft">
+            {' '}
+            {data.total === 1 ? t('common.matchesOne') : t('common.matchesMany')}
+          </span>
         )}
       </p>
       <div className="flex flex-wrap items-center gap-2">
-        {filtered && <Button onClick={onClear}>Clear filters</Button>}
+        {filtered && <Button onClick={onClear}>{t('common.clearFilters')}</Button>}
         {props.exportCsv && <ExportButton how={props.exportCsv} none={!data?.total} />}
       </div>
     </div>
   );
-  const empty =
-    data && data.total > 0
-      ? 'Nothing on this page: it is past the last one.'
-      : filtered
-        ? undefined
-        : props.emptyUnfiltered;
+  const empty = data && data.total > 0 ? t('common.pastLast') : filtered ? undefined : props.emptyUnfiltered;
   return (
     <Card labelledBy={headingId}>
       {header ? (
@@ -160,18 +159,19 @@ export function FilteredList<T>(props: FilteredListProps<T>) {
 function Count({ total, noun }: { total: number; noun: [string, string] }) {
   return (
     <>
-      <span className="font-mono tabular-nums">{formatGrouped(total)}</span> {total === 1 ? noun[0] : noun[1]}
+      <span className="font-mono tabular-nums">{formatCount(total)}</span> {total === 1 ? noun[0] : noun[1]}
     </>
   );
 }
 
 function ExportButton({ how, none }: { how: ListExport; none: boolean }) {
+  const t = useT();
   const [busy, setBusy] = useState(false);
   if ('href' in how) {
     return (
       <a href={how.href} download className={buttonClass('secondary')} aria-disabled={none || undefined}>
         <Icon name="download" />
-        Export CSV
+        {t('common.exportCsv')}
       </a>
     );
   }
@@ -185,7 +185,7 @@ function ExportButton({ how, none }: { how: ListExport; none: boolean }) {
   };
   return (
     <Button onClick={() => void run()} disabled={busy || none} aria-busy={busy} icon="download">
-      Export CSV
+      {t('common.exportCsv')}
     </Button>
   );
 }

@@ -1,4 +1,5 @@
 import { useId, type HTMLInputTypeAttribute, type ReactNode } from 'react';
+import { localizeText } from '../lib/server-messages';
 import { useFormContext, type FieldValues, type Path, type RegisterOptions } from 'react-hook-form';
 import { describedBy, Field } from './ui/field';
 import { Input, Textarea } from './ui/input';
@@ -12,7 +13,7 @@ function useBound(name: string) {
     .split('.')
     .reduce<unknown>((e, k) => (e as Record<string, unknown> | undefined)?.[k], formState.errors) as
     { message?: string } | undefined;
-  return { id, register, error: error?.message };
+  return { id, register, error: error?.message && localizeText(error.message) };
 }
 
 type Common = { name: string; label: ReactNode; hint?: ReactNode; disabled?: boolean; autoFocus?: boolean };

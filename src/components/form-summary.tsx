@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import { useFormContext, useWatch } from 'react-hook-form';
 import type { z } from 'zod';
+import { useT } from '../lib/i18n';
 import { Icon } from './ui/icon';
 
 export type SummarySection = { id: string; title: string; fields: string[] };
@@ -23,6 +24,7 @@ export function FormSummary({
   /** The submit button. */
   children: ReactNode;
 }) {
+  const t = useT();
   const { control } = useFormContext();
   const values = useWatch({ control });
   const parsed = schema.safeParse(values);
@@ -35,12 +37,10 @@ export function FormSummary({
       <div className="rounded-card border border-rule bg-card shadow-card">
         <div className="border-b border-rule px-4 py-3">
           <h2 id="form-summary-heading" className="font-semibold">
-            Before you save
+            {t('summary.heading')}
           </h2>
           <p aria-live="polite" className="text-sm text-ink-soft">
-            {left === 0
-              ? 'Everything needed is filled in.'
-              : `${left} ${left === 1 ? 'thing' : 'things'} still to fill in.`}
+            {left === 0 ? t('summary.allFilled') : t('summary.left', { count: left })}
           </p>
         </div>
         <ol className="divide-y divide-rule">
@@ -63,7 +63,9 @@ export function FormSummary({
                 <span className="flex flex-col">
                   <span className="font-medium text-ink">{s.title}</span>
                   <span className="text-sm text-ink-soft">
-                    {s.lacks.length ? `Missing: ${s.lacks.map((f) => labels[f] ?? f).join(', ')}` : 'Done'}
+                    {s.lacks.length
+                      ? t('summary.missing', { fields: s.lacks.map((f) => labels[f] ?? f).join(', ') })
+                      : t('summary.done')}
                   </span>
                 </span>
               </a>

@@ -11,6 +11,8 @@ import {
 } from 'react-hook-form';
 import type { z } from 'zod';
 import { ApiError } from '../lib/http';
+import { t } from '../lib/i18n';
+import { localizeText } from '../lib/server-messages';
 import { Button, type ButtonVariant } from './ui/button';
 import { Notice } from './ui/notice';
 
@@ -20,10 +22,11 @@ type Schema = z.ZodType<FieldValues, FieldValues>;
 // empty choice (a select, a radio pair) arrives as undefined and is asked for as a choice.
 const friendlyIssue = (issue: { code: string; expected?: unknown; input?: unknown }) => {
   const empty = issue.input === undefined || issue.input === '';
-  if (issue.code === 'invalid_value' && empty) return 'Choose one.';
+  if (issue.code === 'invalid_value' && empty) return t('common.chooseOne');
   if (issue.code !== 'invalid_type') return undefined;
-  if (empty) return issue.expected === 'number' || issue.expected === 'boolean' ? 'Choose one.' : 'Fill this in.';
-  if (issue.expected === 'number') return 'Enter a number.';
+  if (empty)
+    return issue.expected === 'number' || issue.expected === 'boolean' ? t('common.chooseOne') : t('common.fillIn');
+  if (issue.expected === 'number') return t('common.enterNumber');
   return undefined;
 };
 
@@ -66,7 +69,7 @@ export function Form<S extends Schema>({ schema, defaultValues, onSubmit, childr
 
 function showServerError<T extends FieldValues>(form: UseFormReturn<T, unknown, unknown>, err: unknown) {
   if (!(err instanceof ApiError)) {
-    form.setError('root.server', { message: 'Something went wrong in this browser. Try again.' });
+    form.setError('root.server', { message: t('common.browserWrong') });
     return;
   }
   const known = new Set(Object.keys(form.getValues()));
@@ -85,7 +88,7 @@ function FormAlert() {
   if (!message) return null;
   return (
     <Notice tone="bad" live="alert">
-      {message}
+      {localizeText(message)}
     </Notice>
   );
 }

@@ -1,4 +1,4 @@
-import { formatGrouped } from '../lib/format';
+import { formatCount as formatGrouped, useT } from '../lib/i18n';
 import { Button } from './ui/button';
 
 type PagerProps = {
@@ -15,6 +15,7 @@ type PagerProps = {
  * back to the last page instead of showing a range that does not exist.
  */
 export function Pager({ page, pageSize, total, onPage, noun }: PagerProps) {
+  const t = useT();
   const pages = Math.max(1, Math.ceil(total / pageSize));
   const past = page > pages;
   const shown = Math.min(Math.max(1, page), pages);
@@ -26,39 +27,41 @@ export function Pager({ page, pageSize, total, onPage, noun }: PagerProps) {
     </>
   );
   return (
-    <nav aria-label="Pages" className="flex w-full flex-wrap items-center justify-between gap-3">
+    <nav aria-label={t('common.pages')} className="flex w-full flex-wrap items-center justify-between gap-3">
       <p aria-live="polite" className="text-sm text-ink-soft">
         {total === 0 ? (
-          `No ${noun[1]}`
+          t('common.noRows', { noun: noun[1] })
         ) : past ? (
           <>
-            This page is past the end: {count} fit on{' '}
-            <span className="font-mono tabular-nums">{formatGrouped(pages)}</span> {pages === 1 ? 'page' : 'pages'}.
+            {t('common.pastEnd')} {count} {t('common.fitOn')}{' '}
+            <span className="font-mono tabular-nums">{formatGrouped(pages)}</span>{' '}
+            {pages === 1 ? t('common.page') : t('common.pageMany')}.
           </>
         ) : (
           <>
             <span className="font-mono tabular-nums">
               {formatGrouped(first)}–{formatGrouped(last)}
             </span>{' '}
-            of {count}
+            {t('common.of')} {count}
           </>
         )}
       </p>
       <div className="flex items-center gap-2">
         {past ? (
           <Button size="sm" variant="primary" icon="chevronLeft" onClick={() => onPage(pages)}>
-            Go to the last page
+            {t('common.lastPage')}
           </Button>
         ) : (
           <>
             <Button size="sm" icon="chevronLeft" disabled={page <= 1} onClick={() => onPage(page - 1)}>
-              Previous
+              {t('common.previous')}
             </Button>
             <span className="text-sm text-ink-soft">
-              Page <span className="font-mono">{shown}</span> of <span className="font-mono">{pages}</span>
+              {t('common.pageWord')} <span className="font-mono">{shown}</span> {t('common.of')}{' '}
+              <span className="font-mono">{pages}</span>
             </span>
             <Button size="sm" disabled={page >= pages} onClick={() => onPage(page + 1)}>
-              Next
+              {t('common.next')}
             </Button>
           </>
         )}

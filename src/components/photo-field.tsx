@@ -2,6 +2,7 @@ import { useId, useState, type ChangeEvent } from 'react';
 import { useFormContext, useWatch, type FieldValues } from 'react-hook-form';
 import { useUploadPhoto, type Attachment } from '../api/attachments/upload-photo';
 import { ApiError } from '../lib/http';
+import { useT } from '../lib/i18n';
 import { Button } from './ui/button';
 import { Icon } from './ui/icon';
 import { Notice } from './ui/notice';
@@ -21,6 +22,7 @@ type PhotoFieldProps = {
  */
 export function PhotoField({ name, label, max, hint, documents = false }: PhotoFieldProps) {
   const id = useId();
+  const t = useT();
   const { getValues, setValue } = useFormContext<FieldValues>();
   const ids = (useWatch({ name }) as number[] | undefined) ?? [];
   const [photos, setPhotos] = useState<Attachment[]>([]);
@@ -36,7 +38,7 @@ export function PhotoField({ name, label, max, hint, documents = false }: PhotoF
     setProblems([]);
     const take = files.slice(0, Math.max(room, 0));
     const over = files.length - take.length;
-    if (over > 0) setProblems([`Only ${max} photos fit on one record; ${over} were left out.`]);
+    if (over > 0) setProblems([t('photos.over', { max, over })]);
     setUploading((n) => n + take.length);
     await Promise.all(
       take.map(async (file) => {
@@ -45,7 +47,7 @@ export function PhotoField({ name, label, max, hint, documents = false }: PhotoF
           setPhotos((p) => [...p, a]);
           setValue(name, [...((getValues(name) as number[] | undefined) ?? []), a.id], { shouldDirty: true });
         } catch (err) {
-          const why = err instanceof ApiError ? err.message : 'It could not be uploaded. Try again.';
+          const why = err instanceof ApiError ? err.message : t('photos.uploadFailed');
           setProblems((p) => [...p, `${file.name}: ${why}`]);
         } finally {
           setUploading((n) => n - 1);
@@ -79,20 +81,20 @@ export function PhotoField({ name, label, max, hint, documents = false }: PhotoF
           className="block min-h-11 floor:min-h-12 max-w-full rounded-control border border-rule-strong bg-field text-ink file:mr-3 file:min-h-11 floor:file:min-h-12 file:cursor-pointer file:border-0 file:border-r file:border-rule-strong file:bg-sunk file:px-4 file:font-medium file:text-ink hover:file:bg-ground-deep/40 disabled:opacity-55"
         />
         <p id={`${id}-hint`} className="text-sm text-ink-faint">
-          {hint ?? 'JPEG, PNG or WebP, up to 8 MB each.'}{' '}
+          {hint ?? t('photos.hint')}{' '}
           <span className="font-mono">
             {ids.length}/{max}
           </span>{' '}
-          attached.
+          {t('photos.attached')}
         </p>
       </div>
       {uploading > 0 && (
         <p role="status" className="text-ink-soft">
-          Uploading {uploading} photo{uploading > 1 ? 's' : ''}…
+          {t('photos.uploading', { count: uploading })}
         </p>
       )}
       {problems.length > 0 && (
-        <Notice tone="bad" live="alert" title="Not every photo was attached">
+        <Notice tone="bad" live="alert" title={t('photos.notAll')}>
           <ul className="list-disc pl-5">
             {problems.map((p) => (
               <li key={p}>{p}</li>
@@ -101,13 +103,13 @@ export function PhotoField({ name, label, max, hint, documents = false }: PhotoF
         </Notice>
       )}
       {shown.length > 0 && (
-        <ul aria-label="Attached so far" className="flex flex-wrap gap-3">
+        <ul aria-label={t('photos.soFar')} className="flex flex-wrap gap-3">
           {shown.map((p, i) => (
             <li key={p.id} className="flex w-36 flex-col gap-1.5">
               {p.mimeType.startsWith('image/') ? (
                 <img
                   src={p.url}
-                  alt={`Photo ${i + 1}: ${p.fileName}`}
+                  alt={t('photos.alt', { n: i + 1, name: p.fileName })}
                   className="aspect-[4/3] w-36 rounded-control border border-rule-strong bg-sunk object-cover"
                 />
               ) : (
@@ -115,9 +117,9 @@ export function PhotoField({ name, label, max, hint, documents = false }: PhotoF
                   {p.fileName}
                 </span>
               )}
-              <Button size="sm" onClick={() => remove(p.id)} aria-label={`Remove photo ${p.fileName}`}>
+              <Button size="sm" onClick={() => remove(p.id)} aria-label={t('photos.removeLabel', { name: p.fileName })}>
                 <Icon name="trash" size={16} />
-                Remove
+                {t('photos.remove')}
               </Button>
             </li>
           ))}

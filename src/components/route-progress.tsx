@@ -1,13 +1,14 @@
 import type { RouteStep } from '../api/items/types';
+import { useT } from '../lib/i18n';
 import { Icon, type IconName } from './ui/icon';
 
 const STEP: Record<RouteStep['state'], { icon: IconName; word: string; cls: string }> = {
-  done: { icon: 'ok', word: 'done', cls: 'border border-ok bg-ok-tint text-ok' },
-  current: { icon: 'stepNow', word: 'here now', cls: 'border-2 border-accent bg-accent-tint font-semibold text-ink' },
-  todo: { icon: 'wait', word: 'to do', cls: 'border border-dashed border-rule-strong bg-card text-ink-soft' },
+  done: { icon: 'ok', word: 'route.done', cls: 'border border-ok bg-ok-tint text-ok' },
+  current: { icon: 'stepNow', word: 'route.here', cls: 'border-2 border-accent bg-accent-tint font-semibold text-ink' },
+  todo: { icon: 'wait', word: 'route.todo', cls: 'border border-dashed border-rule-strong bg-card text-ink-soft' },
   skipped: {
     icon: 'off',
-    word: 'will not happen',
+    word: 'route.skipped',
     cls: 'border border-dotted border-rule-strong bg-ground text-ink-soft line-through',
   },
 };
@@ -17,7 +18,8 @@ const STEP: Record<RouteStep['state'], { icon: IconName; word: string; cls: stri
  * ring, solid arrow in a thick box, dashed ring) and its word, so it reads without colour.
  */
 export function RouteProgress({ steps }: { steps: RouteStep[] }) {
-  if (steps.length === 0) return <p className="text-ink-soft">This item has no route of stages.</p>;
+  const tr = useT();
+  if (steps.length === 0) return <p className="text-ink-soft">{tr('route.none')}</p>;
   const at = steps.findIndex((s) => s.state === 'current');
   const done = steps.filter((s) => s.state === 'done').length;
   return (
@@ -25,17 +27,17 @@ export function RouteProgress({ steps }: { steps: RouteStep[] }) {
       <p className="mb-2 text-sm text-ink-soft">
         {at >= 0 ? (
           <>
-            Stage <span className="font-mono text-ink">{at + 1}</span> of{' '}
+            {tr('route.stage')} <span className="font-mono text-ink">{at + 1}</span> {tr('common.of')}{' '}
             <span className="font-mono text-ink">{steps.length}</span>:{' '}
             <span className="font-semibold text-ink">{steps[at]!.name}</span>
           </>
         ) : done === steps.length ? (
-          'Every stage of its route is done.'
+          tr('route.allDone')
         ) : (
-          `${done} of ${steps.length} stages done.`
+          tr('slot.doneCount', { done, all: steps.length })
         )}
       </p>
-      <ol aria-label="Route" className="flex flex-wrap gap-1.5">
+      <ol aria-label={tr('route.label')} className="flex flex-wrap gap-1.5">
         {steps.map((s) => {
           const t = STEP[s.state];
           return (
@@ -47,11 +49,11 @@ export function RouteProgress({ steps }: { steps: RouteStep[] }) {
               <Icon name={t.icon} size={16} />
               <span>{s.name}</span>
               {s.state === 'current' ? (
-                <span className="text-xs uppercase tracking-wide">· {t.word}</span>
+                <span className="text-xs uppercase tracking-wide">· {tr(t.word)}</span>
               ) : (
-                <span className="sr-only">({t.word})</span>
+                <span className="sr-only">({tr(t.word)})</span>
               )}
-              {!s.required && <span className="text-xs text-ink-soft">(if needed)</span>}
+              {!s.required && <span className="text-xs text-ink-soft">{tr('route.ifNeeded')}</span>}
             </li>
           );
         })}
@@ -66,7 +68,7 @@ export function RouteProgress({ steps }: { steps: RouteStep[] }) {
           ] as const
         ).map((k) => (
           <span key={k} className="inline-flex items-center gap-1">
-            <Icon name={STEP[k].icon} size={14} /> {STEP[k].word}
+            <Icon name={STEP[k].icon} size={14} /> {tr(STEP[k].word)}
           </span>
         ))}
       </p>

@@ -13,6 +13,7 @@ import { Dialog } from './ui/dialog';
 import { Icon } from './ui/icon';
 import { Notice } from './ui/notice';
 import { useT } from '../lib/i18n';
+import { localizeText } from '../lib/server-messages';
 
 // the decoder and its camera code load only when someone taps "Scan with camera"
 const CameraScan = lazy(() => import('./camera-scan').then((m) => ({ default: m.CameraScan })));
@@ -140,7 +141,7 @@ export function ScanBox({ onItem, lookup, preview = true, autoFocus = false, hin
           {reason ? (
             <p className="flex items-start gap-1.5 font-medium text-bad">
               <Icon name="bad" size={20} className="mt-0.5" />
-              {reason}
+              {localizeText(reason)}
             </p>
           ) : check.ok ? (
             <p className="flex items-start gap-1.5 font-medium text-ok">

@@ -1,9 +1,11 @@
 import { useState, type FormEvent } from 'react';
 import { useNavigate, useSearchParams } from 'react-router';
+import { useT } from '../lib/i18n';
 import { searchHref } from '../lib/paths';
 
 /** The one search box in the header: whatever has a number, grouped by kind on the results page. */
 export function SearchBox() {
+  const t = useT();
   const [params] = useSearchParams();
   const [q, setQ] = useState(params.get('q') ?? '');
   const navigate = useNavigate();
@@ -15,8 +17,8 @@ export function SearchBox() {
     <form role="search" onSubmit={submit} className="flex items-center">
       <input
         type="search"
-        aria-label="Search serials, lots, references, NCRs, casting numbers"
-        placeholder="Search serials, lots, NCRs…"
+        aria-label={t('nav.searchLabel')}
+        placeholder={t('nav.searchPlaceholder')}
         value={q}
         maxLength={60}
         onChange={(e) => setQ(e.target.value)}

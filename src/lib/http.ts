@@ -1,5 +1,6 @@
 import type { ClientErrorCode, ErrorCode } from '../../shared/errors';
 import type { ApiError as ApiErrorReply } from '../../shared/schemas/common';
+import { serverFields, serverMessage } from './server-messages';
 
 /** The server's reply, or one made here when no reply explains the failure. */
 type ErrorBody = Omit<ApiErrorReply['error'], 'code'> & { code: ErrorCode | ClientErrorCode };
@@ -82,6 +83,16 @@ async function readError(res: Response): Promise<ErrorBody> {
   };
 }
 
+/** The reply's words in the floor screen's language (lib/server-messages.ts); code, reason and the rest as sent. */
+function inScreenLanguage(body: ErrorBody): ErrorBody {
+  const reason = (body as ErrorBody & { reason?: unknown }).reason;
+  return {
+    ...body,
+    message: serverMessage(body.code, body.message, reason),
+    ...(body.fields ? { fields: serverFields(body.fields) } : {}),
+  };
+}
+
 /**
  * The one way the client talks to the API: JSON in and out (multipart for uploads), the session
  * cookie sent along, and every failure turned into an ApiError. Sending people to sign-in on a lost session is done once,
@@ -102,12 +113,15 @@ export async function http<T>(path: string, { method = 'GET', body, query, signa
     });
   } catch (err) {
     if (signal?.aborted) throw err;
-    throw new ApiError(0, {
-      code: 'network',
-      message: 'Coretrail could not reach the server. Check the connection, then try again.',
-    });
+    throw new ApiError(
+      0,
+      inScreenLanguage({
+        code: 'network',
+        message: 'Coretrail could not reach the server. Check the connection, then try again.',
+      }),
+    );
   }
-  if (!res.ok) throw new ApiError(res.status, await readError(res), retryAfterOf(res));
+  if (!res.ok) throw new ApiError(res.status, inScreenLanguage(await readError(res)), retryAfterOf(res));
   if (res.status === 204) return undefined as T;
   return (await res.json()) as T;
 }

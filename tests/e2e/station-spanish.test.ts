@@ -106,6 +106,9 @@ describe('the station screen in Spanish', () => {
       .getByRole('radio', { name: 'Pasa' })
       .check();
     await expect(page.getByText('fuera de tolerancia').first().isVisible()).resolves.toBe(true);
+    // the pressure test's safety caution stays on screen, in Spanish (the demo plant's own wording has its Spanish)
+    const caution = page.getByRole('complementary', { name: `Seguridad: ${form.stage.name}` });
+    await expect(caution.textContent()).resolves.toContain('La prueba de presión acumula energía');
     await page.screenshot({ path: path.join(shots, 'station-spanish-form-1024.png') });
     await page.getByRole('button', { name: 'Registrar resultado' }).click();
     await page.getByRole('heading', { level: 2, name: 'Aprobada' }).waitFor();

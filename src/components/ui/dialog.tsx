@@ -1,4 +1,5 @@
 import { useEffect, useId, useRef, type ReactNode } from 'react';
+import { useT } from '../../lib/i18n';
 import { Icon } from './icon';
 
 type DialogProps = {
@@ -15,6 +16,7 @@ type DialogProps = {
  * inert without any script of ours. Content mounts only while open, so every opening starts clean.
  */
 export function Dialog({ open, onClose, title, description, children, width = 'narrow' }: DialogProps) {
+  const t = useT();
   const ref = useRef<HTMLDialogElement>(null);
   const titleId = useId();
   const descId = useId();
@@ -50,7 +52,7 @@ export function Dialog({ open, onClose, title, description, children, width = 'n
             <button
               type="button"
               onClick={onClose}
-              aria-label="Close"
+              aria-label={t('common.close')}
               className="-mr-1 inline-flex size-9 items-center justify-center rounded-control text-ink-soft hover:bg-sunk floor:size-12"
             >
               <Icon name="close" size={20} />

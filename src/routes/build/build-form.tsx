@@ -12,9 +12,11 @@ import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { describedBy, Field } from '../../components/ui/field';
 import { Select } from '../../components/ui/select';
 import { ApiError } from '../../lib/http';
+import { t, useT } from '../../lib/i18n';
 import { LotRows } from './lot-rows';
 import { PartSlot } from './part-slot';
 import { RefusalProvider, RefusalSummary, type Refusal } from './refusals';
+import { localizeText } from '../../lib/server-messages';
 import { slotsFor } from './slots';
 import { useChosenFamily } from './use-family';
 
@@ -29,25 +31,27 @@ function Section({ title, description, children }: { title: string; description?
 }
 
 const layoutWords = (f: EngineFamily) =>
-  `${f.cylinders} cylinders, ${f.layout === 'v' ? 'V — a left and a right head' : 'inline — one head'}`;
+  t(f.layout === 'v' ? 'build.layoutV' : 'build.layoutInline', { cylinders: f.cylinders });
 
 function FamilyField({ onChange }: { onChange: () => void }) {
   const id = useId();
+  useT();
   const families = useFamilies();
   const { register, setValue, formState } = useFormContext<BuildBody>();
   const family = useChosenFamily();
-  const error = formState.errors.family?.message;
-  const hint = family ? layoutWords(family) : 'The parts and lots below follow from it.';
+  const raw = formState.errors.family?.message;
+  const error = raw && localizeText(raw);
+  const hint = family ? layoutWords(family) : t('build.familyHint');
   const options = (families.data ?? [])
     .filter((f) => f.active)
     .map((f) => ({ value: f.code, label: `${f.code} — ${f.name}` }));
   return (
     <div className="max-w-xl">
-      <Field id={id} label="Engine family" hint={hint} error={error}>
+      <Field id={id} label={t('build.family')} hint={hint} error={error}>
         <Select
           id={id}
           options={options}
-          placeholder="Choose…"
+          placeholder={t('common.choose')}
           aria-invalid={error ? true : undefined}
           aria-describedby={describedBy(id, hint, error)}
           {...register('family', {
@@ -72,18 +76,18 @@ function FamilyField({ onChange }: { onChange: () => void }) {
 }
 
 function PartSlots() {
+  useT();
   const family = useChosenFamily();
   const values = useWatch({ name: ['block', 'crankshaft', 'heads'] }) as [string, string, string[] | undefined];
   const { errors } = useFormState<BuildBody>();
   if (!family) {
-    return (
-      <p className="text-ink-soft">Choose the engine family first: it says how many heads the long block takes.</p>
-    );
+    return <p className="text-ink-soft">{t('build.familyFirst')}</p>;
   }
   const slots = slotsFor(family);
   const serialOf = (name: string) =>
     name === 'block' ? values[0] : name === 'crankshaft' ? values[1] : (values[2]?.[Number(name.split('.')[1])] ?? '');
-  const pairError = errors.heads?.message ?? errors.heads?.root?.message;
+  const pairRaw = errors.heads?.message ?? errors.heads?.root?.message;
+  const pairError = pairRaw && localizeText(pairRaw);
   return (
     <div className="grid grid-cols-1 gap-x-8 gap-y-6 xl:grid-cols-2">
       {slots.map((s) => {
@@ -126,6 +130,7 @@ const emptyLots = () =>
  */
 export function BuildForm({ onBuilt }: { onBuilt: (unit: ItemJson, body: BuildBody) => void }) {
   const build = useBuildUnit();
+  useT();
   const [refusal, setRefusal] = useState<Refusal | null>(null);
 
   const clear = (match: (key: string) => boolean) =>
@@ -142,7 +147,7 @@ export function BuildForm({ onBuilt }: { onBuilt: (unit: ItemJson, body: BuildBo
     } catch (err) {
       if (err instanceof ApiError && Object.keys(err.fields).length > 0) {
         setRefusal({
-          title: err.code === 'build_refused' ? 'The long block was not started' : err.message,
+          title: err.code === 'build_refused' ? t('build.notStarted') : err.message,
           fields: err.fields,
         });
         return;
@@ -158,35 +163,24 @@ export function BuildForm({ onBuilt }: { onBuilt: (unit: ItemJson, body: BuildBo
         defaultValues={{ family: '', block: '', crankshaft: '', heads: [''], lots: emptyLots(), notes: '' }}
         onSubmit={onSubmit}
       >
-        <Section
-          title="Family and parts"
-          description="Choose the family, then scan each finished part into its slot. Each one shows where it stands; the server checks again when you start."
-        >
+        <Section title={t('build.familyParts')} description={t('build.familyPartsIntro')}>
           <div className="flex flex-col gap-5">
             <FamilyField onChange={() => setRefusal(null)} />
-            <Caution title="Heavy parts, stretch bolts" icon="hoist">
-              Blocks, crankshafts and heads are heavy: lift them with the hoist. Torque-to-yield bolts are never reused;
-              fit new ones. Follow the plant&apos;s assembly procedures; this screen does not replace them.
+            <Caution title={t('build.heavyTitle')} icon="hoist">
+              {t('build.heavyBody')}
             </Caution>
             <PartSlots />
           </div>
         </Section>
-        <Section
-          title="Purchased lots"
-          description="The supplier, part number and lot code from each box's label. Pistons also say their oversize."
-        >
+        <Section title={t('build.lots')} description={t('build.lotsIntro')}>
           <LotRows />
         </Section>
-        <Section title="Notes">
-          <TextAreaField
-            name="notes"
-            label="Build notes"
-            hint="Anything the assembler or the warranty desk should know."
-          />
+        <Section title={t('form.notes')}>
+          <TextAreaField name="notes" label={t('build.notes')} hint={t('build.notesHint')} />
         </Section>
         <Summary />
         <div className="flex justify-end">
-          <SubmitButton size="lg">Start long block</SubmitButton>
+          <SubmitButton size="lg">{t('build.submit')}</SubmitButton>
         </div>
       </Form>
     </RefusalProvider>

@@ -10,11 +10,14 @@ import { PageHeader } from '../../components/page-header';
 import { Button, ButtonLink } from '../../components/ui/button';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Notice } from '../../components/ui/notice';
+import { t, useT } from '../../lib/i18n';
 import { partName } from '../../lib/item-status';
+import { label } from '../../lib/server-messages';
 import { itemHref, labelsHref, stationHref } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
 import { BuildForm } from './build-form';
 import { ReplacePart } from './replace-part';
+import { buildWords } from './screen-words';
 import { slotsFor } from './slots';
 
 export const buildLoader =
@@ -24,6 +27,7 @@ export const buildLoader =
     await Promise.all([
       queryClient.ensureQueryData(familiesQueryOptions()),
       queryClient.ensureQueryData(suppliersQueryOptions()),
+      buildWords(),
     ]);
     return null;
   };
@@ -31,10 +35,11 @@ export const buildLoader =
 type Built = { unit: ItemJson; body: BuildBody };
 
 function BuildDone({ built, canPrint, onNext }: { built: Built; canPrint: boolean; onNext: () => void }) {
+  useT();
   const { unit, body } = built;
   const first = unit.currentStage?.name ?? unit.route[0]?.name;
   const parts = slotsFor(unit.family).map((s) => ({
-    label: s.label,
+    label: label(s.label),
     serial:
       s.name === 'block'
         ? body.block
@@ -44,23 +49,19 @@ function BuildDone({ built, canPrint, onNext }: { built: Built; canPrint: boolea
   }));
   return (
     <Card labelledBy="built-heading">
-      <CardHeader
-        id="built-heading"
-        title="Long block started"
-        description="Label it now, then take it to assembly. Each part that went in is recorded against it."
-      />
+      <CardHeader id="built-heading" title={t('build.doneTitle')} description={t('build.doneIntro')} />
       <CardBody>
         <div className="flex flex-col gap-5">
-          <Notice tone="ok" live="status" title={`${unit.serial} started`}>
-            {partName(unit.kindLabel, unit.positionLabel)}, {unit.family.code} {unit.family.name}.
-            {first ? ` Its route starts at ${first}.` : ''}
+          <Notice tone="ok" live="status" title={t('build.started', { serial: unit.serial })}>
+            {partName(label(unit.kindLabel), unit.positionLabel)}, {unit.family.code} {unit.family.name}.
+            {first ? ` ${t('build.routeStarts', { stage: first })}` : ''}
           </Notice>
           <div>
-            <p className="text-sm font-semibold uppercase tracking-wide text-ink-soft">New unit serial</p>
+            <p className="text-sm font-semibold uppercase tracking-wide text-ink-soft">{t('build.newSerial')}</p>
             <p className="font-mono text-[3.25rem] font-semibold leading-tight tracking-wider">{unit.serial}</p>
           </div>
           <div>
-            <h3 className="text-sm font-semibold uppercase tracking-wide text-ink-soft">What went in</h3>
+            <h3 className="text-sm font-semibold uppercase tracking-wide text-ink-soft">{t('build.wentIn')}</h3>
             <dl className="mt-1 grid grid-cols-[auto_1fr] gap-x-5 gap-y-1">
               {parts.map((p) => (
                 <Fragment key={p.label}>
@@ -68,24 +69,24 @@ function BuildDone({ built, canPrint, onNext }: { built: Built; canPrint: boolea
                   <dd className="font-mono font-semibold">{p.serial}</dd>
                 </Fragment>
               ))}
-              <dt>Purchased lots</dt>
+              <dt>{t('build.lots')}</dt>
               <dd>{body.lots.length}</dd>
             </dl>
           </div>
           <div className="flex flex-wrap gap-2">
             {canPrint && (
               <ButtonLink to={labelsHref([unit.serial])} variant="primary" size="lg" icon="print">
-                Print its label
+                {t('build.printLabel')}
               </ButtonLink>
             )}
             <ButtonLink to={stationHref(unit.serial)} size="lg" icon="arrowRight">
-              Record assembly at the station
+              {t('build.recordAssembly')}
             </ButtonLink>
             <ButtonLink to={itemHref(unit.serial)} size="lg" variant="quiet">
-              Open {unit.serial}
+              {t('build.open', { serial: unit.serial })}
             </ButtonLink>
             <Button size="lg" onClick={onNext}>
-              Start another long block
+              {t('build.another')}
             </Button>
           </div>
         </div>
@@ -99,19 +100,17 @@ export function BuildPage() {
   const [built, setBuilt] = useState<Built | null>(null);
   const [sheet, setSheet] = useState(0);
   const [mode, setMode] = useState<'build' | 'replace'>('build');
+  useT();
   if (!me) return null;
   return (
     // the build bench is worked standing at a tablet, whoever signs in: large targets throughout
     <div data-density="floor" className="mx-auto max-w-[72rem]">
-      <PageHeader
-        title="Build"
-        description="Start a long block from a finished block, crankshaft and heads, and the purchased lots that go in."
-      />
-      <div role="group" aria-label="What to do" className="mb-5 flex flex-wrap gap-2">
+      <PageHeader title={t('build.title')} description={t('build.intro')} />
+      <div role="group" aria-label={t('build.whatToDo')} className="mb-5 flex flex-wrap gap-2">
         {(
           [
-            ['build', 'Start a long block'],
-            ['replace', 'Replace a part in a built unit'],
+            ['build', t('build.modeBuild')],
+            ['replace', t('build.modeReplace')],
           ] as const
         ).map(([m, label]) => (
           <Button

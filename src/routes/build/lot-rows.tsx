@@ -7,6 +7,8 @@ import { itemResultsQueryOptions } from '../../api/items/results';
 import { useSuppliers } from '../../api/reference/suppliers';
 import { NumberField, SelectField, TextField } from '../../components/form-fields';
 import { Icon } from '../../components/ui/icon';
+import { t, useT } from '../../lib/i18n';
+import { label } from '../../lib/server-messages';
 import { boreFit, OVERSIZE_WARN_IN, oversizeWords } from './piston-fit';
 import { lotKeys, messagesFor, RefusalLines, useRefusals } from './refusals';
 import { useChosenFamily } from './use-family';
@@ -16,7 +18,7 @@ function RowLabel({ kind, what }: { kind: LotKind; what: string }) {
   return (
     <>
       <span className="sr-only">
-        {LOT_KIND_LABELS[kind]} {what.toLowerCase()}
+        {t('lot.rowLabel', { kind: label(LOT_KIND_LABELS[kind]), what: what.toLowerCase() })}
       </span>
       <span aria-hidden="true">{what}</span>
     </>
@@ -60,6 +62,7 @@ function PistonFit({ family }: { family: EngineFamily | undefined }) {
 
 function LotRow({ index, family }: { index: number; family: EngineFamily | undefined }) {
   const kind = LOT_KINDS[index]!;
+  useT();
   const suppliers = useSuppliers();
   const { refusal, clear } = useRefusals();
   const refused = messagesFor(refusal, lotKeys(index));
@@ -75,25 +78,25 @@ function LotRow({ index, family }: { index: number; family: EngineFamily | undef
       }}
       className={`grid grid-cols-1 gap-x-3 gap-y-2 border-b border-rule py-4 last:border-b-0 xl:grid-cols-[9rem_minmax(0,1fr)] ${refused.length ? 'border-l-4 border-l-bad pl-3' : ''}`}
     >
-      <h3 className="pt-1 text-lg font-semibold xl:pt-8">{LOT_KIND_LABELS[kind]}</h3>
+      <h3 className="pt-1 text-lg font-semibold xl:pt-8">{label(LOT_KIND_LABELS[kind])}</h3>
       <div className="grid grid-cols-2 items-start gap-3 md:grid-cols-[minmax(0,1.5fr)_minmax(0,1fr)_minmax(0,1fr)_6rem_8.5rem]">
         <div className="col-span-2 md:col-span-1">
           <SelectField
             name={`${base}.supplierId`}
-            label={<RowLabel kind={kind} what="Supplier" />}
+            label={<RowLabel kind={kind} what={t('build.supplier')} />}
             options={options}
-            placeholder="Choose…"
+            placeholder={t('common.choose')}
             numeric
           />
         </div>
-        <TextField name={`${base}.partNumber`} label={<RowLabel kind={kind} what="Part number" />} mono />
-        <TextField name={`${base}.lotCode`} label={<RowLabel kind={kind} what="Lot code" />} mono />
-        <NumberField name={`${base}.quantity`} label={<RowLabel kind={kind} what="Quantity" />} integer />
+        <TextField name={`${base}.partNumber`} label={<RowLabel kind={kind} what={t('lot.partNumber')} />} mono />
+        <TextField name={`${base}.lotCode`} label={<RowLabel kind={kind} what={t('lot.lotCode')} />} mono />
+        <NumberField name={`${base}.quantity`} label={<RowLabel kind={kind} what={t('lot.quantity')} />} integer />
         {pistons ? (
           <NumberField
             name={`${base}.oversizeIn`}
-            label={<RowLabel kind={kind} what="Oversize (in)" />}
-            hint="0 for standard; 0.030 for +.030."
+            label={<RowLabel kind={kind} what={t('lot.oversize')} />}
+            hint={t('lot.oversizeHint')}
           />
         ) : (
           <span aria-hidden="true" className="hidden md:block" />
@@ -101,8 +104,8 @@ function LotRow({ index, family }: { index: number; family: EngineFamily | undef
         {SIZED_LOT_KINDS.includes(kind) && (
           <TextField
             name={`${base}.sizeClass`}
-            label={<RowLabel kind={kind} what="Size class" />}
-            hint={pistons ? 'As on the box: STD, +0.25, +0.030 …' : 'As on the box: STD, -0.010 …'}
+            label={<RowLabel kind={kind} what={t('lot.sizeClass')} />}
+            hint={t(pistons ? 'lot.sizeHintPistons' : 'lot.sizeHint')}
             mono
           />
         )}

@@ -11,8 +11,10 @@ import { Dialog } from '../../components/ui/dialog';
 import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
 import { ApiError } from '../../lib/http';
+import { t, useT } from '../../lib/i18n';
 import { partName } from '../../lib/item-status';
 import { itemHref } from '../../lib/paths';
+import { label, localizeText } from '../../lib/server-messages';
 import { messagesFor, RefusalLines, slotKeys, useRefusals } from './refusals';
 import { concernsFor, routeDone, type Slot } from './slots';
 
@@ -28,11 +30,12 @@ function focusNextEmpty(from: HTMLInputElement | null) {
 function routeLine(item: ItemJson): string {
   const steps = item.route;
   const done = steps.filter((s) => s.state === 'done').length;
-  if (steps.length === 0) return 'No route of stages.';
-  if (routeDone(item)) return `Route done: ${done} of ${steps.length} stages.`;
+  const all = steps.length;
+  if (all === 0) return t('slot.noRoute');
+  if (routeDone(item)) return t('slot.routeDone', { done, all });
   return item.currentStage
-    ? `Due at ${item.currentStage.name}: ${done} of ${steps.length} stages done.`
-    : `${done} of ${steps.length} stages done.`;
+    ? t('slot.dueAtCount', { stage: item.currentStage.name, done, all })
+    : t('slot.doneCount', { done, all });
 }
 
 function ScannedPart({
@@ -42,6 +45,7 @@ function ScannedPart({
   elsewhere,
   onEmpty,
 }: SlotProps & { item: ItemJson; onEmpty: () => void }) {
+  useT();
   const concerns = concernsFor(item, slot, familyCode, elsewhere);
   return (
     <div className="flex flex-col gap-2 rounded-control border border-rule bg-sunk px-3 py-2.5">
@@ -49,21 +53,21 @@ function ScannedPart({
         <div className="flex min-w-0 flex-wrap items-center gap-x-3 gap-y-1 pt-2">
           <Link
             to={itemHref(item.serial)}
-            className="font-mono text-lg font-semibold text-accent underline-offset-4 hover:underline"
+            className="inline-flex min-h-11 items-center font-mono text-lg font-semibold text-accent underline-offset-4 hover:underline floor:min-h-12"
           >
             {item.serial}
           </Link>
           <StatusBadge status={item.status} />
-          <span>{partName(item.kindLabel, item.positionLabel)}</span>
+          <span>{partName(label(item.kindLabel), item.positionLabel)}</span>
           <span className="font-mono text-sm font-semibold">{item.family.code}</span>
         </div>
-        <Button variant="quiet" onClick={onEmpty} aria-label={`Empty slot: ${slot.label}`}>
-          Empty slot
+        <Button variant="quiet" onClick={onEmpty} aria-label={t('slot.emptyLabel', { slot: label(slot.label) })}>
+          {t('slot.empty')}
         </Button>
       </div>
       <p className="text-sm text-ink-soft">{routeLine(item)}</p>
       {concerns.length > 0 ? (
-        <Notice tone={concerns.every((c) => c.tone === 'hold') ? 'hold' : 'bad'} title="It cannot go in as it stands">
+        <Notice tone={concerns.every((c) => c.tone === 'hold') ? 'hold' : 'bad'} title={t('slot.cannotGoIn')}>
           <ul className="flex flex-col gap-0.5">
             {concerns.map((c) => (
               <li key={c.text}>{c.text}</li>
@@ -73,7 +77,7 @@ function ScannedPart({
       ) : (
         <p className="flex items-center gap-1.5 text-sm font-medium text-ok">
           <Icon name="ok" size={18} />
-          Looks ready: finished its route, right family. The server checks holds again when you start.
+          {t('slot.ready')}
         </p>
       )}
     </div>
@@ -94,7 +98,9 @@ type SlotProps = {
  */
 export function PartSlot({ slot, familyCode, elsewhere }: SlotProps) {
   const id = useId();
+  useT();
   const inputId = `${id}-serial`;
+  const slotName = label(slot.label);
   const queryClient = useQueryClient();
   const {
     field: { ref: fieldRef, name, value: raw, onChange: setValue },
@@ -134,10 +140,10 @@ export function PartSlot({ slot, familyCode, elsewhere }: SlotProps) {
     } catch (err) {
       setFailure(
         err instanceof ApiError && err.status === 404
-          ? `No item has the serial ${parsed.serial}. Check the label.`
+          ? t('slot.noSuchSerial', { serial: parsed.serial })
           : err instanceof ApiError
             ? err.message
-            : 'The serial could not be looked up. Try again.',
+            : t('scan.lookupFailed'),
       );
     } finally {
       setLooking(null);
@@ -162,13 +168,13 @@ export function PartSlot({ slot, familyCode, elsewhere }: SlotProps) {
 
   const statusId = `${id}-status`;
   const problemId = `${id}-problem`;
-  const error = fieldState.error?.message;
+  const error = fieldState.error?.message && localizeText(fieldState.error.message);
   const bad = Boolean(reason || failure || error || refused.length);
 
   return (
     <div className="flex flex-col gap-2">
       <label htmlFor={inputId} className="text-base font-semibold text-ink">
-        {slot.label}
+        {slotName}
       </label>
       <div className="flex flex-wrap items-center gap-2">
         <input
@@ -192,7 +198,7 @@ export function PartSlot({ slot, familyCode, elsewhere }: SlotProps) {
           autoCapitalize="characters"
           spellCheck={false}
           enterKeyHint="next"
-          placeholder="Scan or type the serial"
+          placeholder={t('slot.placeholder')}
           aria-invalid={bad ? true : undefined}
           aria-describedby={`${statusId} ${problemId}`}
           className="h-12 min-w-0 flex-1 basis-56 rounded-control border-2 border-rule-strong bg-field px-3 font-mono text-xl font-semibold uppercase tracking-wide text-ink placeholder:font-sans placeholder:text-base placeholder:font-normal placeholder:normal-case placeholder:tracking-normal placeholder:text-ink-faint hover:border-ink-soft aria-[invalid=true]:border-bad"
@@ -202,34 +208,34 @@ export function PartSlot({ slot, familyCode, elsewhere }: SlotProps) {
           onClick={(e) => void find(text, e.currentTarget.parentElement?.querySelector('input') ?? null)}
           disabled={looking !== null}
           aria-busy={looking !== null}
-          aria-label={`Find ${slot.label.toLowerCase()}`}
+          aria-label={t('slot.findLabel', { slot: slotName.toLowerCase() })}
         >
-          Find
+          {t('scan.find')}
         </Button>
         <Button
           size="lg"
           icon="camera"
           onClick={() => setCamera(true)}
-          aria-label={`Scan ${slot.label.toLowerCase()} with camera`}
+          aria-label={t('slot.cameraLabel', { slot: slotName.toLowerCase() })}
         >
-          <span className="hidden sm:inline">Camera</span>
+          <span className="hidden sm:inline">{t('slot.camera')}</span>
         </Button>
       </div>
       <div id={statusId} aria-live="polite" className={value ? 'text-sm' : 'min-h-6 text-sm'}>
         {reason ? (
           <p className="flex items-start gap-1.5 font-medium text-bad">
             <Icon name="bad" size={18} className="mt-0.5" />
-            {reason}
+            {localizeText(reason)}
           </p>
         ) : looking ? (
-          <p className="text-ink-soft">Looking up {looking}…</p>
+          <p className="text-ink-soft">{t('scan.looking', { serial: looking })}</p>
         ) : failure ? (
           <p className="flex items-start gap-1.5 font-medium text-bad">
             <Icon name="bad" size={18} className="mt-0.5" />
             {failure}
           </p>
         ) : !value ? (
-          <p className="text-ink-soft">Scan its label; Enter or Find looks it up.</p>
+          <p className="text-ink-soft">{t('slot.hint')}</p>
         ) : null}
       </div>
       <div id={problemId} className="flex flex-col gap-2 empty:hidden">
@@ -247,10 +253,10 @@ export function PartSlot({ slot, familyCode, elsewhere }: SlotProps) {
       <Dialog
         open={camera}
         onClose={() => setCamera(false)}
-        title={`Scan the ${slot.label.toLowerCase()}`}
+        title={t('slot.cameraTitle', { slot: slotName.toLowerCase() })}
         width="wide"
       >
-        <Suspense fallback={<p className="text-ink-soft">Loading the camera reader…</p>}>
+        <Suspense fallback={<p className="text-ink-soft">{t('scan.cameraLoading')}</p>}>
           <CameraScan
             onCode={(code) => {
               setCamera(false);

@@ -2,6 +2,8 @@ import { createContext, useContext, type ReactNode } from 'react';
 import { LOT_KIND_LABELS, LOT_KINDS } from '../../../shared/schemas/build';
 import { Icon } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
+import { t, useT } from '../../lib/i18n';
+import { label } from '../../lib/server-messages';
 import type { Slot } from './slots';
 
 /**
@@ -42,7 +44,7 @@ export function RefusalLines({ messages, id }: { messages: string[]; id?: string
         <li key={m} className="flex items-start gap-1.5 font-medium text-bad">
           <Icon name="bad" size={18} className="mt-0.5 shrink-0" />
           <span>
-            <span className="sr-only">Refused: </span>
+            <span className="sr-only">{t('refusal.refused')} </span>
             {m}
           </span>
         </li>
@@ -55,25 +57,25 @@ type Where = { label: string; selector: string | null };
 
 function whereOf(key: string, slots: Slot[]): Where {
   const slot = slots.find((s) => s.name === key);
-  if (slot) return { label: slot.label, selector: `[name="${slot.name}"]` };
-  if (key === 'heads') return { label: 'Cylinder heads', selector: '[name="heads.0"]' };
-  if (key === 'family') return { label: 'Engine family', selector: '[name="family"]' };
+  if (slot) return { label: label(slot.label), selector: `[name="${slot.name}"]` };
+  if (key === 'heads') return { label: t('refusal.heads'), selector: '[name="heads.0"]' };
+  if (key === 'family') return { label: t('build.family'), selector: '[name="family"]' };
   const byKind = /^lots\.([a-z_]+)$/.exec(key);
   const kind = LOT_KINDS.find((k) => k === byKind?.[1]);
   if (kind) {
     const i = LOT_KINDS.indexOf(kind);
     return {
-      label: LOT_KIND_LABELS[kind],
+      label: label(LOT_KIND_LABELS[kind]),
       selector: kind === 'pistons' ? `[name="lots.${i}.oversizeIn"]` : `[name="lots.${i}.lotCode"]`,
     };
   }
   const byIndex = /^lots\.(\d+)(?:\.(\w+))?$/.exec(key);
   const at = byIndex ? LOT_KINDS[Number(byIndex[1])] : undefined;
   if (byIndex && at) {
-    return { label: LOT_KIND_LABELS[at], selector: `[name="lots.${byIndex[1]}.${byIndex[2] ?? 'lotCode'}"]` };
+    return { label: label(LOT_KIND_LABELS[at]), selector: `[name="lots.${byIndex[1]}.${byIndex[2] ?? 'lotCode'}"]` };
   }
-  if (key === 'lots') return { label: 'Purchased lots', selector: null };
-  return { label: 'Build', selector: null };
+  if (key === 'lots') return { label: t('build.lots'), selector: null };
+  return { label: t('build.title'), selector: null };
 }
 
 const goTo = (selector: string) => {
@@ -85,6 +87,7 @@ const goTo = (selector: string) => {
 /** Every refusal of the last try in one list, each able to take the user to its slot or row. */
 export function RefusalSummary({ slots }: { slots: Slot[] }) {
   const { refusal } = useRefusals();
+  useT();
   if (!refusal) return null;
   const entries = Object.entries(refusal.fields);
   return (
@@ -101,7 +104,7 @@ export function RefusalSummary({ slots }: { slots: Slot[] }) {
                     onClick={() => goTo(where.selector!)}
                     className="inline-flex min-h-11 floor:min-h-12 items-center font-semibold text-accent underline underline-offset-4"
                   >
-                    <span className="sr-only">Go to </span>
+                    <span className="sr-only">{t('refusal.goTo')} </span>
                     {where.label}
                   </button>
                 ) : (

@@ -1,5 +1,7 @@
 import type { EngineFamily, PartKind } from '../../../shared/schemas/reference';
 import type { ItemJson } from '../../api/items/types';
+import { t } from '../../lib/i18n';
+import { label } from '../../lib/server-messages';
 
 /** One place on the build sheet a manufactured part is scanned into. */
 export type Slot = {
@@ -40,36 +42,36 @@ export type Concern = { tone: 'bad' | 'hold'; text: string };
  * has the last word (it also sees holds this page cannot).
  */
 export function concernsFor(item: ItemJson, slot: Slot, familyCode: string, elsewhere: string | null): Concern[] {
-  const kind = item.kindLabel.toLowerCase();
-  const wanted = slot.kind === 'cylinder_head' ? 'cylinder head' : slot.label.toLowerCase();
+  const kind = label(item.kindLabel).toLowerCase();
+  const wanted = label(slot.kind === 'cylinder_head' ? 'Cylinder head' : slot.label).toLowerCase();
+  const serial = item.serial;
   if (item.kind !== slot.kind) {
-    return [{ tone: 'bad', text: `${item.serial} is a ${kind}, not a ${wanted}.` }];
+    return [{ tone: 'bad', text: t('slot.wrongKind', { serial, kind, wanted }) }];
   }
   const out: Concern[] = [];
-  if (elsewhere)
-    out.push({ tone: 'bad', text: `${item.serial} is already scanned as the ${elsewhere.toLowerCase()}.` });
+  if (elsewhere) out.push({ tone: 'bad', text: t('slot.twice', { serial, slot: label(elsewhere).toLowerCase() }) });
   if (familyCode && item.family.code !== familyCode) {
     out.push({
       tone: 'bad',
-      text: `${item.serial} is a ${item.family.code} part; this long block is a ${familyCode}.`,
+      text: t('slot.otherFamily', { serial, family: item.family.code, wanted: familyCode }),
     });
   }
-  if (item.status === 'scrapped') out.push({ tone: 'bad', text: `${item.serial} has been scrapped.` });
-  else if (item.status === 'installed') out.push({ tone: 'bad', text: `${item.serial} is already in a long block.` });
+  if (item.status === 'scrapped') out.push({ tone: 'bad', text: t('slot.scrapped', { serial }) });
+  else if (item.status === 'installed') out.push({ tone: 'bad', text: t('slot.installed', { serial }) });
   else if (item.status === 'on_hold') {
-    out.push({ tone: 'hold', text: `${item.serial} is on hold: its NCR has to be closed before it can go in.` });
+    out.push({ tone: 'hold', text: t('slot.onHold', { serial }) });
   } else if (!routeDone(item)) {
     out.push({
       tone: 'bad',
       text: item.currentStage
-        ? `${item.serial} has not finished its route: it is due at ${item.currentStage.name}.`
-        : `${item.serial} has not finished its route.`,
+        ? t('slot.dueAt', { serial, stage: item.currentStage.name })
+        : t('slot.notFinished', { serial }),
     });
   }
   if (slot.side && item.positionLabel && item.positionLabel !== slot.side) {
     out.push({
       tone: 'bad',
-      text: `${item.serial} is the ${item.positionLabel} head; scan it into the ${item.positionLabel === 'left' ? 'Left' : 'Right'} head slot.`,
+      text: t(item.positionLabel === 'left' ? 'slot.sideLeft' : 'slot.sideRight', { serial }),
     });
   }
   return out;

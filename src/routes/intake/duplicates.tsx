@@ -5,9 +5,11 @@ import { useDuplicates, type DuplicateCheck } from '../../api/cores/duplicates';
 import type { Duplicate } from '../../api/cores/types';
 import { CheckboxField } from '../../components/choice-fields';
 import { Notice } from '../../components/ui/notice';
+import { formatDay, language, useT } from '../../lib/i18n';
 import { coreHref } from '../../lib/paths';
 
 function DuplicateList({ rows }: { rows: Duplicate[] }) {
+  const t = useT();
   return (
     <ul className="mt-1 flex flex-col gap-1">
       {rows.map((d) => (
@@ -22,14 +24,15 @@ function DuplicateList({ rows }: { rows: Duplicate[] }) {
             {d.serial}
           </a>
           <span className="text-ink-soft">
-            received <span className="font-mono">{d.receivedOn}</span>, casting{' '}
-            <span className="font-mono">{d.castingNumber}</span>
+            {t('dup.received')}{' '}
+            <span className={language() === 'en' ? 'font-mono' : undefined}>{formatDay(d.receivedOn)}</span>,{' '}
+            {t('dup.casting')} <span className="font-mono">{d.castingNumber}</span>
             {d.idNumber && (
               <>
-                , ID <span className="font-mono">{d.idNumber}</span>
+                , {t('dup.id')} <span className="font-mono">{d.idNumber}</span>
               </>
             )}
-            {d.accepted ? '' : ' (rejected)'}
+            {d.accepted ? '' : ` ${t('dup.rejected')}`}
           </span>
         </li>
       ))}
@@ -42,6 +45,7 @@ function DuplicateList({ rows }: { rows: Duplicate[] }) {
  * and only once the numbers are well formed. Returns the handler for the fields' wrapper.
  */
 export function useDuplicateWarning() {
+  const t = useT();
   const { getValues } = useFormContext<ReceiveCoreBody>();
   const [numbers, setNumbers] = useState<DuplicateCheck | null>(null);
   const found = useDuplicates(numbers);
@@ -55,11 +59,8 @@ export function useDuplicateWarning() {
   const rows = numbers ? (found.data ?? []) : [];
   const warning =
     rows.length > 0 ? (
-      <Notice tone="hold" live="status" title="A recent core has the same number">
-        <p>
-          {numbers?.idNumber ? 'Same ID number' : 'Same casting number, and no ID number'} as{' '}
-          {rows.length === 1 ? 'this core' : 'these cores'}. Check it is not the same core before logging it again.
-        </p>
+      <Notice tone="hold" live="status" title={t('dup.title')}>
+        <p>{t(numbers?.idNumber ? 'dup.sameId' : 'dup.sameCasting', { count: rows.length })}</p>
         <DuplicateList rows={rows} />
       </Notice>
     ) : null;
@@ -68,11 +69,12 @@ export function useDuplicateWarning() {
 
 /** After a 409 possible_duplicate: the look-alikes, and the tick that says this one is different. */
 export function DuplicateConfirm({ rows }: { rows: Duplicate[] }) {
+  const t = useT();
   return (
     <div className="flex flex-col gap-3 rounded-control border-2 border-hold bg-hold-tint px-4 py-3">
-      <p className="font-semibold text-hold">Check this is not one of these cores</p>
+      <p className="font-semibold text-hold">{t('dup.check')}</p>
       <DuplicateList rows={rows} />
-      <CheckboxField name="confirmNotDuplicate" label="This is a different core" />
+      <CheckboxField name="confirmNotDuplicate" label={t('dup.different')} />
     </div>
   );
 }

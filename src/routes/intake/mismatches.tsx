@@ -2,6 +2,8 @@ import { useWatch } from 'react-hook-form';
 import { intakeMismatches } from '../../../shared/schemas/intake';
 import { TextAreaField } from '../../components/form-fields';
 import { Notice } from '../../components/ui/notice';
+import { useT } from '../../lib/i18n';
+import { localizeText } from '../../lib/server-messages';
 
 /**
  * The dock's own record checked against itself as it is filled in (damage against grade and credit,
@@ -9,6 +11,7 @@ import { Notice } from '../../components/ui/notice';
  * family). Any of them asks for a reason to go on; none stops a receipt outright.
  */
 export function MismatchCheck({ fromServer }: { fromServer: string[] }) {
+  const t = useT();
   const [damage, missing, grade, creditDecision, accepted] = useWatch({
     name: ['damage', 'missing', 'grade', 'creditDecision', 'accepted'],
   }) as [string[] | undefined, string[] | undefined, string | undefined, string | undefined, boolean | undefined];
@@ -17,19 +20,14 @@ export function MismatchCheck({ fromServer }: { fromServer: string[] }) {
   if (!all.length) return null;
   return (
     <div className="flex flex-col gap-3">
-      <Notice tone="hold" title="Check before logging">
+      <Notice tone="hold" title={t('mismatch.title')}>
         <ul className="mt-1 list-disc pl-5">
           {all.map((m) => (
-            <li key={m}>{m}</li>
+            <li key={m}>{localizeText(m)}</li>
           ))}
         </ul>
       </Notice>
-      <TextAreaField
-        name="mismatchReason"
-        label="Why it is right to go on"
-        optional
-        hint="Kept with the receipt. Or correct the fields above instead."
-      />
+      <TextAreaField name="mismatchReason" label={t('mismatch.reason')} optional hint={t('mismatch.hint')} />
     </div>
   );
 }

@@ -11,20 +11,23 @@ import {
 } from '../../../shared/schemas/intake';
 import { CheckboxListField, RadioGroupField } from '../../components/choice-fields';
 import { SelectField, TextAreaField } from '../../components/form-fields';
+import { useT } from '../../lib/i18n';
+import { label } from '../../lib/server-messages';
 
-const completeOptions = [
-  { value: true, label: 'Complete' },
-  { value: false, label: 'Parts missing' },
+const completeOptions = (t: ReturnType<typeof useT>) => [
+  { value: true, label: t('receive.complete') },
+  { value: false, label: t('receive.partsMissing') },
 ];
-const decisionOptions = [
-  { value: true, label: 'Accept' },
-  { value: false, label: 'Reject' },
+const decisionOptions = (t: ReturnType<typeof useT>) => [
+  { value: true, label: t('receive.accept') },
+  { value: false, label: t('receive.reject') },
 ];
-const missingOptions = CORE_PARTS.map((p) => ({ value: p, label: CORE_PART_LABELS[p] }));
-const damageOptions = DAMAGE.map((d) => ({ value: d, label: DAMAGE_LABELS[d] }));
-const gradeOptions = GRADES.map((g) => ({ value: g, label: GRADE_LABELS[g] }));
+const missingOptions = () => CORE_PARTS.map((p) => ({ value: p, label: label(CORE_PART_LABELS[p]) }));
+const damageOptions = () => DAMAGE.map((d) => ({ value: d, label: label(DAMAGE_LABELS[d]) }));
+const gradeOptions = () => GRADES.map((g) => ({ value: g, label: label(GRADE_LABELS[g]) }));
 
 export function ConditionFields() {
+  const t = useT();
   const { setValue } = useFormContext<ReceiveCoreBody>();
   const complete = useWatch<ReceiveCoreBody, 'complete'>({ name: 'complete' });
   useEffect(() => {
@@ -32,23 +35,30 @@ export function ConditionFields() {
   }, [complete, setValue]);
   return (
     <div className="flex flex-col gap-4">
-      <RadioGroupField name="complete" legend="Arrived" options={completeOptions} />
+      <RadioGroupField name="complete" legend={t('receive.arrived')} options={completeOptions(t)} />
       {complete === false && (
-        <CheckboxListField name="missing" legend="Missing parts" options={missingOptions} columns={4} />
+        <CheckboxListField name="missing" legend={t('receive.missingParts')} options={missingOptions()} columns={4} />
       )}
       <CheckboxListField
         name="damage"
-        legend="Damage seen"
-        options={damageOptions}
+        legend={t('receive.damage')}
+        options={damageOptions()}
         columns={3}
-        hint="Leave all unticked when there is none."
+        hint={t('receive.damageHint')}
       />
-      <SelectField name="grade" label="Grade" options={gradeOptions} placeholder="Choose a grade…" optional />
+      <SelectField
+        name="grade"
+        label={t('receive.grade')}
+        options={gradeOptions()}
+        placeholder={t('receive.chooseGrade')}
+        optional
+      />
     </div>
   );
 }
 
 export function DecisionFields() {
+  const t = useT();
   const { setValue } = useFormContext<ReceiveCoreBody>();
   const accepted = useWatch<ReceiveCoreBody, 'accepted'>({ name: 'accepted' });
   useEffect(() => {
@@ -58,11 +68,11 @@ export function DecisionFields() {
     <div className="flex flex-col gap-4">
       <RadioGroupField
         name="accepted"
-        legend="Accept or reject"
-        options={decisionOptions}
-        hint="A rejected core is kept on record with its reason and photos."
+        legend={t('receive.acceptOrReject')}
+        options={decisionOptions(t)}
+        hint={t('receive.decisionHint')}
       />
-      {accepted === false && <TextAreaField name="rejectReason" label="Reject reason" optional />}
+      {accepted === false && <TextAreaField name="rejectReason" label={t('receive.rejectReason')} optional />}
     </div>
   );
 }

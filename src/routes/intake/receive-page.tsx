@@ -16,12 +16,14 @@ import { PhotoField } from '../../components/photo-field';
 import { ButtonLink } from '../../components/ui/button';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { ApiError } from '../../lib/http';
+import { useT } from '../../lib/i18n';
 import { coreHref, paths } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
 import { DuplicateConfirm, useDuplicateWarning } from './duplicates';
 import { MismatchCheck } from './mismatches';
 import { ConditionFields, DecisionFields } from './receive-condition';
 import { SourceFields } from './receive-source';
+import { intakeWords } from './screen-words';
 
 export const receiveLoader =
   (queryClient: QueryClient) =>
@@ -31,6 +33,7 @@ export const receiveLoader =
       queryClient.ensureQueryData(familiesQueryOptions()),
       queryClient.ensureQueryData(customersQueryOptions()),
       queryClient.ensureQueryData(suppliersQueryOptions()),
+      intakeWords(),
     ]);
     return null;
   };
@@ -64,46 +67,48 @@ function Section({
   );
 }
 
-const SECTIONS: SummarySection[] = [
-  { id: 'receive-core', title: 'The core', fields: ['familyId', 'castingNumber', 'idNumber'] },
+const SECTIONS: { id: string; title: string; fields: string[] }[] = [
+  { id: 'receive-core', title: 'receive.core', fields: ['familyId', 'castingNumber', 'idNumber'] },
   {
     id: 'receive-source',
-    title: 'Where it came from',
+    title: 'receive.source',
     fields: ['source', 'customerId', 'supplierId', 'sourceReference'],
   },
-  { id: 'receive-receipt', title: 'Receipt', fields: ['receivedOn'] },
-  { id: 'receive-condition', title: 'Condition', fields: ['complete', 'missing', 'damage', 'grade'] },
+  { id: 'receive-receipt', title: 'receive.receipt', fields: ['receivedOn'] },
+  { id: 'receive-condition', title: 'receive.condition', fields: ['complete', 'missing', 'damage', 'grade'] },
   {
     id: 'receive-decision',
-    title: 'Decision',
+    title: 'receive.decision',
     fields: ['accepted', 'rejectReason', 'creditDecision', 'creditReason', 'mismatchReason'],
   },
-  { id: 'receive-photos', title: 'Photos and notes', fields: ['photoIds', 'notes'] },
+  { id: 'receive-photos', title: 'receive.photosNotes', fields: ['photoIds', 'notes'] },
 ];
 
-const LABELS: Record<string, string> = {
-  familyId: 'engine family',
-  castingNumber: 'casting number',
-  idNumber: 'ID number',
-  source: 'source',
-  customerId: 'customer',
-  supplierId: 'supplier',
-  sourceReference: 'reference',
-  receivedOn: 'date received',
-  complete: 'whether it is complete',
-  missing: 'missing parts',
-  damage: 'damage',
-  grade: 'grade',
-  accepted: 'accept or reject',
-  rejectReason: 'reject reason',
-  creditDecision: 'core credit',
-  creditReason: 'credit reason',
-  mismatchReason: 'reason to go on',
-  photoIds: 'photos',
-  notes: 'notes',
-};
+// a field's name as the list of what is missing says it (receive.field.<name> in the locale files)
+const FIELDS = [
+  'familyId',
+  'castingNumber',
+  'idNumber',
+  'source',
+  'customerId',
+  'supplierId',
+  'sourceReference',
+  'receivedOn',
+  'complete',
+  'missing',
+  'damage',
+  'grade',
+  'accepted',
+  'rejectReason',
+  'creditDecision',
+  'creditReason',
+  'mismatchReason',
+  'photoIds',
+  'notes',
+];
 
 function CoreNumbers() {
+  const t = useT();
   const families = useFamilies();
   const { onLeave, warning } = useDuplicateWarning();
   const options = (families.data ?? [])
@@ -111,11 +116,17 @@ function CoreNumbers() {
     .map((f) => ({ value: String(f.id), label: `${f.code} — ${f.name}` }));
   return (
     <div className="flex flex-col gap-4">
-      <SelectField name="familyId" label="Engine family" options={options} placeholder="Choose…" numeric />
+      <SelectField
+        name="familyId"
+        label={t('receive.family')}
+        options={options}
+        placeholder={t('common.choose')}
+        numeric
+      />
       {/* leaving either number field (focus moving out) asks about look-alikes */}
       <div className="grid grid-cols-1 gap-4 md:grid-cols-2" onBlur={onLeave}>
-        <TextField name="castingNumber" label="Casting number" mono hint="As cast on the block." />
-        <TextField name="idNumber" label="ID number" mono optional hint="Stamped ID, if it has one." />
+        <TextField name="castingNumber" label={t('receive.casting')} mono hint={t('receive.castingHint')} />
+        <TextField name="idNumber" label={t('receive.idNumber')} mono optional hint={t('receive.idNumberHint')} />
       </div>
       {warning}
     </div>
@@ -141,7 +152,10 @@ export function ReceivePage() {
   const navigate = useNavigate();
   const [lookAlikes, setLookAlikes] = useState<Duplicate[] | null>(null);
   const [mismatches, setMismatches] = useState<string[]>([]);
+  const t = useT();
   if (!me) return null;
+  const sections: SummarySection[] = SECTIONS.map((s) => ({ ...s, title: t(s.title) }));
+  const labels = Object.fromEntries(FIELDS.map((f) => [f, t(`receive.field.${f}`)]));
 
   const onSubmit = async (body: ReceiveCoreBody) => {
     try {
@@ -161,55 +175,47 @@ export function ReceivePage() {
   return (
     <div className="mx-auto max-w-[80rem]">
       <PageHeader
-        title="Receive a core"
-        description="Log the core as it stands at the dock. It gets its serial when you save; print its label next."
-        actions={<ButtonLink to={paths.intake}>Intake log</ButtonLink>}
+        title={t('receive.title')}
+        description={t('receive.intro')}
+        actions={<ButtonLink to={paths.intake}>{t('receive.log')}</ButtonLink>}
       />
       <Form schema={receiveCoreBody} defaultValues={{ ...defaults, receivedOn: today() }} onSubmit={onSubmit}>
         <div className="grid grid-cols-1 gap-4 lg:grid-cols-[minmax(0,1fr)_17rem]">
           <div className="flex min-w-0 flex-col gap-4">
-            <Section
-              id="receive-core"
-              title="The core"
-              description="Which engine it is, by the numbers on the casting."
-            >
+            <Section id="receive-core" title={t('receive.core')} description={t('receive.coreIntro')}>
               <CoreNumbers />
             </Section>
-            <Section id="receive-source" title="Where it came from">
+            <Section id="receive-source" title={t('receive.source')}>
               <SourceFields />
             </Section>
-            <Section id="receive-receipt" title="Receipt">
+            <Section id="receive-receipt" title={t('receive.receipt')}>
               <div className="grid grid-cols-1 gap-4 md:grid-cols-2">
-                <TextField name="receivedOn" label="Received on" type="date" />
+                <TextField name="receivedOn" label={t('receive.receivedOn')} type="date" />
                 {/* who received it is not a choice: shown as text, not as a box that looks editable */}
                 <div className="flex flex-col gap-1.5">
-                  <p className="text-sm font-medium text-ink floor:text-base">Received by</p>
+                  <p className="text-sm font-medium text-ink floor:text-base">{t('receive.receivedBy')}</p>
                   <p className="flex min-h-9 items-center font-medium floor:min-h-12">{me.user.name}</p>
-                  <p className="text-sm text-ink-faint">You, as signed in.</p>
+                  <p className="text-sm text-ink-faint">{t('receive.you')}</p>
                 </div>
               </div>
             </Section>
-            <Section
-              id="receive-condition"
-              title="Condition"
-              description="What arrived, what is missing, what is damaged."
-            >
+            <Section id="receive-condition" title={t('receive.condition')} description={t('receive.conditionIntro')}>
               <ConditionFields />
             </Section>
-            <Section id="receive-decision" title="Decision">
+            <Section id="receive-decision" title={t('receive.decision')}>
               <DecisionFields />
             </Section>
-            <Section id="receive-photos" title="Photos and notes">
+            <Section id="receive-photos" title={t('receive.photosNotes')}>
               <div className="flex flex-col gap-4">
-                <PhotoField name="photoIds" label="Photos" max={12} />
-                <TextAreaField name="notes" label="Notes" hint="Anything the next person should know." />
+                <PhotoField name="photoIds" label={t('form.photos')} max={12} />
+                <TextAreaField name="notes" label={t('form.notes')} hint={t('receive.notesHint')} />
               </div>
             </Section>
             <MismatchCheck fromServer={mismatches} />
             {lookAlikes && lookAlikes.length > 0 && <DuplicateConfirm rows={lookAlikes} />}
           </div>
-          <FormSummary schema={receiveCoreBody} sections={SECTIONS} labels={LABELS}>
-            <SubmitButton size="lg">Receive core</SubmitButton>
+          <FormSummary schema={receiveCoreBody} sections={sections} labels={labels}>
+            <SubmitButton size="lg">{t('receive.submit')}</SubmitButton>
           </FormSummary>
         </div>
       </Form>

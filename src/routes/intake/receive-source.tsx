@@ -4,10 +4,12 @@ import { CREDIT_DECISIONS, SOURCES, type ReceiveCoreBody } from '../../../shared
 import { useCustomers } from '../../api/reference/customers';
 import { useSuppliers } from '../../api/reference/suppliers';
 import { SelectField, TextAreaField, TextField } from '../../components/form-fields';
+import { useT } from '../../lib/i18n';
 import { CREDIT_LABELS, SOURCE_LABELS } from '../../lib/intake-labels';
+import { label } from '../../lib/server-messages';
 
-const sourceOptions = SOURCES.map((s) => ({ value: s, label: SOURCE_LABELS[s] }));
-const creditOptions = CREDIT_DECISIONS.map((c) => ({ value: c, label: CREDIT_LABELS[c] }));
+const sourceOptions = () => SOURCES.map((s) => ({ value: s, label: label(SOURCE_LABELS[s]) }));
+const creditOptions = () => CREDIT_DECISIONS.map((c) => ({ value: c, label: label(CREDIT_LABELS[c]) }));
 
 /** Fields of the other source are emptied when the source changes, since the schema refuses them. */
 function useSourceSync() {
@@ -30,6 +32,7 @@ function useSourceSync() {
 }
 
 export function SourceFields() {
+  const t = useT();
   const { source, credit } = useSourceSync();
   const customers = useCustomers();
   const suppliers = useSuppliers();
@@ -38,31 +41,37 @@ export function SourceFields() {
 
   return (
     <div className="grid grid-cols-1 gap-4 md:grid-cols-2">
-      <SelectField name="source" label="Source" options={sourceOptions} placeholder="Choose…" optional />
+      <SelectField
+        name="source"
+        label={t('receive.sourceLabel')}
+        options={sourceOptions()}
+        placeholder={t('common.choose')}
+        optional
+      />
       {source === 'customer_return' && (
         <>
           <SelectField
             name="customerId"
-            label="Customer"
+            label={t('receive.customer')}
             options={party(customers.data)}
-            placeholder="Choose the customer…"
+            placeholder={t('receive.chooseCustomer')}
             numeric
           />
-          <TextField name="sourceReference" label="Return reference" mono hint="As on the return paperwork." />
+          <TextField name="sourceReference" label={t('receive.returnRef')} mono hint={t('receive.returnRefHint')} />
           <SelectField
             name="creditDecision"
-            label="Core credit"
-            options={creditOptions}
-            placeholder="Decide…"
+            label={t('receive.credit')}
+            options={creditOptions()}
+            placeholder={t('receive.decide')}
             optional
-            hint="What the customer is credited for this core."
+            hint={t('receive.creditHint')}
           />
           {credit && credit !== 'full' && (
             <div className="md:col-span-2">
               <TextAreaField
                 name="creditReason"
-                label="Credit reason"
-                hint="Why the credit is partial or none; the customer may ask."
+                label={t('receive.creditReason')}
+                hint={t('receive.creditReasonHint')}
                 optional
               />
             </div>
@@ -73,12 +82,12 @@ export function SourceFields() {
         <>
           <SelectField
             name="supplierId"
-            label="Supplier"
+            label={t('receive.supplier')}
             options={party(suppliers.data)}
-            placeholder="Choose the supplier…"
+            placeholder={t('receive.chooseSupplier')}
             numeric
           />
-          <TextField name="sourceReference" label="Purchase reference" mono hint="Purchase order or invoice." />
+          <TextField name="sourceReference" label={t('receive.purchaseRef')} mono hint={t('receive.purchaseRefHint')} />
         </>
       )}
     </div>

@@ -28,14 +28,22 @@ function cueOf(standing: Standing, resolution: number | null, problem: string | 
     case 'pass':
       return { icon: 'ok', text: 'OK', cls: 'text-ok' };
     case 'high':
-      return { icon: 'bad', text: `High +${formatValue(standing.by, resolution)}`, cls: 'font-semibold text-bad' };
+      return {
+        icon: 'bad',
+        text: t('cue.high', { by: formatValue(standing.by, resolution) }),
+        cls: 'font-semibold text-bad',
+      };
     case 'low':
-      return { icon: 'bad', text: `Low −${formatValue(standing.by, resolution)}`, cls: 'font-semibold text-bad' };
+      return {
+        icon: 'bad',
+        text: t('cue.low', { by: formatValue(standing.by, resolution) }),
+        cls: 'font-semibold text-bad',
+      };
     case 'fail':
-      return { icon: 'bad', text: 'Out of tolerance', cls: 'font-semibold text-bad' };
+      return { icon: 'bad', text: t('cue.outOfTolerance'), cls: 'font-semibold text-bad' };
     default:
       return missing
-        ? { icon: 'wait', text: 'Missing', cls: 'font-semibold text-hold' }
+        ? { icon: 'wait', text: t('cue.missing'), cls: 'font-semibold text-hold' }
         : { icon: null, text: '', cls: '' };
   }
 }
@@ -150,7 +158,7 @@ export function CheckTiles({ slot }: { slot: Slot }) {
           className={`flex items-start gap-1 text-base font-semibold ${problem ? 'text-bad' : 'text-hold'}`}
         >
           <Icon name={problem ? 'bad' : 'wait'} size={18} className="mt-0.5 shrink-0" />
-          {problem ? sentence(problem) : 'Choose pass or fail'}
+          {problem ? sentence(problem) : t('cue.choosePassFail')}
         </p>
       )}
       {choice === 'fail' && (
@@ -180,7 +188,7 @@ function WhereBox({ slot, label, problem, clear }: { slot: Slot; label: string; 
         data-field=""
         data-key={whereKey(slot.key)}
         maxLength={200}
-        placeholder="e.g. water jacket, left side, behind cylinder 3"
+        placeholder={t('cue.wherePlaceholder')}
         aria-required={slot.char.critical || undefined}
         aria-invalid={problem ? true : undefined}
         aria-describedby={`${id}-hint`}
@@ -194,9 +202,7 @@ function WhereBox({ slot, label, problem, clear }: { slot: Slot; label: string; 
             {sentence(problem)}
           </span>
         ) : (
-          <span className="text-ink-soft">
-            {slot.char.critical ? 'Required for this critical check.' : 'Where it failed, if it can be seen.'}
-          </span>
+          <span className="text-ink-soft">{t(slot.char.critical ? 'cue.whereCritical' : 'cue.whereHint')}</span>
         )}
       </p>
     </div>

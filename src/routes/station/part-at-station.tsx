@@ -7,7 +7,8 @@ import { ItemSummary } from '../../components/item-summary';
 import { ButtonLink } from '../../components/ui/button';
 import { Card, CardBody } from '../../components/ui/card';
 import { Notice } from '../../components/ui/notice';
-import { formatWhen } from '../../lib/format';
+import { formatMoment, useT } from '../../lib/i18n';
+import { localizeHazard } from '../../lib/server-messages';
 import { raiseConcernHref } from '../../lib/paths';
 import { ReadingForm } from './reading-form';
 import { SequenceAlert } from './sequence-alert';
@@ -39,12 +40,13 @@ export function PartAtStation({
   const [opening] = useState(() => ({ key: crypto.randomUUID(), startedAt: new Date().toISOString() }));
   const cautionRef = useRef<HTMLElement>(null);
   const { sequence, stage } = form;
+  const t = useT();
   return (
     <div className="flex flex-col gap-5">
       <Card labelledBy="part-heading">
         <CardBody>
           <h2 id="part-heading" className="sr-only">
-            The part
+            {t('part.heading')}
           </h2>
           <div className="flex flex-wrap items-start justify-between gap-4">
             <div className="min-w-0 flex-1">
@@ -52,14 +54,18 @@ export function PartAtStation({
             </div>
             {canRaiseConcern && (
               <ButtonLink to={raiseConcernHref(form.item.serial)} size="lg" icon="alert">
-                Raise a concern
+                {t('part.raiseConcern')}
               </ButtonLink>
             )}
           </div>
           {form.currentResult && (
             <p className="mt-3 text-base text-ink-soft">
-              Last recorded at {stage.name}: {form.currentResult.verdict === 'pass' ? 'passed' : 'failed'},{' '}
-              {formatWhen(form.currentResult.finishedAt)} by {form.currentResult.operator}.
+              {t('part.lastRecorded', {
+                stage: stage.name,
+                verdict: t(form.currentResult.verdict === 'pass' ? 'waiting.passed' : 'waiting.failed'),
+                when: formatMoment(form.currentResult.finishedAt),
+                who: form.currentResult.operator,
+              })}
             </p>
           )}
         </CardBody>
@@ -69,33 +75,32 @@ export function PartAtStation({
       ) : (
         <>
           {sequence.code === 'reentry' && (
-            <Notice tone="info" title={`Re-entry of ${stage.name}`}>
+            <Notice tone="info" title={t('part.reentry', { stage: stage.name })}>
               <p className="text-base">{sequence.message}</p>
             </Notice>
           )}
           {form.rework && (
             <Notice
               tone="info"
-              title={`Sent back by ${form.rework.number}: ${form.rework.disposition === 'repair' ? 'repair' : 'rework'}`}
+              title={t('part.sentBack', {
+                ncr: form.rework.number,
+                kind: t(form.rework.disposition === 'repair' ? 'part.repair' : 'part.rework'),
+              })}
             >
               <p className="text-base">
-                Quality decided: {form.rework.reason} A passing result here closes {form.rework.number}.
+                {t('part.qualityDecided', { reason: form.rework.reason, ncr: form.rework.number })}
               </p>
             </Notice>
           )}
           {stage.hazard && (
             <Caution title={stage.name} ref={cautionRef}>
-              <p className="text-lg">{stage.hazard}</p>
-              <p className="mt-1 text-base">
-                Follow the plant&apos;s own procedures, local codes and licensed practice: this screen does not replace
-                them.
-              </p>
+              <p className="text-lg">{localizeHazard(stage.hazard)}</p>
+              <p className="mt-1 text-base">{t('part.procedures')}</p>
             </Caution>
           )}
           {form.characteristics.length === 0 ? (
-            <Notice tone="info" title="Nothing to record here yet">
-              {stage.name} has no characteristics in the spec book. Quality adds them before this station records
-              results.
+            <Notice tone="info" title={t('part.nothingTitle')}>
+              {t('part.nothingBody', { stage: stage.name })}
             </Notice>
           ) : (
             <ReadingForm

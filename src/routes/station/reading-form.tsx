@@ -12,8 +12,8 @@ import { ApiError } from '../../lib/http';
 import { enqueue, flushQueue, mustQueue, type Queued } from '../../lib/offline-queue';
 import { inTabletMode, setTabletIdentity, tabletIdentity } from '../../lib/tablet-mode';
 import { useSignedIn } from '../../api/auth/me';
-import { plural } from '../../lib/format';
 import { useT } from '../../lib/i18n';
+import { localizeHazard } from '../../lib/server-messages';
 import {
   CharGaugeField,
   charGaugeKey,
@@ -179,7 +179,11 @@ export function ReadingForm({
       const unread = local.filter((p) => !p.missing).length;
       const missing = local.length - unread;
       setSummaryTitle(
-        `Not recorded yet: ${[missing && `${plural(missing, 'reading')} still to enter`, unread && `${plural(unread, 'thing')} to put right`].filter(Boolean).join(' and ')}`,
+        t('record.notYet', {
+          what: [missing && t('record.toEnter', { count: missing }), unread && t('record.toFix', { count: unread })]
+            .filter(Boolean)
+            .join(` ${t('common.and')} `),
+        }),
       );
       showTop();
       return;
@@ -280,8 +284,8 @@ export function ReadingForm({
   const progress = !submitting
     ? ''
     : record.failureCount > 0
-      ? `The server is not answering; sending the same result again (try ${record.failureCount + 1} of ${SUBMIT_RETRIES + 1}). It will not be stored twice.`
-      : 'Recording…';
+      ? t('record.retrying', { n: record.failureCount + 1, of: SUBMIT_RETRIES + 1 })
+      : t('record.recording');
   return (
     <FormProvider {...methods}>
       <FormStateContext.Provider value={state}>
@@ -303,7 +307,7 @@ export function ReadingForm({
                 {refusal.reload && (
                   <div className="mt-2">
                     <Button size="lg" onClick={onReload}>
-                      Load this part again
+                      {t('record.loadAgain')}
                     </Button>
                   </div>
                 )}
@@ -311,9 +315,8 @@ export function ReadingForm({
             )}
           </div>
           {unruled.length > 0 && (
-            <Notice tone="hold" title="This stage cannot be recorded yet">
-              No approved rule is in force for {unruled.map((c) => c.name.toLowerCase()).join(', ')}. Quality must
-              approve one in the spec book first.
+            <Notice tone="hold" title={t('record.noRuleTitle')}>
+              {t('record.noRule', { names: unruled.map((c) => c.name.toLowerCase()).join(', ') })}
             </Notice>
           )}
           {form.stage.code === RUN_TEST && (
@@ -386,7 +389,10 @@ export function ReadingForm({
               <p className="flex w-full items-center gap-2 text-base font-semibold text-hold">
                 <Icon name="alert" size={20} />
                 <span>
-                  Safety · {form.stage.name}: {firstSentence(form.stage.hazard)} Follow the plant&apos;s procedure.
+                  {t('caution.short', {
+                    stage: form.stage.name,
+                    hazard: firstSentence(localizeHazard(form.stage.hazard)),
+                  })}
                 </span>
               </p>
             )}

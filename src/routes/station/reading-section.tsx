@@ -310,8 +310,8 @@ export function ReadingSection({ section, slots, gauge }: { section: Section; sl
         <div className="flex flex-wrap items-baseline justify-between gap-x-6 gap-y-1">
           <h3 id={id} className="flex flex-wrap items-center gap-2 text-xl font-semibold">
             {char.name}
-            {char.critical && <Badge tone="hold">Critical</Badge>}
-            {char.optional && <Badge tone="neutral">Optional</Badge>}
+            {char.critical && <Badge tone="hold">{t('cue.critical')}</Badge>}
+            {char.optional && <Badge tone="neutral">{t('cue.optional')}</Badge>}
           </h3>
           <div className="flex flex-wrap items-center gap-x-6 gap-y-2">
             <Limits char={char} />

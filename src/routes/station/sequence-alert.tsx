@@ -2,6 +2,7 @@ import { lazy, Suspense, useEffect, useRef, useState } from 'react';
 import type { StationFormJson } from '../../api/station/types';
 import { Button } from '../../components/ui/button';
 import { Icon } from '../../components/ui/icon';
+import { known, language, useT } from '../../lib/i18n';
 import { NcrNumber } from './ncr-number';
 
 // the dialog validates with the shared zod schema: loaded once a supervisor is offered the button
@@ -10,14 +11,7 @@ const ReentryDialog = lazy(() => loadReentryDialog().then((m) => ({ default: m.R
 
 type Blocked = Extract<StationFormJson['sequence'], { ok: false }>;
 
-const TITLES: Record<Blocked['code'], string> = {
-  out_of_sequence: 'Not due at this station',
-  on_hold: 'On hold',
-  finished: 'Route finished',
-  wrong_part: 'Wrong part for this station',
-  scrapped: 'Scrapped',
-  not_on_route: 'Not on this part’s route',
-};
+// the titles' words: sequence.<code> in the locale files
 
 /**
  * A re-entry sends a part back through a stage it has been through; it is never a way to jump a
@@ -39,6 +33,7 @@ type SequenceAlertProps = {
 /** Why this part cannot be recorded here now, in plain words, and what can be done about it. */
 export function SequenceAlert({ form, canAllowReentry, canReadNcr, onReentry }: SequenceAlertProps) {
   const [open, setOpen] = useState(false);
+  const t = useT();
   const sequence = form.sequence;
   const ref = useRef<HTMLDivElement>(null);
   // on a tablet the refusal may sit below the part's card: bring it into view
@@ -63,16 +58,19 @@ export function SequenceAlert({ form, canAllowReentry, canReadNcr, onReentry }: 
           <Icon name={held ? 'hold' : 'alert'} size={40} />
         </span>
         <div className="flex min-w-0 flex-col gap-3">
-          <h2 className={`text-3xl font-bold ${held ? 'text-hold' : 'text-bad'}`}>{TITLES[sequence.code]}</h2>
-          <p className="text-xl">{sequence.message}</p>
+          <h2 className={`text-3xl font-bold ${held ? 'text-hold' : 'text-bad'}`}>{t(`sequence.${sequence.code}`)}</h2>
+          {/* the server's sentence names the stages; on a Spanish screen its plain Spanish, by the same code */}
+          <p className="text-xl">
+            {(language() !== 'en' && known(`sequence.${sequence.code}.body`)) || sequence.message}
+          </p>
           {sequence.expectedStage && (
             <p className="text-xl">
-              Its next stage: <span className="font-semibold">{sequence.expectedStage.name}</span>
+              {t('sequence.nextStage')} <span className="font-semibold">{sequence.expectedStage.name}</span>
             </p>
           )}
           {form.holds.length > 0 && (
             <div>
-              <p className="text-lg font-semibold">Open NCRs</p>
+              <p className="text-lg font-semibold">{t('sequence.openNcrs')}</p>
               <ul className="mt-1 flex flex-col gap-1.5">
                 {form.holds.map((h) => (
                   <li key={h.number} className="text-lg">
@@ -88,13 +86,13 @@ export function SequenceAlert({ form, canAllowReentry, canReadNcr, onReentry }: 
             (canAllowReentry ? (
               <div>
                 <Button variant="primary" size="lg" onClick={() => setOpen(true)}>
-                  Allow re-entry
+                  {t('sequence.allowReentry')}
                 </Button>
               </div>
             ) : (
               <p className="flex items-start gap-2 text-lg">
                 <Icon name="info" size={22} className="mt-0.5 text-accent" />
-                If it must go through {form.stage.name} again, a supervisor can allow a re-entry here, with a reason.
+                {t('sequence.askSupervisor', { stage: form.stage.name })}
               </p>
             ))}
         </div>

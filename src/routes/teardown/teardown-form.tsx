@@ -12,6 +12,7 @@ import { Icon, type IconName } from '../../components/ui/icon';
 import { Notice } from '../../components/ui/notice';
 import { missingAtIntake, rowsFor, teardownForm, type Decision, type PartRow } from './teardown-schema';
 import { t } from '../../lib/i18n';
+import { localizeHazard, localizeText, label, partLabel } from '../../lib/server-messages';
 
 // a chosen tile is filled (white on the state colour), so it stands out in sunlight and in grey
 const TILE: Record<Decision, { word: string; icon: IconName; checked: string }> = {
@@ -40,7 +41,9 @@ function PartDecision({ row, index, missing }: { row: PartRow; index: number; mi
     field: { ref, value, onChange, onBlur },
   } = useController<FormValues, `parts.${number}.decision`>({ name: `parts.${index}.decision` });
   const { formState } = useFormContext<FormValues>();
-  const error = formState.errors.parts?.[index]?.decision?.message;
+  const raw = formState.errors.parts?.[index]?.decision?.message;
+  const error = raw && localizeText(raw);
+  const name = partLabel(row.label);
   const absentWord = row.optional ? 'teardown.notTracked' : 'teardown.notThere';
   const errorId = `part-${index}-error`;
   const labelId = `part-${index}-label`;
@@ -53,7 +56,7 @@ function PartDecision({ row, index, missing }: { row: PartRow; index: number; mi
         className="flex flex-wrap items-center justify-between gap-3"
       >
         <p id={labelId} className="text-xl font-semibold">
-          {row.label}
+          {name}
           {row.optional && (
             <span className="ml-2 text-base font-normal text-ink-soft">{t('teardown.whereTracked')}</span>
           )}
@@ -80,7 +83,7 @@ function PartDecision({ row, index, missing }: { row: PartRow; index: number; mi
                   checked={value === d}
                   onChange={() => onChange(d)}
                   onBlur={onBlur}
-                  aria-label={d === 'absent' ? `${row.label} ${word.toLowerCase()}` : `${word} ${row.label}`}
+                  aria-label={d === 'absent' ? `${name} ${word.toLowerCase()}` : `${word} ${name}`}
                 />
                 <Icon name={TILE[d].icon} size={22} />
                 {word}
@@ -98,7 +101,7 @@ function PartDecision({ row, index, missing }: { row: PartRow; index: number; mi
       {value === 'scrap' && (
         <TextField
           name={`parts.${index}.reason`}
-          label={t('teardown.scrapReason', { part: row.label })}
+          label={t('teardown.scrapReason', { part: name })}
           optional
           autoFocus
         />
@@ -120,36 +123,28 @@ function IntakeCondition({
 }) {
   if (condition === 'not-allowed' || condition === 'not-loaded') {
     return (
-      <Notice tone="info" title="Intake condition not shown">
-        {condition === 'not-allowed'
-          ? 'The intake record is not open to your role.'
-          : 'The intake record could not be loaded.'}{' '}
-        If intake recorded a part as missing, recording teardown will say so.
+      <Notice tone="info" title={t('teardown.conditionHidden')}>
+        {t(condition === 'not-allowed' ? 'teardown.notYourRole' : 'teardown.notLoaded')} {t('teardown.willSay')}
       </Notice>
     );
   }
   const { missing, damage } = condition;
   if (missing.length === 0 && damage.length === 0) {
     return (
-      <Notice tone="info" title="At intake">
-        Recorded complete, with no visible damage.
+      <Notice tone="info" title={t('teardown.atIntake')}>
+        {t('teardown.completeNoDamage')}
       </Notice>
     );
   }
   return (
-    <Notice tone="hold" title="At intake">
+    <Notice tone="hold" title={t('teardown.atIntake')}>
       <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1">
-        <dt className="font-semibold">Missing</dt>
-        <dd>{missing.length ? missing.map((m) => CORE_PART_LABELS[m]).join(', ') : 'Nothing'}</dd>
-        <dt className="font-semibold">Damage</dt>
-        <dd>{damage.length ? damage.map((d) => DAMAGE_LABELS[d]).join(', ') : 'None seen'}</dd>
+        <dt className="font-semibold">{t('teardown.missing')}</dt>
+        <dd>{missing.length ? missing.map((m) => label(CORE_PART_LABELS[m])).join(', ') : t('teardown.nothing')}</dd>
+        <dt className="font-semibold">{t('teardown.damage')}</dt>
+        <dd>{damage.length ? damage.map((d) => label(DAMAGE_LABELS[d])).join(', ') : t('teardown.noneSeen')}</dd>
       </dl>
-      {missing.length > 0 && (
-        <p className="mt-2">
-          Intake recorded these as missing
-          {preset > 0 ? '; their rows below are set to not there.' : '. None of them is a part row below.'}
-        </p>
-      )}
+      {missing.length > 0 && <p className="mt-2">{t(preset > 0 ? 'teardown.presetRows' : 'teardown.noPresetRows')}</p>}
     </Notice>
   );
 }
@@ -182,7 +177,7 @@ export function TeardownForm({ item, condition, onDone }: TeardownFormProps) {
     >
       <IntakeCondition condition={condition} preset={missing.filter(Boolean).length} />
       <Caution title={t('teardown.heavyTitle')} icon="hoist">
-        {hazard ?? t('teardown.heavyHazard')} {t('teardown.heavyProcedure')}
+        {hazard ? localizeHazard(hazard) : t('teardown.heavyHazard')} {t('teardown.heavyProcedure')}
       </Caution>
       <Card labelledBy="parts-heading">
         <CardHeader
@@ -204,11 +199,16 @@ export function TeardownForm({ item, condition, onDone }: TeardownFormProps) {
             {t('teardown.wearTitle')}
           </h2>
           <p className="mt-1 text-ink-soft">
-            {WEAR_PARTS.join(', ')}. {t('teardown.wearBody')}
+            {WEAR_PARTS.map((p) => label(p)).join(', ')}. {t('teardown.wearBody')}
           </p>
         </CardBody>
       </Card>
-      <TextAreaField name="notes" label={t('form.notes')} hint={t('teardown.notesHint')} />
+      {/* on a card: the hint's grey reads at 4.5:1 on a card, not on the page's ground */}
+      <Card as="div">
+        <CardBody>
+          <TextAreaField name="notes" label={t('form.notes')} hint={t('teardown.notesHint')} />
+        </CardBody>
+      </Card>
       <div className="flex justify-end">
         <SubmitButton size="lg">{t('teardown.record')}</SubmitButton>
       </div>

@@ -17,13 +17,15 @@ import { partName } from '../../lib/item-status';
 import { itemHref, labelsHref, serialHref } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
 import { useUrlFilter } from '../../lib/use-url-filter';
+import { teardownWords } from './screen-words';
 import { TeardownForm } from './teardown-form';
 import { t, useT } from '../../lib/i18n';
+import { label } from '../../lib/server-messages';
 
 export const teardownLoader =
   (queryClient: QueryClient) =>
   async ({ request }: LoaderFunctionArgs) => {
-    const me = await requirePermission(queryClient, request, 'teardown.record');
+    const [me] = await Promise.all([requirePermission(queryClient, request, 'teardown.record'), teardownWords()]);
     const parsed = parseSerial(new URL(request.url).searchParams.get('serial') ?? '');
     // a core that cannot be found is said on the page, next to the scan box, not as an error page
     if (parsed.ok) {
@@ -44,21 +46,21 @@ function NotTearable({ item, canIntake }: { item: ItemJson; canIntake: boolean }
   );
   if (item.kind !== 'core') {
     return (
-      <Notice tone="info" title="Not a core">
-        {link} is a {item.kindLabel.toLowerCase()}. Teardown starts from a received core; scan the core&apos;s label.
+      <Notice tone="info" title={t('teardown.notCore')}>
+        {link} {t('teardown.notCoreBody', { kind: label(item.kindLabel).toLowerCase() })}
       </Notice>
     );
   }
   if (item.status === 'rejected') {
     return (
-      <Notice tone="bad" title="Rejected at intake">
-        {link} was rejected when it arrived and is not torn down.
+      <Notice tone="bad" title={t('teardown.rejected')}>
+        {link} {t('teardown.rejectedBody')}
       </Notice>
     );
   }
   return (
-    <Notice tone="info" title="Already torn down">
-      {link} has been torn down; its parts are listed on its page.
+    <Notice tone="info" title={t('teardown.already')}>
+      {link} {t('teardown.alreadyBody')}
     </Notice>
   );
 }
@@ -89,7 +91,9 @@ function TeardownDone({ core, onNext }: { core: CoreDetail; onNext: () => void }
                   >
                     {p.serial}
                   </Link>
-                  <span className="text-lg">{partName(p.kindLabel, p.positionLabel)}</span>
+                  <span className="text-lg">
+                    {partName(label(p.kindLabel), p.positionLabel && label(p.positionLabel))}
+                  </span>
                 </li>
               ))}
             </ul>
