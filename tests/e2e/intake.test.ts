@@ -57,7 +57,7 @@ describe('the receiving desk in a tablet browser', () => {
     const customer = (await Customer.findOne({ order: [['id', 'ASC']] }))!;
     await page.goto(`${served.base}/intake/new`);
     await page.getByLabel('Engine family').selectOption(String(v8.id));
-    await page.getByLabel('Casting number').fill('CV8 4471-B');
+    await page.getByLabel('Casting number', { exact: true }).fill('CV8 4471-B');
     const idNumber = unique('E2E').toUpperCase();
     await page.getByLabel('ID number').fill(idNumber);
     await page.getByLabel('Customer', { exact: true }).selectOption(String(customer.id));

@@ -451,7 +451,7 @@ describe('a plant set up from an empty database, through the screens', () => {
     const customer = (await Customer.findOne({ where: { code: 'C300' } }))!;
     await receiving.goto(`${served.base}/intake/new`);
     await receiving.getByLabel('Engine family').selectOption(String(family.id));
-    await receiving.getByLabel('Casting number').fill('WR4 1180-A');
+    await receiving.getByLabel('Casting number', { exact: true }).fill('WR4 1180-A');
     await receiving.getByLabel('ID number').fill('WREN-0001');
     await receiving.getByLabel('Customer', { exact: true }).selectOption(String(customer.id));
     await receiving.getByLabel('Return reference').fill('BFW-RMA-77');
