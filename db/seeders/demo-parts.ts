@@ -4,7 +4,7 @@ import type { Sequelize } from 'sequelize';
 import type { Ctx } from '../../server/audit.js';
 import { Customer, EngineFamily, Item, Station, Supplier, User } from '../../server/models/index.js';
 import { receiveCore } from '../../server/services/intake.js';
-import { stationForm, submitResult } from '../../server/services/station.js';
+import { stationForm, submitResult } from '../../server/services/results/index.js';
 import { tearDownCore } from '../../server/services/teardown.js';
 import { buildBody, LOT_KINDS } from '../../shared/schemas/build.js';
 import { receiveCoreBody, teardownBody } from '../../shared/schemas/intake.js';
