@@ -16,6 +16,7 @@ import { blockingNcrsOf } from './ncrs/index.js';
 import { familyByCode } from './spec.js';
 import { lockUnitsReachedBy } from './unit-locks.js';
 import { matchSizeClasses } from './size-classes.js';
+import { currentResultSql } from './results/current.js';
 import { restOptional } from '../../shared/domain/route.js';
 
 /**
@@ -80,14 +81,13 @@ async function finishedRoute(item: Item, transaction: Transaction) {
 export async function finishedBore(sequelize: Sequelize, blockId: number, transaction?: Transaction) {
   const [row] = await sequelize.query<{ mean: string | null; n: number }>(
     `SELECT avg(rd.value)::text AS mean, count(*)::int AS n
-       FROM stage_results r
-       JOIN stages s ON s.id = r.stage_id AND s.code = 'bore-hone'
-       JOIN readings rd ON rd.stage_result_id = r.id
+       FROM readings rd
        JOIN characteristics c ON c.id = rd.characteristic_id AND c.code = 'bore'
-      WHERE r.item_id = :blockId
-        AND NOT EXISTS (SELECT 1 FROM stage_results x WHERE x.supersedes_id = r.id)
-        AND r.id = (SELECT max(r2.id) FROM stage_results r2 WHERE r2.item_id = :blockId AND r2.stage_id = r.stage_id
-                      AND NOT EXISTS (SELECT 1 FROM stage_results y WHERE y.supersedes_id = r2.id))`,
+      WHERE rd.stage_result_id = (${currentResultSql({
+        columns: 'r.id',
+        itemId: ':blockId',
+        stageId: "(SELECT id FROM stages WHERE code = 'bore-hone')",
+      })})`,
     { type: QueryTypes.SELECT, replacements: { blockId }, transaction },
   );
   return row?.mean ? Number(row.mean) : null;
