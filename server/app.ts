@@ -1,4 +1,5 @@
 import fs from 'node:fs';
+import type { ApiError as ApiErrorReply } from '../shared/schemas/common.js';
 import path from 'node:path';
 import compression from 'compression';
 import cookieParser from 'cookie-parser';
@@ -18,7 +19,10 @@ import { attachmentRoutes } from './routes/attachments.js';
 import { setAppUrl } from './mail/links.js';
 import { ncrRoutes } from './routes/ncrs.js';
 import { primaryOnly, type ReadSide } from './read-side.js';
-import { unitRoutes } from './routes/units.js';
+import { buildRoutes } from './routes/build.js';
+import { releaseRoutes } from './routes/release.js';
+import { runTestRoutes } from './routes/run-test.js';
+import { trailRoutes } from './routes/trail.js';
 import { fieldActionRoutes } from './routes/field-actions.js';
 import { warrantyRoutes } from './routes/warranty.js';
 import { correctiveActionRoutes } from './routes/corrective-actions.js';
@@ -100,7 +104,7 @@ export function createApp({
           message: 'The server is restarting. Try again in a moment.',
           requestId: req.id,
         },
-      });
+      } satisfies ApiErrorReply);
       return;
     }
     next();
@@ -137,7 +141,10 @@ export function createApp({
   specRoutes(api, sequelize);
   spcRoutes(api, sequelize);
   ncrRoutes(api, sequelize);
-  unitRoutes(api, sequelize, config, read);
+  buildRoutes(api, sequelize);
+  releaseRoutes(api, sequelize, config);
+  trailRoutes(api, sequelize, read);
+  runTestRoutes(api);
   fieldActionRoutes(api, sequelize);
   warrantyRoutes(api, sequelize);
   correctiveActionRoutes(api, sequelize);
@@ -152,7 +159,7 @@ export function createApp({
         message: `No API route ${req.method} ${req.baseUrl}${req.path}.`,
         requestId: req.id,
       },
-    });
+    } satisfies ApiErrorReply);
   });
   router.use(errorHandler);
   app.use('/api', router);

@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import canonicalize from 'canonicalize';
-import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { QueryTypes, type Model, type Sequelize, type Transaction } from 'sequelize';
 import { AuditEvent } from './models/index.js';
 
 export const GENESIS_HASH = '0'.repeat(64);
@@ -81,6 +81,39 @@ export async function recordAudit(ctx: Ctx, transaction: Transaction, input: Aud
   const sequelize = AuditEvent.sequelize as Sequelize;
   // nothing reads the row back: no RETURNING of its JSON
   await sequelize.query(INSERT_EVENT, { bind: eventRow(ctx, input), transaction, type: QueryTypes.INSERT });
+}
+
+/** What an audited change records besides the fields it changed. */
+export type AuditNote = { action: string; entity: string; entityId: string | number; extra?: Record<string, unknown> };
+
+/**
+ * Writes a change to a record and its audit event in the caller's transaction. The event's before
+ * holds the changed fields as they were, its after the same fields as they are now plus `extra`;
+ * a field can be shown under another name (`currentStageId` as `currentStage`) through `names`.
+ */
+export async function auditedUpdate<M extends Model>(
+  ctx: Ctx,
+  transaction: Transaction,
+  record: M,
+  change: Partial<M['_attributes']>,
+  note: AuditNote,
+  names: Record<string, string> = {},
+): Promise<void> {
+  const before: Record<string, unknown> = {};
+  const after: Record<string, unknown> = {};
+  for (const [field, value] of Object.entries(change)) {
+    const shown = names[field] ?? field;
+    before[shown] = record.get(field);
+    after[shown] = value;
+  }
+  await record.update(change, { transaction });
+  await recordAudit(ctx, transaction, {
+    action: note.action,
+    entity: note.entity,
+    entityId: note.entityId,
+    before,
+    after: { ...after, ...note.extra },
+  });
 }
 
 /** The same, returning the event's id: for callers that hand out a receipt for it (documents). */

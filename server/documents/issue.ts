@@ -76,7 +76,7 @@ export async function issueReleaseDocuments(sequelize: Sequelize, ctx: Ctx, seri
   const unit = await findBySerial(serial);
   const shipment = await currentShipment(unit.id);
   if (!shipment)
-    throw new AppError(409, 'not_released', `${unit.serial} has not been released: documents are issued at release.`);
+    throw new AppError('not_released', `${unit.serial} has not been released: documents are issued at release.`);
   const have = await IssuedDocument.count({ where: { shipmentId: shipment.id } });
   if (have === 0) {
     const trail = await unitTrail(sequelize, unit.serial);

@@ -24,7 +24,7 @@ export type Receipt = {
   code: string;
 };
 
-const notYet = (message: string) => new AppError(409, 'not_yet_in_log', message);
+const notYet = (message: string) => new AppError('not_yet_in_log', message);
 
 async function leafOf(sequelize: Sequelize, eventId: number) {
   const [row] = await sequelize.query<EventRow & { leaf_index: number | null; leaf_hash: Buffer | null }>(
@@ -118,9 +118,9 @@ export async function recordDocument(
 /** RFC 9162 consistency proof between two sizes of the integrated tree. */
 export async function consistencyBetween(sequelize: Sequelize, from: number, to: number) {
   const { treeSize } = await readState(sequelize);
-  if (from > to) throw new AppError(400, 'invalid', 'from must not be larger than to.', { from: 'larger than to' });
+  if (from > to) throw new AppError('invalid', 'from must not be larger than to.', { from: 'larger than to' });
   if (to > treeSize) {
-    throw new AppError(400, 'invalid', `The log holds ${treeSize} entries; to must not be larger.`, {
+    throw new AppError('invalid', `The log holds ${treeSize} entries; to must not be larger.`, {
       to: `at most ${treeSize}`,
     });
   }

@@ -7,6 +7,7 @@ import {
 import { MulterError } from 'multer';
 import { ZodError } from 'zod';
 import { isDatabaseUnreachable } from '../db.js';
+import type { ErrorCode } from '../../shared/errors.js';
 import { AppError, malformedPath } from '../errors.js';
 
 /** Plain names for the unique columns a person can clash with. */
@@ -15,7 +16,7 @@ const camel = (s: string) => s.replace(/_([a-z])/g, (_m, c: string) => c.toUpper
 
 type Reply = {
   status: number;
-  code: string;
+  code: ErrorCode;
   message: string;
   fields?: Record<string, string>;
   extra?: object;
@@ -69,7 +70,7 @@ function classify(err: unknown): Reply {
     return { status: 413, code: 'too_large', message: 'The request body is too large.' };
   }
   if (e?.type === 'encoding.unsupported' || e?.type === 'charset.unsupported') {
-    return { status: 415, code: 'unsupported', message: 'Send the body as UTF-8 JSON.' };
+    return { status: 415, code: 'unsupported_media_type', message: 'Send the body as UTF-8 JSON.' };
   }
   if (err instanceof UniqueConstraintError) {
     const fields: Record<string, string> = {};

@@ -29,7 +29,7 @@ export function attachmentRoutes(api: Api, sequelize: Sequelize, store: BlobStor
       next(
         err === undefined || err instanceof MulterError
           ? err
-          : new AppError(400, 'invalid_upload', 'The upload was cut short or malformed: send the photo again.', {
+          : new AppError('invalid_upload', 'The upload was cut short or malformed: send the photo again.', {
               file: 'The form data could not be read.',
             }),
       ),
@@ -48,7 +48,6 @@ export function attachmentRoutes(api: Api, sequelize: Sequelize, store: BlobStor
       const quota = config.UPLOAD_QUOTA_PER_DAY;
       if ((await uploadsToday(user!.id)) >= quota) {
         throw new AppError(
-          429,
           'upload_quota',
           `You have uploaded ${quota} photos in the last 24 hours, as many as one person may. Attach the photos you have, or ask an administrator.`,
         );

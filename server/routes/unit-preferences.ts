@@ -1,5 +1,5 @@
 import type { Sequelize } from 'sequelize';
-import { unitPreferenceBody } from '../../shared/schemas/units.js';
+import { unitPreferenceBody } from '../../shared/schemas/unit-preferences.js';
 import type { Api } from '../http/api.js';
 import { setUnitPreference, unitPreferences } from '../services/unit-preferences.js';
 

@@ -52,7 +52,7 @@ export async function storeUpload(
   store: BlobStore,
   ctx: Ctx,
   file: { buffer: Buffer; originalname: string; size: number },
-  accept: { types: Record<string, string>; code: string; message: string } = {
+  accept: { types: Record<string, string>; code: 'not_an_image' | 'not_a_pdf'; message: string } = {
     // a PDF is taken only where a record says so (a corrective action's evidence)
     types: { ...IMAGE_TYPES, ...DOCUMENT_TYPES },
     code: 'not_an_image',
@@ -61,7 +61,7 @@ export async function storeUpload(
 ): Promise<AttachmentJson> {
   const detected = await fileTypeFromBuffer(file.buffer);
   const ext = detected && accept.types[detected.mime];
-  if (!detected || !ext) throw new AppError(415, accept.code, accept.message);
+  if (!detected || !ext) throw new AppError(accept.code, accept.message);
   const key = `${randomUUID()}.${ext}`;
   await store.put(key, file.buffer);
   try {

@@ -32,9 +32,9 @@ export async function signIn(
 ): Promise<SignIn> {
   const user = await User.findOne({ where: { email: body.email } });
   const ok = user ? await checkPassword(body.password, user.passwordHash) : await burnTime(body.password);
-  if (!user || !ok || !user.active) throw new AppError(401, 'sign_in_failed', GENERIC_SIGN_IN_FAILURE);
+  if (!user || !ok || !user.active) throw new AppError('sign_in_failed', GENERIC_SIGN_IN_FAILURE);
   if (user.totpSecret && !body.code) {
-    throw new AppError(401, 'code_required', 'Enter the 6-digit code from your authenticator app.', {
+    throw new AppError('code_required', 'Enter the 6-digit code from your authenticator app.', {
       code: 'Enter the code your authenticator app shows now.',
     });
   }
@@ -97,7 +97,7 @@ export async function changeOwnPassword(sequelize: Sequelize, ctx: Ctx, userId: 
     // locked, so two changes at once cannot both pass the check against the old password
     const user = await User.findByPk(userId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!user || !(await checkPassword(body.currentPassword, user.passwordHash))) {
-      throw new AppError(400, 'wrong_password', 'Your current password is not right.', {
+      throw new AppError('wrong_password', 'Your current password is not right.', {
         currentPassword: 'Not right.',
       });
     }

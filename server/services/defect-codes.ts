@@ -1,5 +1,5 @@
 import { type Sequelize } from 'sequelize';
-import { recordAudit, type Ctx } from '../audit.js';
+import { auditedUpdate, recordAudit, type Ctx } from '../audit.js';
 import { notFound } from '../errors.js';
 import { DefectCode } from '../models/index.js';
 
@@ -33,14 +33,10 @@ export async function updateDefectCode(
   return sequelize.transaction(async (transaction) => {
     const d = await DefectCode.findOne({ where: { code }, transaction, lock: transaction.LOCK.UPDATE });
     if (!d) throw notFound(`Defect code ${code}`);
-    const before = { description: d.description, active: d.active };
-    await d.update(body, { transaction });
-    await recordAudit(ctx, transaction, {
+    await auditedUpdate(ctx, transaction, d, body, {
       action: 'defect_code.updated',
       entity: 'defect_code',
       entityId: d.code,
-      before,
-      after: { description: d.description, active: d.active },
     });
     return { code: d.code, description: d.description, active: d.active };
   });

@@ -170,7 +170,6 @@ export async function receiveLot(sequelize: Sequelize, ctx: Ctx, body: ReceiveLo
     });
     if (same) {
       throw new AppError(
-        409,
         'lot_exists',
         `Lot ${body.lotCode} of part number ${body.partNumber} from ${supplier.name} was already received on ${same.receivedOn}. A lot is received once; change its inspection on the lot's page.`,
         { lotCode: `Already received for part number ${body.partNumber}.` },

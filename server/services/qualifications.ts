@@ -256,7 +256,7 @@ export async function requireQualified(
     { type: QueryTypes.SELECT, replacements: { userId: who.id, stageId: stage.id }, transaction },
   );
   const name = row?.name ?? who.name ?? 'This person';
-  const refuse = (message: string) => new AppError(403, 'not_qualified', `${message} Nothing was recorded.`);
+  const refuse = (message: string) => new AppError('not_qualified', `${message} Nothing was recorded.`);
   if (!row?.expires_on) {
     throw refuse(
       `${name} is not qualified to record ${stage.name}: no sign-off is on file. A supervisor can sign one off.`,

@@ -48,12 +48,12 @@ export async function checkSecondFactor(
       { usedAt: new Date() },
       { where: { userId, codeHash: hashRecoveryCode(code), usedAt: null }, transaction },
     );
-    if (used !== 1) throw new AppError(401, 'code_refused', CODE_REFUSED, { code: 'Not right.' });
+    if (used !== 1) throw new AppError('code_refused', CODE_REFUSED, { code: 'Not right.' });
     await recordAudit(ctx, transaction, { action: 'user.recovery_code_used', entity: 'user', entityId: userId });
     return;
   }
   const step = checkTotp(openSecret(user.totpSecret!, serverSecret), code, { lastStep: user.totpLastStep });
-  if (step === null) throw new AppError(401, 'code_refused', CODE_REFUSED, { code: 'Not right.' });
+  if (step === null) throw new AppError('code_refused', CODE_REFUSED, { code: 'Not right.' });
   await user.update({ totpLastStep: step }, { transaction });
 }
 
@@ -93,14 +93,10 @@ export async function confirmEnrolment(
     if (!user.totpPendingSecret) throw conflict('Start the set-up again: no code is waiting to be confirmed.');
     const step = checkTotp(openSecret(user.totpPendingSecret, serverSecret), code, { lastStep: null });
     if (step === null) {
-      throw new AppError(
-        400,
-        'code_refused',
-        'That code is not right. Scan the QR code again and enter the code shown now.',
-        {
-          code: 'Not right.',
-        },
-      );
+      // a wrong code while setting up is a field to correct, not a refused sign-in
+      throw new AppError('invalid', 'That code is not right. Scan the QR code again and enter the code shown now.', {
+        code: 'Not right.',
+      });
     }
     await user.update(
       { totpSecret: user.totpPendingSecret, totpPendingSecret: null, totpEnrolledAt: new Date(), totpLastStep: step },
@@ -131,7 +127,7 @@ export async function removeOwnSecondFactor(sequelize: Sequelize, ctx: Ctx, user
       throw conflict('Administrators keep a second factor. Another administrator can reset it if the phone is lost.');
     }
     if (!(await checkPassword(password, user.passwordHash))) {
-      throw new AppError(400, 'wrong_password', 'Your password is not right.', { password: 'Not right.' });
+      throw new AppError('wrong_password', 'Your password is not right.', { password: 'Not right.' });
     }
     await clearFactor(user, transaction);
     await recordAudit(ctx, transaction, { action: 'user.second_factor_removed', entity: 'user', entityId: userId });

@@ -16,7 +16,7 @@ export async function signWithPassword(
 ) {
   const user = (await User.findByPk(ctx.actor!.id, { transaction }))!;
   if (!(await checkPassword(input.password, user.passwordHash))) {
-    throw new AppError(400, 'signature_refused', `The password does not match: ${input.refused}`, {
+    throw new AppError('signature_refused', `The password does not match: ${input.refused}`, {
       password: 'That is not your password.',
     });
   }

@@ -1,7 +1,7 @@
 import type { Sequelize } from 'sequelize';
 import type { EnrolTabletBody, TabletJson, TabletResultBody } from '../../shared/schemas/tablets.js';
 import { can } from '../../shared/permissions.js';
-import { recordAudit, type Ctx } from '../audit.js';
+import { auditedUpdate, recordAudit, type Ctx } from '../audit.js';
 import { AppError, conflict, invalid, notFound, tooMany } from '../errors.js';
 import { FailureLimiter } from '../http/limits.js';
 import type { AuthedTablet } from '../middleware/tablet.js';
@@ -86,15 +86,13 @@ export async function setBadge(sequelize: Sequelize, ctx: Ctx, userId: number, b
     if (taken && taken.id !== user.id) {
       throw conflict(`Badge ${value} is already ${taken.name}'s.`, { reason: 'badge_taken' });
     }
-    const before = { badge: user.badge ?? null };
-    await user.update({ badge: value }, { transaction });
-    await recordAudit(ctx, transaction, {
-      action: 'user.badge_set',
-      entity: 'user',
-      entityId: user.id,
-      before,
-      after: { badge: value },
-    });
+    await auditedUpdate(
+      ctx,
+      transaction,
+      user,
+      { badge: value },
+      { action: 'user.badge_set', entity: 'user', entityId: user.id },
+    );
   });
 }
 
@@ -104,7 +102,7 @@ export async function setOwnPin(sequelize: Sequelize, ctx: Ctx, pin: string, pas
   await sequelize.transaction(async (transaction) => {
     const user = (await User.findByPk(ctx.actor!.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
     if (!(await checkPassword(password, user.passwordHash))) {
-      throw new AppError(400, 'wrong_password', 'That is not your password. Your PIN was not changed.', {
+      throw new AppError('wrong_password', 'That is not your password. Your PIN was not changed.', {
         password: 'That is not your password.',
       });
     }
@@ -149,7 +147,7 @@ export async function identify(limits: PinLimits, tablet: AuthedTablet, badge: s
   if (!ok || !user) {
     limits.badge.fail(badgeKey);
     limits.tablet.fail(tabletKey);
-    throw new AppError(400, 'pin_refused', REFUSED, { pin: 'Badge and PIN do not match.' });
+    throw new AppError('pin_refused', REFUSED, { pin: 'Badge and PIN do not match.' });
   }
   return user;
 }

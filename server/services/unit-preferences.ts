@@ -1,5 +1,5 @@
 import type { Sequelize } from 'sequelize';
-import type { UnitPreferenceBody, UnitPreferencesJson } from '../../shared/schemas/units.js';
+import type { UnitPreferenceBody, UnitPreferencesJson } from '../../shared/schemas/unit-preferences.js';
 import { UnitPreference } from '../models/index.js';
 
 /**

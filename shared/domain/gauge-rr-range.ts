@@ -35,7 +35,7 @@ export const K3: Readonly<Record<number, number>> = {
   9: 0.3249,
   10: 0.3146,
 };
-/** D4 and A2 by subgroup size (trials), X̄/R chart constants (ASTM E2587; docs check-values.md). */
+/** D4 and A2 by subgroup size (trials), X̄/R chart constants (ASTM E2587, e-Handbook §6.3.2). */
 export const D4: Readonly<Record<number, number>> = { 2: 3.267, 3: 2.574 };
 export const A2: Readonly<Record<number, number>> = { 2: 1.88, 3: 1.023 };
 

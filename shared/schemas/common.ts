@@ -1,3 +1,4 @@
+import type { ErrorCode } from '../errors.js';
 import { z } from 'zod';
 
 /**
@@ -77,6 +78,7 @@ export const paging = {
 export type Paged<T> = { rows: T[]; total: number; page: number; pageSize: number };
 
 /** The body of every error reply. */
+/** Every error reply; `code` is from the one vocabulary (shared/errors.ts). */
 export type ApiError = {
-  error: { code: string; message: string; fields?: Record<string, string>; requestId?: string };
+  error: { code: ErrorCode; message: string; fields?: Record<string, string>; requestId?: string };
 };

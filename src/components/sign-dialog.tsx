@@ -25,12 +25,17 @@ type SignStepProps = {
  * The end of a signed form: the button checks everything else the form holds, then a dialog says
  * who signs, what the signature means and on which record, and asks for the password there. The
  * dialog sits inside the surrounding <Form>, so its button submits the whole form; a refusal from
- * the server is shown in the dialog as well as above the form.
+ * the server is shown in the dialog as well as above the form. Once the signature is accepted the
+ * dialog closes, so a form that stays on the page (the next sign-off) shows its outcome.
  */
 export function SignStep({ label, signer, meaning, subject, children, size = 'lg' }: SignStepProps) {
   const { trigger, getValues, formState } = useFormContext<FieldValues>();
-  const [open, setOpen] = useState(false);
+  // the submit count when the dialog opened: a successful submit since then closes it
+  const [openedAt, setOpenedAt] = useState<number | null>(null);
   const refused = formState.errors.root?.server?.message;
+  const { isSubmitSuccessful, submitCount } = formState;
+  const open = openedAt !== null && !(isSubmitSuccessful && submitCount > openedAt);
+  const setOpen = (to: boolean) => setOpenedAt(to ? submitCount : null);
 
   const check = async () => {
     const rest = Object.keys(getValues()).filter((k) => k !== 'password');

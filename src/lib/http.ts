@@ -1,11 +1,13 @@
+import type { ClientErrorCode, ErrorCode } from '../../shared/errors';
 import type { ApiError as ApiErrorReply } from '../../shared/schemas/common';
 
-type ErrorBody = ApiErrorReply['error'];
+/** The server's reply, or one made here when no reply explains the failure. */
+type ErrorBody = Omit<ApiErrorReply['error'], 'code'> & { code: ErrorCode | ClientErrorCode };
 
 /** A failed API call, carrying the server's stable code, its plain message and per-field notes. */
 export class ApiError extends Error {
   readonly status: number;
-  readonly code: string;
+  readonly code: ErrorCode | ClientErrorCode;
   readonly fields: Record<string, string>;
   readonly requestId: string | undefined;
   /** Anything else the server said about the refusal, e.g. `reason` and the look-alike cores of a 409. */

@@ -1,3 +1,4 @@
+import { Op } from 'sequelize';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEvent, Customer, Supplier } from '../../server/models/index.js';
@@ -60,12 +61,15 @@ describe('the plant adds its own customers and suppliers', () => {
   });
 
   it('when the input is bad or the role may not add them, then the reply says so and nothing is written', async () => {
-    // counted among these lists' own rows and events: other files write theirs at the same time
-    const before = [
-      await Customer.count(),
-      await Supplier.count(),
-      await AuditEvent.count({ where: { entity: ['customer', 'supplier'] } }),
+    // only the rows and events these requests could have written: other files write theirs at the same time
+    const tried = ['x', code(), code()];
+    const written = async () => [
+      await Customer.count({ where: { code: tried } }),
+      await Supplier.count({ where: { code: tried } }),
+      await AuditEvent.count({ where: { entity: ['customer', 'supplier'], after: { code: { [Op.in]: tried } } } }),
     ];
+    const before = await written();
+    expect(before).toEqual([0, 0, 0]);
     const bad = await request(t.app)
       .post('/api/suppliers')
       .set('Cookie', admin)
@@ -75,17 +79,13 @@ describe('the plant adds its own customers and suppliers', () => {
     const extra = await request(t.app)
       .post('/api/customers')
       .set('Cookie', admin)
-      .send({ code: code(), name: 'Extra', credit: 5 });
+      .send({ code: tried[1], name: 'Extra', credit: 5 });
     expect(extra.status).toBe(400);
     const refused = await request(t.app)
       .post('/api/customers')
       .set('Cookie', receiving)
-      .send({ code: code(), name: 'Nope' });
+      .send({ code: tried[2], name: 'Nope' });
     expect(refused.status).toBe(403);
-    expect([
-      await Customer.count(),
-      await Supplier.count(),
-      await AuditEvent.count({ where: { entity: ['customer', 'supplier'] } }),
-    ]).toEqual(before);
+    expect(await written()).toEqual(before);
   });
 });

@@ -1,3 +1,4 @@
+import { Op } from 'sequelize';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {
@@ -16,12 +17,15 @@ import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, unique, type TestApp }
 let t: TestApp;
 let admin: string;
 let author: string;
+let authorId: number;
 let approver: string;
 
 beforeAll(async () => {
   t = makeTestApp();
   admin = await cookieFor(await makeUser('admin'), t.config);
-  author = await cookieFor(await makeUser('quality'), t.config);
+  const authorUser = await makeUser('quality');
+  authorId = authorUser.id;
+  author = await cookieFor(authorUser, t.config);
   approver = await cookieFor(await makeUser('quality', { name: 'Test Import Approver' }), t.config);
   // a draft left by an earlier run that stopped half way would hold the one draft place
   await ProcessImport.update({ status: 'discarded' }, { where: { status: 'draft' } });
@@ -88,20 +92,24 @@ function document() {
   };
 }
 
-const counts = async () => [
-  await ProcessImport.count(),
-  await PartKindRow.count(),
-  await EngineFamily.count(),
-  await Stage.count(),
-  await Characteristic.count(),
-  await Route.count(),
-  await FamilyCastingNumber.count(),
-];
+/** The rows a document with this tag could write, and the imports its author could store: other files write theirs meanwhile. */
+const counts = async (tag: string) => {
+  const like = { [Op.iLike]: `%${tag}%` };
+  return [
+    await ProcessImport.count({ where: { createdById: authorId } }),
+    await PartKindRow.count({ where: { code: like } }),
+    await EngineFamily.count({ where: { code: like } }),
+    await Stage.count({ where: { code: like } }),
+    await Characteristic.count({ include: [{ model: Stage, as: 'stage', where: { code: like }, required: true }] }),
+    await Route.count({ where: { partKind: like } }),
+    await FamilyCastingNumber.count({ where: { castingNumber: like } }),
+  ];
+};
 
 describe('importing a process document', () => {
   it('when the document is bad, then every problem is listed by its path and nothing is written', async () => {
-    const before = await counts();
-    const { doc } = document();
+    const { doc, tag } = document();
+    const before = await counts(tag);
     const shape = await request(t.app)
       .post('/api/process/imports')
       .set('Cookie', author)
@@ -125,7 +133,7 @@ describe('importing a process document', () => {
       'characteristics.0.defectCode': 'No defect code NOPE in use.',
       [`routes.0.steps.0.stage`]: `Stage crank-grind is for crankshaft, not ${doc.partKinds[0]!.code}.`,
     });
-    expect(await counts()).toEqual(before);
+    expect(await counts(tag)).toEqual(before);
   });
 
   it('when a document is imported, then it changes the plant only once someone else approves it with a signature', async () => {

@@ -83,9 +83,16 @@ describe('receiving a purchased lot on a tablet', () => {
     expect(await smallTargets(page)).toEqual([]);
     expect(await axeProblems(page)).toEqual([]);
     await page.screenshot({ path: path.join(shots, 'receive-lot-1024.png') });
-    await page.getByRole('button', { name: 'Receive lot' }).click();
-
-    await page.getByRole('heading', { level: 1, name: `Lot ${lotCode}` }).waitFor();
+    // Under a loaded CI machine the save can take a while; wait on the reply itself so a refusal
+    // fails with its status and words rather than a missing heading.
+    const [saved] = await Promise.all([
+      page.waitForResponse((res) => res.url().endsWith('/api/receiving/lots') && res.request().method() === 'POST', {
+        timeout: 60_000,
+      }),
+      page.getByRole('button', { name: 'Receive lot' }).click(),
+    ]);
+    expect(saved.status(), await saved.text()).toBe(201);
+    await page.getByRole('heading', { level: 1, name: `Lot ${lotCode}` }).waitFor({ timeout: 60_000 });
     await page
       .getByText(
         `Lot ${lotCode} (part number PS-4020) is on hold at receiving: Ring groove width not on the certificate`,

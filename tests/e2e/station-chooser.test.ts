@@ -41,7 +41,7 @@ describe('the station chooser on a tablet', () => {
     const tiles = page.getByRole('button', { name: /waiting/ });
     const count = await tiles.count();
     expect(count).toBeGreaterThan(10);
-    // every tile at least the project's 48 px touch floor each way (docs/ARCHITECTURE.md, floor density)
+    // every tile at least the project's 48 px touch floor each way (src/README.md, floor density)
     for (let i = 0; i < count; i++) {
       const box = (await tiles.nth(i).boundingBox())!;
       expect(box.height).toBeGreaterThanOrEqual(48);

@@ -16,7 +16,7 @@ describe('power from torque', () => {
   it('5252 = 33 000 / 2π (derivation from 1 hp = 550 ft·lbf/s)', () => {
     expect(33_000 / (2 * Math.PI)).toBeCloseTo(5252.11, 2);
   });
-  it('300 lbf·ft at 4000 rpm → 228.5 hp (check-values, derivation); ≈ 170.4 kW by NIST SP 811', () => {
+  it('300 lbf·ft at 4000 rpm → 228.5 hp (derivation: hp = lbf·ft × rpm / 5252.11); ≈ 170.4 kW by NIST SP 811', () => {
     expect(horsepower(300, 4000)).toBeCloseTo(228.5, 1);
     expect(hpToW(horsepower(300, 4000)) / 1000).toBeCloseTo(170.4, 1);
   });

@@ -119,7 +119,7 @@ describe('the K factors, recomputed from the distribution of the range of normal
     return Math.sqrt(m * (m - 1) * h * h * sum);
   };
 
-  it('when d2 is integrated, then it matches the X̄/R chart table (d2(2) = 1.128, d2(3) = 1.693; check-values.md)', () => {
+  it('when d2 is integrated, then it matches the X̄/R chart table (d2(2) = 1.128, d2(3) = 1.693; ASTM E2587 table, e-Handbook §6.3.2)', () => {
     expect(d2(2)).toBeCloseTo(2 / Math.sqrt(Math.PI), 6); // exact: 2/√π
     expect(d2(3)).toBeCloseTo(3 / Math.sqrt(Math.PI), 6); // exact: 3/√π
     expect(d2(10)).toBeCloseTo(3.078, 3);
@@ -132,7 +132,7 @@ describe('the K factors, recomputed from the distribution of the range of normal
     for (let m = 2; m <= 10; m++) expect(1 / d2Star(m)).toBeCloseTo(K3[m]!, 4);
     expect(Object.keys(K3)).toHaveLength(9);
   });
-  it('when D4 and A2 are used for the charts, then they are the check-values table figures (±0.001)', () => {
+  it('when D4 and A2 are used for the charts, then they are the ASTM E2587 table figures (±0.001)', () => {
     expect(D4[2]).toBeCloseTo(3.267, 3);
     expect(D4[3]).toBeCloseTo(2.575, 2);
     expect(A2[2]).toBeCloseTo(1.88, 3);

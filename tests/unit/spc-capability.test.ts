@@ -12,7 +12,7 @@ describe('capability indices (NIST/SEMATECH e-Handbook §6.1.6)', () => {
     expect(c.index).toBeCloseTo(0.667, 3);
   });
 
-  it('when a centred normal process has Cp 1, 4/3, 5/3, 2, then 0.27 %, 64 ppm, 0.6 ppm, 2 ppb fall outside (check-values.md, e-Handbook §6.1.6)', () => {
+  it('when a centred normal process has Cp 1, 4/3, 5/3, 2, then 0.27 %, 64 ppm, 0.6 ppm, 2 ppb fall outside (e-Handbook §6.1.6)', () => {
     const centred = (cp: number) => expectedPpm(0, 1, { lower: -3 * cp, upper: 3 * cp }).total;
     expect(centred(1) / 1e4).toBeCloseTo(0.27, 2);
     // 2Φ(−4) = 63.3 ppm recomputed; the printed "64 ppm" agrees within its rounding

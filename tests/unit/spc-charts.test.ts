@@ -52,7 +52,7 @@ describe('X̄–R and X̄–S limits (e-Handbook §6.3.2.1 formulas, worked by h
     expect(c.xbar.upper).toBeCloseTo(13.296, 3);
     expect(c.xbar.lower).toBeCloseTo(9.204, 3);
     expect(c.range.centre).toBe(2);
-    expect(Math.abs(c.range.upper - 5.15)).toBeLessThanOrEqual(0.002 + 1e-12); // D4 2.574/2.575 (check-values)
+    expect(Math.abs(c.range.upper - 5.15)).toBeLessThanOrEqual(0.002 + 1e-12); // D4 2.574/2.575: published tables differ in the last digit (ASTM E2587, e-Handbook §6.3.2)
     expect(c.range.lower).toBe(0);
     expect(c.sigmaWithin).toBeCloseTo(2 / 1.693, 6); // R̄/d2
   });
@@ -67,7 +67,7 @@ describe('X̄–R and X̄–S limits (e-Handbook §6.3.2.1 formulas, worked by h
     expect(c.sigmaWithin).toBeCloseTo(1 / 0.8862, 4); // s̄/c4
   });
 
-  it('when R̄ is 4.652 for subgroups of 5, then σ within is 2.000 (check-values.md, derived check)', () => {
+  it('when R̄ is 4.652 for subgroups of 5, then σ within is 2.000 (derived: R̄/d2 with d2(5) = 2.326, ASTM E2587)', () => {
     expect(sigmaWithin({ method: 'xbar-r', n: 5, baselineCount: 20, grandMean: 16, rBar: 4.652 })).toBeCloseTo(2, 3);
   });
 

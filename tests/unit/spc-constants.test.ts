@@ -2,8 +2,8 @@ import jStat from 'jstat';
 import { describe, expect, it } from 'vitest';
 import { c4, rangeConstants, sConstants } from '../../shared/domain/spc/constants.js';
 
-// Published three-decimal table (ASTM E2587; the same rows as check-values.md "SPC constants",
-// which were recomputed and agreed; tables differ in the last digit, so ±0.001).
+// Published three-decimal table (ASTM E2587, the same rows as e-Handbook §6.3.2 and Pyzdek's handbook,
+// recomputed here with jStat below; tables differ in the last digit, so ±0.001).
 const PUBLISHED_R: [number, number, number, number, number][] = [
   // n, A2, D3, D4, d2
   [2, 1.88, 0, 3.267, 1.128],
@@ -56,7 +56,7 @@ function rangeMoments(n: number) {
   return { d2, d3: Math.sqrt(2 * er2 - d2 * d2) };
 }
 
-describe('range-chart constants (ASTM E2587 / e-Handbook §6.3.2, check-values.md)', () => {
+describe('range-chart constants (ASTM E2587 / e-Handbook §6.3.2)', () => {
   it.each(PUBLISHED_R)(
     'when n = %i, then A2, D3, D4 and d2 are the published values within ±0.001',
     (n, A2, D3, D4, d2) => {

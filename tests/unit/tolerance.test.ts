@@ -51,7 +51,7 @@ describe('limits and verdicts', () => {
     expect(judgeValue(4.02944, bore)).toMatchObject({ verdict: 'fail', rounded: 4.0294 });
   });
   it('one-sided rules: minimum and maximum', () => {
-    // common practice: cylinder out-of-round ≤ 0.001 in (service limit 0.002 in), see check-values
+    // common practice: cylinder out-of-round ≤ 0.001 in (service limit 0.002 in)
     const outOfRound = { limitType: 'max' as const, upperLimit: 0.001, resolution: 0.0001, unit: 'in' };
     expect(judgeValue(0.001, outOfRound).verdict).toBe('pass');
     expect(judgeValue(0.0011, outOfRound).verdict).toBe('fail');

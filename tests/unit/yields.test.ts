@@ -3,7 +3,7 @@ import { fpy, paretoOrder, rty } from '../../shared/domain/yields.js';
 
 describe('first-pass and rolled throughput yield', () => {
   it('when four steps have hand-counted first passes, then RTY is the product of their FPYs', () => {
-    // check-values brief, "Yields (common definitions)": 0.85 × 0.8889 × 0.8125 × 0.8267 = 0.5075;
+    // common practice (FPY and RTY by their common definitions): 0.85 × 0.8889 × 0.8125 × 0.8267 = 0.5075;
     // counts chosen so each FPY is that value: 85/100, 80/90, 65/80, 62/75
     const steps = [
       { entered: 100, firstPass: 85 },

@@ -161,7 +161,7 @@ export async function closeCa(sequelize: Sequelize, ctx: Ctx, number: string, bo
     const tasks = await CorrectiveActionTask.findAll({ where: { correctiveActionId: ca.id }, transaction });
     const blockers = closeBlockers(ca, tasks, await plantToday(transaction));
     if (blockers.length) {
-      throw new AppError(409, 'not_closable', `${number} cannot close yet: ${blockers.join(' ')}`, undefined, {
+      throw new AppError('not_closable', `${number} cannot close yet: ${blockers.join(' ')}`, undefined, {
         reason: 'not_closable',
         blockers,
       });

@@ -7,7 +7,7 @@ import {
   type DispositionBody,
   type NcrState,
 } from '../../../shared/schemas/ncr.js';
-import { recordAudit, type Ctx } from '../../audit.js';
+import { auditedUpdate, recordAudit, type Ctx } from '../../audit.js';
 import { conflict, invalid } from '../../errors.js';
 import { enqueueMail } from '../../mail/messages.js';
 import { Item, Nonconformance, Stage, StageResult, User } from '../../models/index.js';
@@ -44,15 +44,13 @@ export async function assignNcr(sequelize: Sequelize, ctx: Ctx, number: string, 
         throw invalid('Assign the NCR to an active quality engineer.', { assigneeId: 'Not a quality engineer.' });
       }
     }
-    const before = { assigneeId: ncr.assigneeId };
-    await ncr.update({ assigneeId }, { transaction: t });
-    await recordAudit(ctx, t, {
-      action: 'ncr.assigned',
-      entity: 'nonconformance',
-      entityId: ncr.number,
-      before,
-      after: { assigneeId },
-    });
+    await auditedUpdate(
+      ctx,
+      t,
+      ncr,
+      { assigneeId },
+      { action: 'ncr.assigned', entity: 'nonconformance', entityId: ncr.number },
+    );
   });
   return ncrDetail(number, ctx);
 }
@@ -62,15 +60,13 @@ export async function updateContainment(sequelize: Sequelize, ctx: Ctx, number: 
     if (!OPEN_NCR_STATES.includes(ncr.state as NcrState)) {
       throw conflict(`${ncr.number} is ${ncr.state}: its containment note is part of the closed record.`);
     }
-    const before = { containment: ncr.containment };
-    await ncr.update({ containment }, { transaction: t });
-    await recordAudit(ctx, t, {
-      action: 'ncr.containment',
-      entity: 'nonconformance',
-      entityId: ncr.number,
-      before,
-      after: { containment },
-    });
+    await auditedUpdate(
+      ctx,
+      t,
+      ncr,
+      { containment },
+      { action: 'ncr.containment', entity: 'nonconformance', entityId: ncr.number },
+    );
   });
   return ncrDetail(number, ctx);
 }

@@ -6,6 +6,7 @@ import type {
   CalibrationJson,
   ContainBody,
   ContainmentJson,
+  GaugeBody,
   GaugeJson,
 } from '../../../shared/schemas/gauges';
 import { http } from '../../lib/http';
@@ -41,6 +42,18 @@ export const blastQueryOptions = (q: BlastQuery) =>
     queryFn: ({ signal }) => http<BlastRadiusJson>('/api/blast-radius', { query: q, signal }),
   });
 export const useBlastRadius = (q: BlastQuery) => useQuery(blastQueryOptions(q));
+
+/** Registers a gauge; it is unusable until its first calibration is recorded. */
+export function useRegisterGauge() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: GaugeBody) => http<GaugeJson>('/api/gauges', { method: 'POST', body }),
+    onSuccess: () => {
+      void queryClient.invalidateQueries({ queryKey: gaugeKeys.all });
+      void queryClient.invalidateQueries({ queryKey: auditKeys.all });
+    },
+  });
+}
 
 export function useRecordCalibration(code: string) {
   const queryClient = useQueryClient();

@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { UnitPreferenceBody, UnitPreferencesJson } from '../../../shared/schemas/units';
+import type { UnitPreferenceBody, UnitPreferencesJson } from '../../../shared/schemas/unit-preferences';
 import { http } from '../../lib/http';
 import { inTabletMode } from '../../lib/tablet-mode';
 import { stationKeys } from './keys';

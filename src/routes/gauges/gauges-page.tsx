@@ -1,12 +1,16 @@
 import type { QueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
 import { Link, type LoaderFunctionArgs } from 'react-router';
+import { useSignedIn } from '../../api/auth/me';
 import { gaugesQueryOptions, useGauges } from '../../api/gauges/gauges';
 import { PageHeader } from '../../components/page-header';
 import { Badge } from '../../components/ui/badge';
+import { Button } from '../../components/ui/button';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Table, TableFrame, TBody, TD, TH, THead, TR } from '../../components/ui/table';
 import { gaugeHref } from '../../lib/paths';
 import { requirePermission } from '../../lib/session';
+import { AddGaugeDialog } from './add-gauge-dialog';
 import { GaugeStateBadge } from './gauge-state-badge';
 
 export const gaugesLoader =
@@ -23,6 +27,8 @@ const range = (lo: number | null, hi: number | null, unit: string | null) =>
 /** The register, the gauges needing attention first: overdue, never calibrated, due soonest. */
 export function GaugesPage() {
   const { data } = useGauges();
+  const me = useSignedIn();
+  const [adding, setAdding] = useState(false);
   if (!data) return null;
   const due = data.rows.filter((g) => g.state === 'due' || g.state === 'overdue' || g.state === 'never_calibrated');
   return (
@@ -30,7 +36,15 @@ export function GaugesPage() {
       <PageHeader
         title="Gauges"
         description={`The gauge register. Days left count in the plant’s calendar: today is ${data.today}.`}
+        actions={
+          me?.can('gauges.manage') && (
+            <Button variant="primary" onClick={() => setAdding(true)}>
+              Add gauge
+            </Button>
+          )
+        }
       />
+      {adding && <AddGaugeDialog onClose={() => setAdding(false)} />}
       <div className="flex flex-col gap-5">
         <Card labelledBy="due-heading">
           <CardHeader
