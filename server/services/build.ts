@@ -199,7 +199,6 @@ export async function buildUnit(sequelize: Sequelize, ctx: Ctx, body: BuildBody)
     const count = Object.keys(problems).length;
     if (count) {
       throw new AppError(
-        409,
         'build_refused',
         `The long block was not started: ${Object.values(problems).join(' ')}`,
         problems,
@@ -322,7 +321,7 @@ export async function replacePart(sequelize: Sequelize, ctx: Ctx, serial: string
     const out = await look(body.remove, 'remove');
     const fit = await look(body.fit, 'fit');
     if (!out || !fit) {
-      throw new AppError(409, 'replace_refused', `Nothing was changed: ${Object.values(problems).join(' ')}`, problems);
+      throw new AppError('replace_refused', `Nothing was changed: ${Object.values(problems).join(' ')}`, problems);
     }
     const link = await ItemLink.findOne({
       where: { parentItemId: unit.id, childItemId: out.id, linkType: 'installed_in', removedAt: null },
@@ -358,7 +357,7 @@ export async function replacePart(sequelize: Sequelize, ctx: Ctx, serial: string
       if (mismatch) problems.fit = mismatch;
     }
     if (Object.keys(problems).length) {
-      throw new AppError(409, 'replace_refused', `Nothing was changed: ${Object.values(problems).join(' ')}`, problems);
+      throw new AppError('replace_refused', `Nothing was changed: ${Object.values(problems).join(' ')}`, problems);
     }
 
     const now = new Date();

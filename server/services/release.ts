@@ -247,7 +247,6 @@ export async function releaseUnit(sequelize: Sequelize, ctx: Ctx, serial: string
     const check = await releaseCheck(sequelize, unit, transaction);
     if (!check.releasable) {
       throw new AppError(
-        409,
         'not_releasable',
         `${unit.serial} cannot ship yet: ${check.reasons.map((r) => r.message).join(' ')}`,
         undefined,

@@ -58,7 +58,6 @@ function checkGaugeFit(ref: Reference, chars: FormChar[], body: SubmitResultBody
   const refused = Object.values(unsuitable);
   if (refused.length) {
     throw new AppError(
-      400,
       'gauge_unsuitable',
       `${refused[0]} Choose a gauge that can measure it. Nothing was recorded.`,
       unsuitable,

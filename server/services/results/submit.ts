@@ -94,7 +94,6 @@ async function replayOrLock(
   if (seen) {
     if (seen.userId !== ctx.actor!.id || seen.requestHash !== requestHash || seen.path !== path) {
       throw new AppError(
-        422,
         'idempotency_key_reused',
         'This idempotency key was already used for a different submission. Nothing was recorded; send a new key for a new result.',
       );
