@@ -8,7 +8,7 @@ import { stationForm, submitResult } from '../../server/services/results/index.j
 import { tearDownCore } from '../../server/services/teardown.js';
 import { buildBody, LOT_KINDS } from '../../shared/schemas/build.js';
 import { receiveCoreBody, teardownBody } from '../../shared/schemas/intake.js';
-import { buildUnit } from '../../server/services/build.js';
+import { buildUnit } from '../../server/services/build/index.js';
 import { receiveLot } from '../../server/services/lots.js';
 import { receiveLotBody } from '../../shared/schemas/lots.js';
 import { releaseUnit } from '../../server/services/release.js';
