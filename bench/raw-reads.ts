@@ -1,6 +1,6 @@
 import { ncrListQuery } from '../shared/schemas/ncr.js';
 import { ncrListSql } from '../server/services/ncrs/index.js';
-import { LOT_LOOKUP_SQL } from '../server/services/trail.js';
+import { LOT_LOOKUP_SQL } from '../server/services/trail/index.js';
 
 /**
  * The reads the warranty desk and quality make, as PostgreSQL alone answers them. The trail is one
@@ -74,7 +74,7 @@ SELECT json_build_object(
              WHERE sh.unit_item_id IN (SELECT id FROM unit) ORDER BY sh.id DESC LIMIT 1));
 `;
 
-/** The lot lookup's own statement (server/services/trail.ts), the lot code drawn at random. */
+/** The lot lookup's own statement (server/services/trail/lot-lookup.ts), the lot code drawn at random. */
 export const lotScript = (lots: number) => `\\set k random(1, ${lots})
 ${LOT_LOOKUP_SQL.replace(':lotCode', '(SELECT lot_code FROM bench_lot_codes WHERE k = :k)')};
 `;

@@ -29,6 +29,7 @@ import * as m20261204170000 from './20261204170000-person-language.js';
 import * as m20261204174500 from './20261204174500-result-taken-at.js';
 import * as m20261204183500 from './20261204183500-core-salvage.js';
 import * as m20261204184000 from './20261204184000-result-values-cover.js';
+import * as m20261205030000 from './20261205030000-stage-run-test.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -66,4 +67,5 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261204174500-result-taken-at', ...m20261204174500 },
   { name: '20261204183500-core-salvage', ...m20261204183500 },
   { name: '20261204184000-result-values-cover', ...m20261204184000 },
+  { name: '20261205030000-stage-run-test', ...m20261205030000 },
 ];

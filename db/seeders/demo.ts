@@ -4,12 +4,11 @@ import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { todayIn } from '../../shared/domain/warranty.js';
 import { recordAudit, systemCtx } from '../../server/audit.js';
 import { personSnapshot } from '../../server/services/people.js';
+import { importApprovedBySeed } from '../../server/services/process-import.js';
 import {
   Characteristic,
   EngineFamily,
   PlantSettings,
-  Route,
-  RouteStage,
   Signature,
   Stage,
   Station,
@@ -20,8 +19,9 @@ import { seedDemoClaimsHistory } from './demo-claims-history.js';
 import { seedDemoHistory } from './demo-history.js';
 import { seedDemoPartsIfEmpty } from './demo-parts.js';
 import { seedDemoQualifications } from './demo-qualifications.js';
+import { demoProcessDocument } from './process-document.js';
 import { CHARACTERISTICS, firstRules } from './spec-book.js';
-import { DEFECT_CODES, DEMO_USERS, FAMILIES, GAUGES, PLANT, ROUTES, STAGES, STATIONS } from './plant.js';
+import { DEFECT_CODES, DEMO_USERS, GAUGES, PLANT, STAGES, STATIONS } from './plant.js';
 
 export { DEMO_USERS, PLANT };
 
@@ -91,40 +91,25 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
     });
   }
 
-  const families = [];
-  for (const f of FAMILIES) {
-    const family = await EngineFamily.create(f, { transaction });
-    families.push(family);
-    await recordAudit(ctx, transaction, {
-      action: 'family.created',
-      entity: 'engine_family',
-      entityId: family.id,
-      after: f,
-    });
-  }
-
-  const stageByCode = new Map<string, Stage>();
-  for (const s of STAGES) {
-    stageByCode.set(s.code, await Stage.create({ ...s, hazardous: s.hazard !== null }, { transaction }));
-  }
-
-  for (const family of families) {
-    for (const [partKind, steps] of Object.entries(ROUTES)) {
-      const route = await Route.create(
-        { engineFamilyId: family.id, partKind: partKind as keyof typeof ROUTES },
-        { transaction },
-      );
-      await RouteStage.bulkCreate(
-        steps.map((step, i) => ({
-          routeId: route.id,
-          stageId: stageByCode.get(step.stage)!.id,
-          position: i + 1,
-          required: step.required,
-        })),
-        { transaction },
-      );
-    }
-  }
+  // defect codes first: the characteristics of the process document name them
+  const seededAt = new Date();
+  await insertMany(
+    sequelize,
+    transaction,
+    'defect_codes',
+    DEFECT_CODES.map((d) => ({ ...d, created_at: seededAt, updated_at: seededAt })),
+  );
+  // the process comes in as a plant's would: one process document through the import, drafted by
+  // one quality engineer and approved by the other
+  const [author, approver] = await User.findAll({ where: { role: 'quality' }, order: [['id', 'ASC']], transaction });
+  await importApprovedBySeed(ctx, transaction, demoProcessDocument(), {
+    author: author!,
+    approver: approver!,
+    reason: 'The demo plant’s process (invented), loaded with the demo',
+    now: seededAt,
+  });
+  const families = await EngineFamily.findAll({ order: [['id', 'ASC']], transaction });
+  const stageByCode = new Map((await Stage.findAll({ transaction })).map((s) => [s.code, s]));
 
   for (const s of STATIONS) {
     const station = await Station.create(
@@ -166,12 +151,6 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
   }));
   await insertMany(sequelize, transaction, 'customers', customers);
   await insertMany(sequelize, transaction, 'suppliers', suppliers);
-  await insertMany(
-    sequelize,
-    transaction,
-    'defect_codes',
-    DEFECT_CODES.map((d) => ({ ...d, ...stamp })),
-  );
   // the plant's calendar: a gauge due in 12 days is due on the plant's date 12 days on
   const plantToday = todayIn(PLANT.timeZone, now);
   const dayOf = (days: number) =>
@@ -236,7 +215,6 @@ async function seedDemo(sequelize: Sequelize, transaction: Transaction, bcryptCo
     { where: { id: 1 }, transaction },
   );
   // drafted by one quality engineer, approved by the other
-  const [author, approver] = await User.findAll({ where: { role: 'quality' }, order: [['id', 'ASC']], transaction });
   const specCounts = await seedSpecBook(ctx, transaction, stageByCode, families, author!, approver!, now);
   // the plant's balancer reads to 0.1 g·in: quality accepts five to one for residual imbalance, on record
   const relaxed =
@@ -285,9 +263,19 @@ async function seedSpecBook(
   approver: User,
   now: Date,
 ) {
+  // the document brought the measured and judged characteristics; the derived ones (the product's
+  // own formulas) are added here, and all are laid out in the spec book's order
   const byKey = new Map<string, Characteristic>();
+  const stageCode = new Map([...stageByCode.values()].map((s) => [s.id, s.code]));
+  for (const c of await Characteristic.findAll({ transaction })) byKey.set(`${stageCode.get(c.stageId)}/${c.code}`, c);
   let order = 0;
   for (const c of CHARACTERISTICS) {
+    const key = `${c.stage}/${c.code}`;
+    const had = byKey.get(key);
+    if (had) {
+      await had.update({ sortOrder: order++ }, { transaction });
+      continue;
+    }
     const stage = stageByCode.get(c.stage);
     if (!stage) throw new Error(`spec book: no stage ${c.stage}`);
     const row = await Characteristic.create(
@@ -311,7 +299,7 @@ async function seedSpecBook(
       },
       { transaction },
     );
-    byKey.set(`${c.stage}/${c.code}`, row);
+    byKey.set(key, row);
   }
   let rules = 0;
   for (const family of families) {

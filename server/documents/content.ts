@@ -26,7 +26,7 @@ import { invalid } from '../errors.js';
 import { appLink } from '../mail/links.js';
 import { EngineFamily, Signature } from '../models/index.js';
 import { plantSettings } from '../services/plant.js';
-import { trailOf } from '../services/trail.js';
+import { trailOf } from '../services/trail/index.js';
 import { findBySerial } from '../services/items.js';
 
 export const BUILD_RECORD_CAUTION =

@@ -19,6 +19,8 @@ export class Stage extends Model<InferAttributes<Stage>, InferCreationAttributes
   /** The caution shown at the station; `hazardous` marks work that can hurt someone. */
   declare hazard: string | null;
   declare hazardous: CreationOptional<boolean>;
+  /** The unit's run test: the release gate requires it passed. */
+  declare runTest: CreationOptional<boolean>;
   declare description: CreationOptional<string>;
   declare retiredAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
@@ -33,6 +35,7 @@ export class Stage extends Model<InferAttributes<Stage>, InferCreationAttributes
         partKind: { type: DataTypes.STRING(20), allowNull: false },
         hazard: { type: DataTypes.STRING(300), allowNull: true },
         hazardous: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+        runTest: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         description: { type: DataTypes.STRING(500), allowNull: false, defaultValue: '' },
         retiredAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,

@@ -3,7 +3,7 @@ import { lotCodeParam } from '../../shared/schemas/build.js';
 import { serialParam } from '../../shared/schemas/intake.js';
 import type { Api } from '../http/api.js';
 import type { ReadSide } from '../read-side.js';
-import { lotLookup, trailOf } from '../services/trail.js';
+import { lotLookup, trailOf } from '../services/trail/index.js';
 
 /** A serial's whole history, and where a purchased lot went. */
 export function trailRoutes(api: Api, sequelize: Sequelize, read: ReadSide) {

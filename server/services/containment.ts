@@ -5,6 +5,7 @@ import { conflict, invalid, notFound } from '../errors.js';
 import { enqueueMail, quoted } from '../mail/messages.js';
 import { Containment, ContainmentItem, DefectCode, FieldAction, Item, Signature } from '../models/index.js';
 import { blastParts, scopeOf, whereNow } from './blast-radius.js';
+import { moveItem } from './item-moves.js';
 import { raiseNonconformance } from './ncrs/index.js';
 import { signWithPassword } from './signatures.js';
 
@@ -107,14 +108,9 @@ export async function contain(sequelize: Sequelize, ctx: Ctx, body: ContainBody)
       if (where !== 'shipped') {
         outcome = item.status === 'on_hold' ? 'already_held' : 'held';
         if (item.status !== 'on_hold') {
-          const before = { status: item.status };
-          await item.update({ status: 'on_hold' }, { transaction });
-          await recordAudit(ctx, transaction, {
-            action: 'item.held',
-            entity: 'item',
-            entityId: item.serial,
-            before,
-            after: { status: 'on_hold', byNcr: ncr.number, containment: number },
+          await moveItem(ctx, transaction, item, { status: 'on_hold' }, 'item.held', {
+            byNcr: ncr.number,
+            containment: number,
           });
         }
       }

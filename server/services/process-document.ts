@@ -65,6 +65,7 @@ export async function exportProcessDocument(): Promise<ProcessDocumentInput> {
       name: s.name,
       caution: s.hazard,
       hazardous: s.hazardous,
+      runTest: s.runTest,
       description: s.description,
     })),
     // derived characteristics are computed by the product's own formulas: they travel with the code

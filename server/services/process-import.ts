@@ -18,6 +18,7 @@ import {
   ProcessImport,
   Route,
   RouteStage,
+  Signature,
   Stage,
   User,
 } from '../models/index.js';
@@ -39,11 +40,9 @@ const sameSteps = (a: Step[], b: Step[]) =>
 
 /** The routes in force now, per `FAMILY part_kind`, as steps of stage codes. */
 async function routesInForce(transaction: Transaction) {
-  const [routes, stages, families] = await Promise.all([
-    Route.findAll({ where: { active: true }, transaction }),
-    Stage.findAll({ attributes: ['id', 'code'], transaction }),
-    EngineFamily.findAll({ attributes: ['id', 'code'], transaction }),
-  ]);
+  const routes = await Route.findAll({ where: { active: true }, transaction });
+  const stages = await Stage.findAll({ attributes: ['id', 'code'], transaction });
+  const families = await EngineFamily.findAll({ attributes: ['id', 'code'], transaction });
   const steps = await RouteStage.findAll({
     where: { routeId: routes.map((r) => r.id) },
     order: [['position', 'ASC']],
@@ -70,15 +69,14 @@ async function planFor(
   doc: ProcessDocument,
   transaction: Transaction,
 ): Promise<{ problems: DocumentProblem[]; plan: ImportPlan }> {
-  const [kinds, families, stages, characteristics, castings, defects, inForce] = await Promise.all([
-    PartKindRow.findAll({ transaction }),
-    EngineFamily.findAll({ transaction }),
-    Stage.findAll({ transaction }),
-    Characteristic.findAll({ attributes: ['stageId', 'code'], transaction }),
-    FamilyCastingNumber.findAll({ transaction }),
-    DefectCode.findAll({ where: { active: true }, attributes: ['code'], transaction }),
-    routesInForce(transaction),
-  ]);
+  // one after another: a transaction is one connection, which runs one query at a time
+  const kinds = await PartKindRow.findAll({ transaction });
+  const families = await EngineFamily.findAll({ transaction });
+  const stages = await Stage.findAll({ transaction });
+  const characteristics = await Characteristic.findAll({ attributes: ['stageId', 'code'], transaction });
+  const castings = await FamilyCastingNumber.findAll({ transaction });
+  const defects = await DefectCode.findAll({ where: { active: true }, attributes: ['code'], transaction });
+  const inForce = await routesInForce(transaction);
   const live = <T extends { retiredAt?: Date | null }>(rows: T[]) => rows.filter((r) => !r.retiredAt);
   const problems = crossCheck(doc, {
     partKinds: live(kinds).map((k) => k.code),
@@ -251,6 +249,7 @@ export async function applyDocument(
         partKind: s.partKind as Stage['partKind'],
         hazard: s.caution,
         hazardous: s.hazardous,
+        runTest: s.runTest,
         description: s.description,
       },
       { transaction },
@@ -440,4 +439,77 @@ export async function approveImport(sequelize: Sequelize, ctx: Ctx, id: number, 
     }
     return present(imp, transaction);
   });
+}
+
+/**
+ * A document imported and approved at once, in the caller's transaction: the demo seed's way in,
+ * through the same check, plan and apply as an approved import. The approval is signed by `approver`
+ * at `now` without a password (nobody is at the keyboard when the demo is seeded); the signature's
+ * meaning says it came with the seed.
+ */
+export async function importApprovedBySeed(
+  ctx: Ctx,
+  transaction: Transaction,
+  doc: ProcessDocument,
+  by: { author: User; approver: User; reason: string; now: Date },
+) {
+  const { problems, plan } = await planFor(doc, transaction);
+  if (problems.length) {
+    throw new Error(`the seed's process document: ${problems.map((p) => `${p.path}: ${p.message}`).join('; ')}`);
+  }
+  const imp = await ProcessImport.create(
+    { document: doc, plan, note: by.reason, createdById: by.author.id },
+    { transaction },
+  );
+  const meaning = `Approved process import ${imp.id} (demo seed)`;
+  await Signature.create(
+    {
+      userId: by.approver.id,
+      printedName: by.approver.name,
+      meaning,
+      reason: by.reason,
+      entity: 'process_import',
+      entityId: String(imp.id),
+      signedAt: by.now,
+    },
+    { transaction },
+  );
+  const applied = await applyDocument(transaction, doc, plan, {
+    authorId: by.author.id,
+    approverId: by.approver.id,
+    reason: by.reason,
+    effective: by.now,
+    now: by.now,
+  });
+  await imp.update(
+    {
+      status: 'approved',
+      approvedById: by.approver.id,
+      approvedAt: by.now,
+      approvalReason: by.reason,
+      effectiveFrom: by.now,
+    },
+    { transaction },
+  );
+  await recordAudit(ctx, transaction, {
+    action: 'process_import.approved',
+    entity: 'process_import',
+    entityId: imp.id,
+    after: {
+      status: 'approved',
+      plan,
+      routes: applied.routes,
+      effectiveFrom: by.now.toISOString(),
+      signature: { printedName: by.approver.name, meaning, reason: by.reason, signedAt: by.now.toISOString() },
+    },
+  });
+  for (const r of applied.routes) {
+    await recordAudit(ctx, transaction, {
+      action: 'route.approved',
+      entity: 'route',
+      entityId: r.id,
+      after: { ...r, byImport: imp.id, effectiveFrom: by.now.toISOString() },
+    });
+  }
+  return { importId: imp.id, plan, routes: applied.routes };
 }

@@ -1,4 +1,5 @@
 import { Op, QueryTypes, UniqueConstraintError, type Sequelize, type Transaction } from 'sequelize';
+import { RUN_TEST_ON_UNIT } from '../../shared/schemas/process.js';
 import type {
   CastingNumberBody,
   CastingNumberJson,
@@ -109,6 +110,7 @@ export function presentProcessStage(s: Stage, stations: Station[]): ProcessStage
     partKind: s.partKind,
     caution: s.hazard,
     hazardous: s.hazardous,
+    runTest: s.runTest,
     description: s.description,
     retired: !!s.retiredAt,
     stations: stations.filter((st) => st.stageId === s.id).map((st) => st.code),
@@ -133,6 +135,7 @@ export async function createStage(sequelize: Sequelize, ctx: Ctx, body: StageBod
         partKind: body.partKind as Stage['partKind'],
         hazard: body.caution,
         hazardous: body.hazardous,
+        runTest: body.runTest,
         description: body.description,
       },
       { transaction },
@@ -156,6 +159,9 @@ export async function updateStage(sequelize: Sequelize, ctx: Ctx, id: number, bo
         caution: 'Write the caution.',
       });
     }
+    if (body.runTest && stage.partKind !== 'long_block') {
+      throw invalid(RUN_TEST_ON_UNIT.message, { runTest: RUN_TEST_ON_UNIT.message });
+    }
     if (body.retired && !stage.retiredAt) {
       const serving = stations.filter((s) => s.active);
       if (serving.length) {
@@ -178,6 +184,7 @@ export async function updateStage(sequelize: Sequelize, ctx: Ctx, id: number, bo
         ...(body.description !== undefined ? { description: body.description } : {}),
         hazard: cautionText,
         hazardous,
+        ...(body.runTest === undefined ? {} : { runTest: body.runTest }),
         ...(body.retired === undefined ? {} : { retiredAt: body.retired ? (stage.retiredAt ?? new Date()) : null }),
       },
       { transaction },

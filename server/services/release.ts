@@ -14,6 +14,7 @@ import { AppError, invalid } from '../errors.js';
 import { appLink } from '../mail/links.js';
 import { enqueueMail } from '../mail/messages.js';
 import { Customer, EngineFamily, Item, Shipment, User } from '../models/index.js';
+import { moveItemQuietly } from './item-moves.js';
 import { findBySerial } from './items.js';
 import { plantSettings } from './plant.js';
 import { signWithPassword } from './signatures.js';
@@ -79,10 +80,11 @@ export async function releaseCheck(
     item_id: number;
     stage_code: string;
     stage_name: string;
+    run_test: boolean;
     verdict: string | null;
     accepted: boolean;
   }>(
-    `SELECT i.id AS item_id, s.code AS stage_code, s.name AS stage_name, cur.verdict,
+    `SELECT i.id AS item_id, s.code AS stage_code, s.name AS stage_name, s.run_test, cur.verdict,
             EXISTS (SELECT 1 FROM nonconformances n WHERE n.stage_result_id = cur.id AND n.state = 'closed'
                      AND n.disposition = 'use_as_is') AS accepted
        FROM items i
@@ -105,7 +107,7 @@ export async function releaseCheck(
     if (g.verdict === 'fail' && g.accepted) continue;
     const serial = serialOf.get(g.item_id)!;
     reasons.push({
-      code: g.stage_code === 'run-test' ? 'run_test' : g.verdict ? 'stage_failed' : 'stage_missing',
+      code: g.run_test ? 'run_test' : g.verdict ? 'stage_failed' : 'stage_missing',
       message:
         g.verdict === 'fail'
           ? `${serial}: ${g.stage_name} failed and has not passed since.`
@@ -178,9 +180,23 @@ export async function releaseCheck(
   }
   checks.push({ label: 'Every lot in the unit is usable', ok: !lots.length, link: null });
 
-  const runTestOk = !gaps.some(
-    (g) => g.item_id === unit.id && g.stage_code === 'run-test' && !(g.verdict === 'fail' && g.accepted),
+  // a plant names its own stages: the run test is the required stage its route marks as one, and a
+  // route without one cannot release (a unit is not shipped untested because a route forgot it)
+  const [marked] = await sequelize.query<{ any: boolean }>(
+    `SELECT EXISTS (SELECT 1 FROM route_stages rs JOIN stages s ON s.id = rs.stage_id
+                     WHERE rs.route_id = :route AND rs.required AND s.run_test) AS any`,
+    { type: QueryTypes.SELECT, replacements: { route: unit.routeId ?? 0 }, transaction },
   );
+  if (!marked?.any) {
+    reasons.push({
+      code: 'run_test',
+      message: `${unit.serial}: its route has no required stage marked as the unit's run test; quality marks one on the Process page before it can ship.`,
+      serial: unit.serial,
+      link: itemLink(unit.serial),
+    });
+  }
+  const runTestOk =
+    !!marked?.any && !gaps.some((g) => g.item_id === unit.id && g.run_test && !(g.verdict === 'fail' && g.accepted));
   checks.push({ label: 'The run test passed', ok: runTestOk, link: itemLink(unit.serial) });
 
   const live = await Shipment.findOne({ where: { unitItemId: unit.id, returnedAt: null }, transaction });
@@ -302,7 +318,8 @@ export async function releaseUnit(sequelize: Sequelize, ctx: Ctx, serial: string
       { transaction },
     );
     const before = { status: unit.status };
-    await unit.update({ status: 'shipped', currentStageId: null }, { transaction });
+    // the release's own event below carries the move, with the checks and the signature
+    await moveItemQuietly(transaction, unit, { status: 'shipped', currentStageId: null });
     await recordAudit(ctx, transaction, {
       action: 'unit.released',
       entity: 'item',

@@ -50,6 +50,8 @@ const stageFields = {
   name: name('a name'),
   caution: caution.nullable().default(null),
   hazardous: z.boolean().default(false),
+  /** The unit's run test, which the release gate requires passed. */
+  runTest: z.boolean().default(false),
   description: text().trim().max(500, 'At most 500 characters.').default(''),
 };
 const needsCaution = (s: { hazardous?: boolean; caution?: string | null }) => !s.hazardous || !!s.caution;
@@ -58,9 +60,13 @@ const CAUTION_NEEDED = {
   path: ['caution'],
 };
 
+/** A run test is of a built unit: the release gate reads it on the long block. */
+export const RUN_TEST_ON_UNIT = { message: 'Only a long block’s stage can be its run test.', path: ['runTest'] };
+
 export const stageBody = z
   .strictObject({ code: processCode, partKind: partKindCode, ...stageFields })
-  .refine(needsCaution, CAUTION_NEEDED);
+  .refine(needsCaution, CAUTION_NEEDED)
+  .refine((s) => !s.runTest || s.partKind === 'long_block', RUN_TEST_ON_UNIT);
 export type StageBody = z.output<typeof stageBody>;
 
 export const updateStageBody = z
@@ -68,6 +74,7 @@ export const updateStageBody = z
     name: stageFields.name.optional(),
     caution: caution.nullable().optional(),
     hazardous: z.boolean().optional(),
+    runTest: z.boolean().optional(),
     description: stageFields.description.optional(),
     retired: z.boolean().optional(),
   })
@@ -210,6 +217,7 @@ export type ProcessStageJson = {
   partKind: string;
   caution: string | null;
   hazardous: boolean;
+  runTest: boolean;
   description: string;
   retired: boolean;
   stations: string[];

@@ -12,6 +12,7 @@ import {
   Signature,
   Stage,
 } from '../../server/models/index.js';
+import { demoProcessDocument } from '../../db/seeders/process-document.js';
 import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, unique, type TestApp } from '../support/app.js';
 
 let t: TestApp;
@@ -209,5 +210,38 @@ describe('importing a process document', () => {
     expect(again.body.plan).toMatchObject({ partKinds: [], families: [], stages: [], routes: [], kept: 7 });
     const discarded = await request(t.app).post(`/api/process/imports/${again.body.id}/discard`).set('Cookie', author);
     expect(discarded.body.status).toBe('discarded');
+  });
+});
+
+describe('the demo plant', () => {
+  it('came in through one approved import of its process document, signed by a second quality engineer, and the plant exports that process back', async () => {
+    const doc = demoProcessDocument();
+    const first = (await ProcessImport.findOne({ order: [['id', 'ASC']] }))!;
+    expect(first.status).toBe('approved');
+    expect(first.document).toEqual(JSON.parse(JSON.stringify(doc)));
+    expect(first.approvedById).not.toBe(first.createdById);
+    const signature = (await Signature.findOne({ where: { entity: 'process_import', entityId: String(first.id) } }))!;
+    expect(signature.meaning).toMatch(/^Approved process import \d+ \(demo seed\)$/);
+    expect(signature.userId).toBe(first.approvedById);
+
+    const exported = await request(t.app).get('/api/process/document').set('Cookie', admin);
+    expect(exported.status).toBe(200);
+    const out = exported.body as typeof doc;
+    // other tests add their own things to the shared database: the demo's part of it is compared
+    for (const s of doc.stages) expect(out.stages.find((x) => x.code === s.code)).toEqual(s);
+    for (const c of doc.characteristics) {
+      expect(out.characteristics.find((x) => x.stage === c.stage && x.code === c.code)).toMatchObject({
+        kind: c.kind,
+        unit: c.unit,
+        positions: c.positions,
+        defectCode: c.defectCode,
+        matesWith: c.matesWith,
+      });
+    }
+    for (const r of doc.routes) {
+      const now = out.routes.find((x) => x.family === r.family && x.partKind === r.partKind);
+      expect(now?.steps.map((s) => s.stage)).toEqual(r.steps.map((s) => s.stage));
+    }
+    expect(doc.stages.filter((s) => s.runTest).map((s) => s.code)).toEqual(['run-test']);
   });
 });

@@ -43,10 +43,10 @@ import { emptyDatabase } from '../support/own-database.js';
  * 10. the operator builds the long block, records assembly, run test and final inspection;
  *     shipping releases it with a signature.
  *
- * Two codes are the product's own words rather than the test's, because the server recognises
- * them by code today: the run-test stage is `run-test` (the release gate's run-test check), and
- * the block's finishing stage and its bore are `bore-hone` and `bore`, in inches (the build's
- * piston-to-bore match). Their names are the test's own.
+ * The run test is the test's own stage, marked as the unit's run test when it is added (the release
+ * gate reads the mark). One pair of codes is still the product's own words rather than the test's,
+ * because the server recognises them by code today: the block's finishing stage and its bore are
+ * `bore-hone` and `bore`, in inches (the build's piston-to-bore match). Their names are the test's own.
  */
 let served: Served;
 let browser: Browser;
@@ -178,7 +178,7 @@ describe('a plant set up from an empty database, through the screens', () => {
     ['wren-crank-check', 'Crank crack and journal check', 'crankshaft'],
     ['wren-head-check', 'Head pressure check', 'cylinder_head'],
     ['wren-assembly', 'Wren long-block assembly', 'long_block'],
-    ['run-test', 'Wren stand run', 'long_block'],
+    ['wren-stand-run', 'Wren stand run', 'long_block'],
     ['wren-final', 'Wren final look-over', 'long_block'],
   ] as const;
   const CHARACTERISTICS = [
@@ -186,14 +186,14 @@ describe('a plant set up from an empty database, through the screens', () => {
     ['wren-crank-check', 'wren-crank-crack', 'Crankshaft free of cracks', 'attribute', 'part'],
     ['wren-head-check', 'wren-head-leak', 'Head holds air pressure', 'attribute', 'part'],
     ['wren-assembly', 'wren-turns-free', 'Crank turns by hand', 'attribute', 'part'],
-    ['run-test', 'wren-stand-leaks', 'No leaks on the stand', 'attribute', 'part'],
+    ['wren-stand-run', 'wren-stand-leaks', 'No leaks on the stand', 'attribute', 'part'],
     ['wren-final', 'wren-final-look', 'Paint, plugs and tags in order', 'attribute', 'part'],
   ] as const;
   const ROUTES = [
     ['block', 'Block', ['wren-block-wash', 'bore-hone']],
     ['crankshaft', 'Crankshaft', ['wren-crank-check']],
     ['cylinder_head', 'Cylinder head', ['wren-head-check']],
-    ['long_block', 'Long block', ['wren-assembly', 'run-test', 'wren-final']],
+    ['long_block', 'Long block', ['wren-assembly', 'wren-stand-run', 'wren-final']],
   ] as const;
   const STATIONS = [
     ['WW-1', 'Wren wash tank', 'wren-block-wash'],
@@ -201,7 +201,7 @@ describe('a plant set up from an empty database, through the screens', () => {
     ['WC-1', 'Crank inspection bench', 'wren-crank-check'],
     ['WH-1', 'Head test rig', 'wren-head-check'],
     ['WA-1', 'Wren assembly stand', 'wren-assembly'],
-    ['WR-1', 'Wren run stand', 'run-test'],
+    ['WR-1', 'Wren run stand', 'wren-stand-run'],
     ['WF-1', 'Wren final bench', 'wren-final'],
   ] as const;
   const GAUGE = 'WG-101';
@@ -236,6 +236,7 @@ describe('a plant set up from an empty database, through the screens', () => {
       await d.getByRole('textbox', { name: 'Code', exact: true }).fill(code);
       await d.getByRole('textbox', { name: 'Name', exact: true }).fill(name);
       await d.getByLabel('Part it works on').selectOption(part);
+      if (code === 'wren-stand-run') await d.getByLabel(/This is the unit's run test/).check();
       await d.getByRole('button', { name: 'Add stage' }).click();
       await d.waitFor({ state: 'hidden' });
     }
@@ -260,6 +261,7 @@ describe('a plant set up from an empty database, through the screens', () => {
       ['wren-block-wash', 'block'],
       ...STAGES.map(([code, , part]) => [code, part]),
     ]);
+    expect((await Stage.findAll({ where: { runTest: true } })).map((s) => s.code)).toEqual(['wren-stand-run']);
     expect(await Characteristic.count()).toBe(1 + CHARACTERISTICS.length);
   }, 120_000);
 

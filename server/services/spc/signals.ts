@@ -1,7 +1,9 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { RUN_RULE_TEXT, type RunRule } from '../../../shared/domain/spc/index.js';
 import { CHART_KIND_LABELS, periodBounds, type StoredSignalJson } from '../../../shared/schemas/spc.js';
+import { mayMove } from '../../../shared/domain/item-lifecycle.js';
 import { recordAudit, type Ctx } from '../../audit.js';
+import { moveItem } from '../item-moves.js';
 import { conflict, notFound } from '../../errors.js';
 import { appLink } from '../../mail/links.js';
 import { enqueueMail } from '../../mail/messages.js';
@@ -154,16 +156,9 @@ async function holdForSignal(
     failing: [],
     origin,
   });
-  if (item.status !== 'on_hold') {
-    const before = { status: item.status };
-    await item.update({ status: 'on_hold' }, { transaction });
-    await recordAudit(ctx, transaction, {
-      action: 'item.held',
-      entity: 'item',
-      entityId: item.serial,
-      before,
-      after: { status: 'on_hold', byNcr: ncr.number },
-    });
+  // a shipped unit is not held in the plant (as for a concern): the NCR stands, containment is in the field
+  if (item.status !== 'on_hold' && mayMove(item.status, 'on_hold')) {
+    await moveItem(ctx, transaction, item, { status: 'on_hold' }, 'item.held', { byNcr: ncr.number });
   }
   return ncr;
 }

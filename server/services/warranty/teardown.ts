@@ -7,6 +7,7 @@ import { enqueueMail, quoted } from '../../mail/messages.js';
 import { CauseCode, Item, ItemLink, WarrantyFinding } from '../../models/index.js';
 import type { TeardownMeasurement } from '../../models/warranty.js';
 import { claimUploads } from '../attachments.js';
+import { moveItem, moveItemQuietly } from '../item-moves.js';
 import { checkedSerial } from '../items.js';
 import { signWithPassword } from '../signatures.js';
 import { builtRecords, lotsOfUnit, partsAtShipment } from './claim-detail.js';
@@ -140,7 +141,7 @@ export async function tearDownReturnedUnit(sequelize: Sequelize, ctx: Ctx, numbe
     for (const part of parts) {
       const before = { status: part.status, installedIn: unit.serial };
       // a part held by an open NCR keeps its hold; the others wait as returned parts
-      if (part.status === 'installed') await part.update({ status: 'returned' }, { transaction });
+      if (part.status === 'installed') await moveItemQuietly(transaction, part, { status: 'returned' });
       await recordAudit(ctx, transaction, {
         action: 'item.taken_out',
         entity: 'item',
@@ -149,14 +150,9 @@ export async function tearDownReturnedUnit(sequelize: Sequelize, ctx: Ctx, numbe
         after: { status: part.status, installedIn: null, reason },
       });
     }
-    const unitBefore = { status: unit.status };
-    await unit.update({ status: 'torn_down' }, { transaction });
-    await recordAudit(ctx, transaction, {
-      action: 'item.torn_down',
-      entity: 'item',
-      entityId: unit.serial,
-      before: unitBefore,
-      after: { status: 'torn_down', claim: number, parts: parts.map((p) => p.serial) },
+    await moveItem(ctx, transaction, unit, { status: 'torn_down' }, 'item.torn_down', {
+      claim: number,
+      parts: parts.map((p) => p.serial),
     });
     await claim.update(
       { state: 'torn_down', tornDownAt: now, tornDownById: user.id, teardownNotes: body.notes },

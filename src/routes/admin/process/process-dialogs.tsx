@@ -62,7 +62,7 @@ export function AddStageDialog({ kinds, onClose }: { kinds: PartKindJson[]; onCl
     <Dialog open onClose={onClose} title="Add a stage">
       <Form
         schema={stageBody}
-        defaultValues={{ code: '', name: '', caution: null, hazardous: false, description: '' }}
+        defaultValues={{ code: '', name: '', caution: null, hazardous: false, runTest: false, description: '' }}
         onSubmit={async (v) => {
           await create.mutateAsync(v);
           onClose();
@@ -77,6 +77,10 @@ export function AddStageDialog({ kinds, onClose }: { kinds: PartKindJson[]; onCl
           options={kindOptions(kinds)}
         />
         <CheckboxField name="hazardous" label="This work can hurt someone" />
+        <CheckboxField
+          name="runTest"
+          label="This is the unit's run test (long block only): release requires it passed"
+        />
         <TextAreaField
           name="caution"
           label="Caution shown at the station"

@@ -100,6 +100,11 @@ export function ProcessPage() {
             <span className="flex flex-col leading-snug">
               <span>{c.getValue()}</span>
               <span className="font-mono text-sm text-ink-faint">{c.row.original.code}</span>
+              {c.row.original.runTest && (
+                <span className="mt-1">
+                  <Badge tone="neutral">Run test: release requires it passed</Badge>
+                </span>
+              )}
             </span>
           ),
         }),
@@ -128,13 +133,24 @@ export function ProcessPage() {
             c.row.original.retired ? (
               <Badge tone="off">Retired</Badge>
             ) : (
-              <Button
-                size="sm"
-                aria-label={`Retire stage ${c.row.original.code}`}
-                onClick={() => updateStage.mutate({ id: c.row.original.id, retired: true })}
-              >
-                Retire
-              </Button>
+              <span className="flex flex-wrap gap-2">
+                {c.row.original.partKind === 'long_block' && (
+                  <Button
+                    size="sm"
+                    aria-label={`${c.row.original.runTest ? 'Unmark' : 'Mark'} stage ${c.row.original.code} as the run test`}
+                    onClick={() => updateStage.mutate({ id: c.row.original.id, runTest: !c.row.original.runTest })}
+                  >
+                    {c.row.original.runTest ? 'Not the run test' : 'Mark as run test'}
+                  </Button>
+                )}
+                <Button
+                  size="sm"
+                  aria-label={`Retire stage ${c.row.original.code}`}
+                  onClick={() => updateStage.mutate({ id: c.row.original.id, retired: true })}
+                >
+                  Retire
+                </Button>
+              </span>
             ),
         }),
       ] as ColumnDef<ProcessStageJson, never>[],
