@@ -10,27 +10,12 @@ export class AppError extends Error {
   readonly fields?: Record<string, string>;
   readonly extra?: Record<string, unknown>;
 
-  constructor(code: ErrorCode, message: string, fields?: Record<string, string>, extra?: Record<string, unknown>);
-  /** @deprecated the status comes from the code: `new AppError(code, message, …)`. */
-  constructor(
-    status: number,
-    code: ErrorCode,
-    message: string,
-    fields?: Record<string, string>,
-    extra?: Record<string, unknown>,
-  );
-  constructor(...args: unknown[]) {
-    const parts = (typeof args[0] === 'number' ? args.slice(1) : args) as [
-      ErrorCode,
-      string,
-      Record<string, string>?,
-      Record<string, unknown>?,
-    ];
-    super(parts[1]);
-    this.code = parts[0];
-    this.status = statusOf(parts[0]);
-    this.fields = parts[2];
-    this.extra = parts[3];
+  constructor(code: ErrorCode, message: string, fields?: Record<string, string>, extra?: Record<string, unknown>) {
+    super(message);
+    this.code = code;
+    this.status = statusOf(code);
+    this.fields = fields;
+    this.extra = extra;
   }
 }
 

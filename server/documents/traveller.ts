@@ -1,7 +1,7 @@
 import { localTime } from './content.js';
 import { plantSettings } from '../services/plant.js';
 import { findBySerial, presentItem } from '../services/items.js';
-import { resultsOf } from '../services/station.js';
+import { resultsOf } from '../services/results/index.js';
 import { ACCENT, BAD, SOFT, newSheet, type PaperSize } from './pdf/kit.js';
 
 // the words the screens use for an item's state (src/lib/item-status.ts)

@@ -2,7 +2,7 @@ import type { Sequelize } from 'sequelize';
 import { buildBody, replacePartBody } from '../../shared/schemas/build.js';
 import { serialParam } from '../../shared/schemas/intake.js';
 import type { Api } from '../http/api.js';
-import { buildUnit, replacePart } from '../services/build.js';
+import { buildUnit, replacePart } from '../services/build/index.js';
 
 /** Building long blocks from finished parts and purchased lots, and replacing a part in one. */
 export function buildRoutes(api: Api, sequelize: Sequelize) {

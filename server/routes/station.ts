@@ -9,7 +9,7 @@ import {
   submitResultBody,
 } from '../../shared/schemas/results.js';
 import type { Api } from '../http/api.js';
-import { allowReentry, resultsOf, stationForm, stationQueues, submitResult } from '../services/station.js';
+import { allowReentry, resultsOf, stationForm, stationQueues, submitResult } from '../services/results/index.js';
 
 export function stationRoutes(api: Api, sequelize: Sequelize) {
   api.define({

@@ -5,7 +5,7 @@ import { enrolTabletBody, setBadgeBody, setPinBody, tabletResultBody } from '../
 import type { Config } from '../config.js';
 import type { Api } from '../http/api.js';
 import { TABLET_COOKIE, TABLET_DAYS, signTabletToken } from '../middleware/tablet.js';
-import { stationForm } from '../services/station.js';
+import { stationForm } from '../services/results/index.js';
 import {
   enrolTablet,
   listTablets,

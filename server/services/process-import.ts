@@ -139,10 +139,9 @@ async function planFor(
   return { problems, plan };
 }
 
-const refuse = (problems: DocumentProblem[], status = 400) =>
+const refuse = (problems: DocumentProblem[], code: 'invalid' | 'conflict' = 'invalid') =>
   new AppError(
-    status,
-    status === 400 ? 'invalid' : 'conflict',
+    code,
     `The document has ${problems.length} problem${problems.length > 1 ? 's' : ''}; nothing was changed.`,
     Object.fromEntries(problems.map((p) => [p.path, p.message])),
   );
@@ -390,7 +389,7 @@ export async function approveImport(sequelize: Sequelize, ctx: Ctx, id: number, 
     const effective = requested < now ? now : requested;
     // the plant may have changed since the draft: checked again, and refused whole if it no longer fits
     const { problems, plan } = await planFor(imp.document, transaction);
-    if (problems.length) throw refuse(problems, 409);
+    if (problems.length) throw refuse(problems, 'conflict');
     const meaning = `Approved process import ${imp.id}`;
     const { user } = await signWithPassword(ctx, transaction, {
       entity: 'process_import',

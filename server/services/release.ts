@@ -18,6 +18,7 @@ import { moveItemQuietly } from './item-moves.js';
 import { findBySerial } from './items.js';
 import { plantSettings } from './plant.js';
 import { signWithPassword } from './signatures.js';
+import { currentResultSql } from './results/current.js';
 
 /**
  * The release gate. A long block may ship only when it and every part in its genealogy has a
@@ -90,14 +91,14 @@ export async function releaseCheck(
        JOIN routes ro ON ro.id = i.route_id
        JOIN route_stages rs ON rs.route_id = ro.id AND rs.required
        JOIN stages s ON s.id = rs.stage_id
-       LEFT JOIN LATERAL (
-         SELECT r.id, r.verdict FROM stage_results r
-          WHERE r.item_id = i.id AND r.stage_id = s.id
-            AND NOT EXISTS (SELECT 1 FROM stage_results x WHERE x.supersedes_id = r.id)
-            -- the unit's own stages count only when recorded after its last part went in
-            AND (i.id <> :unit OR r.finished_at >= (SELECT max(l.created_at) FROM item_links l
-                   WHERE l.parent_item_id = :unit AND l.link_type = 'installed_in' AND l.removed_at IS NULL))
-          ORDER BY r.finished_at DESC, r.id DESC LIMIT 1) cur ON true
+       LEFT JOIN LATERAL (${currentResultSql({
+         columns: 'r.id, r.verdict',
+         itemId: 'i.id',
+         stageId: 's.id',
+         // the unit's own stages count only when recorded after its last part went in
+         also: `(i.id <> :unit OR r.finished_at >= (SELECT max(l.created_at) FROM item_links l
+                   WHERE l.parent_item_id = :unit AND l.link_type = 'installed_in' AND l.removed_at IS NULL))`,
+       })}) cur ON true
       WHERE i.id IN (:ids) AND (cur.verdict IS DISTINCT FROM 'pass')
       ORDER BY i.id, rs.position`,
     { type: QueryTypes.SELECT, replacements: { ids: manufactured.map((i) => i.id), unit: unit.id }, transaction },
@@ -262,7 +263,6 @@ export async function releaseUnit(sequelize: Sequelize, ctx: Ctx, serial: string
     const check = await releaseCheck(sequelize, unit, transaction);
     if (!check.releasable) {
       throw new AppError(
-        409,
         'not_releasable',
         `${unit.serial} cannot ship yet: ${check.reasons.map((r) => r.message).join(' ')}`,
         undefined,

@@ -5,6 +5,7 @@ import { invalid } from '../errors.js';
 import { Characteristic, Stage, StageResult, type Item } from '../models/index.js';
 import type { Reference } from './reference-cache.js';
 import { formCharacteristics, ruleForClass } from './spec.js';
+import { currentResultSql } from './results/current.js';
 
 type FormChar = ReturnType<typeof formCharacteristics>[number];
 
@@ -53,10 +54,7 @@ export function chooseSizeClasses(
 /** The size classes recorded by a part's current result at a stage. */
 async function classesAt(itemId: number, stageId: number, transaction: Transaction) {
   const [row] = await StageResult.sequelize!.query<{ size_classes: Record<string, ChosenSizeClass> }>(
-    `SELECT r.size_classes FROM stage_results r
-      WHERE r.item_id = :itemId AND r.stage_id = :stageId
-        AND NOT EXISTS (SELECT 1 FROM stage_results x WHERE x.supersedes_id = r.id)
-      ORDER BY r.id DESC LIMIT 1`,
+    currentResultSql({ columns: 'r.size_classes', itemId: ':itemId', stageId: ':stageId' }),
     { type: QueryTypes.SELECT, replacements: { itemId, stageId }, transaction },
   );
   return row?.size_classes ?? {};

@@ -7,7 +7,7 @@ import { FailureLimiter } from '../http/limits.js';
 import type { AuthedTablet } from '../middleware/tablet.js';
 import { Stage, Station, StationTablet, User } from '../models/index.js';
 import { burnTime, checkPassword, hashPassword } from './passwords.js';
-import { submitResult } from './station.js';
+import { submitResult } from './results/index.js';
 
 async function present(t: StationTablet): Promise<TabletJson> {
   const station = (await Station.findByPk(t.stationId))!;

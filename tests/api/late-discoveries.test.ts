@@ -2,9 +2,10 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { Op } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { Customer, FieldAction, MailOutbox, Shipment, Signature } from '../../server/models/index.js';
+import { AuditEvent, Customer, FieldAction, MailOutbox, Shipment, Signature } from '../../server/models/index.js';
 import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
 import { finishedParts, passThrough, plantToday, releasableUnit } from '../support/parts.js';
+import { claimPeople, returnedClaim } from '../support/warranty.js';
 
 /** What happens when a problem is found after assembly, or after shipping; and the release's signature. */
 
@@ -129,6 +130,31 @@ describe('a part scrapped after assembly', () => {
       expect.objectContaining({ serial: spare.heads[0], status: 'installed', removedAt: null }),
     ]);
     expect(Date.parse(heads[1].fittedAt)).toBeGreaterThanOrEqual(Date.parse(heads[0].removedAt));
+  });
+});
+
+describe('a part replaced in a unit back under a claim', () => {
+  it('when a head is replaced in a returned unit, then the unit goes back to its first stage and the head taken out is a finished part again', async () => {
+    const { unit, parts } = await releasableUnit(t, cookies, 'TARN-6', tag());
+    expect((await release(unit)).status).toBe(201);
+    await returnedClaim(t, await claimPeople(t), unit);
+    expect((await get(cookies.operator, `/api/items/${unit}`)).body.status).toBe('returned');
+
+    const spare = await finishedParts(t, cookies, 'TARN-6');
+    const replaced = await post(cookies.operator, `/api/units/${unit}/replace`, {
+      remove: parts.heads[0],
+      fit: spare.heads[0],
+      reason: 'Head replaced under the claim',
+    });
+    expect(replaced.status, JSON.stringify(replaced.body)).toBe(200);
+    expect(replaced.body).toMatchObject({ status: 'in_process', currentStage: { code: 'long-block-assembly' } });
+    expect((await get(cookies.operator, `/api/items/${parts.heads[0]}`)).body.status).toBe('finished');
+    expect((await get(cookies.operator, `/api/items/${spare.heads[0]}`)).body.status).toBe('installed');
+    const event = await AuditEvent.findOne({ where: { action: 'unit.part_replaced', entityId: unit } });
+    expect(event).toMatchObject({
+      before: { status: 'returned', currentStage: null },
+      after: { status: 'in_process', removed: parts.heads[0], fitted: spare.heads[0] },
+    });
   });
 });
 
