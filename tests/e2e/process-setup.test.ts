@@ -43,10 +43,9 @@ import { emptyDatabase } from '../support/own-database.js';
  * 10. the operator builds the long block, records assembly, run test and final inspection;
  *     shipping releases it with a signature.
  *
- * The run test is the test's own stage, marked as the unit's run test when it is added (the release
- * gate reads the mark). One pair of codes is still the product's own words rather than the test's,
- * because the server recognises them by code today: the block's finishing stage and its bore are
- * `bore-hone` and `bore`, in inches (the build's piston-to-bore match). Their names are the test's own.
+ * Every code is the test's own: the run test is the stage marked as the unit's run test when it is
+ * added (the release gate reads the mark), and the finished bore is the block's characteristic whose
+ * size class the pistons must match (the build's piston-to-bore check reads that mark).
  */
 let served: Served;
 let browser: Browser;
@@ -174,7 +173,7 @@ describe('a plant set up from an empty database, through the screens', () => {
   // the test's own process: stage code, name, part kind, and what is taken there
   // (characteristic code, name, kind, where, unit, resolution)
   const STAGES = [
-    ['bore-hone', 'Wren bore finish', 'block'],
+    ['wren-hone', 'Wren bore finish', 'block'],
     ['wren-crank-check', 'Crank crack and journal check', 'crankshaft'],
     ['wren-head-check', 'Head pressure check', 'cylinder_head'],
     ['wren-assembly', 'Wren long-block assembly', 'long_block'],
@@ -182,7 +181,7 @@ describe('a plant set up from an empty database, through the screens', () => {
     ['wren-final', 'Wren final look-over', 'long_block'],
   ] as const;
   const CHARACTERISTICS = [
-    ['bore-hone', 'bore', 'Bore after honing', 'variable', 'cylinder', 'in', '0.0001'],
+    ['wren-hone', 'wren-bore-fin', 'Bore after honing', 'variable', 'cylinder', 'in', '0.0001'],
     ['wren-crank-check', 'wren-crank-crack', 'Crankshaft free of cracks', 'attribute', 'part'],
     ['wren-head-check', 'wren-head-leak', 'Head holds air pressure', 'attribute', 'part'],
     ['wren-assembly', 'wren-turns-free', 'Crank turns by hand', 'attribute', 'part'],
@@ -190,14 +189,14 @@ describe('a plant set up from an empty database, through the screens', () => {
     ['wren-final', 'wren-final-look', 'Paint, plugs and tags in order', 'attribute', 'part'],
   ] as const;
   const ROUTES = [
-    ['block', 'Block', ['wren-block-wash', 'bore-hone']],
+    ['block', 'Block', ['wren-block-wash', 'wren-hone']],
     ['crankshaft', 'Crankshaft', ['wren-crank-check']],
     ['cylinder_head', 'Cylinder head', ['wren-head-check']],
     ['long_block', 'Long block', ['wren-assembly', 'wren-stand-run', 'wren-final']],
   ] as const;
   const STATIONS = [
     ['WW-1', 'Wren wash tank', 'wren-block-wash'],
-    ['WB-1', 'Wren hone bench', 'bore-hone'],
+    ['WB-1', 'Wren hone bench', 'wren-hone'],
     ['WC-1', 'Crank inspection bench', 'wren-crank-check'],
     ['WH-1', 'Head test rig', 'wren-head-check'],
     ['WA-1', 'Wren assembly stand', 'wren-assembly'],
@@ -252,6 +251,8 @@ describe('a plant set up from an empty database, through the screens', () => {
         await d.getByLabel('Unit (measured only)').selectOption(unit);
         await d.getByRole('textbox', { name: 'Resolution (measured only)' }).fill(resolution!);
       }
+      // the finished bore is what the build matches the pistons' oversize to
+      if (code === 'wren-bore-fin') await d.getByLabel('Size class matches (measured only)').selectOption('pistons');
       await d.getByRole('button', { name: 'Add characteristic' }).click();
       await d.waitFor({ state: 'hidden' });
       await page.getByText(name).first().waitFor();
@@ -338,7 +339,7 @@ describe('a plant set up from an empty database, through the screens', () => {
     const rules = [
       { code: 'wren-bore', nominal: '84', plus: '0.05', resolution: '0.001', classes: [] as string[][] },
       {
-        code: 'bore',
+        code: 'wren-bore-fin',
         nominal: '3.3071',
         plus: '0.001',
         resolution: '0.0001',
@@ -378,7 +379,7 @@ describe('a plant set up from an empty database, through the screens', () => {
       await approver.getByText('Version 1 in force').first().waitFor();
     }
     await approver.screenshot({ path: path.join(shots, 'setup-rule-size-classes-1440.png'), fullPage: true });
-    const bore = (await Characteristic.findOne({ where: { code: 'bore' } }))!;
+    const bore = (await Characteristic.findOne({ where: { code: 'wren-bore-fin' } }))!;
     const rule = (await ToleranceRule.findOne({ where: { characteristicId: bore.id, engineFamilyId: family.id } }))!;
     expect([rule.status, rule.sizeClasses.map((k: { code: string }) => k.code)]).toEqual(['approved', ['STD', 'OS20']]);
 
@@ -533,7 +534,7 @@ describe('a plant set up from an empty database, through the screens', () => {
     await record('WH-1', parts.head);
     const block = (await Item.findOne({ where: { serial: parts.block } }))!;
     const honed = (await StageResult.findOne({ where: { itemId: block.id }, order: [['id', 'DESC']] }))!;
-    expect(honed.sizeClasses.bore).toMatchObject({ code: 'OS20', name: '0.020 in over' });
+    expect(honed.sizeClasses['wren-bore-fin']).toMatchObject({ code: 'OS20', name: '0.020 in over' });
   }, 180_000);
 
   it('then the operator builds the long block, takes it through assembly, run test and final, and shipping releases it', async () => {
@@ -555,6 +556,8 @@ describe('a plant set up from an empty database, through the screens', () => {
       await op.getByLabel(`${label} lot code`).fill(`K26-${kind.toUpperCase().replace(/_/g, '')}`);
     }
     await op.getByLabel('Pistons oversize (in)').fill('0.020');
+    // the pistons' class as on their box: the build matches it to the class the block was finished to
+    await op.getByLabel('Pistons size class').fill('OS20');
     await op.getByRole('button', { name: 'Start long block' }).click();
     await expect.poll(async () => (await Item.findOne({ where: { kind: 'long_block' } }))?.serial ?? '').not.toBe('');
     parts.unit = (await Item.findOne({ where: { kind: 'long_block' } }))!.serial;

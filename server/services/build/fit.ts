@@ -1,7 +1,7 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { OVERSIZE_MATCH_IN } from '../../../shared/schemas/build.js';
 import { PART_KIND_LABELS, type PartKind } from '../../../shared/schemas/reference.js';
-import { mmToIn } from '../../../shared/domain/units.js';
+import { convert, mmToIn } from '../../../shared/domain/units.js';
 import { restOptional } from '../../../shared/domain/route.js';
 import { EngineFamily, Item, ItemLink, Stage } from '../../models/index.js';
 import { routeOfItem } from '../items.js';
@@ -59,18 +59,24 @@ async function finishedRoute(item: Item, transaction: Transaction) {
   return restOptional(steps, item.currentStageId);
 }
 
-/** The mean finished bore of a block, from its current bore-and-hone result. */
+/**
+ * The mean finished bore of a block in inches: the readings of the block's characteristic that
+ * pistons are matched to (`mates_with = 'pistons'`, whatever the plant calls it and its stage), in
+ * the current result at that stage, converted from the characteristic's unit.
+ */
 export async function finishedBore(sequelize: Sequelize, blockId: number, transaction?: Transaction) {
-  const [row] = await sequelize.query<{ mean: string | null; n: number }>(
-    `SELECT avg(rd.value)::text AS mean, count(*)::int AS n
-       FROM readings rd
-       JOIN characteristics c ON c.id = rd.characteristic_id AND c.code = 'bore'
-      WHERE rd.stage_result_id = (${currentResultSql({
-        columns: 'r.id',
-        itemId: ':blockId',
-        stageId: "(SELECT id FROM stages WHERE code = 'bore-hone')",
-      })})`,
+  const [row] = await sequelize.query<{ mean: string | null; unit: string | null }>(
+    `SELECT avg(rd.value)::text AS mean, c.unit
+       FROM characteristics c
+       JOIN stages s ON s.id = c.stage_id AND s.part_kind = 'block'
+       JOIN readings rd ON rd.characteristic_id = c.id
+        AND rd.stage_result_id = (${currentResultSql({ columns: 'r.id', itemId: ':blockId', stageId: 's.id' })})
+      WHERE c.mates_with = 'pistons'
+      GROUP BY c.id, c.unit
+      ORDER BY c.id
+      LIMIT 1`,
     { type: QueryTypes.SELECT, replacements: { blockId }, transaction },
   );
-  return row?.mean ? Number(row.mean) : null;
+  if (!row?.mean) return null;
+  return convert(Number(row.mean), row.unit, 'in');
 }

@@ -11,6 +11,7 @@ import {
   type ProcessStageJson,
 } from '../../../../shared/schemas/process';
 import { UNIT_SYMBOLS } from '../../../../shared/domain/units';
+import { LOT_KIND_LABELS, SIZED_LOT_KINDS, type LotKind } from '../../../../shared/schemas/build';
 import {
   useAddCastingNumber,
   useCreateCharacteristic,
@@ -109,6 +110,10 @@ const characteristicFormBase = z.object({
   critical: z.boolean().default(false),
   defectCode: z.string().optional(),
   gauges: z.string().optional(),
+  matesWith: z
+    .enum(SIZED_LOT_KINDS as [LotKind, ...LotKind[]])
+    .nullable()
+    .default(null),
 });
 // the server checks the whole body again (units, resolution, defect code) and its notes land on these fields
 const characteristicForm = characteristicFormBase.transform((v) => ({
@@ -125,6 +130,7 @@ const characteristicForm = characteristicFormBase.transform((v) => ({
     .split(',')
     .map((s) => s.trim())
     .filter(Boolean),
+  matesWith: v.kind === 'variable' ? v.matesWith : null,
 })) as unknown as z.ZodType<CharacteristicBody, z.input<typeof characteristicFormBase>>;
 
 export function AddCharacteristicDialog({ stages, onClose }: { stages: ProcessStageJson[]; onClose: () => void }) {
@@ -178,6 +184,13 @@ export function AddCharacteristicDialog({ stages, onClose }: { stages: ProcessSt
         <CheckboxField name="critical" label="Critical characteristic" />
         <TextField name="defectCode" label="Defect code for its NCR" mono optional />
         <TextField name="gauges" label="Gauge kinds that can measure it" optional hint="Separate them with commas." />
+        <SelectField
+          name="matesWith"
+          label="Size class matches (measured only)"
+          placeholder="No purchased part"
+          emptyIsNull
+          options={SIZED_LOT_KINDS.map((k) => ({ value: k, label: LOT_KIND_LABELS[k] }))}
+        />
         <DialogActions>
           <Button onClick={onClose}>Cancel</Button>
           <SubmitButton>Add characteristic</SubmitButton>
