@@ -86,7 +86,8 @@ export type HoldJson = { number: string; state: string; description: string };
 
 export type StationFormJson = {
   station: { code: string; name: string; location: string };
-  stage: { code: string; name: string; hazard: string | null; description: string };
+  /** `runTest`: the unit's run test, whose readings may come from the test stand's CSV. */
+  stage: { code: string; name: string; hazard: string | null; description: string; runTest: boolean };
   item: ItemJson;
   sequence: SequenceCheck;
   holds: HoldJson[];

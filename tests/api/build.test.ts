@@ -199,6 +199,8 @@ describe('the run test', () => {
     await pass(t, cookies.operator, 'AS-1', built.body.serial);
     const form = await formFor(t, cookies.operator, 'RT-1', built.body.serial);
     expect(form.stage.hazard).toMatch(/carbon monoxide/);
+    // the stage marked as the unit's run test: the tablet offers the test stand's CSV there
+    expect(form.stage.runTest).toBe(true);
     // 150 psi on five cylinders and 134 on one: (150 − 134) / 150 = 10.7 % > 10 % (common shop rule)
     const readings = [
       { characteristic: 'oil-pressure-idle', value: 20, unit: 'psi' },

@@ -39,7 +39,13 @@ export async function stationForm(stationCode: string, serial: string): Promise<
   });
   return {
     station: { code: station.code, name: station.name, location: station.location },
-    stage: { code: stage.code, name: stage.name, hazard: stage.hazard, description: stage.description },
+    stage: {
+      code: stage.code,
+      name: stage.name,
+      hazard: stage.hazard,
+      description: stage.description,
+      runTest: stage.runTest,
+    },
     item: await presentItem(item, { route, ref }),
     sequence: checkSequence(item, stage, route, holds, reentry),
     holds,

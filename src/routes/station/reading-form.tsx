@@ -54,9 +54,6 @@ const BAR_HEIGHT = 96;
 /** "Rotating cutters and hones. Guards closed, …" → "Rotating cutters and hones." */
 const firstSentence = (text: string) => /^.*?[.!?](?=\s|$)/.exec(text)?.[0] ?? text;
 
-/** The stage whose readings can come from the test stand's CSV export as well as by hand. */
-const RUN_TEST = 'run-test';
-
 type ReadingFormProps = {
   form: StationFormJson;
   /** Made when this form was opened; kept for every retry of it, so a retry never records twice. */
@@ -319,7 +316,7 @@ export function ReadingForm({
               {t('record.noRule', { names: unruled.map((c) => c.name.toLowerCase()).join(', ') })}
             </Notice>
           )}
-          {form.stage.code === RUN_TEST && (
+          {form.stage.runTest && (
             <RunTestImport serial={form.item.serial} slots={slots} characteristics={form.characteristics} />
           )}
           {needsGauge && (
