@@ -1,6 +1,7 @@
 import fs from 'node:fs';
 import { randomUUID } from 'node:crypto';
 import type pg from 'pg';
+import { nominalSizeClasses } from '../db/seeders/sample-readings.js';
 import type { ReadingInput, StationFormJson } from '../shared/schemas/results.js';
 import { httpLoad, type HttpRun } from './load.js';
 import { openLoop } from './open-loop.js';
@@ -150,6 +151,7 @@ export type WriteOpts = {
 /** Submissions of station results, each for the next part of `serials` from `from` on, with a new key. */
 export function submissions(opts: Omit<WriteOpts, 'rates'>, from = 0) {
   let used = from;
+  const sizeClasses = nominalSizeClasses(opts.form);
   const scatter = (r: ReadingInput): ReadingInput => {
     const rule = opts.form.characteristics.find((x) => x.code === r.characteristic)?.rule;
     if (r.value === undefined || rule?.limitType !== 'nominal' || !rule.minusTol) return r;
@@ -170,6 +172,7 @@ export function submissions(opts: Omit<WriteOpts, 'rates'>, from = 0) {
           gauge: opts.gauge,
           gauges: opts.gauges,
           readings: opts.readings.map(scatter),
+          sizeClasses,
         }),
       };
     },

@@ -14,7 +14,7 @@ import { receiveLotBody } from '../../shared/schemas/lots.js';
 import { releaseUnit } from '../../server/services/release.js';
 import { todayIn } from '../../shared/domain/warranty.js';
 import { DEMO_USERS, PLANT } from './plant.js';
-import { passingReadings } from './sample-readings.js';
+import { nominalSizeClasses, passingReadings } from './sample-readings.js';
 
 /**
  * Work in process for the demo, made through the same services the screens use: cores received
@@ -93,20 +93,6 @@ export function gaugesFor(form: Form) {
   return { gauge, gauges };
 }
 
-/**
- * The size class a demo part is finished to, per characteristic with classes: the one whose limits
- * hold the rule's own nominal (the size the demo readings are taken around).
- */
-export function demoSizeClasses(form: Form): Record<string, string> {
-  const chosen: Record<string, string> = {};
-  for (const c of form.characteristics) {
-    const nominal = c.rule?.nominal;
-    const fits = c.sizeClasses?.find((k) => nominal != null && k.lower <= nominal && nominal <= k.upper);
-    if (fits) chosen[c.code] = fits.code;
-  }
-  return chosen;
-}
-
 /** Records a passing result for a part due at a station, through the station service, as a tablet would. */
 export async function recordPassingResult(
   sequelize: Sequelize,
@@ -127,7 +113,7 @@ export async function recordPassingResult(
     notes: '',
     readings: passingReadings(form, (c, p, v) => vary(form, c, p, v)),
     photoIds: [],
-    sizeClasses: demoSizeClasses(form),
+    sizeClasses: nominalSizeClasses(form),
   });
 }
 

@@ -37,3 +37,17 @@ export function passingReadings(
   }
   return out;
 }
+
+/**
+ * The size class a part is finished to, per characteristic with classes: the one whose limits hold
+ * the rule's own nominal (the size `passingReadings` takes its values around).
+ */
+export function nominalSizeClasses(form: Pick<StationFormJson, 'characteristics'>): Record<string, string> {
+  const chosen: Record<string, string> = {};
+  for (const c of form.characteristics) {
+    const nominal = c.rule?.nominal;
+    const fits = c.sizeClasses?.find((k) => nominal != null && k.lower <= nominal && nominal <= k.upper);
+    if (fits) chosen[c.code] = fits.code;
+  }
+  return chosen;
+}

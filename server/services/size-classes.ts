@@ -15,15 +15,24 @@ const lower = (s: string) => s.charAt(0).toLowerCase() + s.slice(1);
  * The size classes a station chose (the bore's oversize, the journal's undersize), checked against
  * the classes of each characteristic's rule version in force. Each chosen characteristic is then
  * judged to its class's limits (its form rule is replaced in place); every problem is listed at once.
- * A characteristic whose rule has classes and none chosen is judged to the rule's own limits.
+ * A characteristic whose rule has classes must have one chosen when it is measured: the build matches
+ * pistons and bearings to it, and the rule's own limits are only one of the classes.
  */
 export function chooseSizeClasses(
   ref: Reference,
   chars: FormChar[],
   wanted: Record<string, string>,
+  measured: ReadonlySet<string>,
 ): Record<string, ChosenSizeClass> {
   const problems: Record<string, string> = {};
   const chosen: Record<string, ChosenSizeClass> = {};
+  for (const c of chars) {
+    if (c.kind !== 'variable' || !measured.has(c.code) || c.code in wanted) continue;
+    const classes = (c.rule ? ref.rule(c.rule.id)?.sizeClasses : undefined) ?? [];
+    if (classes.length)
+      problems[`sizeClasses.${c.code}`] =
+        `${c.name}: choose the size class it was finished to (${classes.map((x) => x.code).join(', ')}).`;
+  }
   for (const [code, classCode] of Object.entries(wanted)) {
     const field = `sizeClasses.${code}`;
     const c = chars.find((x) => x.code === code);

@@ -1,26 +1,35 @@
 import Papa from 'papaparse';
+import { sameQuantity } from './units.js';
 
 /**
  * The test stand's export, as Coretrail reads it: a CSV with the header
- * `channel,cylinder,value,unit`, one row per reading. Channels map to the run-test stage's
- * characteristics; `cylinder` is filled for per-cylinder channels only; pass/fail channels carry
- * PASS or FAIL as their value. A file that does not read cleanly is refused with the line and
- * column of its first problem, and nothing of it is used.
+ * `channel,cylinder,value,unit`, one row per reading. A channel names a characteristic of the run
+ * test stage: by its code (any case), or by one of the stand channel names below where the stage
+ * has that characteristic. `cylinder` is filled for per-cylinder characteristics only; pass/fail
+ * checks carry PASS or FAIL as their value; a value may be in another unit of its quantity (the
+ * station converts it). A file that does not read cleanly is refused with the line and column of
+ * its first problem, and nothing of it is used.
  */
-export const RUN_CHANNELS: Record<
-  string,
-  { characteristic: string; unit: string | null; perCylinder: boolean; passFail?: boolean }
-> = {
-  OIL_P_IDLE: { characteristic: 'oil-pressure-idle', unit: 'psi', perCylinder: false },
-  OIL_P_2500: { characteristic: 'oil-pressure-2500', unit: 'psi', perCylinder: false },
-  COMP: { characteristic: 'compression', unit: 'psi', perCylinder: true },
-  TORQUE: { characteristic: 'torque', unit: 'lbf·ft', perCylinder: false },
-  RPM: { characteristic: 'speed', unit: 'rpm', perCylinder: false },
-  LEAK: { characteristic: 'leak-free', unit: null, perCylinder: false, passFail: true },
-  NOISE: { characteristic: 'noise-free', unit: null, perCylinder: false, passFail: true },
+export const STAND_CHANNELS: Record<string, string> = {
+  OIL_P_IDLE: 'oil-pressure-idle',
+  OIL_P_2500: 'oil-pressure-2500',
+  COMP: 'compression',
+  TORQUE: 'torque',
+  RPM: 'speed',
+  LEAK: 'leak-free',
+  NOISE: 'noise-free',
 };
 
 export const RUN_CSV_HEADER = ['channel', 'cylinder', 'value', 'unit'] as const;
+
+/** A characteristic of the run-test stage, with its positions on this unit. */
+export type RunCsvChar = {
+  code: string;
+  name: string;
+  kind: 'variable' | 'attribute' | 'derived';
+  unit: string | null;
+  positions: { code: string; cylinder?: number }[];
+};
 
 export type RunCsvReading = {
   characteristic: string;
@@ -33,7 +42,45 @@ export type RunCsvReading = {
 export type RunCsvResult =
   { ok: true; readings: RunCsvReading[] } | { ok: false; line: number; column: number; message: string };
 
-export function parseRunCsv(text: string, cylinders: number): RunCsvResult {
+/** The characteristic a channel names: its own code first, then the stand's channel names. */
+function charOf(chars: RunCsvChar[], channel: string): RunCsvChar | undefined {
+  const upper = channel.toUpperCase();
+  const own = chars.find((c) => c.code.toUpperCase() === upper);
+  if (own) return own;
+  const alias = STAND_CHANNELS[upper];
+  return alias ? chars.find((c) => c.code === alias) : undefined;
+}
+
+/** Where a row's cylinder puts its reading, or why it cannot go anywhere. */
+function positionOf(
+  c: RunCsvChar,
+  channel: string,
+  cyl: string,
+  cylinders: number,
+): { code: string } | { why: string; column: number } {
+  const perCylinder = c.positions.filter((p) => p.cylinder !== undefined);
+  if (!perCylinder.length) {
+    if (cyl) return { why: `${channel} is measured once; leave the cylinder empty.`, column: 2 };
+    if (c.positions.length !== 1)
+      return {
+        why: `${c.name} is read at ${c.positions.length} places; the stand's file cannot say which.`,
+        column: 1,
+      };
+    return { code: c.positions[0]!.code };
+  }
+  const n = Number(cyl);
+  if (!/^\d+$/.test(cyl) || n < 1 || n > cylinders)
+    return { why: `cylinder “${cyl}” is not 1–${cylinders}.`, column: 2 };
+  const at = perCylinder.filter((p) => p.cylinder === n);
+  if (at.length !== 1)
+    return {
+      why: `${c.name} is read at ${at.length} places per cylinder; the stand's file cannot say which.`,
+      column: 1,
+    };
+  return { code: at[0]!.code };
+}
+
+export function parseRunCsv(text: string, chars: RunCsvChar[], cylinders: number): RunCsvResult {
   const parsed = Papa.parse<string[]>(text.replace(/^\ufeff/, ''), { skipEmptyLines: 'greedy' });
   const fail = (line: number, column: number, message: string): RunCsvResult => ({
     ok: false,
@@ -52,6 +99,7 @@ export function parseRunCsv(text: string, cylinders: number): RunCsvResult {
     if (header[i] !== name)
       return fail(1, i + 1, `expected the header “${RUN_CSV_HEADER.join(',')}”, found “${rows[0]!.join(',')}”.`);
   }
+  const readable = chars.filter((c) => c.kind !== 'derived').map((c) => c.code);
   const seen = new Set<string>();
   const readings: RunCsvReading[] = [];
   for (let r = 1; r < rows.length; r++) {
@@ -59,34 +107,30 @@ export function parseRunCsv(text: string, cylinders: number): RunCsvResult {
     const row = rows[r]!;
     if (row.length !== RUN_CSV_HEADER.length)
       return fail(line, Math.min(row.length, 4) + 1, `expected 4 fields, found ${row.length}.`);
-    const [channel, cyl, value, unit] = row.map((c) => c.trim());
-    const spec = RUN_CHANNELS[channel!.toUpperCase()];
-    if (!spec) return fail(line, 1, `unknown channel “${channel}” (known: ${Object.keys(RUN_CHANNELS).join(', ')}).`);
-    let position = '';
-    if (spec.perCylinder) {
-      const n = Number(cyl);
-      if (!/^\d+$/.test(cyl!) || n < 1 || n > cylinders)
-        return fail(line, 2, `cylinder “${cyl}” is not 1–${cylinders}.`);
-      position = `c${n}`;
-    } else if (cyl) {
-      return fail(line, 2, `${channel} is measured once; leave the cylinder empty.`);
-    }
-    const key = `${spec.characteristic}@${position}`;
-    if (seen.has(key)) return fail(line, 1, `${channel}${position ? ` for cylinder ${cyl}` : ''} appears twice.`);
+    const [channel, cyl, value, unit] = row.map((c) => c.trim()) as [string, string, string, string];
+    const c = charOf(chars, channel);
+    if (!c) return fail(line, 1, `unknown channel “${channel}” (this run test reads: ${readable.join(', ')}).`);
+    if (c.kind === 'derived') return fail(line, 1, `${c.name} is worked out by Coretrail, not read from the stand.`);
+    const at = positionOf(c, channel, cyl, cylinders);
+    if ('why' in at) return fail(line, at.column, at.why);
+    const key = `${c.code}@${at.code}`;
+    if (seen.has(key)) return fail(line, 1, `${channel}${cyl ? ` for cylinder ${cyl}` : ''} appears twice.`);
     seen.add(key);
-    if (spec.passFail) {
-      const v = value!.toUpperCase();
+    if (c.kind === 'attribute') {
+      const v = value.toUpperCase();
       if (v !== 'PASS' && v !== 'FAIL') return fail(line, 3, `“${value}” is not PASS or FAIL.`);
-      readings.push({ characteristic: spec.characteristic, position, passed: v === 'PASS' });
+      readings.push({ characteristic: c.code, position: at.code, passed: v === 'PASS' });
       continue;
     }
-    if (!/^-?\d+(\.\d+)?$/.test(value!)) return fail(line, 3, `“${value}” is not a number.`);
-    if (spec.unit && unit !== spec.unit) return fail(line, 4, `${channel} is in ${spec.unit}, not “${unit}”.`);
+    if (!/^-?\d+(\.\d+)?$/.test(value)) return fail(line, 3, `“${value}” is not a number.`);
+    if (c.unit && unit && unit !== c.unit && !sameQuantity(unit, c.unit))
+      return fail(line, 4, `${channel} is in ${c.unit} (or another unit of its quantity), not “${unit}”.`);
+    const given = c.unit ? unit || c.unit : undefined;
     readings.push({
-      characteristic: spec.characteristic,
-      position,
+      characteristic: c.code,
+      position: at.code,
       value: Number(value),
-      unit: spec.unit ?? undefined,
+      ...(given ? { unit: given } : {}),
     });
   }
   return { ok: true, readings };

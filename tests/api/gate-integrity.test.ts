@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { Op } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import { Characteristic, Customer, MailOutbox } from '../../server/models/index.js';
 import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
 import { pngImage } from '../support/images.js';
@@ -219,6 +219,7 @@ describe('records that tell the truth', () => {
       station: 'PT-1',
       ...gaugesOf(form),
       readings: passingReadings(form, (c, _p, v) => (c === 'hold-time' ? 1 : v)),
+      sizeClasses: nominalSizeClasses(form),
     });
     expect(res.body.verdict).toBe('fail');
     expect(res.body.failing.map((r: { characteristic: string }) => r.characteristic)).toEqual(['hold-time']);

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { Op, QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import {
   AuditEvent,
   Containment,
@@ -97,7 +97,15 @@ async function blockAtBoreHone(family = 'TARN-6') {
 /** The bore-and-hone result a tablet would send, with `gauge` as the result's gauge (it reads the bores). */
 function boreBody(serial: string, form: StationFormJson, gauge: string) {
   const { gauges } = gaugesOf(form);
-  return { idempotencyKey: randomUUID(), serial, station: 'BH-1', gauge, gauges, readings: passingReadings(form) };
+  return {
+    idempotencyKey: randomUUID(),
+    serial,
+    station: 'BH-1',
+    gauge,
+    gauges,
+    readings: passingReadings(form),
+    sizeClasses: nominalSizeClasses(form),
+  };
 }
 
 describe('suitability at entry', () => {
@@ -250,6 +258,7 @@ async function passWith(cookie: string, stations: string[], serial: string, bore
       ...g,
       ...(s === 'BH-1' && boreGauge ? { gauge: boreGauge } : {}),
       readings: passingReadings(form),
+      sizeClasses: nominalSizeClasses(form),
     });
     if (res.status !== 201 || res.body.verdict !== 'pass') throw new Error(`${s}: ${JSON.stringify(res.body)}`);
   }

@@ -5,7 +5,7 @@ import path from 'node:path';
 import request from 'supertest';
 import { Op } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import { readMailSink, startMailSink } from '../../server/mail/sink.js';
 import { MailWorker } from '../../server/mail/worker.js';
 import { AuditEvent, Item, MailOutbox, Nonconformance, Signature } from '../../server/models/index.js';
@@ -46,6 +46,7 @@ async function failedBlock(value = 4.0309) {
       station: 'BH-1',
       ...gaugesOf(form),
       readings: passingReadings(form, (c, p, v) => (c === 'bore' && p === 'c2/top/axial' ? value : v)),
+      sizeClasses: nominalSizeClasses(form),
     });
   expect(res.body.verdict).toBe('fail');
   return { serial: parts.block, number: res.body.nonconformance.number as string, resultId: res.body.id as number };
@@ -138,6 +139,7 @@ describe('an NCR from a failing result', () => {
       station: 'BH-1',
       ...gaugesOf(form),
       readings: passingReadings(form, (c, p, v) => (c === 'bore' && p === 'c2/top/axial' ? 4.0312 : v)),
+      sizeClasses: nominalSizeClasses(form),
     });
     expect(again.body.verdict).toBe('fail');
     const first = await get(quality, `/api/ncrs/${number}`);

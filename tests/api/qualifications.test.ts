@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import { AuditEvent, Item, Qualification, Signature, StageResult } from '../../server/models/index.js';
 import { cookieFor, makeTestApp, makeUser, qualify, TEST_PASSWORD, type TestApp } from '../support/app.js';
 import { formFor, gaugesOf, plantToday, tornDownCore } from '../support/parts.js';
@@ -35,7 +35,14 @@ async function record(cookie: string, serial: string, station = 'CLN-1') {
   return request(t.app)
     .post('/api/results')
     .set('Cookie', cookie)
-    .send({ idempotencyKey: randomUUID(), serial, station, ...gaugesOf(form), readings: passingReadings(form) });
+    .send({
+      idempotencyKey: randomUUID(),
+      serial,
+      station,
+      ...gaugesOf(form),
+      readings: passingReadings(form),
+      sizeClasses: nominalSizeClasses(form),
+    });
 }
 
 async function resultsOf(serial: string) {

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import { Item, Reading, StageResult, UnitPreference } from '../../server/models/index.js';
 import type { ReadingInput, StationFormJson } from '../../shared/schemas/results.js';
 import { cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
@@ -25,7 +25,14 @@ const submit = (station: string, serial: string, form: StationFormJson, readings
   request(t.app)
     .post('/api/results')
     .set('Cookie', operator)
-    .send({ idempotencyKey: randomUUID(), serial, station, ...gaugesOf(form), readings });
+    .send({
+      idempotencyKey: randomUUID(),
+      serial,
+      station,
+      ...gaugesOf(form),
+      readings,
+      sizeClasses: nominalSizeClasses(form),
+    });
 
 /** Replaces one reading's value and unit, as a tablet set to another unit sends it. */
 const typedIn = (readings: ReadingInput[], characteristic: string, position: string, value: number, unit: string) =>

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import pg from 'pg';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import { referenceData } from '../../server/services/reference-cache.js';
 import { cookieFor, makeTestApp, makeUser, unique, type TestApp } from '../support/app.js';
 import { formFor, gaugesOf, passThrough, tornDownCore } from '../support/parts.js';
@@ -55,6 +55,7 @@ describe('reference data kept in memory', () => {
         ...gaugesOf(added),
         gauge: code,
         readings: passingReadings(added),
+        sizeClasses: nominalSizeClasses(added),
       });
     expect(res.status).toBe(400);
     expect(res.body.error.message).toMatch(new RegExp(`${code} cannot be used: Out for calibration`));

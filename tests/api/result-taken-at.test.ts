@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import { AuditEvent, Item, StageResult } from '../../server/models/index.js';
 import { cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
 import { formFor, gaugesOf, tornDownCore } from '../support/parts.js';
@@ -29,6 +29,7 @@ async function cleanBody(extra: Record<string, unknown>) {
     station: 'CLN-1',
     ...gaugesOf(form),
     readings: passingReadings(form),
+    sizeClasses: nominalSizeClasses(form),
     ...extra,
   };
 }

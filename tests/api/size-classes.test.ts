@@ -152,6 +152,12 @@ describe('size classes', () => {
       'sizeClasses.bore': 'Cylinder bore diameter has no size class +0.75: choose one of STD, +0.25, +0.50.',
       'sizeClasses.bore-finish': 'Bore surface finish Ra has no size classes: leave it out.',
     });
+    // measured with no class chosen: refused, since the build matches pistons to the class
+    const none = await record('BH-1', parts.block, {}, { bore: BORE_PLUS_025_IN });
+    expect(none.status).toBe(400);
+    expect(none.body.error.fields).toEqual({
+      'sizeClasses.bore': 'Cylinder bore diameter: choose the size class it was finished to (STD, +0.25, +0.50).',
+    });
     expect(
       await StageResult.count({ where: { itemId: (await Item.findOne({ where: { serial: parts.block } }))!.id } }),
     ).toBe(before);
@@ -174,7 +180,7 @@ describe('size classes', () => {
     for (const h of parts.heads) await passThrough(t, cookies.operator, HEAD_STATIONS, h);
 
     // pistons made for the bore the block was finished to: the mean bore less the standard, in inches
-    const lots = await lotsFor(Number((BORE_PLUS_025_IN - STANDARD_BORE_IN).toFixed(4)), 'SIZE');
+    const lots = await lotsFor(Number((BORE_PLUS_025_IN - STANDARD_BORE_IN).toFixed(4)), 'SIZE', {});
     const withClasses = (pistons: string | undefined, bearings: string | undefined) =>
       lots.map((l) =>
         l.kind === 'pistons' && pistons

@@ -3,7 +3,7 @@ import jStat from 'jstat';
 import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import {
   AuditEvent,
   Characteristic,
@@ -85,6 +85,7 @@ async function recordBores(serial: string, a: number, b: number) {
       station,
       ...gaugesOf(form),
       readings: passingReadings(form, (c, p, v) => (c === 'bore' ? (p.endsWith('/thrust') ? a : b) : v)),
+      sizeClasses: nominalSizeClasses(form),
     });
   if (res.status !== 201) throw new Error(`result failed: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body as { id: number; verdict: string; item: { status: string } };

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import { AuditEvent, Characteristic, Signature, Stage, ToleranceRule } from '../../server/models/index.js';
 import type { SpecBookJson } from '../../shared/schemas/spec.js';
 import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
@@ -108,6 +108,7 @@ describe('drafting and approving a new version', () => {
         station: 'BH-1',
         ...gaugesOf(formA),
         readings: passingReadings(formA, (code, _p, v) => (code === 'bore-finish' ? 32 : v)),
+        sizeClasses: nominalSizeClasses(formA),
       });
     expect(before.body.verdict).toBe('pass');
 
@@ -198,6 +199,7 @@ describe('drafting and approving a new version', () => {
         station: 'BH-1',
         ...gaugesOf(formB),
         readings: passingReadings(formB, (code, _p, v) => (code === 'bore-finish' ? 32 : v)),
+        sizeClasses: nominalSizeClasses(formB),
       });
     expect(after.body.verdict).toBe('fail');
     expect(after.body.failing).toEqual([

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import { AuditEvent, IdempotencyKey, Item, Nonconformance, Reading, StageResult } from '../../server/models/index.js';
 import type { ReadingInput, StationFormJson } from '../../shared/schemas/results.js';
 import { cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
@@ -33,7 +33,14 @@ const submit = (cookie: string, body: Record<string, unknown>) =>
   request(t.app).post('/api/results').set('Cookie', cookie).send(body);
 
 function boreBody(serial: string, form: StationFormJson, readings: ReadingInput[], key = randomUUID()) {
-  return { idempotencyKey: key, serial, station: 'BH-1', ...gaugesOf(form), readings };
+  return {
+    idempotencyKey: key,
+    serial,
+    station: 'BH-1',
+    ...gaugesOf(form),
+    readings,
+    sizeClasses: nominalSizeClasses(form),
+  };
 }
 
 /** What is stored for one part (results, their readings, NCRs): other files write to the same database at once. */

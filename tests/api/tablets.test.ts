@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import { AuditEvent, Item, StageResult, StationTablet, User } from '../../server/models/index.js';
 import { cookieFor, makeTestApp, makeUser, TEST_PASSWORD, unique, type TestApp } from '../support/app.js';
 import { formFor, gaugesOf, tornDownCore } from '../support/parts.js';
@@ -49,6 +49,7 @@ async function tabletBody(serial: string, who: { badge: string; pin: string }, s
     station,
     ...gaugesOf(form),
     readings: passingReadings(form),
+    sizeClasses: nominalSizeClasses(form),
     badge: who.badge,
     pin: who.pin,
   };

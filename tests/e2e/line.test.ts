@@ -6,7 +6,7 @@ import { PDFParse } from 'pdf-parse';
 import type { Browser, Page } from 'playwright-core';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import { DEMO_USERS } from '../../db/seeders/plant.js';
 import { readMailSink, startMailSink } from '../../server/mail/sink.js';
 import { LOT_KIND_LABELS } from '../../shared/schemas/build.js';
@@ -84,6 +84,7 @@ describe('the line, end to end', () => {
         station: 'BH-1',
         ...gaugesOf(form),
         readings: passingReadings(form, (c, p, v) => (c === 'bore' && p === 'c4/bottom/thrust' ? 3.7213 : v)),
+        sizeClasses: nominalSizeClasses(form),
       });
     const number = failed.body.nonconformance.number as string;
 
@@ -104,11 +105,7 @@ describe('the line, end to end', () => {
     await atStation(o, 'BH-1', parts.block);
     await o.getByRole('textbox', { name: 'Cylinder bore diameter, Cylinder 1, top, thrust' }).waitFor();
     const due = await formFor(t, cookies.operator, 'BH-1', parts.block);
-    for (const r of passingReadings(due)) {
-      const c = due.characteristics.find((x) => x.code === r.characteristic)!;
-      const label = c.positions.find((x) => x.code === r.position)!.label;
-      await o.getByRole('textbox', { name: `${c.name}, ${label}`, exact: true }).fill(String(r.value));
-    }
+    await fillPassing(o, due);
     await o.getByRole('button', { name: 'Record result' }).click();
     await o.getByRole('heading', { level: 2, name: 'Passed' }).waitFor();
     const ncr = (await Nonconformance.findOne({ where: { number } }))!;

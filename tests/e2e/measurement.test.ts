@@ -7,7 +7,7 @@ import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { Op, QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import { DEMO_USERS } from '../../db/seeders/plant.js';
 import { readMailSink, startMailSink } from '../../server/mail/sink.js';
 import { Customer, Item, Signature } from '../../server/models/index.js';
@@ -105,6 +105,7 @@ async function bore(stations: string[], serial: string, gauge: string) {
       ...gaugesOf(form),
       ...(s === 'BH-1' ? { gauge } : {}),
       readings: passingReadings(form),
+      sizeClasses: nominalSizeClasses(form),
     });
     if (res.status !== 201 || res.body.verdict !== 'pass') throw new Error(`${s}: ${JSON.stringify(res.body)}`);
   }

@@ -4,7 +4,7 @@ import { randomUUID } from 'node:crypto';
 import type { Browser, Page } from 'playwright-core';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import { DEMO_USERS } from '../../db/seeders/plant.js';
 import { Characteristic, EngineFamily, RuleRehearsal, Stage, ToleranceRule } from '../../server/models/index.js';
 import { cookieFor, makeUser } from '../support/app.js';
@@ -49,6 +49,7 @@ beforeAll(async () => {
       station: 'BH-1',
       ...gaugesOf(form),
       readings: passingReadings(form, (c, _p, v) => (c === 'bore' ? 3.7209 : v)),
+      sizeClasses: nominalSizeClasses(form),
     });
   if (res.status !== 201 || res.body.verdict !== 'pass') throw new Error(JSON.stringify(res.body));
   planted = parts.block;

@@ -4,7 +4,7 @@ import { randomUUID } from 'node:crypto';
 import type { Browser } from 'playwright-core';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import { DEMO_USERS } from '../../db/seeders/plant.js';
 import { Characteristic, Stage, ToleranceRule } from '../../server/models/index.js';
 import { cookieFor, makeUser, unique } from '../support/app.js';
@@ -45,6 +45,7 @@ async function deckResult() {
       station: 'DK-1',
       ...gaugesOf(form),
       readings: passingReadings(form, (c, _p, v) => (c === 'deck-finish' ? 95 : v)),
+      sizeClasses: nominalSizeClasses(form),
     });
   return { serial: parts.block, result: res.body };
 }

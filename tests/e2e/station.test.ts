@@ -46,8 +46,20 @@ async function scan(page: Page, serial: string) {
   await page.getByRole('textbox', { name: 'Cylinder bore diameter, Cylinder 1, top, thrust' }).waitFor();
 }
 
-/** Types every bore reading (8 cylinders × 3 depths × 2 axes) and the finish, as an operator would. */
-async function typeBores(page: Page, odd?: { position: string; value: string }, every = '4.0300') {
+/**
+ * Types every bore reading (8 cylinders × 3 depths × 2 axes) and the finish, as an operator would,
+ * after choosing the size class the block was bored to (0.030 in over unless told; none with null).
+ */
+async function typeBores(
+  page: Page,
+  odd?: { position: string; value: string },
+  every = '4.0300',
+  sizeClass: string | null = '+0.030',
+) {
+  if (sizeClass)
+    await page
+      .getByRole('combobox', { name: 'Cylinder bore diameter: size class finished to' })
+      .selectOption(sizeClass);
   const depths = ['top', 'middle', 'bottom'];
   const axes = ['thrust', 'axial'];
   for (let c = 1; c <= 8; c++) {
@@ -158,7 +170,7 @@ describe('the station screen on a tablet', () => {
     await chooseStation(page, 'BH-1');
     await scan(page, block);
     // bored 0.020 in over the 4.000 in standard: 4.0200 ± 0.0005 in for this class (spec-book.ts)
-    await typeBores(page, undefined, '4.0200');
+    await typeBores(page, undefined, '4.0200', null);
     const box = page.getByRole('textbox', { name: 'Cylinder bore diameter, Cylinder 1, top, thrust' });
     await expect(box.getAttribute('aria-invalid')).resolves.toBe('true');
     const choice = page.getByRole('combobox', { name: 'Cylinder bore diameter: size class finished to' });

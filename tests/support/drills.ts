@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import pg from 'pg';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import type { TestApp } from './app.js';
 import { formFor, gaugesOf, tornDownCore } from './parts.js';
 
@@ -34,7 +34,14 @@ export async function firstStageSubmissions(
         key,
         serial,
         station,
-        body: { idempotencyKey: key, serial, station, ...gaugesOf(form), readings: passingReadings(form) },
+        body: {
+          idempotencyKey: key,
+          serial,
+          station,
+          ...gaugesOf(form),
+          readings: passingReadings(form),
+          sizeClasses: nominalSizeClasses(form),
+        },
       });
     }
     return out;

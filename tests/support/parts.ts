@@ -1,10 +1,10 @@
 import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { PLANT } from '../../db/seeders/plant.js';
-import { passingReadings } from '../../db/seeders/sample-readings.js';
+import { nominalSizeClasses, passingReadings } from '../../db/seeders/sample-readings.js';
 import { todayIn } from '../../shared/domain/warranty.js';
 import { Customer, EngineFamily } from '../../server/models/index.js';
-import { LOT_KINDS } from '../../shared/schemas/build.js';
+import { LOT_KINDS, type LotKind } from '../../shared/schemas/build.js';
 import type { StationFormJson } from '../../shared/schemas/results.js';
 import type { TestApp } from './app.js';
 import { unique } from './app.js';
@@ -94,6 +94,7 @@ export async function pass(t: TestApp, cookie: string, station: string, serial: 
       station,
       ...gaugesOf(form),
       readings: passingReadings(form),
+      sizeClasses: nominalSizeClasses(form),
     });
   if (res.status !== 201 || res.body.verdict !== 'pass') throw new Error(`pass failed: ${JSON.stringify(res.body)}`);
   return res.body;
@@ -112,12 +113,25 @@ export async function finishedParts(t: TestApp, cookies: { receiving: string; op
 }
 
 /**
- * The nine purchased lots a long block takes, pistons at the given oversize, as the build form
- * names them; each is on record as received and accepted, as receiving would have logged it
- * (tests/api/receiving.test.ts drives receiving itself). A lot code shared by several tests (the
- * default tag) is topped up when fewer than 200 parts are left, so no test runs another's lot dry.
+ * The size classes the build is told for parts finished by these helpers (the class holding the
+ * rule's nominal, spec-book.ts): pistons by their oversize (0.030 in over a CORRIE-8 bore, 0.5 mm
+ * over a TARN-6 one), main bearings for journals ground 0.010 in under.
  */
-export async function lotsFor(oversizeIn: number, tag = 'T') {
+export function classesFor(oversizeIn: number): Partial<Record<LotKind, string>> {
+  const pistons = ({ 0.01: '+0.010', 0.02: '+0.020', 0.03: '+0.030', 0.0197: '+0.50' } as Record<number, string>)[
+    oversizeIn
+  ];
+  return { ...(pistons ? { pistons } : {}), main_bearings: '-0.010' };
+}
+
+/**
+ * The nine purchased lots a long block takes, pistons at the given oversize, as the build form
+ * names them, with the size classes given; each is on record as received and accepted, as receiving
+ * would have logged it (tests/api/receiving.test.ts drives receiving itself). A lot code shared by
+ * several tests (the default tag) is topped up when fewer than 200 parts are left, so no test runs
+ * another's lot dry.
+ */
+export async function lotsFor(oversizeIn: number, tag = 'T', classes = classesFor(oversizeIn)) {
   const { PartLot, Supplier } = await import('../../server/models/index.js');
   const suppliers = await Supplier.findAll({ order: [['id', 'ASC']] });
   const lots = LOT_KINDS.map((kind, i) => ({
@@ -127,6 +141,7 @@ export async function lotsFor(oversizeIn: number, tag = 'T') {
     lotCode: `${tag}-${kind.toUpperCase().replace(/_/g, '')}`.toUpperCase(),
     quantity: kind === 'pistons' ? 8 : 1,
     ...(kind === 'pistons' ? { oversizeIn } : {}),
+    ...(classes[kind] ? { sizeClass: classes[kind] } : {}),
   }));
   for (const l of lots) {
     await PartLot.sequelize!.query(

@@ -61,7 +61,7 @@ export async function submitResult(
     const s = await placeOfPart(sequelize, ctx, transaction, body, locked.ref, correction, tablet);
     const gauges = chooseGauges(s.ref, s.chars, body);
     // the size class chosen (a bore's oversize …) sets the limits its readings are judged to
-    const sizeClasses = chooseSizeClasses(s.ref, s.chars, body.sizeClasses);
+    const sizeClasses = chooseSizeClasses(s.ref, s.chars, body.sizeClasses, measuredIn(body));
     const { entries, ...typed } = checkReadings(s.chars, body);
     const judged = evaluateForm(s.chars, entries);
     const { result, readings, failing, charByCode } = await storeResult(s, gauges, judged, sizeClasses, typed);
@@ -72,6 +72,10 @@ export async function submitResult(
     return { status: 201, body: reply, replay: false };
   });
 }
+
+/** The characteristics the body carries a value for. */
+const measuredIn = (body: SubmitResultBody) =>
+  new Set(body.readings.filter((r) => r.value != null).map((r) => r.characteristic));
 
 /**
  * Two requests with one key take turns here; the second finds the first's stored reply (or is

@@ -30,7 +30,13 @@ import { sectionsOf } from './layout';
 import { ReadingSection } from './reading-section';
 import { entryUnitOf, judge, slotsOf, type EntryUnits } from './readings';
 import { RunTestImport } from './run-test-import';
-import { SizeClassField, sizeClassesToSend, withSizeClasses } from './size-class-field';
+import {
+  SizeClassField,
+  sizeClassKey,
+  sizeClassProblems,
+  sizeClassesToSend,
+  withSizeClasses,
+} from './size-class-field';
 import { useFirstReading } from './use-first-reading';
 import { useInView } from './use-in-view';
 import type { RecordedResult } from './verdict-panel';
@@ -170,6 +176,9 @@ export function ReadingForm({
     const local = [
       ...problemsBeforeSending(slots, now, draft, needsGauge, form.gauges),
       ...charGaugeProblems(measured, form.gauges, draft),
+      ...sizeClassProblems(measured, draft.sizeClasses, (c) =>
+        slots.some((sl) => sl.char.code === c.code && now.typed[sl.index]?.state !== 'empty'),
+      ),
     ];
     if (local.length) {
       setProblems(local);
@@ -344,7 +353,11 @@ export function ReadingForm({
               gauge={
                 needsGauge && s.char.kind === 'variable' ? (
                   <>
-                    <SizeClassField char={s.char} />
+                    <SizeClassField
+                      char={s.char}
+                      problem={problemMap[sizeClassKey(s.char)]}
+                      onChange={() => state.clearProblem(sizeClassKey(s.char))}
+                    />
                     <CharGaugeField
                       char={s.char}
                       index={measured.indexOf(s.char)}
