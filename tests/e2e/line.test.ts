@@ -203,6 +203,7 @@ describe('the line, end to end', () => {
       await op.getByLabel(`${LOT_KIND_LABELS[l.kind]} supplier`).selectOption(String(l.supplierId));
       await op.getByLabel(`${LOT_KIND_LABELS[l.kind]} part number`).fill(l.partNumber);
       await op.getByLabel(`${LOT_KIND_LABELS[l.kind]} lot code`).fill(l.lotCode);
+      if (l.sizeClass) await op.getByLabel(`${LOT_KIND_LABELS[l.kind]} size class`).fill(l.sizeClass);
     }
     await op.getByLabel('Pistons oversize (in)').fill('0.0197');
     await op.getByRole('button', { name: 'Start long block' }).click();
