@@ -10,9 +10,10 @@ import { ButtonLink } from '../../components/ui/button';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Notice } from '../../components/ui/notice';
 import { partName } from '../../lib/item-status';
+import { t } from '../../lib/i18n';
 import { stationHref } from '../../lib/paths';
 
-const statusWords: Record<string, string> = { scrapped: ' — scrapped', on_hold: ' — on hold' };
+const statusWords: Record<string, string> = { scrapped: 'replace.scrapped', on_hold: 'replace.onHold' };
 
 /**
  * A part found bad after assembly (a cracked head, say) comes out and a finished one goes in. The
@@ -26,17 +27,22 @@ export function ReplacePart() {
   if (done) {
     return (
       <Card labelledBy="replaced-heading">
-        <CardHeader id="replaced-heading" title="Part replaced" />
+        <CardHeader id="replaced-heading" title={t('replace.done')} />
         <CardBody>
           <div className="flex flex-col gap-4">
-            <Notice tone="ok" live="status" title={`${done.fitted} fitted in ${done.unit.serial}`}>
-              {done.removed} was taken out; the unit keeps the record of both. It goes back to{' '}
-              {done.unit.currentStage?.name ?? 'its first stage'}: record assembly, the run test and final inspection
-              again before it can ship.
+            <Notice
+              tone="ok"
+              live="status"
+              title={t('replace.fitted', { fitted: done.fitted, unit: done.unit.serial })}
+            >
+              {t('replace.goesBack', {
+                removed: done.removed,
+                stage: done.unit.currentStage?.name ?? t('replace.firstStage'),
+              })}
             </Notice>
             <div className="flex flex-wrap gap-2">
               <ButtonLink to={stationHref(done.unit.serial)} variant="primary" size="lg" icon="arrowRight">
-                Record assembly at the station
+                {t('replace.toStation')}
               </ButtonLink>
             </div>
           </div>
@@ -46,16 +52,12 @@ export function ReplacePart() {
   }
   return (
     <Card labelledBy="replace-heading">
-      <CardHeader
-        id="replace-heading"
-        title="Replace a part in a built unit"
-        description="Scan the long block, choose the part that comes out, scan the finished part that goes in."
-      />
+      <CardHeader id="replace-heading" title={t('build.modeReplace')} description={t('replace.description')} />
       <CardBody>
         <div className="flex flex-col gap-5">
-          <ScanBox onItem={setUnit} preview={false} hint="Scan the long block's label." />
+          <ScanBox onItem={setUnit} preview={false} hint={t('replace.scanHint')} />
           {unit && unit.kind !== 'long_block' && (
-            <Notice tone="bad">{unit.serial} is not a long block: scan the unit the part is in.</Notice>
+            <Notice tone="bad">{t('replace.notUnit', { serial: unit.serial })}</Notice>
           )}
           {unit && unit.kind === 'long_block' && (
             <Form
@@ -73,22 +75,17 @@ export function ReplacePart() {
             >
               <RadioGroupField
                 name="remove"
-                legend={`Part to take out of ${unit.serial}`}
+                legend={t('replace.remove', { serial: unit.serial })}
                 columns={2}
                 options={unit.parts.map((p) => ({
                   value: p.serial,
-                  label: `${partName(p.kindLabel, p.positionLabel)} ${p.serial}${statusWords[p.status] ?? ''}`,
+                  label: `${partName(p.kindLabel, p.positionLabel)} ${p.serial}${statusWords[p.status] ? ` — ${t(statusWords[p.status]!)}` : ''}`,
                 }))}
               />
-              <TextField
-                name="fit"
-                label="Part to fit"
-                mono
-                hint="Scan or type the serial of a finished part of the same kind and family (for a V engine, the same side)."
-              />
-              <TextAreaField name="reason" label="Why it is replaced" />
+              <TextField name="fit" label={t('replace.fit')} mono hint={t('replace.fitHint')} />
+              <TextAreaField name="reason" label={t('replace.reason')} />
               <div className="flex justify-end">
-                <SubmitButton size="lg">Replace the part</SubmitButton>
+                <SubmitButton size="lg">{t('replace.submit')}</SubmitButton>
               </div>
             </Form>
           )}

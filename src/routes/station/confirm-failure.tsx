@@ -1,16 +1,33 @@
 import type { EvaluatedReading, FormCharacteristic } from '../../../shared/domain/evaluate';
 import { Dialog } from '../../components/ui/dialog';
 import { Icon } from '../../components/ui/icon';
-import { plural } from '../../lib/format';
+import { t } from '../../lib/i18n';
+import { formatValue } from './numbers';
 
 const MAX_SHOWN = 6;
+
+/** Why a reading fails, in the screen's language, from its limits (the evaluator's own words are English). */
+function reasonOf(r: EvaluatedReading, c: FormCharacteristic | undefined) {
+  const unit = c?.unit ? ` ${c.unit}` : '';
+  const n = (v: number) => `${formatValue(v, c?.rule?.resolution)}${unit}`;
+  if (r.rounded !== null && r.lower !== null && r.rounded < r.lower)
+    return t('confirm.below', { value: n(r.rounded), lower: n(r.lower) });
+  if (r.rounded !== null && r.upper !== null && r.rounded > r.upper)
+    return t('confirm.above', { value: n(r.rounded), upper: n(r.upper) });
+  return r.passed === false ? t('confirm.checkFailed') : r.reason;
+}
 
 function line(r: EvaluatedReading, chars: FormCharacteristic[]) {
   const c = chars.find((x) => x.code === r.characteristic);
   const where = c?.positions.find((p) => p.code === r.position)?.label;
+  const shown = r.rounded ?? r.value;
   const value =
-    r.value !== null ? `${r.rounded ?? r.value}${c?.unit ? ` ${c.unit}` : ''}` : r.passed === false ? 'Fail' : '';
-  return { name: `${c?.name ?? r.characteristic}${where ? ` · ${where}` : ''}`, value, reason: r.reason };
+    shown !== null
+      ? `${formatValue(shown, c?.rule?.resolution)}${c?.unit ? ` ${c.unit}` : ''}`
+      : r.passed === false
+        ? t('form.fail')
+        : '';
+  return { name: `${c?.name ?? r.characteristic}${where ? ` · ${where}` : ''}`, value, reason: reasonOf(r, c) };
 }
 
 /**
@@ -36,8 +53,8 @@ export function ConfirmFailure({
       open={open}
       onClose={onCorrect}
       width="wide"
-      title={`${plural(failing.length, 'reading')} out of tolerance`}
-      description="Recording this result opens an NCR and puts the part on hold. Check each value against the part first."
+      title={t('confirm.title', { count: failing.length })}
+      description={t('confirm.description')}
     >
       <ul className="flex flex-col gap-2">
         {shown.map((l) => (
@@ -55,7 +72,9 @@ export function ConfirmFailure({
           </li>
         ))}
       </ul>
-      {failing.length > shown.length && <p className="mt-2">and {failing.length - shown.length} more.</p>}
+      {failing.length > shown.length && (
+        <p className="mt-2">{t('form.andMore', { count: failing.length - shown.length })}</p>
+      )}
       <div className="mt-5 flex flex-wrap items-center justify-end gap-3 border-t border-rule pt-4">
         <button
           type="button"
@@ -63,7 +82,7 @@ export function ConfirmFailure({
           onClick={onCorrect}
           className="inline-flex h-14 items-center justify-center gap-2 rounded-control border-2 border-ink bg-card px-6 text-lg font-semibold text-ink hover:bg-sunk"
         >
-          Correct a reading
+          {t('confirm.correct')}
         </button>
         <button
           type="button"
@@ -71,7 +90,7 @@ export function ConfirmFailure({
           className="inline-flex h-14 items-center justify-center gap-2 rounded-control border border-accent-strong bg-accent px-6 text-lg font-semibold text-white hover:bg-accent-strong"
         >
           <Icon name="bad" size={22} />
-          Record the failure
+          {t('confirm.record')}
         </button>
       </div>
     </Dialog>

@@ -7,21 +7,21 @@ import { Form, SubmitButton } from '../../components/form';
 import { describedBy, Field } from '../../components/ui/field';
 import { Button } from '../../components/ui/button';
 import { Dialog, DialogActions } from '../../components/ui/dialog';
+import { t } from '../../lib/i18n';
 import { bigControl } from './controls';
-
-const REASON_HINT = 'Why the part goes through this stage again, e.g. a reading taken with the wrong gauge.';
 
 function ReasonField() {
   const id = useId();
   const { register, formState } = useFormContext<{ reason: string }>();
   const error = formState.errors.reason?.message;
+  const hint = t('reentry.hint');
   return (
-    <Field id={id} label="Reason" hint={REASON_HINT} error={error}>
+    <Field id={id} label={t('reentry.reason')} hint={hint} error={error}>
       <textarea
         id={id}
         autoFocus
         aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(id, REASON_HINT, error)}
+        aria-describedby={describedBy(id, hint, error)}
         className={`${bigControl} min-h-28 py-2`}
         {...register('reason')}
       />
@@ -47,8 +47,8 @@ export function ReentryDialog({
     <Dialog
       open
       onClose={onClose}
-      title="Allow re-entry"
-      description={`${form.item.serial} goes back to ${form.stage.name}. The next result there carries your reason.`}
+      title={t('reentry.title')}
+      description={t('reentry.description', { serial: form.item.serial, stage: form.stage.name })}
     >
       <div data-density="floor">
         <Form
@@ -62,9 +62,9 @@ export function ReentryDialog({
           <ReasonField />
           <DialogActions>
             <Button size="lg" onClick={onClose}>
-              Cancel
+              {t('common.cancel')}
             </Button>
-            <SubmitButton size="lg">Allow re-entry</SubmitButton>
+            <SubmitButton size="lg">{t('reentry.title')}</SubmitButton>
           </DialogActions>
         </Form>
       </div>
