@@ -24,6 +24,9 @@ afterAll(async () => {
   await served?.close();
 });
 
+// the position of a reading taken once per part, as the Spanish screen names it (src/locales/es.json)
+const WHOLE = 'Pieza completa';
+
 describe('the station screen in Spanish', () => {
   it('when an operator has chosen Spanish on their account, then the station speaks Spanish at 1024×768, with no serious accessibility problem and every target at least 44 px', async () => {
     const operator = await makeUser('operator');
@@ -97,14 +100,21 @@ describe('the station screen in Spanish', () => {
     const unit = page.getByRole('combobox', { name: 'Ingresar en' }).first();
     await expect(unit.inputValue()).resolves.toBe('kPa');
     // 400,5 kPa typed with the Spanish decimal comma: 400.5 / 6.894 757 = 58.087… psi (NIST SP 811 B.8: psi = 6.894 757 E+03 Pa)
+    await page.getByRole('textbox', { name: `${pressure.name}, ${WHOLE}`, exact: true }).fill('400,5');
+    const holdBox = page.getByRole('textbox', { name: `${hold.name}, ${WHOLE}`, exact: true });
     await page
-      .getByRole('textbox', { name: `${pressure.name}, ${pressure.positions[0]!.label}`, exact: true })
-      .fill('400,5');
-    await page.getByRole('textbox', { name: `${hold.name}, ${hold.positions[0]!.label}`, exact: true }).fill('15');
-    await page
-      .getByRole('radiogroup', { name: `${leak.name}, ${leak.positions[0]!.label}`, exact: true })
+      .getByRole('radiogroup', { name: `${leak.name}, ${WHOLE}`, exact: true })
       .getByRole('radio', { name: 'Pasa' })
       .check();
+    // a hold time too short: the form asks once, in Spanish, with the reason worded from the limits
+    await holdBox.fill('1');
+    await page.getByRole('button', { name: 'Registrar resultado' }).click();
+    const ask = page.getByRole('dialog', { name: '1 lectura fuera de tolerancia' });
+    await ask.getByText(/está por debajo del límite inferior/).waitFor();
+    await expect(ask.getByRole('button', { name: 'Registrar la falla' }).isVisible()).resolves.toBe(true);
+    await page.screenshot({ path: path.join(shots, 'station-spanish-confirm-1024.png') });
+    await ask.getByRole('button', { name: 'Corregir una lectura' }).click();
+    await holdBox.fill('15');
     await expect(page.getByText('fuera de tolerancia').first().isVisible()).resolves.toBe(true);
     // the pressure test's safety caution stays on screen, in Spanish (the demo plant's own wording has its Spanish)
     const caution = page.getByRole('complementary', { name: `Seguridad: ${form.stage.name}` });
@@ -126,6 +136,44 @@ describe('the station screen in Spanish', () => {
     await expect(page.getByText('Ha cerrado la sesión.').isVisible()).resolves.toBe(true);
     await expect(page.getByLabel('Correo electrónico').isVisible()).resolves.toBe(true);
     await page.screenshot({ path: path.join(shots, 'sign-in-spanish-1024.png') });
+    await context.close();
+  });
+  it('when a Spanish speaker opens a block at bore and hone, then each bore is placed by cylinder, depth and axis in Spanish, the size class is asked in Spanish, and the screen passes the floor checks', async () => {
+    const cookies = {
+      receiving: await cookieFor(await makeUser('receiving'), served.t.config),
+      operator: await cookieFor(await makeUser('operator'), served.t.config),
+    };
+    const parts = await tornDownCore(served.t, cookies, 'CORRIE-8');
+    await passThrough(served.t, cookies.operator, ['CLN-1', 'MPI-1', 'PT-1', 'LH-1'], parts.block);
+    const operator = await makeUser('operator');
+    await operator.update({ language: 'es' });
+    const context = await browser.newContext({ viewport: { width: 1024, height: 768 }, hasTouch: true });
+    const page = await context.newPage();
+    await signIn(page, served.base, operator.email, TEST_PASSWORD);
+    await page.locator('html[lang="es"]').waitFor();
+    await page.goto(`${served.base}/station`);
+    await chooseStation(page, 'BH-1');
+    const box = page.getByRole('textbox', { name: 'Número de serie' });
+    await box.fill(parts.block);
+    await box.press('Enter');
+    // the plant's own characteristic name, the product's own words for where on the part
+    const first = page.getByRole('textbox', {
+      name: 'Cylinder bore diameter, Cilindro 1, superior, empuje',
+      exact: true,
+    });
+    await first.waitFor();
+    await page.getByRole('group', { name: 'Cilindro 5' }).waitFor();
+    await expect(page.getByText('Lado derecho').first().isVisible()).resolves.toBe(true);
+    await expect(page.getByText('Empuje').first().isVisible()).resolves.toBe(true);
+    await page.getByRole('combobox', { name: 'Cylinder bore diameter: medida a la que se terminó' }).waitFor();
+    // typed with no size class chosen: the form asks for it before sending anything
+    await first.fill('4,0300');
+    await page.getByRole('button', { name: 'Registrar resultado' }).click();
+    await page.getByText('Elija la medida a la que se terminó.').first().waitFor();
+    await page.screenshot({ path: path.join(shots, 'station-spanish-bores-1024.png') });
+    const axe = await new AxeBuilder({ page }).options({ rules: { 'target-size': { enabled: true } } }).analyze();
+    const serious = axe.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
+    expect(serious.map((v) => `${v.id}: ${v.nodes.length}`)).toEqual([]);
     await context.close();
   });
 });

@@ -1,5 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { http } from '../../lib/http';
+import { language } from '../../lib/i18n';
+import { localizeForm } from '../../lib/position-words';
 import { inTabletMode } from '../../lib/tablet-mode';
 import { stationKeys } from './keys';
 import type { StationFormJson } from './types';
@@ -23,5 +25,10 @@ export const stationFormQueryOptions = (station: string, serial: string) =>
     gcTime: 12 * 60 * 60_000,
   });
 
+/** The form with its positions named in the screen's language (the cache keeps the server's words). */
 export const useStationForm = (station: string | null, serial: string | null) =>
-  useQuery({ ...stationFormQueryOptions(station ?? '', serial ?? ''), enabled: station !== null && serial !== null });
+  useQuery({
+    ...stationFormQueryOptions(station ?? '', serial ?? ''),
+    enabled: station !== null && serial !== null,
+    select: language() === 'en' ? undefined : localizeForm,
+  });

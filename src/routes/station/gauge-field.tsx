@@ -80,13 +80,15 @@ export function GaugeField({ gauges, unit, first, problem, onChange }: GaugeFiel
         {g?.studyFailed && (
           <p className="flex items-start gap-1.5 font-semibold text-hold">
             <Icon name="hold" size={18} className="mt-0.5 shrink-0" />
-            Its last gauge study failed: its readings may not tell good parts from bad. Ask quality before using it.
+            {t('gauge.studyFailed')}
           </p>
         )}
         {unusable.length > 0 && (
           <p className="flex items-start gap-1.5 text-ink-soft">
             <Icon name="off" size={18} className="mt-0.5 shrink-0" />
-            Not usable now: {unusable.map((x) => `${x.code} (${x.why.replace(/\.$/, '')})`).join('; ')}.
+            {t('gauge.notUsable', {
+              list: unusable.map((x) => `${x.code} (${x.why.replace(/\.$/, '')})`).join('; '),
+            })}
           </p>
         )}
       </div>

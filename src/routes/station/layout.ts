@@ -1,5 +1,7 @@
 import type { FormCharacteristic, Position } from '../../api/station/types';
 import type { Slot } from './readings';
+import { t } from '../../lib/i18n';
+import { positionWord } from '../../lib/position-words';
 
 /**
  * How a characteristic's positions are laid out on the screen, like the part on the bench: banks
@@ -70,7 +72,7 @@ function banksLayout(slots: Slot[], derived: DerivedCell[]): Layout {
       }
       return {
         cylinder,
-        label: `Cylinder ${cylinder}`,
+        label: t('pos.cylinder', { n: cylinder }),
         depths: uniq(inCyl.map((s) => s.position.depth ?? '')),
         axes: uniq(inCyl.map((s) => s.position.axis ?? '')),
         cell: (depth, axis) =>
@@ -142,7 +144,7 @@ export function shortLabel(position: Position, within: string): string {
   return rest ? cap(rest) : position.label;
 }
 
-export const headerOf = (s: string) => cap(s);
+export const headerOf = (s: string) => positionWord(s);
 
 /**
  * A derived characteristic's name inside its source's card, without the words they share:

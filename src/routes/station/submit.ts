@@ -1,6 +1,7 @@
 import type { RecordResultBody } from '../../api/station/record-result';
 import type { GaugeChoice } from '../../api/station/types';
 import { ApiError } from '../../lib/http';
+import { t as tr } from '../../lib/i18n';
 import { readingName, type Judged, type Slot, type SlotValue } from './readings';
 
 /** What the tablet sends for one form, apart from the key, part and station. */
@@ -78,29 +79,30 @@ export function problemsBeforeSending(
     out.push({
       key: s.key,
       label: readingName(s.char, s.position),
-      message: t?.state === 'impossible' ? 'not a possible value: check it' : 'not a number',
+      message: t?.state === 'impossible' ? tr('problem.impossible') : tr('problem.notNumber'),
     });
   }
   for (const s of judged.missing) {
     out.push({
       key: s.key,
       label: readingName(s.char, s.position),
-      message: s.char.kind === 'attribute' ? 'choose pass or fail' : 'missing',
+      message: s.char.kind === 'attribute' ? tr('problem.passOrFail') : tr('problem.missing'),
       missing: true,
     });
   }
   for (const s of slots) {
     const v = draft.slots[s.index];
     if (s.char.kind === 'attribute' && s.char.critical && v?.choice === 'fail' && !v.where.trim()) {
-      out.push({ key: whereKey(s.key), label: `Where, ${s.char.name}`, message: 'say where it failed' });
+      out.push({ key: whereKey(s.key), label: tr('form.where', { name: s.char.name }), message: tr('problem.where') });
     }
   }
   if (needsGauge) {
     const g = gauges.find((x) => x.code === draft.gauge);
-    if (!g) out.push({ key: 'gauge', label: 'Gauge used', message: 'choose the gauge the readings were taken with' });
-    else if (!g.usable) out.push({ key: 'gauge', label: 'Gauge used', message: g.why });
+    if (!g) out.push({ key: 'gauge', label: tr('form.gaugeUsed'), message: tr('problem.gauge') });
+    else if (!g.usable) out.push({ key: 'gauge', label: tr('form.gaugeUsed'), message: g.why });
   }
-  if (draft.notes.trim().length > 2000) out.push({ key: 'notes', label: 'Notes', message: 'at most 2000 characters' });
+  if (draft.notes.trim().length > 2000)
+    out.push({ key: 'notes', label: tr('form.notes'), message: tr('problem.notes') });
   return out;
 }
 
@@ -125,7 +127,7 @@ export function summaryLines(problems: Problem[], slots: Slot[]): Problem[] {
     out.push({
       key: ps[0]!.key,
       label: name,
-      message: `${ps.length} readings missing, from ${ps[0]!.label.slice(name.length + 2)}`,
+      message: tr('problem.missingFrom', { count: ps.length, from: ps[0]!.label.slice(name.length + 2) }),
     });
   }
   return out;

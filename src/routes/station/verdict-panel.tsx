@@ -4,6 +4,7 @@ import { Icon } from '../../components/ui/icon';
 import { formatMoment, t, useT } from '../../lib/i18n';
 import { NcrNumber } from './ncr-number';
 import { formatValue } from './numbers';
+import { positionLabel } from '../../lib/position-words';
 
 /** A reading's value as it was judged: the rounded figure, or the check's outcome. */
 function valueOf(r: ReadingJson, resolution: number | null) {
@@ -110,7 +111,7 @@ export function VerdictPanel({ result, onNext, canReadNcr }: VerdictPanelProps) 
                       <tr key={`${r.characteristic}@${r.position}`}>
                         <td className="py-2 pr-4 font-medium">{r.name}</td>
                         <td className="py-2 pr-4">
-                          {r.positionLabel}
+                          {positionLabel(r.position, r.positionLabel)}
                           {r.location && <span className="block text-base text-ink-soft">{r.location}</span>}
                         </td>
                         <td className="whitespace-nowrap py-2 pr-4 text-right font-mono font-semibold text-bad">

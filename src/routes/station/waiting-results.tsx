@@ -15,6 +15,7 @@ import {
   whenQueuedSent,
   type Queued,
 } from '../../lib/offline-queue';
+import { positionLabel } from '../../lib/position-words';
 
 const verdictKey = (v: 'pass' | 'fail') => (v === 'pass' ? 'waiting.passed' : 'waiting.failed');
 
@@ -66,7 +67,7 @@ export function WaitingResults({ personId }: { personId: number | null }) {
             <ul className="mt-1 list-disc pl-5 text-base font-semibold">
               {o.result.failing.slice(0, 4).map((r) => (
                 <li key={`${r.characteristic}@${r.position}`}>
-                  {r.name}, {r.positionLabel}: {r.reason}
+                  {r.name}, {positionLabel(r.position, r.positionLabel)}: {r.reason}
                 </li>
               ))}
             </ul>
