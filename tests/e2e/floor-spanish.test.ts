@@ -75,6 +75,13 @@ describe('the floor screens in Spanish on a 1024×768 tablet', () => {
     await page.waitForURL(/\/cores\/CR-/);
     const coreSerial = decodeURIComponent(page.url().split('/cores/')[1]!.split(/[?#]/)[0]!);
     expect(parseSerial(coreSerial)).toMatchObject({ ok: true, kind: 'core' });
+    // the core's page it lands on speaks Spanish too: what was received, and what to do next
+    await page.getByText('Casco recibido').waitFor();
+    await expect(page.getByRole('heading', { name: 'Piezas sacadas de él' }).isVisible()).resolves.toBe(true);
+    await expect(page.getByText('Devolución de cliente').isVisible()).resolves.toBe(true);
+    await expect(page.getByRole('link', { name: 'Desarmar' }).isVisible()).resolves.toBe(true);
+    await page.screenshot({ path: path.join(shots, 'floor-spanish-core-1024.png'), fullPage: true });
+    await floorChecks(page);
 
     // 2. tear it down: the heavy-parts caution is there in Spanish, the part tiles in Spanish
     await page.goto(`${served.base}/teardown`);

@@ -7,22 +7,25 @@ import { RouteProgress } from '../../components/route-progress';
 import { ButtonLink } from '../../components/ui/button';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Notice } from '../../components/ui/notice';
+import { useT } from '../../lib/i18n';
 import { labelsHref, paths, teardownHref } from '../../lib/paths';
 import { canonicalSerial, requireSerial } from '../../lib/serial';
 import { requirePermission } from '../../lib/session';
 import { PartList, PhotoStrip, ReceiptList, TeardownSummary } from './core-sections';
 import { CreditSettled } from './credit-settled';
+import { coreWords } from './screen-words';
 
 export const coreLoader =
   (queryClient: QueryClient) =>
   async ({ request, params }: LoaderFunctionArgs) => {
     await requirePermission(queryClient, request, 'intake.read');
-    await queryClient.ensureQueryData(coreQueryOptions(requireSerial(params.serial)));
+    await Promise.all([queryClient.ensureQueryData(coreQueryOptions(requireSerial(params.serial))), coreWords()]);
     return null;
   };
 
 export function CorePage() {
   const me = useSignedIn();
+  const t = useT();
   const serial = canonicalSerial(useParams().serial);
   const { data: core } = useCore(serial);
   const location = useLocation();
@@ -37,17 +40,18 @@ export function CorePage() {
           <Notice
             tone="ok"
             live="status"
-            title={`Core ${core.receipt.accepted ? 'received' : 'rejected and kept on record'}`}
+            title={core.receipt.accepted ? t('corePage.core.received') : t('corePage.core.rejectedKept')}
           >
-            Its serial is <span className="font-mono font-semibold">{core.serial}</span>. Print its label and fix it to
-            the core.
+            {t('corePage.core.serialIs')} <span className="font-mono font-semibold">{core.serial}</span>.{' '}
+            {t('corePage.core.printAndFix')}
           </Notice>
         </div>
       )}
       <div className="mb-5 flex flex-wrap items-end justify-between gap-4">
         <div>
           <p className="text-ink-soft">
-            Core · <span className="font-mono font-semibold text-ink">{core.family.code}</span> {core.family.name}
+            {t('corePage.core.kicker')} · <span className="font-mono font-semibold text-ink">{core.family.code}</span>{' '}
+            {core.family.name}
           </p>
           <h1 className="font-mono text-[2.5rem] font-semibold leading-tight tracking-wide">{core.serial}</h1>
           <div className="mt-1">
@@ -57,29 +61,29 @@ export function CorePage() {
         <div className="flex flex-wrap gap-2">
           {me.can('teardown.record') && core.status === 'received' && (
             <ButtonLink to={teardownHref(core.serial)} variant="primary" size="lg">
-              Tear down
+              {t('corePage.core.tearDown')}
             </ButtonLink>
           )}
           {me.can('labels.print') && (
             <ButtonLink to={labelsHref([core.serial])} icon="print" size="lg">
-              Print label
+              {t('corePage.core.printLabel')}
             </ButtonLink>
           )}
           <ButtonLink to={paths.intake} size="lg">
-            Intake log
+            {t('corePage.core.intakeLog')}
           </ButtonLink>
         </div>
       </div>
       <div className="grid grid-cols-1 items-start gap-5 xl:grid-cols-[minmax(0,1.25fr)_minmax(0,1fr)]">
         <div className="flex flex-col gap-5">
           <Card labelledBy="receipt-heading">
-            <CardHeader id="receipt-heading" title="Receipt" />
+            <CardHeader id="receipt-heading" title={t('corePage.core.receipt')} />
             <CardBody>
               <ReceiptList core={core} />
             </CardBody>
           </Card>
           <Card labelledBy="photos-heading">
-            <CardHeader id="photos-heading" title="Photos" />
+            <CardHeader id="photos-heading" title={t('corePage.core.photos')} />
             <CardBody>
               <PhotoStrip photos={core.photos} />
             </CardBody>
@@ -87,10 +91,10 @@ export function CorePage() {
         </div>
         <div className="flex flex-col gap-5">
           <Card labelledBy="route-heading">
-            <CardHeader id="route-heading" title="Route" />
+            <CardHeader id="route-heading" title={t('corePage.core.route')} />
             <CardBody>
               {core.status === 'rejected' ? (
-                <p className="text-ink-soft">Rejected at intake: it goes no further along its route.</p>
+                <p className="text-ink-soft">{t('corePage.core.rejectedRoute')}</p>
               ) : (
                 <RouteProgress steps={core.route} />
               )}
@@ -99,12 +103,12 @@ export function CorePage() {
           <Card labelledBy="parts-heading">
             <CardHeader
               id="parts-heading"
-              title="Parts taken from it"
+              title={t('corePage.core.parts')}
               actions={
                 parts.length > 0 &&
                 me.can('labels.print') && (
                   <ButtonLink to={labelsHref(parts.map((p) => p.serial))} icon="print" size="sm">
-                    Print labels for these parts
+                    {t('corePage.core.printParts')}
                   </ButtonLink>
                 )
               }
@@ -114,7 +118,7 @@ export function CorePage() {
                 <PartList parts={parts} />
               ) : (
                 <p className="text-ink-soft">
-                  {core.status === 'rejected' ? 'A rejected core is not torn down.' : 'Not torn down yet.'}
+                  {core.status === 'rejected' ? t('corePage.core.rejectedNotTorn') : t('corePage.core.notTorn')}
                 </p>
               )}
             </CardBody>
@@ -124,7 +128,7 @@ export function CorePage() {
           )}
           {core.teardown && (
             <Card labelledBy="teardown-heading">
-              <CardHeader id="teardown-heading" title="Teardown record" />
+              <CardHeader id="teardown-heading" title={t('corePage.core.teardownRecord')} />
               <CardBody>
                 <TeardownSummary record={core.teardown} />
               </CardBody>

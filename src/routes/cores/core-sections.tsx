@@ -7,6 +7,8 @@ import type { ItemPart } from '../../api/items/types';
 import { StatusBadge } from '../../components/item-status';
 import { Badge } from '../../components/ui/badge';
 import { formatWhen } from '../../lib/format';
+import { t } from '../../lib/i18n';
+import { label } from '../../lib/server-messages';
 import { CREDIT_LABELS, SOURCE_LABELS } from '../../lib/intake-labels';
 import { partName } from '../../lib/item-status';
 import { itemHref } from '../../lib/paths';
@@ -25,49 +27,50 @@ const list = (words: string[]) => (words.length ? words.join(', ') : null);
 export function ReceiptList({ core }: { core: CoreDetail }) {
   const r = core.receipt;
   const party = r.customer ?? r.supplier;
-  const missing = r.condition.missing.map((m) => CORE_PART_LABELS[m]);
+  const missing = r.condition.missing.map((m) => label(CORE_PART_LABELS[m]));
+  const w = (k: string, params?: Record<string, string | number>) => t(`corePage.receipt.${k}`, params);
   return (
     <dl className="grid grid-cols-[minmax(8rem,auto)_1fr] gap-x-5 gap-y-2">
-      <Row term="Casting number" mono>
+      <Row term={w('castingNumber')} mono>
         {r.castingNumber}
       </Row>
-      <Row term="ID number" mono>
+      <Row term={w('idNumber')} mono>
         {r.idNumber}
       </Row>
-      <Row term="Source">{SOURCE_LABELS[r.source]}</Row>
-      <Row term={r.customer ? 'Customer' : 'Supplier'}>{party && `${party.name} (${party.code})`}</Row>
-      <Row term={r.source === 'customer_return' ? 'Return reference' : 'Purchase reference'} mono>
+      <Row term={w('source')}>{label(SOURCE_LABELS[r.source])}</Row>
+      <Row term={r.customer ? w('customer') : w('supplier')}>{party && `${party.name} (${party.code})`}</Row>
+      <Row term={r.source === 'customer_return' ? w('returnRef') : w('purchaseRef')} mono>
         {r.sourceReference}
       </Row>
-      <Row term="Received">
-        <span className="font-mono">{r.receivedOn}</span> by {r.receivedBy}
+      <Row term={w('received')}>{w('by', { day: r.receivedOn, name: r.receivedBy })}</Row>
+      <Row term={w('condition')}>
+        {r.condition.complete ? w('complete') : w('missing', { list: list(missing) ?? '—' })}
       </Row>
-      <Row term="Condition">{r.condition.complete ? 'Complete' : `Parts missing: ${list(missing) ?? '—'}`}</Row>
-      <Row term="Damage seen">{list(r.condition.damage.map((d) => DAMAGE_LABELS[d])) ?? 'None'}</Row>
-      <Row term="Grade">{r.grade && GRADE_LABELS[r.grade]}</Row>
-      <Row term="Decision">
+      <Row term={w('damage')}>{list(r.condition.damage.map((d) => label(DAMAGE_LABELS[d]))) ?? w('none')}</Row>
+      <Row term={w('grade')}>{r.grade && label(GRADE_LABELS[r.grade])}</Row>
+      <Row term={w('decision')}>
         {r.accepted ? (
-          <Badge tone="ok">Accepted</Badge>
+          <Badge tone="ok">{w('accepted')}</Badge>
         ) : (
           <span className="flex flex-col items-start gap-1">
-            <Badge tone="bad">Rejected</Badge>
+            <Badge tone="bad">{w('rejected')}</Badge>
             <span>{r.rejectReason}</span>
           </span>
         )}
       </Row>
       {r.source === 'customer_return' && (
-        <Row term="Core credit">
-          {r.creditDecision && CREDIT_LABELS[r.creditDecision]}
+        <Row term={w('credit')}>
+          {r.creditDecision && label(CREDIT_LABELS[r.creditDecision])}
           {r.creditReason && <span className="block text-ink-soft">{r.creditReason}</span>}
         </Row>
       )}
-      {r.notes && <Row term="Notes">{r.notes}</Row>}
+      {r.notes && <Row term={w('notes')}>{r.notes}</Row>}
     </dl>
   );
 }
 
 export function PhotoStrip({ photos }: { photos: CoreDetail['photos'] }) {
-  if (photos.length === 0) return <p className="text-ink-soft">No photos were taken at intake.</p>;
+  if (photos.length === 0) return <p className="text-ink-soft">{t('corePage.photos.none')}</p>;
   return (
     <ul className="flex flex-wrap gap-3">
       {photos.map((p, i) => (
@@ -75,7 +78,7 @@ export function PhotoStrip({ photos }: { photos: CoreDetail['photos'] }) {
           <a href={p.url} target="_blank" rel="noopener" className="block rounded-control">
             <img
               src={p.url}
-              alt={`Intake photo ${i + 1}: ${p.fileName}`}
+              alt={t('corePage.photos.alt', { n: i + 1, file: p.fileName })}
               className="aspect-[4/3] w-44 rounded-control border border-rule-strong bg-sunk object-cover"
             />
           </a>
@@ -107,16 +110,19 @@ export function PartList({ parts }: { parts: ItemPart[] }) {
 export function TeardownSummary({ record }: { record: TeardownRecord }) {
   return (
     <dl className="grid grid-cols-[minmax(8rem,auto)_1fr] gap-x-5 gap-y-2">
-      <Row term="Torn down">
-        <span className="font-mono">{formatWhen(record.at)}</span>
-        {record.by && <> by {record.by}</>}
+      <Row term={t('corePage.torn.tornDown')}>
+        {record.by ? (
+          t('corePage.receipt.by', { day: formatWhen(record.at), name: record.by })
+        ) : (
+          <span className="font-mono">{formatWhen(record.at)}</span>
+        )}
       </Row>
-      <Row term="Kept">
+      <Row term={t('corePage.torn.kept')}>
         {record.kept.length === 0
-          ? 'Nothing'
+          ? t('corePage.torn.nothing')
           : record.kept.map((k) => (
               <span key={k.serial} className="block">
-                {partName(PART_KIND_LABELS[k.kind], k.position)}:{' '}
+                {partName(label(PART_KIND_LABELS[k.kind]), k.position && label(k.position))}:{' '}
                 <Link
                   to={itemHref(k.serial)}
                   className="inline-flex items-center font-mono text-accent underline underline-offset-4 floor:min-h-12"
@@ -126,17 +132,22 @@ export function TeardownSummary({ record }: { record: TeardownRecord }) {
               </span>
             ))}
       </Row>
-      <Row term="Scrapped">
+      <Row term={t('corePage.torn.scrapped')}>
         {record.scrapped.length === 0
-          ? 'Nothing'
+          ? t('corePage.torn.nothing')
           : record.scrapped.map((s, i) => (
               <span key={i} className="block">
-                <span className="font-medium">{partName(PART_KIND_LABELS[s.kind], s.position)}</span> — {s.reason}
+                <span className="font-medium">
+                  {partName(label(PART_KIND_LABELS[s.kind]), s.position && label(s.position))}
+                </span>{' '}
+                — {s.reason}
               </span>
             ))}
       </Row>
-      <Row term="Discarded by rule">{record.discardedByRule.join(', ')} (always replaced)</Row>
-      {record.notes && <Row term="Notes">{record.notes}</Row>}
+      <Row term={t('corePage.torn.byRule')}>
+        {t('corePage.torn.alwaysReplaced', { list: record.discardedByRule.map(label).join(', ') })}
+      </Row>
+      {record.notes && <Row term={t('corePage.receipt.notes')}>{record.notes}</Row>}
     </dl>
   );
 }

@@ -11,7 +11,9 @@ import { PhotoField } from '../../components/photo-field';
 import { Button } from '../../components/ui/button';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { formatWhen } from '../../lib/format';
+import { t } from '../../lib/i18n';
 import { CREDIT_LABELS } from '../../lib/intake-labels';
+import { label } from '../../lib/server-messages';
 
 /**
  * A returned core's credit as decided at the dock and as settled after its teardown: every
@@ -28,13 +30,13 @@ export function CreditSettled({ core, canRevise }: { core: CoreDetail; canRevise
     <Card labelledBy="credit-heading">
       <CardHeader
         id="credit-heading"
-        title="Core credit"
-        description="Decided at the dock, settled on the teardown’s evidence."
+        title={t('corePage.receipt.credit')}
+        description={t('corePage.credit.description')}
         actions={
           may &&
           !open && (
             <Button size="sm" onClick={() => setOpen(true)}>
-              Settle the credit
+              {t('corePage.credit.settle')}
             </Button>
           )
         }
@@ -42,18 +44,19 @@ export function CreditSettled({ core, canRevise }: { core: CoreDetail; canRevise
       <CardBody>
         <ol className="flex flex-col gap-2">
           <li>
-            <span className="text-sm text-ink-soft">At the dock · </span>
+            <span className="text-sm text-ink-soft">{t('corePage.credit.atDock')} · </span>
             <span className="font-semibold">
-              {core.receipt.creditDecision ? CREDIT_LABELS[core.receipt.creditDecision] : '—'}
+              {core.receipt.creditDecision ? label(CREDIT_LABELS[core.receipt.creditDecision]) : '—'}
             </span>
             {core.receipt.creditReason && <span className="block text-ink-soft">{core.receipt.creditReason}</span>}
           </li>
           {rows.map((r) => (
             <li key={r.revisedAt} className="border-t border-rule pt-2">
               <span className="text-sm text-ink-soft">
-                Settled by {r.revisedBy} · <span className="font-mono">{formatWhen(r.revisedAt)}</span> ·{' '}
+                {t('corePage.credit.settledBy', { name: r.revisedBy })} ·{' '}
+                <span className="font-mono">{formatWhen(r.revisedAt)}</span> ·{' '}
               </span>
-              <span className="font-semibold">{CREDIT_LABELS[r.creditDecision]}</span>
+              <span className="font-semibold">{label(CREDIT_LABELS[r.creditDecision])}</span>
               <span className="block whitespace-pre-line">{r.reason}</span>
               {r.photos.length > 0 && (
                 <span className="mt-1 flex flex-wrap gap-2">
@@ -83,22 +86,18 @@ export function CreditSettled({ core, canRevise }: { core: CoreDetail; canRevise
             >
               <RadioGroupField
                 name="creditDecision"
-                legend="Settled credit"
+                legend={t('corePage.credit.settled')}
                 columns={3}
                 options={CREDIT_DECISIONS.filter((d) => d !== current).map((d) => ({
                   value: d,
-                  label: CREDIT_LABELS[d],
+                  label: label(CREDIT_LABELS[d]),
                 }))}
               />
-              <TextAreaField
-                name="reason"
-                label="What the teardown showed"
-                hint="The evidence, in words the customer will read."
-              />
-              <PhotoField name="photoIds" label="Photos" max={8} />
+              <TextAreaField name="reason" label={t('corePage.credit.showed')} hint={t('corePage.credit.showedHint')} />
+              <PhotoField name="photoIds" label={t('corePage.core.photos')} max={8} />
               <div className="flex justify-end gap-2">
-                <Button onClick={() => setOpen(false)}>Cancel</Button>
-                <SubmitButton>Record the settled credit</SubmitButton>
+                <Button onClick={() => setOpen(false)}>{t('common.cancel')}</Button>
+                <SubmitButton>{t('corePage.credit.record')}</SubmitButton>
               </div>
             </Form>
           </div>
