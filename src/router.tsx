@@ -57,7 +57,10 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
           children: [
             {
               index: true,
-              lazy: async () => ({ Component: (await import('./routes/home/home-page')).HomePage }),
+              lazy: async () => {
+                const m = await import('./routes/home/home-page');
+                return { Component: m.HomePage, loader: m.homeLoader };
+              },
             },
             {
               path: paths.account,

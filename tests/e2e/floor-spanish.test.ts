@@ -50,6 +50,16 @@ describe('the floor screens in Spanish on a 1024×768 tablet', () => {
     await expect(page.getByRole('button', { name: 'Cerrar sesión' }).isVisible()).resolves.toBe(true);
     expect(await headerProblems(page)).toEqual([]);
     await page.screenshot({ path: path.join(shots, 'floor-spanish-receiving-nav-1024.png') });
+    // the home: the role's own words, the cores waiting for teardown, the tiles
+    await page.goto(`${served.base}/`);
+    await page.getByRole('heading', { level: 1, name: 'Inicio: Recepción' }).waitFor();
+    await expect(page.getByRole('heading', { name: 'Buscar un casco o una pieza' }).isVisible()).resolves.toBe(true);
+    await expect(page.getByRole('heading', { name: /^Cascos que esperan desarme \(\d+\)$/ }).isVisible()).resolves.toBe(
+      true,
+    );
+    await expect(page.getByRole('link', { name: /^Recibir un casco/ }).isVisible()).resolves.toBe(true);
+    await page.screenshot({ path: path.join(shots, 'floor-spanish-receiving-home-1024.png'), fullPage: true });
+    await floorChecks(page);
 
     // 1. receive a V8 core
     const v8 = (await EngineFamily.findOne({ where: { code: 'CORRIE-8' } }))!;

@@ -74,7 +74,8 @@ export async function signIn(page: Page, base: string, email: string, password: 
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  const home = page.getByRole('heading', { level: 1, name: / home$/ });
+  // the home's heading in English ("Station operator home") or in Spanish ("Inicio: Operador de estación")
+  const home = page.getByRole('heading', { level: 1, name: / home$|^Inicio: / });
   const code = page.getByLabel('Code from your authenticator app');
   // whichever comes: the home page, or the question for a second-factor code
   await home.or(code).first().waitFor();

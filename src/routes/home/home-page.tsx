@@ -5,11 +5,16 @@ import { PageHeader } from '../../components/page-header';
 import { ScanBox, useOpenItem } from '../../components/scan-box';
 import { Card, CardBody } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
+import { useT } from '../../lib/i18n';
 import { paths } from '../../lib/paths';
 import { areasFor, comingFor } from '../app/areas';
 import { WaitingForYou } from './waiting-for-you';
 import { LineHome } from './line-home';
 import { ExpiringQualifications } from './expiring-qualifications';
+import { homeWords } from './screen-words';
+
+/** The home's words are there before its first render (Spanish fetched when the person reads it). */
+export const homeLoader = () => homeWords().then(() => null);
 
 type Tile = { label: string; to: string; summary: string };
 
@@ -36,23 +41,31 @@ function AreaCard({ tile }: { tile: Tile }) {
 export function HomePage() {
   const me = useSignedIn();
   const openItem = useOpenItem();
+  const t = useT();
   if (!me) return null;
   const role = me.user.role;
   const tiles: Tile[] = [
-    ...areasFor(role),
-    { label: 'Your account', to: paths.account, summary: 'Your name, e-mail and role; change your password.' },
+    ...areasFor(role).map((a) => ({
+      label: t(`nav.area.${a.label}`, undefined, a.label),
+      to: a.to,
+      summary: t(`home.area.${a.label}`, undefined, a.summary),
+    })),
+    { label: t('home.account'), to: paths.account, summary: t('home.accountSummary') },
   ];
   const coming = comingFor(role);
 
   return (
     <>
-      <PageHeader title={`${ROLE_LABELS[role]} home`} description={ROLE_SUMMARIES[role]} />
+      <PageHeader
+        title={t('home.title', { role: t(`role.${role}`, undefined, ROLE_LABELS[role]) })}
+        description={t(`home.role.${role}`, undefined, ROLE_SUMMARIES[role])}
+      />
       {SCANS_FIRST.has(role) && (
         <section aria-labelledby="scan-heading" className="mb-8">
           <Card as="div">
             <CardBody>
               <h2 id="scan-heading" className="mb-2 text-lg font-semibold">
-                Find a core or part
+                {t('home.find')}
               </h2>
               <ScanBox onItem={openItem} preview={false} autoFocus />
             </CardBody>
@@ -64,7 +77,7 @@ export function HomePage() {
       <WaitingForYou me={me} />
       <section aria-labelledby="now-heading" className="mb-8">
         <h2 id="now-heading" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-soft">
-          What you can do now
+          {t('home.now')}
         </h2>
         <ul className="grid grid-cols-1 gap-4 sm:grid-cols-2 xl:grid-cols-3">
           {tiles.map((t) => (

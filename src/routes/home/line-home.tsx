@@ -9,6 +9,7 @@ import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
 import { Select } from '../../components/ui/select';
 import { plural } from '../../lib/format';
+import { t } from '../../lib/i18n';
 import { coreHref, itemHref, paths } from '../../lib/paths';
 import { WIP_STATE_WORDS, formatAge } from '../line/words';
 
@@ -28,14 +29,21 @@ function Empty({ children }: { children: string }) {
   return <p className="text-ink-soft">{children}</p>;
 }
 
+/** An age as `formatAge` gives it, in the screen's language. */
+function ageWords(hours: number): string {
+  if (hours < 1) return t('home.age.min', { n: Math.max(0, Math.round(hours * 60)) }, formatAge(hours));
+  if (hours < 48) return t('home.age.h', { n: Math.round(hours) }, formatAge(hours));
+  return t('home.age.days', { n: Math.round(hours / 24) }, formatAge(hours));
+}
+
 function PartLine({ item }: { item: WipItem }) {
   const tone = item.state === 'on_hold' ? 'hold' : item.state === 'in_work' ? 'accent' : 'wait';
   return (
     <Link to={itemHref(item.serial)} className={linkRow}>
       <span className="font-mono font-semibold">{item.serial}</span>
-      <Badge tone={tone}>{WIP_STATE_WORDS[item.state]}</Badge>
+      <Badge tone={tone}>{t(`home.wip.${item.state}`, undefined, WIP_STATE_WORDS[item.state])}</Badge>
       <span className="text-ink-soft">
-        {item.familyCode} · {formatAge(item.ageHours)}
+        {item.familyCode} · {ageWords(item.ageHours)}
       </span>
     </Link>
   );
@@ -58,11 +66,11 @@ function StationQueue() {
     <Card labelledBy="queue-heading">
       <CardHeader
         id="queue-heading"
-        title={`Your station’s queue (${code && wip.data ? wip.data.itemCount : '…'})`}
-        description="Parts due at this station, oldest first. Tap one to open it."
+        title={t('home.queue.title', { n: code && wip.data ? wip.data.itemCount : '…' })}
+        description={t('home.queue.description')}
         actions={
           <label className="flex items-center gap-2 text-sm">
-            <span>Station</span>
+            <span>{t('home.queue.station')}</span>
             <Select
               value={code ?? ''}
               onChange={(e) => setChosen(e.target.value)}
@@ -73,7 +81,7 @@ function StationQueue() {
       />
       <CardBody>
         {items.length === 0 ? (
-          <Empty>Nothing is waiting at this station.</Empty>
+          <Empty>{t('home.queue.empty')}</Empty>
         ) : (
           <ul className="divide-y divide-rule">
             {items.slice(0, 15).map((i) => (
@@ -95,12 +103,12 @@ function TeardownQueue() {
     <Card labelledBy="teardown-q-heading">
       <CardHeader
         id="teardown-q-heading"
-        title={`Cores awaiting teardown (${q.data?.total ?? '…'})`}
-        description="Received and accepted, not yet split into parts; oldest first."
+        title={t('home.teardown.title', { n: q.data?.total ?? '…' })}
+        description={t('home.teardown.description')}
       />
       <CardBody>
         {rows.length === 0 ? (
-          <Empty>Every accepted core has been torn down.</Empty>
+          <Empty>{t('home.teardown.empty')}</Empty>
         ) : (
           <ul className="divide-y divide-rule">
             {rows.slice(0, 12).map((r) => (
@@ -108,10 +116,10 @@ function TeardownQueue() {
                 <Link to={coreHref(r.serial)} className={linkRow}>
                   <span className="font-mono font-semibold">{r.serial}</span>
                   <span className="text-ink">
-                    {r.familyCode} · casting {r.castingNumber}
+                    {r.familyCode} · {t('home.teardown.casting', { number: r.castingNumber })}
                   </span>
                   <span className="text-ink-soft">
-                    received {r.receivedOn} ({plural(r.ageDays, 'day')} ago)
+                    {t('home.teardown.received', { day: r.receivedOn, count: r.ageDays })}
                   </span>
                 </Link>
               </li>

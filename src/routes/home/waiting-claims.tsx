@@ -6,6 +6,7 @@ import { Badge } from '../../components/ui/badge';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Icon } from '../../components/ui/icon';
 import { plural } from '../../lib/format';
+import { t as tr } from '../../lib/i18n';
 import { caHref, claimHref, paths } from '../../lib/paths';
 
 type Waiting = 'return' | 'teardown' | 'decision';
@@ -31,12 +32,16 @@ export function ClaimsWaiting({ waiting }: { waiting: Waiting }) {
     <Card labelledBy="claims-waiting-heading">
       <CardHeader
         id="claims-waiting-heading"
-        title={`${TITLES[waiting]} (${list.data?.total ?? '…'})`}
-        description="Warranty claims waiting for your step, oldest first on the list."
+        title={tr(
+          `home.claims.${waiting}`,
+          { n: list.data?.total ?? '…' },
+          `${TITLES[waiting]} (${list.data?.total ?? '…'})`,
+        )}
+        description={tr('home.claims.description')}
       />
       <CardBody>
         {rows.length === 0 ? (
-          <p className="text-ink-soft">Nothing is waiting.</p>
+          <p className="text-ink-soft">{tr('home.claims.empty')}</p>
         ) : (
           <ul className="flex flex-col divide-y divide-rule">
             {rows.map((c) => (
@@ -57,7 +62,7 @@ export function ClaimsWaiting({ waiting }: { waiting: Waiting }) {
         {(list.data?.total ?? 0) > rows.length && (
           <p className="mt-2">
             <Link to={`${paths.warrantyClaims}?view=${waiting}`} className="text-accent underline">
-              All {plural(list.data!.total, 'claim')} waiting
+              {tr('home.claims.all', { count: list.data!.total })}
             </Link>
           </p>
         )}
