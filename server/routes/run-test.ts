@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { parseRunCsv } from '../../shared/domain/run-csv.js';
-import { runCsvBody } from '../../shared/schemas/build.js';
+import { runCsvBody } from '../../shared/schemas/run-test.js';
 import { AppError } from '../errors.js';
 import type { Api } from '../http/api.js';
 import { EngineFamily } from '../models/index.js';
