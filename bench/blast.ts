@@ -1,6 +1,7 @@
 import { PLANT } from '../db/seeders/plant.js';
 import { createSequelize } from '../server/db.js';
-import { scopeOf, summarySql } from '../server/services/blast-radius.js';
+import { scopeOf } from '../server/services/blast-radius/scope.js';
+import { summarySql } from '../server/services/blast-radius/sql.js';
 import { todayIn } from '../shared/domain/warranty.js';
 import type { BlastRadiusJson } from '../shared/schemas/gauges.js';
 import { readBoth, type Ctx, type Side } from './measure.js';

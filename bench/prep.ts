@@ -6,7 +6,7 @@ import type { Ctx } from '../server/audit.js';
 import { createSequelize } from '../server/db.js';
 import { migrate } from '../server/migrate.js';
 import { Customer, Item, User } from '../server/models/index.js';
-import { releaseUnit } from '../server/services/release.js';
+import { releaseUnit } from '../server/services/release/index.js';
 
 /**
  * The product's own records to copy: the demo plant (made through the services), and its second

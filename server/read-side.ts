@@ -1,5 +1,5 @@
 import { QueryTypes, type Model, type ModelStatic, type Sequelize } from 'sequelize';
-import type { Freshness } from '../shared/schemas/build.js';
+import type { Freshness } from '../shared/schemas/trail.js';
 
 /**
  * Where read-only pages read: a PostgreSQL hot standby of the primary when DATABASE_READ_URL is

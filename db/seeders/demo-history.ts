@@ -8,7 +8,7 @@ import type { PartKind } from '../../shared/schemas/reference.js';
 import { recordAudit, systemCtx } from '../../server/audit.js';
 import { Customer, Item, Station, User, type EngineFamily } from '../../server/models/index.js';
 import { referenceData, type Reference } from '../../server/services/reference-cache.js';
-import { formCharacteristics, toRuleInForce } from '../../server/services/spec.js';
+import { formCharacteristics, toRuleInForce } from '../../server/services/spec/index.js';
 import { fitOf } from '../../server/services/gauge-suitability.js';
 import { PREFERRED_GAUGE } from './demo-parts.js';
 import { passingReadings } from './sample-readings.js';

@@ -11,7 +11,7 @@ import { receiveCoreBody, teardownBody } from '../../shared/schemas/intake.js';
 import { buildUnit } from '../../server/services/build/index.js';
 import { receiveLot } from '../../server/services/lots.js';
 import { receiveLotBody } from '../../shared/schemas/lots.js';
-import { releaseUnit } from '../../server/services/release.js';
+import { releaseUnit } from '../../server/services/release/index.js';
 import { todayIn } from '../../shared/domain/warranty.js';
 import { DEMO_USERS, PLANT } from './plant.js';
 import { nominalSizeClasses, passingReadings } from './sample-readings.js';

@@ -4,7 +4,7 @@ import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { todayIn } from '../../shared/domain/warranty.js';
 import { recordAudit, systemCtx } from '../../server/audit.js';
 import { personSnapshot } from '../../server/services/people.js';
-import { importApprovedBySeed } from '../../server/services/process-import.js';
+import { importApprovedBySeed } from '../../server/services/process/index.js';
 import {
   Characteristic,
   EngineFamily,

@@ -13,13 +13,9 @@ import {
   type PackingSlipContent,
 } from '../../shared/documents/content.js';
 import { limitsText, readingText } from '../../shared/documents/format.js';
-import {
-  LOT_KIND_LABELS,
-  RELEASE_MEANING,
-  type LotKind,
-  type TrailJson,
-  type TrailNode,
-} from '../../shared/schemas/build.js';
+import { LOT_KIND_LABELS, type LotKind } from '../../shared/schemas/build.js';
+import { RELEASE_MEANING } from '../../shared/schemas/release.js';
+import type { TrailJson, TrailNode } from '../../shared/schemas/trail.js';
 import { DISPOSITION_LABELS, NCR_STATE_LABELS, type Disposition } from '../../shared/schemas/ncr.js';
 import { PART_KIND_LABELS, type PartKind } from '../../shared/schemas/reference.js';
 import { invalid } from '../errors.js';

@@ -1,6 +1,6 @@
 import type { Sequelize } from 'sequelize';
 import { settleCharacteristicVersions } from '../services/characteristic-versions.js';
-import { settleRouteVersions } from '../services/process-routes.js';
+import { settleRouteVersions } from '../services/process/index.js';
 
 /**
  * Every minute, brings route and characteristic versions approved to take effect later into force

@@ -17,8 +17,7 @@ import {
 import type { Api } from '../http/api.js';
 import { sendCsv } from '../http/csv.js';
 import { fileDisposition } from '../http/files.js';
-import { blastCsv, blastPdf } from '../services/blast-export.js';
-import { blastRadius } from '../services/blast-radius.js';
+import { blastCsv, blastPdf, blastRadius } from '../services/blast-radius/index.js';
 import { contain, containmentDetail, draftCustomerNotice } from '../services/containment.js';
 import { approveStudy, listStudies, recordStudy } from '../services/gauge-studies.js';
 import {

@@ -1,5 +1,5 @@
 import type { Sequelize } from 'sequelize';
-import { paperQuery } from '../../shared/schemas/build.js';
+import { paperQuery } from '../../shared/schemas/release.js';
 import { labelsPrintedBody, serialParam } from '../../shared/schemas/intake.js';
 import { travellerPdf } from '../documents/traveller.js';
 import type { Api } from '../http/api.js';

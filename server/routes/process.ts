@@ -26,33 +26,36 @@ import {
   discardCharacteristicChange,
   draftCharacteristicChange,
 } from '../services/characteristic-versions.js';
-import { approveImport, discardImport, draftImport, importById, listImports } from '../services/process-import.js';
 import type { Api } from '../http/api.js';
-import { checkProcessDocument, exportProcessDocument } from '../services/process-document.js';
 import {
   addCastingNumber,
+  approveImport,
+  approveRoute,
+  checkProcessDocument,
+  compareRoutes,
   createCharacteristic,
   createPartKind,
   createStage,
+  discardImport,
+  discardRoute,
+  draftImport,
+  draftRoute,
+  exportProcessDocument,
+  importById,
   listCastingNumbers,
   listCharacteristics,
+  listImports,
   listPartKinds,
   listProcessStages,
-  retireCastingNumber,
-  retireCharacteristic,
-  updatePartKind,
-  updateStage,
-} from '../services/process.js';
-import {
-  approveRoute,
-  compareRoutes,
-  discardRoute,
-  draftRoute,
   listRouteVersions,
   moveItemToRoute,
+  retireCastingNumber,
+  retireCharacteristic,
   retireRoute,
   routeVersion,
-} from '../services/process-routes.js';
+  updatePartKind,
+  updateStage,
+} from '../services/process/index.js';
 
 const codeParam = z.strictObject({ code: partKindCode });
 const familyParam = z.strictObject({ family: familyCode });

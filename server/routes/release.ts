@@ -1,5 +1,5 @@
 import type { Sequelize } from 'sequelize';
-import { paperQuery, releaseBody } from '../../shared/schemas/build.js';
+import { paperQuery, releaseBody } from '../../shared/schemas/release.js';
 import { serialParam } from '../../shared/schemas/intake.js';
 import type { Config } from '../config.js';
 import { documentPdf, issueAfterRelease, issueReleaseDocuments, listDocuments } from '../documents/issue.js';
@@ -7,7 +7,7 @@ import type { Api } from '../http/api.js';
 import { fileDisposition } from '../http/files.js';
 import { signerFor } from '../ledger/signer.js';
 import type { DocumentKind } from '../models/issued-document.js';
-import { checkUnit, releaseUnit } from '../services/release.js';
+import { checkUnit, releaseUnit } from '../services/release/index.js';
 
 /** The release gate, the signed release, and the documents issued with it. */
 export function releaseRoutes(api: Api, sequelize: Sequelize, config: Config) {

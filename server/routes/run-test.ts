@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { runCsvBody } from '../../shared/schemas/build.js';
+import { runCsvBody } from '../../shared/schemas/run-test.js';
 import type { Api } from '../http/api.js';
 import { readRunTestCsv } from '../services/results/index.js';
 

@@ -14,7 +14,8 @@ import { spcCapability } from '../services/spc/capability.js';
 import { spcChart } from '../services/spc/charts.js';
 import { freezeLimits, limitsHistory } from '../services/spc/limits.js';
 import { listRehearsals, rehearseDraft } from '../services/spc/rehearsal.js';
-import { holdSignalPart, listSignals } from '../services/spc/signals.js';
+import { holdSignalPart } from '../services/spc/signal-hold.js';
+import { listSignals } from '../services/spc/signal-list.js';
 
 export function spcRoutes(api: Api, sequelize: Sequelize) {
   api.define({

@@ -8,7 +8,7 @@ import {
   updateDraftBody,
 } from '../../shared/schemas/spec.js';
 import type { Api } from '../http/api.js';
-import { approveRule, createDraft, discardDraft, ruleHistory, specBook, updateDraft } from '../services/spec.js';
+import { approveRule, createDraft, discardDraft, ruleHistory, specBook, updateDraft } from '../services/spec/index.js';
 
 export function specRoutes(api: Api, sequelize: Sequelize) {
   api.define({

@@ -1,5 +1,5 @@
 import type { Sequelize } from 'sequelize';
-import { lotCodeParam } from '../../shared/schemas/build.js';
+import { lotCodeParam } from '../../shared/schemas/trail.js';
 import { serialParam } from '../../shared/schemas/intake.js';
 import type { Api } from '../http/api.js';
 import type { ReadSide } from '../read-side.js';

@@ -4,7 +4,7 @@ import { recordAudit, type Ctx } from '../audit.js';
 import { conflict, invalid, notFound } from '../errors.js';
 import { enqueueMail, quoted } from '../mail/messages.js';
 import { Containment, ContainmentItem, DefectCode, FieldAction, Item, Signature } from '../models/index.js';
-import { blastParts, scopeOf, whereNow } from './blast-radius.js';
+import { blastParts, scopeOf, whereNow } from './blast-radius/index.js';
 import { moveItem } from './item-moves.js';
 import { raiseNonconformance } from './ncrs/index.js';
 import { signWithPassword } from './signatures.js';

@@ -5,7 +5,7 @@ import { DUE_SOON_DAYS, type GaugeState } from '../../shared/schemas/gauges.js';
 import type { GaugeChoice } from '../../shared/schemas/results.js';
 import type { Gauge } from '../models/index.js';
 import type { Reference } from './reference-cache.js';
-import type { formCharacteristics } from './spec.js';
+import type { formCharacteristics } from './spec/rules.js';
 
 type FormChar = ReturnType<typeof formCharacteristics>[number];
 

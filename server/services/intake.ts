@@ -14,7 +14,7 @@ import { recordAudit, type Ctx } from '../audit.js';
 import { conflict, invalid, notFound } from '../errors.js';
 import { CoreReceipt, Customer, EngineFamily, Item, Supplier, User } from '../models/index.js';
 import { attachmentsOf, claimUploads } from './attachments.js';
-import { castingNotAccepted } from './process.js';
+import { castingNotAccepted } from './process/index.js';
 import { findBySerial, newSerial, presentItem, routeFor } from './items.js';
 
 type ReceiveCore = z.output<typeof receiveCoreBody>;

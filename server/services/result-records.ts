@@ -9,7 +9,7 @@ import { Attachment, Characteristic, Item, Reading, StageResult, ToleranceRule, 
 import { presentAttachment } from './attachments.js';
 import { groupBy } from './group-by.js';
 import { referenceData, type Reference } from './reference-cache.js';
-import { toRuleInForce } from './spec.js';
+import { toRuleInForce } from './spec/rules.js';
 
 const READING_COLUMNS = [
   'id',

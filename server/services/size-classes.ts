@@ -4,7 +4,7 @@ import type { ChosenSizeClass } from '../../shared/schemas/results.js';
 import { invalid } from '../errors.js';
 import { Characteristic, Stage, StageResult, type Item } from '../models/index.js';
 import type { Reference } from './reference-cache.js';
-import { formCharacteristics, ruleForClass } from './spec.js';
+import { formCharacteristics, ruleForClass } from './spec/rules.js';
 import { currentResultSql } from './results/current.js';
 
 type FormChar = ReturnType<typeof formCharacteristics>[number];

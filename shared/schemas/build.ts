@@ -1,14 +1,8 @@
 import { z } from 'zod';
-import { enteredPassword } from './auth.js';
-import { text, isoDate, id } from './common.js';
+import { id, text } from './common.js';
 import { sizeClassCode } from './spec.js';
-import type { ChosenSizeClass, RecordedReading } from './results.js';
-import type { FieldActionJson } from './field-actions.js';
-import type { NcrSignature, NcrState, NcrTimelineEntry } from './ncr.js';
-import type { ItemJson } from './items.js';
-import type { AttachmentJson } from './attachments.js';
 
-/** Building a long block, the release gate, shipping, the trail and lot lookup. */
+/** Building a long block: its purchased lots, the parts scanned in, and replacing a part in one. */
 
 /** Pistons fit a block when the bores' mean oversize is within this of theirs, in inches (common practice). */
 export const OVERSIZE_MATCH_IN = 0.002;
@@ -93,16 +87,6 @@ export const buildBody = z
   });
 export type BuildBody = z.output<typeof buildBody>;
 
-/** Release is a signed act: the shipper's password, checked again, with the meaning "released for shipment". */
-export const releaseBody = z.strictObject({
-  customerId: id('Choose the customer.'),
-  reference: text('Enter the order reference.').trim().min(1, 'Enter the order reference.').max(60),
-  shipDate: isoDate('Use a date like 2026-12-02.'),
-  carrier: text().trim().max(80).default(''),
-  password: enteredPassword('Enter your password to sign the release.'),
-});
-export const RELEASE_MEANING = 'Released for shipment';
-
 /** Take a part out of a built unit and fit another in its place. */
 export const replacePartBody = z.strictObject({
   remove: serial('part to take out'),
@@ -113,165 +97,3 @@ export const replacePartBody = z.strictObject({
     .max(300, 'At most 300 characters.'),
 });
 export type ReplacePartBody = z.output<typeof replacePartBody>;
-export type ReleaseBody = z.output<typeof releaseBody>;
-
-export const lotCodeParam = z.strictObject({ lotCode: text().trim().min(1).max(60) });
-
-/** Which paper a printed document is laid out for. */
-export const paperQuery = z.strictObject({ paper: z.enum(['a4', 'letter']).default('a4') });
-
-export const runCsvBody = z.strictObject({
-  csv: text('Attach the test stand export.').min(1, 'The file is empty.').max(200_000, 'At most 200 kB.'),
-});
-
-export type BlockingReason = {
-  code:
-    | 'stage_missing'
-    | 'stage_failed'
-    | 'ncr_open'
-    | 'lot_ncr_open'
-    | 'run_test'
-    | 'not_finished'
-    | 'shipped'
-    | 'returned'
-    | 'part_scrapped'
-    | 'part_on_hold'
-    | 'lot_unusable';
-  message: string;
-  serial: string | null;
-  link: string;
-};
-
-export type ReleaseCheckJson = {
-  serial: string;
-  releasable: boolean;
-  reasons: BlockingReason[];
-  /** Every check that was made, passed or not, for the checklist. */
-  checks: { label: string; ok: boolean; link: string | null }[];
-};
-
-export type WarrantyJson = {
-  months: number;
-  km: number | null;
-  startsOn: string;
-  endsOn: string;
-  inWarranty: boolean;
-  daysLeft: number;
-  /** The cover in words: until when, and up to what distance. */
-  reason: string;
-};
-
-export type ShipmentJson = {
-  customer: { code: string; name: string } | null;
-  reference: string;
-  carrier: string | null;
-  shipDate: string;
-  releasedBy: string;
-  releasedAt: string;
-  warranty: WarrantyJson;
-};
-
-export type TrailNode = {
-  serial: string;
-  kind: string;
-  kindLabel: string;
-  status: string;
-  positionLabel: string | null;
-  familyCode: string;
-  /** How it is joined to its parent in the tree: harvested from a core, installed in a unit. */
-  link: 'harvested_from' | 'installed_in' | null;
-  /** For a part in a unit: when it was fitted, and when and why it was taken out again (if it was). */
-  fittedAt: string | null;
-  removedAt: string | null;
-  removedReason: string | null;
-  children: TrailNode[];
-};
-
-/** A reading on the trail: the stored reading without what only the station's forms use. */
-export type TrailReading = Omit<RecordedReading, 'kind' | 'ruleId'>;
-
-export type TrailResult = {
-  id: number;
-  serial: string;
-  stage: { code: string; name: string };
-  station: string | null;
-  operator: string;
-  gauge: string | null;
-  verdict: 'pass' | 'fail';
-  finishedAt: string;
-  supersedes: number | null;
-  supersededBy: number | null;
-  correctionReason: string | null;
-  reentryReason: string | null;
-  /** The size class the station chose per characteristic code. */
-  sizeClasses: Record<string, ChosenSizeClass>;
-  readings: TrailReading[];
-  photos: AttachmentJson[];
-};
-
-export type TrailNcr = {
-  number: string;
-  serial: string | null;
-  lotCode: string | null;
-  state: NcrState;
-  severity: string;
-  description: string;
-  disposition: string | null;
-  dispositionReason: string | null;
-  raisedAt: string;
-  timeline: NcrTimelineEntry[];
-  signatures: NcrSignature[];
-};
-
-export type TrailLot = {
-  kind: string;
-  supplier: string;
-  partNumber: string;
-  lotCode: string;
-  quantity: number;
-  attributes: Record<string, unknown>;
-  /** The lot's size class, and the part and class it was matched to at build. */
-  sizeClass: string | null;
-  matchedTo: string | null;
-};
-
-export type TrailJson = {
-  item: ItemJson;
-  /** The unit at the top of the tree (or the item itself when it is in none). */
-  tree: TrailNode;
-  lots: TrailLot[];
-  results: TrailResult[];
-  ncrs: TrailNcr[];
-  shipment: ShipmentJson | null;
-  warranty: WarrantyJson | null;
-  /** Problems found after the unit shipped, open or decided. */
-  fieldActions: FieldActionJson[];
-  /** Where this was read and how old it may be. */
-  readFrom: Freshness;
-};
-
-/**
- * Where a read-only page's data came from: the primary, or a hot standby that may be `lagSeconds`
- * behind it (0 when it has replayed everything it received).
- */
-export type Freshness = { source: 'primary' | 'standby'; lagSeconds: number; asOf: string };
-
-export type LotLookupJson = {
-  lotCode: string;
-  readFrom: Freshness;
-  lots: {
-    kind: string;
-    supplier: string;
-    partNumber: string;
-    lotCode: string;
-    status: string;
-    units: {
-      serial: string;
-      family: string;
-      status: string;
-      installedAt: string;
-      shipDate: string | null;
-      customer: string | null;
-    }[];
-  }[];
-};

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { idText, isoDate, text } from './common.js';
 import { PART_KINDS } from './reference.js';
-import type { Freshness } from './build.js';
+import type { Freshness } from './trail.js';
 
 /** Where a part stands at its current stage on the work-in-process board. */
 export const WIP_STATES = ['waiting', 'in_work', 'on_hold'] as const;

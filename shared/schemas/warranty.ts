@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import type { AttachmentJson } from './attachments.js';
-import type { TrailReading } from './build.js';
+import type { TrailReading } from './trail.js';
 import { id, idText, isoDate as commonIsoDate, paging, text } from './common.js';
 import { CREDIT_DECISIONS } from './intake.js';
 

@@ -1,4 +1,4 @@
-import type { Freshness } from '../../shared/schemas/build';
+import type { Freshness } from '../../shared/schemas/trail';
 
 const time = (iso: string) =>
   new Date(iso).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit', second: '2-digit' });

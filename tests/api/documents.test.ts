@@ -16,7 +16,7 @@ import type { CheckableDocument } from '../../shared/ledger/document.js';
 import { contentHash } from '../../shared/ledger/entry.js';
 import { fromHex } from '../../shared/ledger/merkle.js';
 import { attachedDocument } from '../../shared/ledger/pdf-file.js';
-import type { TrailJson } from '../../shared/schemas/build.js';
+import type { TrailJson } from '../../shared/schemas/trail.js';
 import { TEST_PASSWORD, cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
 import { OTHER_PLANT_KEY, TEST_PLANT_KEY } from '../support/ledger.js';
 import { finishedParts, plantToday, releasableUnit } from '../support/parts.js';

@@ -13,7 +13,7 @@ import {
   MailOutbox,
   Signature,
 } from '../../server/models/index.js';
-import { blastRadius } from '../../server/services/blast-radius.js';
+import { blastRadius } from '../../server/services/blast-radius/index.js';
 import { gaugeState } from '../../server/services/gauge-suitability.js';
 import { todayIn } from '../../shared/domain/warranty.js';
 import type { StationFormJson } from '../../shared/schemas/results.js';

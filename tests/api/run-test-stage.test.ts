@@ -1,7 +1,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEvent, Item, Stage } from '../../server/models/index.js';
-import { releaseCheck } from '../../server/services/release.js';
+import { releaseCheck } from '../../server/services/release/index.js';
 import { cookieFor, makeTestApp, makeUser, unique, type TestApp } from '../support/app.js';
 import { releasableUnit } from '../support/parts.js';
 

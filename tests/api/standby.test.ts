@@ -14,7 +14,7 @@ import { seedDemoIfEmpty } from '../../db/seeders/demo.js';
 import { createApp } from '../../server/app.js';
 import { createSequelize } from '../../server/db.js';
 import { migrate } from '../../server/migrate.js';
-import type { LotLookupJson, TrailJson } from '../../shared/schemas/build.js';
+import type { LotLookupJson, TrailJson } from '../../shared/schemas/trail.js';
 import type { WipJson } from '../../shared/schemas/line.js';
 import { cookieFor, makeTestApp, makeUser, type TestApp } from '../support/app.js';
 import { firstStageSubmissions, type Submission } from '../support/drills.js';

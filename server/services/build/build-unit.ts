@@ -7,7 +7,7 @@ import { Item, ItemLink, type EngineFamily } from '../../models/index.js';
 import { findBySerial, newSerial, presentItem, routeFor } from '../items.js';
 import { moveItemQuietly } from '../item-moves.js';
 import { matchSizeClasses, type SizeMatch } from '../size-classes.js';
-import { familyByCode } from '../spec.js';
+import { familyByCode } from '../spec/rules.js';
 import { fitProblem, pistonMismatch } from './fit.js';
 import { drawLots, lotsToDraw, type Drawn } from './lots.js';
 

@@ -3,7 +3,7 @@ import type { AlertsJson, NcrAgeJson, ShippingJson, ShipRow, TeardownQueueRow } 
 import { Item } from '../../models/index.js';
 import { readQuery } from '../../read/read-query.js';
 import { plantSettings } from '../plant.js';
-import { releaseCheck } from '../release.js';
+import { releaseCheck } from '../release/index.js';
 
 /** Cores received and accepted, not yet torn down: oldest first. */
 export async function teardownQueue(sequelize: Sequelize): Promise<{ rows: TeardownQueueRow[]; total: number }> {

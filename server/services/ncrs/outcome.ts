@@ -4,7 +4,7 @@ import { recordAudit, type Ctx } from '../../audit.js';
 import { enqueueMail } from '../../mail/messages.js';
 import { Item, Nonconformance, PartLot, StageResult } from '../../models/index.js';
 import { routeOfItem } from '../items.js';
-import { notifyIfReleasable } from '../release.js';
+import { notifyIfReleasable } from '../release/index.js';
 import { blockingNcrsOf, installedIn } from './holds.js';
 import { NCR_LIFECYCLE } from '../../../shared/domain/ncr-lifecycle.js';
 import { decidedMail } from './mail.js';

@@ -3,7 +3,7 @@ import type { ReadingJson } from '../../../shared/schemas/results.js';
 import type { StageResult } from '../../models/index.js';
 import { moveItemQuietly } from '../item-moves.js';
 import { raiseNonconformance, settleRework, type FailingReading } from '../ncrs/index.js';
-import { checkControlLimits } from '../spc/signals.js';
+import { checkControlLimits } from '../spc/signal-check.js';
 import { lower, type FormChar } from './common.js';
 import type { Submission } from './submission.js';
 

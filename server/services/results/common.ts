@@ -3,7 +3,7 @@ import { conflict, notFound } from '../../errors.js';
 import { StageReentry } from '../../models/index.js';
 import type { routeOfItem } from '../items.js';
 import type { Reference } from '../reference-cache.js';
-import type { formCharacteristics } from '../spec.js';
+import type { formCharacteristics } from '../spec/rules.js';
 
 export type Route = NonNullable<Awaited<ReturnType<typeof routeOfItem>>>;
 export type FormChar = ReturnType<typeof formCharacteristics>[number];

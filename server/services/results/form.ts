@@ -6,7 +6,7 @@ import { gaugeChoices } from '../gauge-suitability.js';
 import { findBySerial, presentItem } from '../items.js';
 import { blockingNcrsOf } from '../ncrs/index.js';
 import { referenceData } from '../reference-cache.js';
-import { formCharacteristics } from '../spec.js';
+import { formCharacteristics } from '../spec/rules.js';
 import { openReentry, stationByCode } from './common.js';
 import { currentResultAt } from './current.js';
 import { checkSequence } from './sequence.js';

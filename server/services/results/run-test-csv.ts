@@ -5,7 +5,7 @@ import { AppError, conflict } from '../../errors.js';
 import { Item } from '../../models/index.js';
 import { findBySerial } from '../items.js';
 import { referenceData } from '../reference-cache.js';
-import { formCharacteristics } from '../spec.js';
+import { formCharacteristics } from '../spec/rules.js';
 
 /**
  * A test stand's CSV export read into the readings of the unit's run test: the stage its route

@@ -12,7 +12,7 @@ import { blockingNcrsOf } from '../ncrs/index.js';
 import { requireQualified } from '../qualifications.js';
 import { referenceData, VERSION_SQL, versionRead, type Reference, type VersionRow } from '../reference-cache.js';
 import { chooseSizeClasses } from '../size-classes.js';
-import { formCharacteristics } from '../spec.js';
+import { formCharacteristics } from '../spec/rules.js';
 import { lockUnitsReachedBy } from '../unit-locks.js';
 import { routeAfterVerdict } from './after-verdict.js';
 import { lower, openReentry, stationByCode } from './common.js';

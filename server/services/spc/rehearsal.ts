@@ -12,7 +12,7 @@ import {
 import { recordAudit, type Ctx } from '../../audit.js';
 import { conflict, notFound } from '../../errors.js';
 import { EngineFamily, RuleRehearsal, ToleranceRule } from '../../models/index.js';
-import { inForceAt, toRuleInForce } from '../spec.js';
+import { inForceAt, toRuleInForce } from '../spec/rules.js';
 import { limitsSnapshot, sameLimits } from './approval.js';
 import { limitsFor, limitsInForce, namesById } from './limits.js';
 import { rehearsalReadings, shippedUnitsHolding } from './readings.js';
@@ -73,6 +73,19 @@ export async function rehearseDraft(
     gauge: body.gauge,
   });
   const period = periodBounds(body.from, body.to);
+  const judged = await judgeAgainstDraft(sequelize, rule, s, period);
+  const summary = await summarise(sequelize, rule, s, period, judged);
+  const row = await storeRehearsal(sequelize, ctx, { rule, s, period, summary });
+  const name = ctx.actor!.name ?? (await namesById([ctx.actor!.id])).get(ctx.actor!.id) ?? '';
+  return present(row, rule, name);
+}
+
+type Scope = Awaited<ReturnType<typeof resolveScope>>;
+type Period = ReturnType<typeof periodBounds>;
+type Judged = Awaited<ReturnType<typeof judgeAgainstDraft>>;
+
+/** The period's parts judged again by the draft and by the version in force now. */
+async function judgeAgainstDraft(sequelize: Sequelize, rule: ToleranceRule, s: Scope, period: Period) {
   const parts = await rehearsalReadings(sequelize, {
     familyId: s.family.id,
     characteristicId: s.characteristic.id,
@@ -102,7 +115,18 @@ export async function rehearseDraft(
     unit: s.characteristic.unit,
     sigmaWithin: sigmaWithin || null,
   });
+  return { parts, current, sigmaWithin, draft, r };
+}
 
+/** The summary kept with the rehearsal: counts, flips, capability before and after, shipped units. */
+async function summarise(
+  sequelize: Sequelize,
+  rule: ToleranceRule,
+  s: Scope,
+  period: Period,
+  judged: Judged,
+): Promise<RehearsalSummary> {
+  const { parts, current, sigmaWithin, draft, r } = judged;
   const byItem = new Map(parts.map((p) => [String(p.itemId), p]));
   const failing = r.parts.filter((f) => f.flip === 'pass-to-fail').map((f) => Number(f.partId));
   const shipped = await shippedUnitsHolding(sequelize, failing);
@@ -120,7 +144,7 @@ export async function rehearseDraft(
     .sort((a, b) => a.at.localeCompare(b.at));
   const currentLimits = current ? limitsOf(toRuleInForce(current)) : null;
   const draftLimits = limitsOf(draft);
-  const summary: RehearsalSummary = {
+  return {
     period: { from: period.from.toISOString(), to: period.to.toISOString() },
     station: s.station?.code ?? null,
     gauge: s.gauge?.code ?? null,
@@ -152,9 +176,16 @@ export async function rehearseDraft(
     })),
     truncated: flips.length > REHEARSAL_LIST_LIMIT || shipped.length > REHEARSAL_LIST_LIMIT,
   };
+}
 
-  // the record: the draft is locked and must still be a draft with the limits just rehearsed
-  const row = await sequelize.transaction(async (transaction) => {
+/** The record: the draft is locked and must still be a draft with the limits just rehearsed. */
+async function storeRehearsal(
+  sequelize: Sequelize,
+  ctx: Ctx,
+  x: { rule: ToleranceRule; s: Scope; period: Period; summary: RehearsalSummary },
+) {
+  const { rule, s, period, summary } = x;
+  return sequelize.transaction(async (transaction) => {
     const locked = await ToleranceRule.findByPk(rule.id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!locked || locked.status !== 'draft' || !sameLimits(limitsSnapshot(locked), limitsSnapshot(rule))) {
       throw conflict('The draft changed while it was being rehearsed: rehearse it again.', {
@@ -194,8 +225,6 @@ export async function rehearseDraft(
     });
     return created;
   });
-  const name = ctx.actor!.name ?? (await namesById([ctx.actor!.id])).get(ctx.actor!.id) ?? '';
-  return present(row, rule, name);
 }
 
 /** A rule's rehearsals, newest first; `stale` when the draft has changed since. */

@@ -4,7 +4,7 @@ import type { SpecLimitsJson } from '../../../shared/schemas/spc.js';
 import { invalid, notFound } from '../../errors.js';
 import type { Characteristic, EngineFamily, Gauge, Stage, Station } from '../../models/index.js';
 import { referenceData, type Reference } from '../reference-cache.js';
-import { inForceAt, toRuleInForce } from '../spec.js';
+import { inForceAt, toRuleInForce } from '../spec/rules.js';
 
 /** What a chart, capability or rehearsal is about: one family's characteristic, perhaps one station or gauge. */
 export type Scope = {

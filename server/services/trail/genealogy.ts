@@ -1,5 +1,5 @@
 import { QueryTypes } from 'sequelize';
-import type { TrailNode } from '../../../shared/schemas/build.js';
+import type { TrailNode } from '../../../shared/schemas/trail.js';
 import { PART_KIND_LABELS, type PartKind } from '../../../shared/schemas/reference.js';
 import type { Item } from '../../models/index.js';
 import type { ReadSide } from '../../read-side.js';

@@ -1,12 +1,12 @@
 import type { Sequelize } from 'sequelize';
-import type { TrailJson } from '../../../shared/schemas/build.js';
+import type { TrailJson } from '../../../shared/schemas/trail.js';
 import { Item, Shipment, StageResult } from '../../models/index.js';
 import { notFound } from '../../errors.js';
 import { freshnessOf, primaryOnly, selectModels, type ReadSide } from '../../read-side.js';
 import { listFieldActions } from '../field-actions.js';
 import { checkedSerial, presentItem } from '../items.js';
 import { referenceData } from '../reference-cache.js';
-import { presentShipment } from '../release.js';
+import { presentShipment } from '../release/index.js';
 import { loadResultRecords } from '../result-records.js';
 import { genealogyTree, itemsInTree, linksAround } from './genealogy.js';
 import { presentTrailLots, presentTrailNcrs, presentTrailResults } from './present.js';

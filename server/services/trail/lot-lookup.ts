@@ -1,5 +1,5 @@
 import { QueryTypes } from 'sequelize';
-import type { LotLookupJson } from '../../../shared/schemas/build.js';
+import type { LotLookupJson } from '../../../shared/schemas/trail.js';
 import { freshnessOf, type ReadSide } from '../../read-side.js';
 
 /** The lot lookup's one statement (`:lotCode` however it was typed); the benchmark runs it too. */

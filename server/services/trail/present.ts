@@ -1,4 +1,4 @@
-import type { TrailJson, TrailNcr, TrailResult } from '../../../shared/schemas/build.js';
+import type { TrailJson, TrailNcr, TrailResult } from '../../../shared/schemas/trail.js';
 import type { NcrState } from '../../../shared/schemas/ncr.js';
 import type { Item, Signature, StageResult } from '../../models/index.js';
 import { ncrTimeline } from '../ncr-timeline.js';

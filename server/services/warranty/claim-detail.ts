@@ -112,6 +112,61 @@ export async function builtRecords(sequelize: Sequelize, itemIds: number[], t?: 
 export async function claimDetail(sequelize: Sequelize, number: string, t?: Transaction): Promise<ClaimJson> {
   const claim = await WarrantyClaim.findOne({ where: { number }, transaction: t });
   if (!claim) throw notFound(`Claim ${number}`);
+  const d = await loadClaim(sequelize, claim, t);
+  const { unit, shipment, customer, family, fitted, lots, records, name } = d;
+  const shipDate = shipDateOf(shipment, d.plant.timeZone);
+  const returned = claim.unitReturnedAt !== null;
+  return {
+    number: claim.number,
+    state: claim.state as ClaimState,
+    demo: claim.demo,
+    unit: { serial: unit.serial, familyCode: family.code, familyName: family.name, status: unit.status },
+    shipment: { reference: shipment.reference, shipDate, customer: d.shipCustomer?.name ?? null },
+    customer: customer.name,
+    customerId: customer.id,
+    customerReference: claim.customerReference,
+    failedOn: claim.failedOn,
+    distanceKm: claim.distanceKm,
+    hours: claim.hours === null ? null : Number(claim.hours),
+    symptom: claim.symptom,
+    installer: claim.installer,
+    covered: claim.covered,
+    coverage: { covered: claim.covered, reason: claim.coverageReason, endsOn: claim.warrantyEndsOn },
+    daysInService: daysBetween(shipDate, claim.failedOn),
+    decision: claim.decision,
+    unitReturned: returned,
+    next: nextStep(claim.state as ClaimState, returned),
+    openedAt: claim.createdAt.toISOString(),
+    openedBy: name(claim.openedById) ?? '',
+    unitReturnedAt: claim.unitReturnedAt?.toISOString() ?? null,
+    returnedBy: name(claim.returnedById),
+    tornDownAt: claim.tornDownAt?.toISOString() ?? null,
+    tornDownBy: name(claim.tornDownById),
+    teardownNotes: claim.teardownNotes,
+    decisionReason: claim.decisionReason,
+    decidedBy: name(claim.decidedById),
+    decidedAt: claim.decidedAt?.toISOString() ?? null,
+    closedBy: name(claim.closedById),
+    closedAt: claim.closedAt?.toISOString() ?? null,
+    parts: fitted.map((p) => ({
+      serial: p.serial,
+      kind: p.kind,
+      kindLabel: PART_KIND_LABELS[p.kind],
+      positionLabel: p.position_label,
+      characteristics: records.characteristics(p.item_id),
+    })),
+    lots: lots.map((l) => ({ lotCode: l.lot_code, kind: l.kind, supplier: l.supplier, partNumber: l.part_number })),
+    findings: d.findings.map(findingPresenter(d)),
+    signatures: d.signatures.map(presentSignature),
+    correctiveActions: d.cas,
+  };
+}
+
+type Loaded = Awaited<ReturnType<typeof loadClaim>>;
+
+/** Everything the claim's page shows, in three rounds of reads. */
+async function loadClaim(sequelize: Sequelize, claim: WarrantyClaim, t?: Transaction) {
+  const number = claim.number;
   const [unit, shipment, customer, findings, signatures, plant, cas] = await Promise.all([
     Item.findByPk(claim.unitItemId, { transaction: t }),
     Shipment.findByPk(claim.shipmentId, { transaction: t }),
@@ -160,15 +215,36 @@ export async function claimDetail(sequelize: Sequelize, number: string, t?: Tran
     fitted.map((p) => p.item_id),
     t,
   );
-  const causeById = new Map(causes.map((c) => [c.id, c]));
-  const photosOf = groupBy(photos, (p) => p.entityId);
-  const fittedById = new Map(fitted.map((p) => [p.item_id, p]));
-  const lotById = new Map(lots.map((l) => [l.id, l]));
+  return {
+    unit: unit!,
+    shipment: shipment!,
+    customer: customer!,
+    family,
+    findings,
+    signatures,
+    plant,
+    cas,
+    fitted,
+    lots,
+    causes,
+    photos,
+    shipCustomer,
+    name,
+    records,
+  };
+}
 
-  const presentFinding = (f: WarrantyFinding): FindingJson => {
+/** A finding beside what was measured on its part (or, for a lot, on the unit) when it was built. */
+function findingPresenter(d: Loaded) {
+  const { unit, records, name } = d;
+  const causeById = new Map(d.causes.map((c) => [c.id, c]));
+  const photosOf = groupBy(d.photos, (p) => p.entityId);
+  const fittedById = new Map(d.fitted.map((p) => [p.item_id, p]));
+  const lotById = new Map(d.lots.map((l) => [l.id, l]));
+  return (f: WarrantyFinding): FindingJson => {
     const part = f.itemId ? fittedById.get(f.itemId) : undefined;
     const lot = f.partLotId ? lotById.get(f.partLotId) : undefined;
-    const subjectId = part ? part.item_id : unit!.id;
+    const subjectId = part ? part.item_id : unit.id;
     const chars = new Map(records.characteristics(subjectId).map((c) => [c.code, c]));
     const measurements: MeasurementJson[] = (f.measurements ?? []).map((m) => {
       const c = chars.get(m.characteristic);
@@ -206,52 +282,5 @@ export async function claimDetail(sequelize: Sequelize, number: string, t?: Tran
       recordedAt: f.createdAt.toISOString(),
       built: records.built(subjectId),
     };
-  };
-
-  const shipDate = shipDateOf(shipment!, plant.timeZone);
-  const returned = claim.unitReturnedAt !== null;
-  return {
-    number: claim.number,
-    state: claim.state as ClaimState,
-    demo: claim.demo,
-    unit: { serial: unit!.serial, familyCode: family.code, familyName: family.name, status: unit!.status },
-    shipment: { reference: shipment!.reference, shipDate, customer: shipCustomer?.name ?? null },
-    customer: customer!.name,
-    customerId: customer!.id,
-    customerReference: claim.customerReference,
-    failedOn: claim.failedOn,
-    distanceKm: claim.distanceKm,
-    hours: claim.hours === null ? null : Number(claim.hours),
-    symptom: claim.symptom,
-    installer: claim.installer,
-    covered: claim.covered,
-    coverage: { covered: claim.covered, reason: claim.coverageReason, endsOn: claim.warrantyEndsOn },
-    daysInService: daysBetween(shipDate, claim.failedOn),
-    decision: claim.decision,
-    unitReturned: returned,
-    next: nextStep(claim.state as ClaimState, returned),
-    openedAt: claim.createdAt.toISOString(),
-    openedBy: name(claim.openedById) ?? '',
-    unitReturnedAt: claim.unitReturnedAt?.toISOString() ?? null,
-    returnedBy: name(claim.returnedById),
-    tornDownAt: claim.tornDownAt?.toISOString() ?? null,
-    tornDownBy: name(claim.tornDownById),
-    teardownNotes: claim.teardownNotes,
-    decisionReason: claim.decisionReason,
-    decidedBy: name(claim.decidedById),
-    decidedAt: claim.decidedAt?.toISOString() ?? null,
-    closedBy: name(claim.closedById),
-    closedAt: claim.closedAt?.toISOString() ?? null,
-    parts: fitted.map((p) => ({
-      serial: p.serial,
-      kind: p.kind,
-      kindLabel: PART_KIND_LABELS[p.kind],
-      positionLabel: p.position_label,
-      characteristics: records.characteristics(p.item_id),
-    })),
-    lots: lots.map((l) => ({ lotCode: l.lot_code, kind: l.kind, supplier: l.supplier, partNumber: l.part_number })),
-    findings: findings.map(presentFinding),
-    signatures: signatures.map(presentSignature),
-    correctiveActions: cas,
   };
 }

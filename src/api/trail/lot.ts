@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { LotLookupJson } from '../../../shared/schemas/build';
+import type { LotLookupJson } from '../../../shared/schemas/trail';
 import { http } from '../../lib/http';
 import { trailKeys } from './keys';
 

@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { TrailJson } from '../../../shared/schemas/build';
+import type { TrailJson } from '../../../shared/schemas/trail';
 import { http } from '../../lib/http';
 import { trailKeys } from './keys';
 

@@ -4,7 +4,7 @@ import { buildBody, LOT_KINDS, SIZED_LOT_KINDS, type BuildBody } from '../../../
 import type { EngineFamily } from '../../../shared/schemas/reference';
 import type { ItemJson } from '../../api/items/types';
 import { useFamilies } from '../../api/reference/families';
-import { useBuildUnit } from '../../api/units/build-unit';
+import { useBuildUnit } from '../../api/build/build-unit';
 import { Caution } from '../../components/caution';
 import { Form, SubmitButton } from '../../components/form';
 import { TextAreaField } from '../../components/form-fields';

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { replacePartBody } from '../../../shared/schemas/build';
 import type { ItemJson } from '../../api/items/types';
-import { useReplacePart } from '../../api/units/replace-part';
+import { useReplacePart } from '../../api/build/replace-part';
 import { RadioGroupField } from '../../components/choice-fields';
 import { Form, SubmitButton } from '../../components/form';
 import { TextAreaField, TextField } from '../../components/form-fields';

@@ -1,5 +1,5 @@
 import { Link } from 'react-router';
-import type { BlockingReason, ReleaseCheckJson } from '../../../shared/schemas/build';
+import type { BlockingReason, ReleaseCheckJson } from '../../../shared/schemas/release';
 import { Icon, type IconName } from '../../components/ui/icon';
 import { plural } from '../../lib/format';
 

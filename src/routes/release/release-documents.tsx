@@ -1,4 +1,4 @@
-import { useIssueDocuments, useUnitDocuments } from '../../api/units/documents';
+import { useIssueDocuments, useUnitDocuments } from '../../api/release/documents';
 import { Button, buttonClass } from '../../components/ui/button';
 import { Notice } from '../../components/ui/notice';
 import { documentHref } from '../../lib/paths';

@@ -1,8 +1,8 @@
-import { RELEASE_MEANING, releaseBody, type ReleaseBody } from '../../../shared/schemas/build';
+import { RELEASE_MEANING, releaseBody, type ReleaseBody } from '../../../shared/schemas/release';
 import { useSignedIn } from '../../api/auth/me';
 import { usePlant } from '../../api/plant/plant';
 import { useCustomers } from '../../api/reference/customers';
-import { useReleaseUnit, type ReleaseReply } from '../../api/units/release-unit';
+import { useReleaseUnit, type ReleaseReply } from '../../api/release/release-unit';
 import { Form, SubmitButton } from '../../components/form';
 import { SelectField, TextField } from '../../components/form-fields';
 import { PASSWORD_HINT, SigningStatement } from '../../components/signing-statement';

@@ -1,5 +1,5 @@
 import { Link } from 'react-router';
-import type { TrailNode } from '../../../shared/schemas/build';
+import type { TrailNode } from '../../../shared/schemas/trail';
 import { StatusBadge } from '../../components/item-status';
 import { formatWhen } from '../../lib/format';
 import { partName } from '../../lib/item-status';

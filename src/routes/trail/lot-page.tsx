@@ -1,7 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { createColumnHelper, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router';
-import type { LotLookupJson } from '../../../shared/schemas/build';
+import type { LotLookupJson } from '../../../shared/schemas/trail';
 import { lotQueryOptions, normalLotCode, useLot } from '../../api/trail/lot';
 import { DataTable } from '../../components/data-table';
 import { StatusBadge } from '../../components/item-status';

@@ -1,5 +1,6 @@
 import { Link } from 'react-router';
-import { LOT_KIND_LABELS, type LotKind, type TrailLot } from '../../../shared/schemas/build';
+import { LOT_KIND_LABELS, type LotKind } from '../../../shared/schemas/build';
+import type { TrailLot } from '../../../shared/schemas/trail';
 import { Card, CardHeader } from '../../components/ui/card';
 import { EmptyRow, Table, TBody, TD, TH, THead, TR } from '../../components/ui/table';
 import { lotHref } from '../../lib/paths';

@@ -1,6 +1,6 @@
 import { Link } from 'react-router';
 import { DISPOSITION_LABELS, NCR_STATE_LABELS, type Disposition } from '../../../shared/schemas/ncr';
-import type { TrailNcr } from '../../../shared/schemas/build';
+import type { TrailNcr } from '../../../shared/schemas/trail';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { formatWhen } from '../../lib/format';
 import { lotHref, ncrHref } from '../../lib/paths';

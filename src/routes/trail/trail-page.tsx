@@ -1,7 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { Link, type LoaderFunctionArgs } from 'react-router';
 import { parseSerial } from '../../../shared/domain/serial';
-import type { TrailJson } from '../../../shared/schemas/build';
+import type { TrailJson } from '../../../shared/schemas/trail';
 import { trailQueryOptions, useTrail } from '../../api/trail/trail';
 import { StatusBadge } from '../../components/item-status';
 import { DataAge } from '../../components/data-age';

@@ -1,5 +1,5 @@
 import { memo, useCallback, useId, useMemo, useState } from 'react';
-import type { TrailNode, TrailResult } from '../../../shared/schemas/build';
+import type { TrailNode, TrailResult } from '../../../shared/schemas/trail';
 import { Badge } from '../../components/ui/badge';
 import { Card, CardBody, CardHeader } from '../../components/ui/card';
 import { Field } from '../../components/ui/field';

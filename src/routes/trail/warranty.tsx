@@ -1,4 +1,4 @@
-import type { ShipmentJson, WarrantyJson } from '../../../shared/schemas/build';
+import type { ShipmentJson, WarrantyJson } from '../../../shared/schemas/release';
 import { Icon, type IconName } from '../../components/ui/icon';
 import { formatGrouped, plural } from '../../lib/format';
 

@@ -7,7 +7,7 @@ import { serverSorting } from '../../../components/filtered-list';
 import { Badge, type Tone } from '../../../components/ui/badge';
 import { formatWhen } from '../../../lib/format';
 
-/** The events that queue mail (server/services/ncrs/, release.ts), in words. */
+/** The events that queue mail (server/services/ncrs/, release/), in words. */
 const REASON_WORDS: Record<string, string> = {
   'ncr.raised': 'NCR raised',
   'ncr.decided': 'NCR decided',

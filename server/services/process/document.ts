@@ -4,11 +4,11 @@ import {
   crossCheck,
   type ProcessDocument,
   type ProcessDocumentInput,
-} from '../../shared/schemas/process-document.js';
-import type { PositionScheme } from '../../shared/domain/positions.js';
-import type { CharacteristicBody } from '../../shared/schemas/process.js';
-import { invalid } from '../errors.js';
-import { settleRouteVersions } from './process-routes.js';
+} from '../../../shared/schemas/process-document.js';
+import type { PositionScheme } from '../../../shared/domain/positions.js';
+import type { CharacteristicBody } from '../../../shared/schemas/process.js';
+import { invalid } from '../../errors.js';
+import { settleRouteVersions } from './route-clock.js';
 import {
   Characteristic,
   EngineFamily,
@@ -17,7 +17,7 @@ import {
   Route,
   RouteStage,
   Stage,
-} from '../models/index.js';
+} from '../../models/index.js';
 
 const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
 

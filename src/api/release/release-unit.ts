@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { ReleaseBody, ReleaseCheckJson, ShipmentJson } from '../../../shared/schemas/build';
+import type { ReleaseBody, ReleaseCheckJson, ShipmentJson } from '../../../shared/schemas/release';
 import { ApiError, http } from '../../lib/http';
 import { auditKeys } from '../audit/keys';
 import { itemKeys } from '../items/keys';
 import { trailKeys } from '../trail/keys';
-import { unitKeys } from './keys';
+import { releaseKeys } from './keys';
 
 export type ReleaseReply = { check: ReleaseCheckJson; shipment: ShipmentJson };
 
@@ -15,8 +15,8 @@ export function useReleaseUnit() {
   const queryClient = useQueryClient();
   const refresh = (serial: string) =>
     Promise.all([
-      queryClient.invalidateQueries({ queryKey: unitKeys.releaseCheck(serial) }),
-      queryClient.invalidateQueries({ queryKey: unitKeys.documents(serial) }),
+      queryClient.invalidateQueries({ queryKey: releaseKeys.releaseCheck(serial) }),
+      queryClient.invalidateQueries({ queryKey: releaseKeys.documents(serial) }),
       queryClient.invalidateQueries({ queryKey: itemKeys.one(serial) }),
       queryClient.invalidateQueries({ queryKey: trailKeys.all }),
       queryClient.invalidateQueries({ queryKey: auditKeys.all }),

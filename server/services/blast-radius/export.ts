@@ -1,8 +1,9 @@
 import PDFDocument from 'pdfkit';
 import type { Sequelize } from 'sequelize';
-import { csvDocument } from '../../shared/csv.js';
-import { WHERE_NOW_LABELS, type BlastQuery } from '../../shared/schemas/gauges.js';
-import { blastRadius, blastReadings, scopeOf } from './blast-radius.js';
+import { csvDocument } from '../../../shared/csv.js';
+import { WHERE_NOW_LABELS, type BlastQuery } from '../../../shared/schemas/gauges.js';
+import { blastRadius, blastReadings } from './radius.js';
+import { scopeOf } from './scope.js';
 
 /** The blast radius as files: every reading as CSV (one row each, with where its part is now), a summary as PDF. */
 

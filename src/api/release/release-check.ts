@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { ReleaseCheckJson } from '../../../shared/schemas/build';
+import type { ReleaseCheckJson } from '../../../shared/schemas/release';
 import { http } from '../../lib/http';
-import { unitKeys } from './keys';
+import { releaseKeys } from './keys';
 
 /** The release gate for a long block; `serial` in its printed form (parseSerial). */
 export const fetchReleaseCheck = (serial: string, signal?: AbortSignal) =>
@@ -9,7 +9,7 @@ export const fetchReleaseCheck = (serial: string, signal?: AbortSignal) =>
 
 export const releaseCheckQueryOptions = (serial: string) =>
   queryOptions({
-    queryKey: unitKeys.releaseCheck(serial),
+    queryKey: releaseKeys.releaseCheck(serial),
     queryFn: ({ signal }) => fetchReleaseCheck(serial, signal),
   });
 

@@ -5,7 +5,7 @@ import { auditKeys } from '../audit/keys';
 import { itemKeys } from '../items/keys';
 import type { ItemJson } from '../items/types';
 import { trailKeys } from '../trail/keys';
-import { unitKeys } from './keys';
+import { releaseKeys } from '../release/keys';
 
 /** Takes a part out of a built unit and fits another; a refusal (409 `replace_refused`) says why per field. */
 export const replacePart = ({ serial, body }: { serial: string; body: ReplacePartBody }) =>
@@ -19,7 +19,7 @@ export function useReplacePart() {
       queryClient.setQueryData(itemKeys.one(unit.serial), unit);
       await Promise.all([
         queryClient.invalidateQueries({ queryKey: itemKeys.all }),
-        queryClient.invalidateQueries({ queryKey: unitKeys.releaseCheck(unit.serial) }),
+        queryClient.invalidateQueries({ queryKey: releaseKeys.releaseCheck(unit.serial) }),
         queryClient.invalidateQueries({ queryKey: trailKeys.all }),
         queryClient.invalidateQueries({ queryKey: auditKeys.all }),
       ]);

@@ -1,7 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { http } from '../../lib/http';
 import { auditKeys } from '../audit/keys';
-import { unitKeys } from './keys';
+import { releaseKeys } from './keys';
 
 export type IssuedDocumentJson = {
   kind: 'build_record' | 'certificate' | 'packing_slip';
@@ -20,7 +20,10 @@ export const fetchUnitDocuments = (serial: string, signal?: AbortSignal) =>
   http<UnitDocumentsJson>(url(serial), { signal });
 
 export const unitDocumentsQueryOptions = (serial: string) =>
-  queryOptions({ queryKey: unitKeys.documents(serial), queryFn: ({ signal }) => fetchUnitDocuments(serial, signal) });
+  queryOptions({
+    queryKey: releaseKeys.documents(serial),
+    queryFn: ({ signal }) => fetchUnitDocuments(serial, signal),
+  });
 
 export const useUnitDocuments = (serial: string) => useQuery(unitDocumentsQueryOptions(serial));
 
@@ -31,7 +34,7 @@ export function useIssueDocuments() {
     mutationFn: (serial: string) => http<UnitDocumentsJson>(url(serial), { method: 'POST' }),
     onSuccess: (_r, serial) =>
       Promise.all([
-        queryClient.invalidateQueries({ queryKey: unitKeys.documents(serial) }),
+        queryClient.invalidateQueries({ queryKey: releaseKeys.documents(serial) }),
         queryClient.invalidateQueries({ queryKey: auditKeys.all }),
       ]),
   });
