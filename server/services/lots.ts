@@ -16,6 +16,7 @@ import { Attachment, Nonconformance, PartLot, Supplier, User } from '../models/i
 import { presentAttachment } from './attachments.js';
 import { OPEN_NCR_STATES } from './ncrs/index.js';
 import { plantSettings } from './plant.js';
+import { readsTogether } from '../read/reads-together.js';
 
 /**
  * Purchased lots as receiving logs them. A lot is received once (its code is unique per supplier
@@ -78,25 +79,33 @@ type Context = {
 async function contextOf(lots: PartLot[], transaction?: Transaction): Promise<Context> {
   const ids = lots.map((l) => l.id);
   const codes = [...new Set(lots.map((l) => l.lotCode.toUpperCase()))];
-  const [suppliers, users, certificates, held, siblings] = await Promise.all([
-    Supplier.findAll({ attributes: ['id', 'name'], transaction }),
-    User.findAll({
-      attributes: ['id', 'name'],
-      where: { id: { [Op.in]: lots.map((l) => l.receivedById).filter((x): x is number => x !== null) } },
-      transaction,
-    }),
-    Attachment.findAll({
-      where: { id: { [Op.in]: lots.map((l) => l.certificateAttachmentId).filter((x): x is number => x !== null) } },
-      transaction,
-    }),
-    holdingNcrs(ids, transaction),
-    codes.length
-      ? (PartLot.sequelize as Sequelize).query<{ id: number; supplier_id: number; part_number: string; code: string }>(
-          `SELECT id, supplier_id, part_number, upper(lot_code) AS code FROM part_lots
+  const [suppliers, users, certificates, held, siblings] = await readsTogether(transaction, [
+    () => Supplier.findAll({ attributes: ['id', 'name'], transaction }),
+    () =>
+      User.findAll({
+        attributes: ['id', 'name'],
+        where: { id: { [Op.in]: lots.map((l) => l.receivedById).filter((x): x is number => x !== null) } },
+        transaction,
+      }),
+    () =>
+      Attachment.findAll({
+        where: { id: { [Op.in]: lots.map((l) => l.certificateAttachmentId).filter((x): x is number => x !== null) } },
+        transaction,
+      }),
+    () => holdingNcrs(ids, transaction),
+    () =>
+      codes.length
+        ? (PartLot.sequelize as Sequelize).query<{
+            id: number;
+            supplier_id: number;
+            part_number: string;
+            code: string;
+          }>(
+            `SELECT id, supplier_id, part_number, upper(lot_code) AS code FROM part_lots
             WHERE upper(lot_code) IN (:codes) ORDER BY part_number, id`,
-          { type: QueryTypes.SELECT, replacements: { codes }, transaction },
-        )
-      : Promise.resolve([]),
+            { type: QueryTypes.SELECT, replacements: { codes }, transaction },
+          )
+        : Promise.resolve([]),
   ]);
   const sameCode = new Map<string, { id: number; supplierId: number; partNumber: string }[]>();
   for (const s of siblings) {

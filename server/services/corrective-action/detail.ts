@@ -14,6 +14,7 @@ import { attachmentsOf } from '../attachments.js';
 import { plantToday } from '../plant.js';
 import { presentSignature } from '../signatures.js';
 import { namesOf } from '../warranty/people.js';
+import { readsTogether } from '../../read/reads-together.js';
 
 /**
  * A corrective action as its page reads it: the record, the NCRs and claims it answers, its team,
@@ -124,22 +125,25 @@ async function containmentOf(sequelize: Sequelize, caId: number, t?: Transaction
 export async function caDetail(sequelize: Sequelize, number: string, t?: Transaction): Promise<CaJson> {
   const ca = await CorrectiveAction.findOne({ where: { number }, transaction: t });
   if (!ca) throw notFound(`Corrective action ${number}`);
-  const [tasks, members, sources, containment, evidence, signatures, today] = await Promise.all([
-    CorrectiveActionTask.findAll({ where: { correctiveActionId: ca.id }, order: [['id', 'ASC']], transaction: t }),
-    CorrectiveActionMember.findAll({
-      where: { correctiveActionId: ca.id, removedAt: null },
-      order: [['id', 'ASC']],
-      transaction: t,
-    }),
-    sourcesOf(sequelize, ca.id, t),
-    containmentOf(sequelize, ca.id, t),
-    attachmentsOf('corrective_action', ca.number),
-    Signature.findAll({
-      where: { entity: 'corrective_action', entityId: number },
-      order: [['id', 'ASC']],
-      transaction: t,
-    }),
-    plantToday(t),
+  const [tasks, members, sources, containment, evidence, signatures, today] = await readsTogether(t, [
+    () =>
+      CorrectiveActionTask.findAll({ where: { correctiveActionId: ca.id }, order: [['id', 'ASC']], transaction: t }),
+    () =>
+      CorrectiveActionMember.findAll({
+        where: { correctiveActionId: ca.id, removedAt: null },
+        order: [['id', 'ASC']],
+        transaction: t,
+      }),
+    () => sourcesOf(sequelize, ca.id, t),
+    () => containmentOf(sequelize, ca.id, t),
+    () => attachmentsOf('corrective_action', ca.number),
+    () =>
+      Signature.findAll({
+        where: { entity: 'corrective_action', entityId: number },
+        order: [['id', 'ASC']],
+        transaction: t,
+      }),
+    () => plantToday(t),
   ]);
   const people = await User.findAll({
     where: { id: { [Op.in]: [0, ...members.map((m) => m.userId)] } },

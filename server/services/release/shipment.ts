@@ -3,6 +3,7 @@ import { dateIn, warrantyCover } from '../../../shared/domain/warranty.js';
 import type { ShipmentJson, WarrantyJson } from '../../../shared/schemas/release.js';
 import { Customer, User, type Shipment } from '../../models/index.js';
 import { plantSettings } from '../plant.js';
+import { readsTogether } from '../../read/reads-together.js';
 
 /** A shipment as the trail and the release show it, with its warranty as of today at the plant. */
 
@@ -20,10 +21,10 @@ export function warrantyOf(shipDate: string, months: number, km: number | null, 
 }
 
 export async function presentShipment(s: Shipment, transaction?: Transaction): Promise<ShipmentJson> {
-  const [customer, by, plant] = await Promise.all([
-    s.customerId ? Customer.findByPk(s.customerId, { transaction }) : null,
-    User.findByPk(s.releasedById, { attributes: ['name'], transaction }),
-    plantSettings(transaction),
+  const [customer, by, plant] = await readsTogether(transaction, [
+    () => (s.customerId ? Customer.findByPk(s.customerId, { transaction }) : null),
+    () => User.findByPk(s.releasedById, { attributes: ['name'], transaction }),
+    () => plantSettings(transaction),
   ]);
   const shipDate = s.shipDate ?? dateIn(plant.timeZone, s.shippedAt);
   return {

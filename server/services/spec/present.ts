@@ -4,6 +4,7 @@ import { limitsOf } from '../../../shared/domain/tolerance.js';
 import type { RuleJson, SpecCharacteristicJson } from '../../../shared/schemas/spec.js';
 import { Signature, User, type Characteristic, type ToleranceRule } from '../../models/index.js';
 import { inForceAt, num, sizeClassesOf, toRuleInForce } from './rules.js';
+import { readsTogether } from '../../read/reads-together.js';
 
 /** A rule version and a characteristic as the spec book shows them, with who drafted and signed. */
 
@@ -105,9 +106,9 @@ export function presentCharacteristic(
 }
 
 export async function presentOne(r: ToleranceRule, transaction?: Transaction) {
-  const [names, sigs] = await Promise.all([
-    namesOf([r.createdById, r.approvedById], transaction),
-    signaturesOf([r.id], transaction),
+  const [names, sigs] = await readsTogether(transaction, [
+    () => namesOf([r.createdById, r.approvedById], transaction),
+    () => signaturesOf([r.id], transaction),
   ]);
   return presentRule(r, names, sigs);
 }

@@ -30,6 +30,7 @@ import { presentSignature } from '../signatures.js';
 import { daysBetween, nextStep, shipDateOf } from './common.js';
 import { namesOf } from './people.js';
 import { presentCause } from './cause-codes.js';
+import { readsTogether } from '../../read/reads-together.js';
 
 /**
  * One claim as its page shows it: the facts, the coverage as it was said, every signed step, and
@@ -67,17 +68,18 @@ export async function lotsOfUnit(sequelize: Sequelize, unitId: number, t?: Trans
 
 /** Every result of these items with its readings, and per item the characteristics measured on it. */
 export async function builtRecords(sequelize: Sequelize, itemIds: number[], t?: Transaction) {
-  const [items, results, ref] = await Promise.all([
-    Item.findAll({ where: { id: { [Op.in]: itemIds } }, transaction: t }),
-    StageResult.findAll({
-      where: { itemId: { [Op.in]: itemIds } },
-      order: [
-        ['finishedAt', 'ASC'],
-        ['id', 'ASC'],
-      ],
-      transaction: t,
-    }),
-    referenceData(sequelize, t),
+  const [items, results, ref] = await readsTogether(t, [
+    () => Item.findAll({ where: { id: { [Op.in]: itemIds } }, transaction: t }),
+    () =>
+      StageResult.findAll({
+        where: { itemId: { [Op.in]: itemIds } },
+        order: [
+          ['finishedAt', 'ASC'],
+          ['id', 'ASC'],
+        ],
+        transaction: t,
+      }),
+    () => referenceData(sequelize, t),
   ]);
   const records = await loadResultRecords(results, items, { ref });
   const byItem = groupBy(results, (r) => r.itemId);
@@ -167,48 +169,52 @@ type Loaded = Awaited<ReturnType<typeof loadClaim>>;
 /** Everything the claim's page shows, in three rounds of reads. */
 async function loadClaim(sequelize: Sequelize, claim: WarrantyClaim, t?: Transaction) {
   const number = claim.number;
-  const [unit, shipment, customer, findings, signatures, plant, cas] = await Promise.all([
-    Item.findByPk(claim.unitItemId, { transaction: t }),
-    Shipment.findByPk(claim.shipmentId, { transaction: t }),
-    Customer.findByPk(claim.customerId, { transaction: t }),
-    WarrantyFinding.findAll({ where: { claimId: claim.id }, order: [['id', 'ASC']], transaction: t }),
-    Signature.findAll({
-      where: { entity: 'warranty_claim', entityId: number },
-      order: [['id', 'ASC']],
-      transaction: t,
-    }),
-    plantSettings(t),
-    sequelize.query<{ number: string; title: string; state: 'open' | 'closed' }>(
-      `SELECT ca.number, ca.title, ca.state FROM corrective_action_sources s
+  const [unit, shipment, customer, findings, signatures, plant, cas] = await readsTogether(t, [
+    () => Item.findByPk(claim.unitItemId, { transaction: t }),
+    () => Shipment.findByPk(claim.shipmentId, { transaction: t }),
+    () => Customer.findByPk(claim.customerId, { transaction: t }),
+    () => WarrantyFinding.findAll({ where: { claimId: claim.id }, order: [['id', 'ASC']], transaction: t }),
+    () =>
+      Signature.findAll({
+        where: { entity: 'warranty_claim', entityId: number },
+        order: [['id', 'ASC']],
+        transaction: t,
+      }),
+    () => plantSettings(t),
+    () =>
+      sequelize.query<{ number: string; title: string; state: 'open' | 'closed' }>(
+        `SELECT ca.number, ca.title, ca.state FROM corrective_action_sources s
          JOIN corrective_actions ca ON ca.id = s.corrective_action_id
         WHERE s.warranty_claim_id = :id ORDER BY ca.id`,
-      { type: QueryTypes.SELECT, replacements: { id: claim.id }, transaction: t },
-    ),
+        { type: QueryTypes.SELECT, replacements: { id: claim.id }, transaction: t },
+      ),
   ]);
   const family = (await EngineFamily.findByPk(unit!.engineFamilyId, { transaction: t }))!;
-  const [fitted, lots, causes, photos, shipCustomer, name] = await Promise.all([
-    partsAtShipment(sequelize, unit!.id, shipment!.id, t),
-    lotsOfUnit(sequelize, unit!.id, t),
-    CauseCode.findAll({ where: { id: { [Op.in]: [0, ...findings.map((f) => f.causeCodeId)] } }, transaction: t }),
-    findings.length
-      ? Attachment.findAll({
-          where: { entity: 'warranty_finding', entityId: { [Op.in]: findings.map((f) => String(f.id)) } },
-          order: [['id', 'ASC']],
-          transaction: t,
-        })
-      : [],
-    shipment!.customerId ? Customer.findByPk(shipment!.customerId, { transaction: t }) : null,
-    namesOf(
-      [
-        claim.openedById,
-        claim.returnedById,
-        claim.tornDownById,
-        claim.decidedById,
-        claim.closedById,
-        ...findings.map((f) => f.recordedById),
-      ],
-      t,
-    ),
+  const [fitted, lots, causes, photos, shipCustomer, name] = await readsTogether(t, [
+    () => partsAtShipment(sequelize, unit!.id, shipment!.id, t),
+    () => lotsOfUnit(sequelize, unit!.id, t),
+    () => CauseCode.findAll({ where: { id: { [Op.in]: [0, ...findings.map((f) => f.causeCodeId)] } }, transaction: t }),
+    () =>
+      findings.length
+        ? Attachment.findAll({
+            where: { entity: 'warranty_finding', entityId: { [Op.in]: findings.map((f) => String(f.id)) } },
+            order: [['id', 'ASC']],
+            transaction: t,
+          })
+        : [],
+    () => (shipment!.customerId ? Customer.findByPk(shipment!.customerId, { transaction: t }) : null),
+    () =>
+      namesOf(
+        [
+          claim.openedById,
+          claim.returnedById,
+          claim.tornDownById,
+          claim.decidedById,
+          claim.closedById,
+          ...findings.map((f) => f.recordedById),
+        ],
+        t,
+      ),
   ]);
   const records = await builtRecords(
     sequelize,
