@@ -30,6 +30,7 @@ import * as m20261204174500 from './20261204174500-result-taken-at.js';
 import * as m20261204183500 from './20261204183500-core-salvage.js';
 import * as m20261204184000 from './20261204184000-result-values-cover.js';
 import * as m20261205030000 from './20261205030000-stage-run-test.js';
+import * as m20261205140000 from './20261205140000-yield-days-cover.js';
 
 type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -68,4 +69,5 @@ export const MIGRATIONS: Migration[] = [
   { name: '20261204183500-core-salvage', ...m20261204183500 },
   { name: '20261204184000-result-values-cover', ...m20261204184000 },
   { name: '20261205030000-stage-run-test', ...m20261205030000 },
+  { name: '20261205140000-yield-days-cover', ...m20261205140000 },
 ];
